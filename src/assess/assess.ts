@@ -1,0 +1,22 @@
+// A routed outlet judged against the case: checks, warnings, compliance and the binding check.
+import type { Case } from "../case/model.js";
+import type { CaseRouting } from "../routing/routeCase.js";
+import { bindingCheck, evaluateChecks, type Check } from "./checks.js";
+import { outletWarnings, type Warning } from "./warnings.js";
+
+export interface Assessment {
+  checks: Check[];
+  warnings: Warning[];
+  compliant: boolean;
+  binding: Check | undefined;
+}
+
+export function assess(c: Case, routing: CaseRouting): Assessment {
+  const checks = evaluateChecks(c, routing.outlet, routing.storms);
+  return {
+    checks,
+    warnings: outletWarnings(c, routing.outlet, routing),
+    compliant: checks.every((check) => check.passed),
+    binding: bindingCheck(checks),
+  };
+}

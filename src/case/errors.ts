@@ -1,0 +1,40 @@
+// Errors a user can cause: each names where (JSON path or file:line), the value found and what was expected.
+
+export interface Problem {
+  /** "case.json: pond.storage.prismoid.length" or "inflow-2yr.csv:14". */
+  where: string;
+  found: string;
+  expected: string;
+}
+
+export class CaseError extends Error {
+  readonly problems: Problem[];
+  constructor(problems: Problem[]) {
+    super(problems.map(formatProblem).join("\n"));
+    this.name = "CaseError";
+    this.problems = problems;
+  }
+}
+
+export function formatProblem(p: Problem): string {
+  return `${p.where}: found ${p.found}, expected ${p.expected}`;
+}
+
+/** A short printable form of a value found in the input. */
+export function show(value: unknown): string {
+  if (value === undefined) return "nothing";
+  if (typeof value === "string") return JSON.stringify(value);
+  if (typeof value === "number" || typeof value === "boolean" || value === null) return String(value);
+  const text = JSON.stringify(value);
+  return text.length > 60 ? text.slice(0, 57) + "..." : text;
+}
+
+/** Formats a JSON path such as ["storms", 0, "inflow"] as storms[0].inflow. */
+export function jsonPath(path: readonly PropertyKey[]): string {
+  let out = "";
+  for (const key of path) {
+    if (typeof key === "number") out += `[${key}]`;
+    else out += (out ? "." : "") + String(key);
+  }
+  return out || "(top level)";
+}

@@ -1,0 +1,86 @@
+// Loads a case file: JSON -> zod validation -> checks across fields -> SI model.
+import { readFileSync } from "node:fs";
+import { basename, dirname, resolve } from "node:path";
+import type { z } from "zod";
+import { caseSchema, type CaseFile } from "./schema.js";
+import { CaseError, jsonPath, show, type Problem } from "./errors.js";
+import { normalizeCase } from "./normalize.js";
+import type { Case } from "./model.js";
+import { unknownFields } from "./unknownFields.js";
+
+export interface LoadedCase {
+  case: Case;
+  /** Fields the contract does not know, reported but not fatal. */
+  notices: string[];
+}
+
+/** Reads and validates a case file; throws CaseError naming every problem found. */
+export function loadCase(path: string): LoadedCase {
+  const file = resolve(path);
+  const label = basename(file);
+  let text: string;
+  try {
+    text = readFileSync(file, "utf8");
+  } catch (error) {
+    throw new CaseError([{ where: path, found: describeIoError(error), expected: "a readable case file (JSON)" }]);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    const message = error instanceof Error ? error.message : String(error);
+    throw new CaseError([{ where: label, found: `text that is not JSON (${message})`, expected: "a JSON case file" }]);
+  }
+  return parseCase(json, { file, label });
+}
+
+export interface ParseOptions {
+  /** Absolute path of the case file; CSV inflows are found relative to it. */
+  file?: string;
+  /** Name used in messages. */
+  label?: string;
+}
+
+/** Validates a parsed JSON value as a case. */
+export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase {
+  const file = options.file ?? "";
+  const label = options.label ?? (file ? basename(file) : "case");
+  const result = caseSchema.safeParse(json, { reportInput: true });
+  if (!result.success) throw new CaseError(result.error.issues.slice(0, 12).map((issue) => fromIssue(issue, label)));
+  const notices = unknownFields(caseSchema, json).map((p) => `${label}: ${p}: field not in the case format, ignored`);
+  const data: CaseFile = result.data;
+  return { case: normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd() }), notices };
+}
+
+function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {
+  const where = `${label}: ${jsonPath(issue.path)}`;
+  const input = (issue as { input?: unknown }).input;
+  const custom = !issue.message.startsWith("Invalid") && !issue.message.startsWith("Too ");
+  const found = input === undefined ? "nothing (the field is missing)" : show(input);
+  switch (issue.code) {
+    case "invalid_type":
+      return { where, found, expected: custom ? issue.message : `a value of type ${issue.expected}` };
+    case "invalid_value":
+      return {
+        where,
+        found,
+        expected: custom ? issue.message : `one of ${issue.values.map((v) => show(v)).join(", ")}`,
+      };
+    case "too_small":
+      return {
+        where,
+        found: Array.isArray(input) ? `${input.length} entries` : found,
+        expected: custom ? issue.message : `at least ${String(issue.minimum)}`,
+      };
+    default:
+      return { where, found, expected: custom ? issue.message : issue.message.replace(/^Invalid input:?\s*/i, "") };
+  }
+}
+
+function describeIoError(error: unknown): string {
+  const code = (error as { code?: string }).code;
+  if (code === "ENOENT") return "no such file";
+  if (code === "EISDIR") return "a directory";
+  if (code === "EACCES") return "a file that cannot be read (permission denied)";
+  return error instanceof Error ? error.message : String(error);
+}

@@ -1,0 +1,163 @@
+// The case as outfit computes with it: every quantity in SI (m, m2, m3, m3/s, s).
+import type { UnitSystem } from "../units.js";
+
+export type Storage =
+  | { kind: "prismoid"; length: number; width: number; sideSlope: number }
+  | { kind: "stageArea"; elevations: number[]; areas: number[] }
+  | { kind: "stageStorage"; elevations: number[]; volumes: number[] };
+
+export interface Pond {
+  bottom: number;
+  top: number;
+  /** Normal water level; equals `bottom` for a dry pond. */
+  pool: number;
+  storage: Storage;
+}
+
+export type Tailwater =
+  | { kind: "free" }
+  | { kind: "elevation"; elevation: number }
+  /** Downstream channel rating: elevation by the pond's total outflow. */
+  | { kind: "rating"; flows: number[]; elevations: number[] };
+
+export interface Hydrograph {
+  /** Seconds from the start of the storm, strictly increasing. */
+  times: Float64Array;
+  /** m3/s, linear between points, zero after the last. */
+  flows: Float64Array;
+}
+
+export interface Storm {
+  name: string;
+  returnPeriod: number;
+  /** Allowable peak outflow, m3/s; null when the storm has no target. */
+  target: number | null;
+  inflow: Hydrograph;
+}
+
+export interface Criteria {
+  over: number;
+  under: number;
+  freeboardDepth: number;
+  freeboardStorm: string;
+  /** Hours allowed to drain after the peak stage; null when there is no drawdown rule. */
+  drawdownHours: number | null;
+  drawdownDepth: number;
+  /** Storms with a return period up to this many years must not reach the spillway crest. */
+  spillwayDryThrough: number;
+}
+
+export interface CircularOrifice {
+  type: "orifice";
+  shape: "circular";
+  diameter: number;
+  count: number;
+  invert: number;
+  coefficient: number;
+  keep: boolean;
+}
+export interface RectangularOrifice {
+  type: "orifice";
+  shape: "rectangular";
+  width: number;
+  height: number;
+  count: number;
+  invert: number;
+  coefficient: number;
+  keep: boolean;
+}
+export interface RectangularWeir {
+  type: "weir";
+  shape: "rectangular";
+  length: number;
+  crest: number;
+  endContractions: 0 | 1 | 2;
+  /** Francis coefficient, SI (m^0.5/s). */
+  coefficient: number;
+  keep: boolean;
+}
+export interface VNotchWeir {
+  type: "weir";
+  shape: "v-notch";
+  /** Notch angle, degrees. */
+  angle: number;
+  crest: number;
+  /** SI (m^0.5/s). */
+  coefficient: number;
+  keep: boolean;
+}
+export interface Regulator {
+  type: "regulator";
+  invert: number;
+  /** Rating points: head above invert (m) and flow (m3/s). */
+  heads: number[];
+  flows: number[];
+  keep: boolean;
+}
+export type Orifice = CircularOrifice | RectangularOrifice;
+export type Weir = RectangularWeir | VNotchWeir;
+export type Element = Orifice | Weir | Regulator;
+
+export type Riser = (
+  | { shape: "circular"; diameter: number }
+  | { shape: "box"; length: number; width: number }
+) & {
+  crest: number;
+  /** Rim weir coefficient, SI. */
+  coefficient: number;
+  /** Discharge coefficient of the top opening. */
+  orificeCoefficient: number;
+  keep: boolean;
+};
+
+export type Barrel = ({ shape: "circular"; diameter: number } | { shape: "box"; span: number; rise: number }) & {
+  length: number;
+  inletInvert: number;
+  outletInvert: number;
+  manningN: number;
+  entrance: string;
+  keep: boolean;
+};
+
+export interface Spillway {
+  crest: number;
+  length: number;
+  sideSlope: number;
+  /** SI (m^0.5/s). */
+  coefficient: number;
+  keep: boolean;
+}
+
+export interface Outlet {
+  elements: Element[];
+  riser?: Riser;
+  barrel?: Barrel;
+  spillway?: Spillway;
+}
+
+export interface Catalogue {
+  orificeDiameters: number[];
+  maxCount: number;
+  weirShapes: ("rectangular" | "v-notch")[];
+  weirLengths: number[];
+  weirAngles: number[];
+  riserDiameters: number[];
+  barrelDiameters: number[];
+  maxStages: number;
+  elevationStep: number;
+}
+
+export interface Case {
+  name: string;
+  units: UnitSystem;
+  /** Absolute path of the case file ("" when built in memory). */
+  file: string;
+  pond: Pond;
+  tailwater: Tailwater;
+  storms: Storm[];
+  criteria: Criteria;
+  outlet?: Outlet;
+  catalogue?: Catalogue;
+  /** Cost weights given in the case (the search documents the defaults). */
+  costs: Record<string, number>;
+}

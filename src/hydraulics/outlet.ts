@@ -1,0 +1,128 @@
+// The whole outlet at one pond stage: openings (elements) and the riser rim discharge into the
+// chamber, which the barrel drains; without a barrel they discharge straight to tailwater. The
+// spillway always discharges straight downstream. No reverse flow: a downstream level above the
+// pond stage gives zero outflow.
+import type { Element, Outlet, Tailwater } from "../case/model.js";
+import { orificeFlow } from "./orifice.js";
+import { weirFlow } from "./weir.js";
+import { regulatorFlow } from "./regulator.js";
+import { rimFlow } from "./riser.js";
+import { spillwayFlow } from "./spillway.js";
+import { tailwaterLevel } from "./tailwater.js";
+import { chamberLevel, type ChamberSolution } from "./chamber.js";
+
+export function elementFlow(e: Element, ws: number, ds: number): number {
+  switch (e.type) {
+    case "orifice":
+      return orificeFlow(e, ws, ds);
+    case "weir":
+      return weirFlow(e, ws, ds);
+    case "regulator":
+      return regulatorFlow(e, ws, ds);
+  }
+}
+
+/** Flow in through every opening and the rim for a downstream (chamber or tailwater) level. */
+export function openingsFlow(outlet: Outlet, ws: number, ds: number): number {
+  let q = 0;
+  const elements = outlet.elements;
+  for (let i = 0; i < elements.length; i++) q += elementFlow(elements[i], ws, ds);
+  if (outlet.riser) q += rimFlow(outlet.riser, ws, ds).flow;
+  return q;
+}
+
+/** Total outflow for a given tailwater level (-Infinity for a free outfall). */
+export function dischargeAtTailwater(outlet: Outlet, ws: number, tw: number): number {
+  const spill = outlet.spillway ? spillwayFlow(outlet.spillway, ws, tw) : 0;
+  if (outlet.barrel) return chamberLevel(outlet, ws, tw).flow + spill;
+  return openingsFlow(outlet, ws, tw) + spill;
+}
+
+/** Total outflow of the pond at a stage (m3/s). */
+export function outletDischarge(outlet: Outlet, tail: Tailwater, ws: number): number {
+  if (tail.kind !== "rating") return dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
+  return solveWithTailwaterRating(outlet, tail, ws);
+}
+
+/**
+ * With a downstream channel rating the tailwater depends on the outflow itself: find O with
+ * O = discharge(ws, TW(O)). The right side falls as O rises, so the root is unique; bisection.
+ */
+function solveWithTailwaterRating(outlet: Outlet, tail: Tailwater, ws: number): number {
+  let low = 0;
+  let high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
+  if (high <= 0) return 0;
+  for (let i = 0; i < 60 && high - low > 1e-12 * (1 + high); i++) {
+    const mid = 0.5 * (low + high);
+    if (dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, mid)) > mid) low = mid;
+    else high = mid;
+  }
+  return 0.5 * (low + high);
+}
+
+/** What limits the flow at a stage, in words an engineer uses. */
+export type Control =
+  | "no flow"
+  | "openings free"
+  | "openings submerged by tailwater"
+  | "rim weir flow"
+  | "rim orifice flow"
+  | "barrel inlet control"
+  | "barrel outlet control"
+  | "spillway";
+
+export interface OutletDetail {
+  stage: number;
+  total: number;
+  /** Flow of each element, in the order of outlet.elements. */
+  elements: number[];
+  rim: number;
+  spillway: number;
+  /** Flow through the barrel (= openings + rim) when there is one. */
+  barrel: number | null;
+  /** Chamber level when a barrel drains the chamber. */
+  chamber: number | null;
+  /** Tailwater level, null for a free outfall. */
+  tailwater: number | null;
+  control: Control;
+}
+
+/** Every part's flow at a stage, the chamber and tailwater levels, and the governing control. */
+export function outletDetail(outlet: Outlet, tail: Tailwater, ws: number): OutletDetail {
+  const total = outletDischarge(outlet, tail, ws);
+  const twRaw = tailwaterLevel(tail, total);
+  const tw = Number.isFinite(twRaw) ? twRaw : null;
+  let ds = twRaw;
+  let chamber: ChamberSolution | null = null;
+  if (outlet.barrel) {
+    chamber = chamberLevel(outlet, ws, twRaw);
+    ds = chamber.level;
+  }
+  const elements = outlet.elements.map((e) => elementFlow(e, ws, ds));
+  const rim = outlet.riser ? rimFlow(outlet.riser, ws, ds) : { flow: 0, orificeControls: false };
+  const spillway = outlet.spillway ? spillwayFlow(outlet.spillway, ws, twRaw) : 0;
+  const openings = elements.reduce((a, b) => a + b, 0) + rim.flow;
+  let control: Control;
+  if (total <= 0) control = "no flow";
+  else if (spillway > openings) control = "spillway";
+  else if (chamber && chamber.control !== "openings free") control = chamber.control;
+  else if (rim.flow > 0 && rim.flow >= 0.5 * openings) control = rim.orificeControls ? "rim orifice flow" : "rim weir flow";
+  else if (!chamber && tw !== null && outlet.elements.some((e) => elementBottom(e) < tw)) control = "openings submerged by tailwater";
+  else control = "openings free";
+  return {
+    stage: ws,
+    total,
+    elements,
+    rim: rim.flow,
+    spillway,
+    barrel: chamber ? chamber.flow : null,
+    chamber: chamber ? chamber.level : null,
+    tailwater: tw,
+    control,
+  };
+}
+
+/** Lowest point of an element's opening (invert or crest). */
+export function elementBottom(e: Element): number {
+  return e.type === "weir" ? e.crest : e.invert;
+}

@@ -1,0 +1,13 @@
+// Broad-crested trapezoidal overflow spillway: Q = C (L H^1.5 + 0.8 z H^2.5) (case-format
+// contract; the first term is HEC-22 eq 8-22 / 8-26, the second the side slopes' share).
+// Default C 2.8 US / 1.55 SI, within HEC-22 Table 8-1 (Brater & King). Villemonte n = 1.5 when the
+// tailwater stands above the crest.
+import type { Spillway } from "../case/model.js";
+import { villemonte } from "./submergence.js";
+
+export function spillwayFlow(s: Spillway, ws: number, tw: number): number {
+  const head = ws - s.crest;
+  if (head <= 0 || tw >= ws) return 0;
+  const free = s.coefficient * (s.length * Math.pow(head, 1.5) + 0.8 * s.sideSlope * Math.pow(head, 2.5));
+  return villemonte(free, head, tw - s.crest, 1.5);
+}

@@ -1,0 +1,8 @@
+// Villemonte (1947) submerged weir reduction, Engineering News-Record 139:866-869 (HEC-22 eq 8-21):
+// Q = Qfree (1 - (Hd/H)^n)^0.385, n = 1.5 rectangular weir, rim and spillway, 2.5 v-notch.
+
+export function villemonte(freeFlow: number, head: number, downstreamHead: number, exponent: number): number {
+  if (downstreamHead <= 0) return freeFlow;
+  if (downstreamHead >= head) return 0;
+  return freeFlow * Math.pow(1 - Math.pow(downstreamHead / head, exponent), 0.385);
+}

@@ -1,0 +1,131 @@
+// Aligned console tables with a unit on every number.
+import Table from "cli-table3";
+import type { Case } from "../case/model.js";
+import type { CaseRouting } from "../routing/routeCase.js";
+import type { Assessment } from "../assess/assess.js";
+import type { Check } from "../assess/checks.js";
+import { formatter, significant, type Formatter } from "../format.js";
+import { outletDetail } from "../hydraulics/outlet.js";
+import { withinBand } from "./json.js";
+import { CAUTION } from "./caution.js";
+import { describeOutlet } from "./describe.js";
+
+/** A borderless table: columns separated by two spaces. */
+export function plainTable(head: string[], alignRight: boolean[] = []): Table.Table {
+  return new Table({
+    head,
+    chars: {
+      top: "", "top-mid": "", "top-left": "", "top-right": "",
+      bottom: "", "bottom-mid": "", "bottom-left": "", "bottom-right": "",
+      left: "", "left-mid": "", mid: "", "mid-mid": "",
+      right: "", "right-mid": "", middle: "  ",
+    },
+    style: { head: [], border: [], "padding-left": 0, "padding-right": 0 },
+    colAligns: head.map((_, i) => (alignRight[i] ? "right" : "left")),
+  });
+}
+
+export function hours(h: number | null): string {
+  return h === null ? "not drained" : `${h.toFixed(1)} h`;
+}
+
+export function percent(x: number, digits = 1): string {
+  return `${(100 * x).toFixed(digits)} %`;
+}
+
+/** Per-storm table of a routed outlet. */
+export function stormTable(c: Case, routing: CaseRouting): string {
+  const f = formatter(c.units);
+  const table = plainTable(
+    ["Storm", "Return", "Peak in", "Peak out", "Target", "Out/target", "Max stage", "Freeboard left", "Drawdown", "At peak stage"],
+    [false, true, true, true, true, true, true, true, true, false],
+  );
+  for (const { storm, result } of routing.storms) {
+    const inBand = withinBand(c, result.peakOutflow, storm.target);
+    const detail = outletDetail(routing.outlet, c.tailwater, result.maxStage);
+    table.push([
+      storm.name,
+      `${storm.returnPeriod} yr`,
+      f.flow(result.peakInflow),
+      f.flow(result.peakOutflow),
+      storm.target === null ? "none" : f.flow(storm.target),
+      storm.target ? `${percent(result.peakOutflow / storm.target)}${inBand ? "" : " !"}` : "-",
+      f.elevation(result.maxStage),
+      f.length(c.pond.top - result.maxStage),
+      hours(result.drawdownTime === null ? null : result.drawdownTime / 3600),
+      detail.control,
+    ]);
+  }
+  return table.toString();
+}
+
+export function checkValue(c: Case, check: Check, value: number | null): string {
+  const f = formatter(c.units);
+  if (value === null) return "not drained";
+  switch (check.kind) {
+    case "peak-upper":
+    case "peak-lower":
+      return f.flow(value);
+    case "drawdown":
+      return `${value.toFixed(1)} h`;
+    default:
+      return f.elevation(value);
+  }
+}
+
+export function checksTable(c: Case, checks: readonly Check[]): string {
+  const table = plainTable(["Check", "Value", "Limit", "Slack", "Result"], [false, true, true, true, false]);
+  for (const check of checks) {
+    table.push([check.name, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
+  }
+  return table.toString();
+}
+
+function limitWord(check: Check): string {
+  return check.kind === "peak-lower" ? ">=" : "<=";
+}
+
+export function warningsText(assessment: Assessment): string {
+  if (assessment.warnings.length === 0) return "Warnings: none";
+  return ["Warnings:", ...assessment.warnings.map((w) => `  - ${w.part}: ${w.reason}`)].join("\n");
+}
+
+export function verdictText(c: Case, assessment: Assessment): string {
+  const b = assessment.binding;
+  const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks";
+  return `${assessment.compliant ? "Compliant" : "NOT compliant"}; ${binding}`;
+}
+
+export function routeReport(c: Case, routing: CaseRouting, assessment: Assessment, verbose: string[] = []): string {
+  const f = formatter(c.units);
+  const lines = [
+    `outfit route: ${c.name} (${c.units} units)`,
+    `Outlet: ${describeOutlet(routing.outlet, f)}`,
+    `Pond: bottom ${f.elevation(c.pond.bottom)}, top ${f.elevation(c.pond.top)}${c.pond.pool > c.pond.bottom ? `, permanent pool ${f.elevation(c.pond.pool)}` : ""}`,
+    "",
+    stormTable(c, routing),
+    "",
+    checksTable(c, assessment.checks),
+    "",
+    warningsText(assessment),
+    ...(verbose.length ? ["", ...verbose] : []),
+    "",
+    verdictText(c, assessment),
+    "",
+    `Caution: ${CAUTION}`,
+  ];
+  return lines.join("\n");
+}
+
+/** What the automatic step did for each storm (verbose output). */
+export function routingNotes(c: Case, routing: CaseRouting): string[] {
+  const f: Formatter = formatter(c.units);
+  return routing.storms.map(({ storm, result }) => {
+    const refined = result.refinedSteps > 0 ? `; ${result.refinedSteps} steps shortened where the outflow changes fast relative to storage` : "";
+    return `${storm.name}: ${result.steps} steps of ${stepText(result.smallestStep)} to ${stepText(result.largestStep)} over ${(result.duration / 3600).toFixed(1)} h${refined}; mass balance error ${significant(100 * result.massBalanceError)} %; rating table ${routing.table.stage.length} stages to ${f.elevation(routing.table.stage[routing.table.stage.length - 1])}`;
+  });
+}
+
+function stepText(seconds: number): string {
+  return seconds < 120 ? `${significant(seconds)} s` : `${significant(seconds / 60)} min`;
+}

@@ -1,0 +1,111 @@
+// JSON output in the case's units, with the fields the case-format contract names.
+import type { Case } from "../case/model.js";
+import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
+import type { Assessment } from "../assess/assess.js";
+import type { Check } from "../assess/checks.js";
+import { toCaseUnits } from "../units.js";
+import { CAUTION } from "./caution.js";
+import { outletToFile } from "./outletFile.js";
+
+export interface StormJson {
+  name: string;
+  returnPeriod: number;
+  target: number | null;
+  peakInflow: number;
+  peakOutflow: number;
+  timeOfPeakOutflow: number;
+  maxStage: number;
+  maxStorage: number;
+  ratio: number | null;
+  withinTolerance: boolean | null;
+  volumeIn: number;
+  volumeOut: number;
+  massBalanceError: number;
+  drawdownHours: number | null;
+  timeOfMaxStage: number;
+  steps: number;
+}
+
+/** Whether a peak lies inside its target band (band edges count as inside). */
+export function withinBand(c: Case, peak: number, target: number | null): boolean | null {
+  if (target === null) return null;
+  const eps = 1e-9 * Math.max(target, 1e-12);
+  return peak <= target * (1 + c.criteria.over) + eps && peak >= target * (1 - c.criteria.under) - eps;
+}
+
+export function stormJson(c: Case, s: StormRouting): StormJson {
+  const u = toCaseUnits(c.units);
+  const r = s.result;
+  const target = s.storm.target;
+  return {
+    name: s.storm.name,
+    returnPeriod: s.storm.returnPeriod,
+    target: target === null ? null : u.flow(target),
+    peakInflow: u.flow(r.peakInflow),
+    peakOutflow: u.flow(r.peakOutflow),
+    timeOfPeakOutflow: r.timeOfPeakOutflow / 60,
+    maxStage: u.length(r.maxStage),
+    maxStorage: u.volume(r.maxStorage),
+    ratio: target === null || target === 0 ? null : r.peakOutflow / target,
+    withinTolerance: withinBand(c, r.peakOutflow, target),
+    volumeIn: u.volume(r.volumeIn),
+    volumeOut: u.volume(r.volumeOut),
+    massBalanceError: r.massBalanceError,
+    drawdownHours: r.drawdownTime === null ? null : r.drawdownTime / 3600,
+    timeOfMaxStage: r.timeOfMaxStage / 60,
+    steps: r.steps,
+  };
+}
+
+export interface CheckJson {
+  name: string;
+  kind: string;
+  storm: string;
+  passed: boolean;
+  value: number | null;
+  limit: number;
+  slack: number;
+  unit: string;
+}
+
+export function checkJson(c: Case, check: Check): CheckJson {
+  const u = toCaseUnits(c.units);
+  const labels = c.units === "US" ? { flow: "cfs", length: "ft" } : { flow: "m3/s", length: "m" };
+  const flow = check.kind === "peak-upper" || check.kind === "peak-lower";
+  const hours = check.kind === "drawdown";
+  const convert = (x: number) => (flow ? u.flow(x) : hours ? x : u.length(x));
+  return {
+    name: check.name,
+    kind: check.kind,
+    storm: check.storm,
+    passed: check.passed,
+    value: check.value === null ? null : convert(check.value),
+    limit: convert(check.limit),
+    slack: check.slack,
+    unit: flow ? labels.flow : hours ? "h" : labels.length,
+  };
+}
+
+/** Per-storm results, checks, warnings and compliance of one routed outlet. */
+export function assessmentJson(c: Case, routing: CaseRouting, assessment: Assessment) {
+  return {
+    storms: routing.storms.map((s) => stormJson(c, s)),
+    checks: assessment.checks.map((check) => checkJson(c, check)),
+    warnings: assessment.warnings,
+    compliant: assessment.compliant,
+    binding: assessment.binding ? checkJson(c, assessment.binding) : null,
+  };
+}
+
+export function routeJson(c: Case, routing: CaseRouting, assessment: Assessment, extra: Record<string, unknown> = {}) {
+  return {
+    tool: "outfit",
+    command: "route",
+    case: c.name,
+    units: c.units,
+    caution: CAUTION,
+    outlet: outletToFile(routing.outlet, c.units),
+    ...assessmentJson(c, routing, assessment),
+    ...extra,
+  };
+}
