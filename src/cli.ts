@@ -5,6 +5,7 @@ import { Command, CommanderError } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { isUserError } from "./commands/common.js";
+import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
 
 const version = (JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version: string }).version;
@@ -72,6 +73,33 @@ Examples:
   outfit rate cases/demo/case.json --step 0.5 --csv --out rating.csv`,
   )
   .action((file: string, options) => run(() => rateCommand(file, options)));
+
+program
+  .command("design")
+  .description("propose, rank and explain outlets built from the case's catalogue that meet every storm's target and rule")
+  .argument("<case>", "case file (JSON) with a catalogue")
+  .option("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit")
+  .option("--budget <routings>", "most storm routings the search may spend", "20000")
+  .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible)")
+  .option("--top <n>", "candidates to report, explain and write", "5")
+  .option("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2")
+  .option("--starts <n>", "seeded starts of the elevation fit per layout", "3")
+  .option("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3")
+  .option("--json", "print the results as JSON (each candidate's outlet in case-file form)")
+  .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
+  .option("--resume", "with --out: skip the layouts the directory's journal already holds")
+  .option("--progress", "show progress on the terminal")
+  .addHelpText(
+    "after",
+    `
+Examples:
+  outfit design cases/demo/case.json
+  outfit design cases/demo/case.json --top 3 --out results/demo
+  outfit route results/demo/candidate-01.json          # re-route a proposal
+  outfit design cases/demo/case.json --budget 200000 --out results/night --progress
+  outfit design cases/demo/case.json --budget 400000 --out results/night --resume`,
+  )
+  .action((file: string, options) => run(() => designCommand(file, options)));
 
 try {
   program.parse();

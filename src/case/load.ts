@@ -10,6 +10,10 @@ import { unknownFields } from "./unknownFields.js";
 
 export interface LoadedCase {
   case: Case;
+  /** The validated file, in the case's own units (the search writes candidates from it). */
+  data: CaseFile;
+  /** The JSON exactly as read (candidate case files copy it with a new outlet). */
+  json: unknown;
   /** Fields the contract does not know, reported but not fatal. */
   notices: string[];
 }
@@ -49,7 +53,7 @@ export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase
   if (!result.success) throw new CaseError(result.error.issues.slice(0, 12).map((issue) => fromIssue(issue, label)));
   const notices = unknownFields(caseSchema, json).map((p) => `${label}: ${p}: field not in the case format, ignored`);
   const data: CaseFile = result.data;
-  return { case: normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd() }), notices };
+  return { case: normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd() }), data, json, notices };
 }
 
 function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {

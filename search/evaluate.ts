@@ -1,0 +1,127 @@
+// Evaluates a design: builds its outlet, rates it on the shared grid, routes the storms and turns
+// every check's slack into a residual. The fit is driven by the checks generically, so a rule added
+// to the assessment later needs no change here.
+import type { Outlet, Storm } from "../src/case/model.js";
+import type { OutletFile } from "../src/case/schema.js";
+import { buildRatingTable } from "../src/routing/ratingTable.js";
+import { route } from "../src/routing/router.js";
+import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
+import { evaluateChecks, type Check } from "../src/assess/checks.js";
+import { aimBand, type SearchProblem } from "./problem.js";
+import { designOutlet, designOutletFile, elevations, type Layout } from "./layout.js";
+import { baseLength } from "../src/units.js";
+
+export interface Evaluation {
+  vars: number[];
+  file: OutletFile;
+  outlet: Outlet;
+  storms: StormRouting[];
+  checks: Check[];
+  residuals: number[];
+  /** Sum of squared residuals. */
+  objective: number;
+  /** Every check passes (the full band, not the aim). */
+  compliant: boolean;
+  /** Geometric rules broken (ordering, openings above the rim, outside the elevation limits). */
+  violations: number;
+}
+
+/** Weight of geometric violations, per pond depth of violation. */
+const GEOMETRY_WEIGHT = 20;
+
+export class Evaluator {
+  /** Storms routed so far (one storm through one rating = one routing). */
+  routings = 0;
+  evaluations = 0;
+  private readonly drained: number;
+  constructor(readonly problem: SearchProblem) {
+    this.drained = drainedStage(problem.case);
+  }
+
+  /** Routes the given storms through an outlet on the search grid. */
+  routeStorms(outlet: Outlet, storms: readonly Storm[]): StormRouting[] {
+    const p = this.problem;
+    const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid });
+    this.routings += storms.length;
+    return storms.map((storm) => ({
+      storm,
+      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool }),
+    }));
+  }
+
+  evaluate(layout: Layout, vars: readonly number[]): Evaluation {
+    const p = this.problem;
+    this.evaluations++;
+    const file = designOutletFile(p, layout, vars);
+    const outlet = designOutlet(p, file);
+    const storms = this.routeStorms(outlet, p.case.storms);
+    const checks = evaluateChecks(p.case, outlet, storms);
+    const residuals = checkResiduals(p, checks);
+    const violations = geometryResiduals(p, layout, vars, residuals);
+    let objective = 0;
+    for (const r of residuals) objective += r * r;
+    return {
+      vars: [...vars],
+      file,
+      outlet,
+      storms,
+      checks,
+      residuals,
+      objective,
+      compliant: violations === 0 && checks.every((c) => c.passed),
+      violations,
+    };
+  }
+}
+
+/** Each check's shortfall against the slack it should keep (the aim's margin for peaks). */
+export function checkResiduals(p: SearchProblem, checks: readonly Check[]): number[] {
+  const residuals: number[] = [];
+  for (const check of checks) {
+    residuals.push(Math.max(0, requiredSlack(p, check) - check.slack));
+  }
+  return residuals;
+}
+
+/** Slack a check should keep: the aim's margin for peak checks, a hair for the others. */
+export function requiredSlack(p: SearchProblem, check: Check): number {
+  if (check.kind === "peak-upper" || check.kind === "peak-lower") {
+    const storm = p.case.storms.find((s) => s.name === check.storm)!;
+    const [low, high] = aimBand(p, storm.target!);
+    return check.kind === "peak-upper" ? (check.limit - high) / check.limit : (low - check.limit) / check.limit;
+  }
+  return 0.002;
+}
+
+/**
+ * Geometric rules as residuals: levels ordered at least one step apart, openings below the rim,
+ * elevations between the floor and the top less freeboard. Returns the number broken.
+ */
+function geometryResiduals(p: SearchProblem, layout: Layout, vars: readonly number[], residuals: number[]): number {
+  const L = baseLength(p.case.units);
+  const depth = (p.case.pond.top - p.case.pond.bottom) / L;
+  const z = elevations(p, layout, vars);
+  const step = p.step;
+  let broken = 0;
+  const push = (excess: number) => {
+    const r = Math.max(0, excess) / depth;
+    residuals.push(GEOMETRY_WEIGHT * r);
+    if (excess > 1e-9) broken++;
+  };
+  const floor = p.floor / L;
+  const ceiling = p.ceiling / L;
+  const all = [...z.levels, ...p.keptElevations.map((e) => e / L)].sort((a, b) => a - b);
+  for (let i = 1; i < all.length; i++) push(all[i - 1] + step - all[i] - 1e-9);
+  z.levels.forEach((level, i) => {
+    push(floor - level);
+    push(level - ceiling);
+    const rim = z.rim ?? (p.keptRiser ? p.converter.length(p.keptRiser.crest, "outlet.riser.crest") / L : null);
+    if (rim !== null) {
+      const part = layout.levels[i];
+      const top = part.kind === "orifice" ? level + part.height / L : level + step;
+      push(top - rim);
+    }
+  });
+  if (z.rim !== null) push(z.rim - p.case.pond.top / L);
+  return broken;
+}

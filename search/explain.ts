@@ -1,0 +1,165 @@
+// Explanations: which check binds each candidate, which elevation relaxes it and by how much (each
+// floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
+// in engineering terms.
+import type { Hydrograph } from "../src/case/model.js";
+import type { Check } from "../src/assess/checks.js";
+import { formatter } from "../src/format.js";
+import { baseLength } from "../src/units.js";
+import { outletDischarge } from "../src/hydraulics/outlet.js";
+import type { SearchProblem } from "./problem.js";
+import { designOutlet, designOutletFile, variableNames, partWords } from "./layout.js";
+import { finalizeCandidate, type Candidate } from "./candidate.js";
+import { snap, variableBounds } from "./fit.js";
+import type { LayoutPlan } from "./layouts.js";
+
+function checkText(p: SearchProblem, check: Check): string {
+  const f = formatter(p.case.units);
+  const value = check.value === null ? "not drained" : isFlow(check) ? f.flow(check.value) : check.kind === "drawdown" ? `${check.value.toFixed(1)} h` : f.elevation(check.value);
+  const limit = isFlow(check) ? f.flow(check.limit) : check.kind === "drawdown" ? `${check.limit.toFixed(1)} h` : f.elevation(check.limit);
+  return `${check.name}: ${value} against ${check.kind === "peak-lower" ? "at least" : "at most"} ${limit}, slack ${pct(check.slack)}`;
+}
+
+function isFlow(check: Check): boolean {
+  return check.kind === "peak-upper" || check.kind === "peak-lower";
+}
+
+function pct(x: number): string {
+  return `${(100 * x).toFixed(1)} %`;
+}
+
+/** How a check's value moved, in words: "-3.1 %" for flows, "+0.04 ft" for stages. */
+function change(p: SearchProblem, before: Check, after: Check): string {
+  if (before.value === null || after.value === null) return after.value === null ? "no longer drains" : "now drains";
+  if (isFlow(before)) return `${after.value >= before.value ? "+" : ""}${((100 * (after.value - before.value)) / before.value).toFixed(1)} %`;
+  if (before.kind === "drawdown") return `${after.value >= before.value ? "+" : ""}${(after.value - before.value).toFixed(1)} h`;
+  const L = baseLength(p.case.units);
+  return `${after.value >= before.value ? "+" : ""}${((after.value - before.value) / L).toFixed(2)} ${p.case.units === "US" ? "ft" : "m"}`;
+}
+
+/** Fills `explanation` of a candidate: binding check, and the single-step moves that relax it. */
+export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
+  const lines: string[] = [];
+  const binding = c.assessment.binding;
+  if (!binding) return ["no checks apply"];
+  const failing = c.assessment.checks.filter((check) => !check.passed);
+  lines.push(`binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`);
+  lines.push(`why: ${bindingReason(p, binding)}`);
+  const names = variableNames(p, c.layout);
+  const { min, max } = variableBounds(p, c.layout);
+  const unit = p.case.units === "US" ? "ft" : "m";
+  const moves: { text: string; gain: number }[] = [];
+  for (let i = 0; i < c.vars.length; i++) {
+    for (const direction of [-1, 1]) {
+      const vars = [...c.vars];
+      vars[i] = snap(p, vars[i] + direction * p.step);
+      if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
+      const moved = finalizeCandidate(p, c.layout, vars, designOutletFile(p, c.layout, vars));
+      const after = moved.assessment.checks.find((check) => check.name === binding.name)!;
+      const gain = after.slack - binding.slack;
+      if (gain <= 1e-6) continue;
+      const next = moved.assessment.binding!;
+      const cost = next.name !== binding.name ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
+      moves.push({
+        gain,
+        text: `${direction > 0 ? "raise" : "lower"} ${names[i]} by ${p.step} ${unit} to ${formatter(p.case.units).elevation(vars[i] * baseLength(p.case.units))}: ${binding.name.replace(/ within .*| freeboard| spillway dry| drawdown| no overtopping/, "")} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
+      });
+    }
+  }
+  moves.sort((a, b) => b.gain - a.gain);
+  if (moves.length > 0) lines.push(...moves.slice(0, 2).map((m) => `relax: ${m.text}`));
+  else lines.push(`relax: ${discreteRemedy(binding)}`);
+  return lines;
+}
+
+function bindingReason(p: SearchProblem, check: Check): string {
+  switch (check.kind) {
+    case "peak-upper":
+      return `the ${check.storm} storm releases close to its allowable peak`;
+    case "peak-lower":
+      return `the ${check.storm} storm is held back more than its band allows (over-detention)`;
+    case "freeboard":
+      return `the ${check.storm} storm rises close to the top of embankment less the freeboard`;
+    case "spillway-dry":
+      return `the ${check.storm} storm rises close to the spillway crest`;
+    case "drawdown":
+      return `the pond drains slowly after the ${check.storm} storm`;
+    case "overtopping":
+      return `the ${check.storm} storm nearly overtops the embankment`;
+  }
+}
+
+function discreteRemedy(check: Check): string {
+  switch (check.kind) {
+    case "peak-upper":
+      return "no single elevation step helps; a smaller opening at the level that holds this storm, or more storage";
+    case "peak-lower":
+      return "no single elevation step helps; a larger opening at the level that holds this storm, or accept over-detention (tolerance.under)";
+    case "freeboard":
+    case "spillway-dry":
+    case "overtopping":
+      return "no single elevation step helps; larger openings near the top, a wider riser or barrel, or more storage";
+    case "drawdown":
+      return "no single elevation step helps; a larger low-flow opening at the floor";
+  }
+}
+
+/** Volume of a hydrograph above a constant outflow q (m3): the least storage any outlet that keeps its peak at q needs. */
+export function volumeAbove(h: Hydrograph, q: number): number {
+  let v = 0;
+  for (let i = 1; i < h.times.length; i++) {
+    const a = h.flows[i - 1] - q;
+    const b = h.flows[i] - q;
+    const dt = h.times[i] - h.times[i - 1];
+    if (a >= 0 && b >= 0) v += 0.5 * (a + b) * dt;
+    else if (a > 0 || b > 0) {
+      const positive = Math.max(a, b);
+      v += 0.5 * positive * dt * (positive / (Math.abs(a) + Math.abs(b)));
+    }
+  }
+  return v;
+}
+
+/** Stage at which the pond holds a volume (m), by the search grid. */
+function stageAtStorage(p: SearchProblem, volume: number): number {
+  const { stage, storage } = p.grid;
+  for (let i = 1; i < stage.length; i++) {
+    if (storage[i] >= volume) return stage[i - 1] + ((stage[i] - stage[i - 1]) * (volume - storage[i - 1])) / (storage[i] - storage[i - 1]);
+  }
+  return stage[stage.length - 1];
+}
+
+/** Why nothing is compliant, in engineering terms, from the bounds and the closest candidates. */
+export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: Candidate[]): string[] {
+  const f = formatter(p.case.units);
+  const lines: string[] = [];
+  if (plan.viableFirst === 0 && plan.pruned.length > 0) {
+    const smallest = [...plan.pruned].sort((a, b) => a.peak - b.peak)[0];
+    const storm = smallest.storm;
+    const limit = storm.target! * (1 + p.case.criteria.over);
+    const held = volumeAbove(storm.inflow, limit);
+    const stage = stageAtStorage(p, held);
+    const file = designOutletFile(p, { levels: [smallest.part], riser: null, barrel: null }, []);
+    const flowThere = outletDischarge(designOutlet(p, { ...file, spillway: undefined }), p.case.tailwater, stage);
+    lines.push(
+      `The smallest catalogue opening at the pond floor (${partWords(smallest.part)}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
+        `the stage where the ${storm.name} storm's volume above its allowable peak (${f.volume(held)} above ${f.flow(limit)}) must be held; ` +
+        `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
+    );
+  }
+  const largest = p.targeted[p.targeted.length - 1];
+  const freeboardStorm = p.case.storms.find((s) => s.name === p.case.criteria.freeboardStorm) ?? largest;
+  const failing = new Map<string, number>();
+  for (const c of closest) for (const check of c.assessment.checks) if (!check.passed) failing.set(check.kind, (failing.get(check.kind) ?? 0) + 1);
+  if (failing.has("freeboard") || failing.has("overtopping")) {
+    const bestStage = Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity));
+    lines.push(
+      `The ${freeboardStorm.name} storm cannot be kept ${f.length(p.case.criteria.freeboardDepth)} below the top of embankment (${f.elevation(p.case.pond.top)}) ` +
+        `together with the other rules: the closest candidate still reaches ${f.elevation(bestStage)}. Allow larger openings or a wider riser, a larger barrel, or add storage.`,
+    );
+  }
+  if (failing.has("peak-lower")) lines.push(`Some storms stay below their lower band: the pond over-detains them with the openings that meet the other storms; accept over-detention (tolerance.under) or allow other sizes.`);
+  if (failing.has("peak-upper") && plan.viableFirst > 0) lines.push(`Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.`);
+  if (failing.has("drawdown")) lines.push(`The pond drains too slowly after some storms; a larger low-flow opening conflicts with the smallest storm's target.`);
+  if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
+  return lines;
+}

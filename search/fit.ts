@@ -1,0 +1,185 @@
+// Fits the floating elevations of one layout: a start from the stage each storm reaches, then
+// Levenberg-Marquardt (ml-levenberg-marquardt) on the check residuals from several seeded starts,
+// snapped to the catalogue's elevation step and polished one step at a time.
+// One layout in, candidates out: a self-contained unit of work.
+import { levenbergMarquardt } from "ml-levenberg-marquardt";
+import seedrandom from "seedrandom";
+import { baseLength } from "../src/units.js";
+import type { SearchProblem } from "./problem.js";
+import { designOutlet, designOutletFile, elevations, firstLevelFixed, variableCount, type Layout } from "./layout.js";
+import type { Evaluation, Evaluator } from "./evaluate.js";
+
+export interface FitOptions {
+  /** Seeded starts of the fit (the first is the staged start). */
+  starts: number;
+  /** Levenberg-Marquardt iterations per start. */
+  iterations: number;
+  seed: string;
+  /** Stop early once a compliant design is found. */
+  firstCompliant: boolean;
+}
+
+export interface FitResult {
+  /** Distinct snapped designs, best first. */
+  designs: Evaluation[];
+  evaluations: number;
+}
+
+/** Lower and upper bounds of each variable (case units). */
+export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; max: number[] } {
+  const L = baseLength(p.case.units);
+  const min: number[] = [];
+  const max: number[] = [];
+  const n = variableCount(p, l) - (l.riser ? 1 : 0);
+  for (let i = 0; i < n; i++) {
+    min.push(p.floor / L + (p.floorTaken ? 0 : p.step));
+    max.push(p.ceiling / L);
+  }
+  if (l.riser) {
+    min.push(p.floor / L + p.step);
+    max.push(p.case.pond.top / L);
+  }
+  return { min, max };
+}
+
+/**
+ * The staged start: level k+1 sits at the highest stage the k-th smallest storm reaches through
+ * levels 1..k, so each storm is held mostly by the levels below its stage; the rim starts at the
+ * stage the largest storm reaches through every level.
+ */
+export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator): number[] {
+  const L = baseLength(p.case.units);
+  const { min, max } = variableBounds(p, l);
+  const storms = p.targeted;
+  const vars: number[] = [];
+  const fixed = firstLevelFixed(p, l);
+  const z = (level: number) => (fixed && level === 0 ? p.floor / L : vars[fixed ? level - 1 : level]);
+  // Placeholder elevations above everything while levels are staged one by one.
+  const high = p.case.pond.top / L + 10 * (p.case.pond.top - p.case.pond.bottom) / L;
+  const count = variableCount(p, l);
+  const trial = () => Array.from({ length: count }, (_, i) => (i < vars.length ? vars[i] : high));
+  for (let level = fixed ? 1 : 0; level < l.levels.length; level++) {
+    // Route the storm this level must leave alone through the levels below it.
+    const storm = storms[Math.min(level - 1, storms.length - 1)];
+    let stage = p.floor / L + p.step;
+    if (storm && level > 0) {
+      const outlet = designOutlet(p, designOutletFile(p, l, trial()));
+      stage = evaluator.routeStorms(outlet, [storm])[0].result.maxStage / L;
+    }
+    const previous = level > 0 ? z(level - 1) : -Infinity;
+    const index = vars.length;
+    vars.push(clamp(Math.max(stage, previous + p.step), min[index], max[index]));
+  }
+  if (l.riser) {
+    const largest = storms[storms.length - 1];
+    const outlet = designOutlet(p, designOutletFile(p, l, trial()));
+    const stage = evaluator.routeStorms(outlet, [largest])[0].result.maxStage / L;
+    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height / L : p.step));
+    const index = vars.length;
+    vars.push(clamp(Math.max(stage, ...tops), min[index], max[index]));
+  }
+  return vars;
+}
+
+function clamp(x: number, low: number, high: number): number {
+  return Math.min(Math.max(x, low), high);
+}
+
+/** Rounds an elevation to the lattice of the elevation step (case units), without float noise. */
+export function snap(p: SearchProblem, x: number): number {
+  const decimals = Math.max(0, Math.ceil(-Math.log10(p.step)) + 3);
+  return Number((Math.round(x / p.step) * p.step).toFixed(decimals));
+}
+
+/** Total order on evaluations: compliant first, then fewer broken rules, then the objective. */
+export function better(a: Evaluation, b: Evaluation): boolean {
+  if (a.compliant !== b.compliant) return a.compliant;
+  if (a.violations !== b.violations) return a.violations < b.violations;
+  return a.objective < b.objective;
+}
+
+/** Polishes snapped variables by single steps while that improves the design. */
+export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator: Evaluator, maxPasses = 6): Evaluation {
+  let best = start;
+  const { min, max } = variableBounds(p, l);
+  for (let pass = 0; pass < maxPasses; pass++) {
+    let improved = false;
+    for (let i = 0; i < best.vars.length; i++) {
+      for (const direction of [-1, 1]) {
+        const vars = [...best.vars];
+        vars[i] = snap(p, vars[i] + direction * p.step);
+        if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
+        const trial = evaluator.evaluate(l, vars);
+        if (better(trial, best)) {
+          best = trial;
+          improved = true;
+        }
+      }
+    }
+    if (!improved || best.objective === 0) break;
+  }
+  return best;
+}
+
+/** Fits one layout. */
+export function fitLayout(p: SearchProblem, l: Layout, evaluator: Evaluator, options: FitOptions): FitResult {
+  const before = evaluator.evaluations;
+  const n = variableCount(p, l);
+  if (n === 0) return { designs: [evaluator.evaluate(l, [])], evaluations: evaluator.evaluations - before };
+  const { min, max } = variableBounds(p, l);
+  const rng = seedrandom(options.seed);
+  const start = stagedStart(p, l, evaluator);
+  const designs: Evaluation[] = [];
+  const seen = new Set<string>();
+  for (let s = 0; s < options.starts; s++) {
+    const initial = s === 0 ? start : start.map((x, i) => clamp(x + (rng() - 0.5) * 0.3 * (max[i] - min[i]), min[i], max[i]));
+    const fitted = levenbergFit(p, l, evaluator, initial, min, max, options.iterations);
+    const snapped = evaluator.evaluate(l, fitted.map((x) => snap(p, x)));
+    const polished = polish(p, l, snapped, evaluator);
+    const key = polished.vars.join(",");
+    if (!seen.has(key)) {
+      seen.add(key);
+      designs.push(polished);
+    }
+    if (options.firstCompliant && polished.compliant) break;
+  }
+  designs.sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
+  return { designs, evaluations: evaluator.evaluations - before };
+}
+
+/** Levenberg-Marquardt on the residual vector (its "data" are zeros; the model is the residuals). */
+function levenbergFit(p: SearchProblem, l: Layout, evaluator: Evaluator, initial: number[], min: number[], max: number[], iterations: number): number[] {
+  let lastKey = "";
+  let lastResiduals: number[] = [];
+  let best: Evaluation | null = null;
+  const residualsAt = (params: number[]) => {
+    const key = params.join(",");
+    if (key !== lastKey) {
+      const e = evaluator.evaluate(l, params);
+      lastKey = key;
+      lastResiduals = e.residuals;
+      if (!best || e.objective < best.objective) best = e;
+    }
+    return lastResiduals;
+  };
+  const m = residualsAt(initial).length;
+  if (best!.objective === 0) return initial;
+  const data = { x: Array.from({ length: m }, (_, i) => i), y: new Array<number>(m).fill(0) };
+  levenbergMarquardt(
+    data,
+    (params: number[]) => {
+      const r = residualsAt(params);
+      return (i: number) => r[i];
+    },
+    {
+      initialValues: initial,
+      minValues: min,
+      maxValues: max,
+      gradientDifference: p.step / 2,
+      damping: 1e-2,
+      maxIterations: iterations,
+      errorTolerance: 1e-12,
+    },
+  );
+  return (best as Evaluation | null)?.vars ?? initial;
+}

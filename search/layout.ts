@@ -1,0 +1,114 @@
+// A layout is the discrete part of a design (which parts, counts, sizes); its variables are the
+// elevations of the levels that float and the riser's rim. Together they make an outlet in the case
+// file's own form, so that every candidate is exactly what a case file would give.
+import type { ElementFile, OutletFile } from "../src/case/schema.js";
+import type { Outlet } from "../src/case/model.js";
+import { CaseError } from "../src/case/errors.js";
+import { normalizeOutlet } from "../src/case/normalize.js";
+import { defaultCoefficients } from "../src/hydraulics/defaults.js";
+import { baseLength } from "../src/units.js";
+import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
+
+export interface Layout {
+  /** Designed control levels, bottom up. The first sits at the floor unless a kept element does. */
+  levels: PartOption[];
+  /** Designed riser size (null: a kept riser or none). */
+  riser: SizeOption | null;
+  /** Size of the site barrel (null: a kept barrel or none). */
+  barrel: SizeOption | null;
+}
+
+export function layoutKey(l: Layout): string {
+  return [...l.levels.map((p) => p.key), `riser ${l.riser ? String(l.riser.size) : "-"}`, `barrel ${l.barrel ? String(l.barrel.size) : "-"}`].join(" | ");
+}
+
+/** Whether the first designed level is fixed at the floor (a dry pond must drain through it). */
+export function firstLevelFixed(p: SearchProblem, l: Layout): boolean {
+  return l.levels.length > 0 && !p.floorTaken;
+}
+
+/** Number of floating elevations: the free levels, then the rim when the riser is designed. */
+export function variableCount(p: SearchProblem, l: Layout): number {
+  return l.levels.length - (firstLevelFixed(p, l) ? 1 : 0) + (l.riser ? 1 : 0);
+}
+
+/** Names of the variables, for explanations. */
+export function variableNames(p: SearchProblem, l: Layout): string[] {
+  const names: string[] = [];
+  const first = firstLevelFixed(p, l) ? 1 : 0;
+  for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${partWords(l.levels[i])})`);
+  if (l.riser) names.push("riser rim");
+  return names;
+}
+
+export function partWords(part: PartOption): string {
+  switch (part.kind) {
+    case "orifice":
+      return `${part.count} x ${String(part.size)} orifice${part.count > 1 ? "s" : ""}`;
+    case "rectangular":
+      return `${String(part.size)} weir`;
+    case "v-notch":
+      return `${part.angle} deg v-notch`;
+  }
+}
+
+/** Elevation of the floor in the file's own form (so that it normalizes to exactly pond.pool). */
+function floorValue(p: SearchProblem): number | string {
+  return p.file.pond.permanentPool ?? p.file.pond.bottom;
+}
+
+/** Elevations (case units) of every designed level and the rim, from the variables. */
+export function elevations(p: SearchProblem, l: Layout, vars: readonly number[]): { levels: number[]; rim: number | null } {
+  const L = baseLength(p.case.units);
+  const levels: number[] = [];
+  let v = 0;
+  l.levels.forEach((_, i) => {
+    if (i === 0 && firstLevelFixed(p, l)) levels.push(p.floor / L);
+    else levels.push(vars[v++]);
+  });
+  return { levels, rim: l.riser ? vars[v] : null };
+}
+
+/** The outlet in case-file form, every coefficient written out. */
+export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly number[]): OutletFile {
+  const d = defaultCoefficients(p.case.units);
+  const z = elevations(p, l, vars);
+  const kept: ElementFile[] = p.keptElements.map((e) => ({ ...e, coefficient: e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d) } as ElementFile));
+  const designed: ElementFile[] = l.levels.map((part, i) => {
+    const at = i === 0 && firstLevelFixed(p, l) ? floorValue(p) : z.levels[i];
+    switch (part.kind) {
+      case "orifice":
+        return { type: "orifice", shape: "circular", diameter: part.size!, count: part.count, invert: at, coefficient: d.orifice };
+      case "rectangular":
+        return { type: "weir", shape: "rectangular", length: part.size!, crest: at, endContractions: 2, coefficient: d.rectangularWeir };
+      case "v-notch":
+        return { type: "weir", shape: "v-notch", angle: part.angle, crest: at, coefficient: d.vNotchWeir };
+    }
+  });
+  const file: OutletFile = { elements: [...kept.map(stripUndefined), ...designed] };
+  if (p.keptRiser) file.riser = { ...p.keptRiser, coefficient: p.keptRiser.coefficient ?? d.riserWeir, orificeCoefficient: p.keptRiser.orificeCoefficient ?? d.riserOrifice };
+  else if (l.riser) file.riser = { shape: "circular", diameter: l.riser.size, crest: z.rim!, coefficient: d.riserWeir, orificeCoefficient: d.riserOrifice };
+  if (p.barrel) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
+  if (p.spillway) file.spillway = { ...p.spillway, coefficient: p.spillway.coefficient ?? d.spillway };
+  return file;
+}
+
+function keptDefault(e: ElementFile, d: ReturnType<typeof defaultCoefficients>): number | undefined {
+  if (e.type === "orifice") return d.orifice;
+  if (e.type === "weir") return e.shape === "rectangular" ? d.rectangularWeir : d.vNotchWeir;
+  return undefined;
+}
+
+function stripUndefined<T extends object>(o: T): T {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T;
+}
+
+/** The outlet in SI, converted exactly as a case file's outlet is. */
+export function designOutlet(p: SearchProblem, file: OutletFile): Outlet {
+  const outlet = normalizeOutlet(file, p.converter, "outlet");
+  if (p.converter.problems.length > 0) {
+    const problems = p.converter.problems.splice(0);
+    throw new CaseError(problems);
+  }
+  return outlet;
+}
