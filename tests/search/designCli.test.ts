@@ -1,0 +1,73 @@
+// `outfit design` end to end through the built CLI: results and candidate case files are written,
+// `outfit route` on a written candidate reproduces the reported peaks exactly, an infeasible case is
+// explained in engineering terms, and a journal lets a run resume without losing finished work.
+import { describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdtempSync, readFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+
+const cli = join(process.cwd(), "dist/src/cli.js");
+function outfit(...args: string[]) {
+  const r = spawnSync(process.execPath, [cli, ...args], { encoding: "utf8" });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+describe("outfit design", () => {
+  it("writes results and candidates that route again to exactly the reported peaks", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-design-"));
+    const run = outfit("design", "cases/si-headwall/case.json", "--budget", "4000", "--top", "2", "--out", dir);
+    expect(run.code).toBe(0);
+    const results = JSON.parse(readFileSync(join(dir, "results.json"), "utf8"));
+    expect(results.command).toBe("design");
+    expect(results.candidates.length).toBeGreaterThan(0);
+    const first = results.candidates[0];
+    expect(first.compliant).toBe(true);
+    expect(first.caseFile).toBe("candidate-01.json");
+    // Every coefficient is written out in the candidate's outlet.
+    for (const e of first.outlet.elements) expect(typeof e.coefficient).toBe("number");
+    const routed = outfit("route", join(dir, first.caseFile), "--json");
+    expect(routed.code).toBe(0);
+    const again = JSON.parse(routed.stdout);
+    again.storms.forEach((s: { peakOutflow: number; maxStage: number }, i: number) => {
+      expect(s.peakOutflow).toBe(first.storms[i].peakOutflow);
+      expect(s.maxStage).toBe(first.storms[i].maxStage);
+    });
+    expect(again.compliant).toBe(true);
+    expect(existsSync(join(dir, "journal.jsonl"))).toBe(true);
+  });
+
+  it("explains an infeasible case in engineering terms and shows the closest candidates", () => {
+    const run = outfit("design", "cases/infeasible/case.json", "--budget", "3000", "--json");
+    expect(run.code).toBe(0);
+    const results = JSON.parse(run.stdout);
+    expect(results.search.success).toBe(false);
+    expect(results.infeasible.join(" ")).toMatch(/smallest catalogue opening at the pond floor \(1 x 4 in orifice\) already passes/);
+    expect(results.infeasible.join(" ")).toMatch(/smaller opening or a flow regulator, or add storage/);
+  });
+
+  it("resumes from its journal: a second run skips the fitted layouts, keeps their designs and goes further", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-resume-"));
+    const first = outfit("design", "cases/small-compliant/case.json", "--budget", "2500", "--out", dir, "--json");
+    expect(first.code).toBe(0);
+    const journalLines = readFileSync(join(dir, "journal.jsonl"), "utf8").trim().split("\n").length;
+    expect(journalLines).toBeGreaterThan(1);
+    const second = outfit("design", "cases/small-compliant/case.json", "--budget", "2500", "--out", dir, "--resume", "--json");
+    expect(second.code).toBe(0);
+    const a = JSON.parse(first.stdout);
+    const b = JSON.parse(second.stdout);
+    // The first run's designs come back from the journal, so the best can only stay or improve.
+    expect(b.candidates[0].cost).toBeLessThanOrEqual(a.candidates[0].cost);
+    // The resumed run spent its budget on layouts the first did not reach.
+    expect(b.search.layoutsFitted).toBeGreaterThan(a.search.layoutsFitted);
+  });
+
+  it("refuses --resume with a journal of another case (exit 2, names the option)", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-resume-"));
+    expect(outfit("design", "cases/small-compliant/case.json", "--budget", "500", "--out", dir).code).toBe(0);
+    const other = outfit("design", "cases/si-headwall/case.json", "--budget", "500", "--out", dir, "--resume");
+    expect(other.code).toBe(2);
+    expect(other.stderr).toMatch(/--resume/);
+    expect(other.stderr).not.toMatch(/at .*\.js:\d+/);
+  });
+});
