@@ -6,7 +6,7 @@ import type { Element, Outlet, Tailwater } from "../case/model.js";
 import { orificeFlow } from "./orifice.js";
 import { weirFlow } from "./weir.js";
 import { regulatorFlow } from "./regulator.js";
-import { rimFlow } from "./riser.js";
+import { rimDischarge, rimFlow } from "./riser.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { chamberLevel, type ChamberSolution } from "./chamber.js";
@@ -27,7 +27,7 @@ export function openingsFlow(outlet: Outlet, ws: number, ds: number): number {
   let q = 0;
   const elements = outlet.elements;
   for (let i = 0; i < elements.length; i++) q += elementFlow(elements[i], ws, ds);
-  if (outlet.riser) q += rimFlow(outlet.riser, ws, ds).flow;
+  if (outlet.riser) q += rimDischarge(outlet.riser, ws, ds);
   return q;
 }
 

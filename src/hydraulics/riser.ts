@@ -21,10 +21,24 @@ export interface RimFlow {
 }
 
 export function rimFlow(r: Riser, ws: number, ds: number): RimFlow {
-  const head = ws - r.crest;
-  if (head <= 0 || ds >= ws) return { flow: 0, orificeControls: false };
-  const weir = villemonte(r.coefficient * riserPerimeter(r) * Math.pow(head, 1.5), head, ds - r.crest, 1.5);
-  const orificeHead = ws - Math.max(r.crest, ds);
-  const orifice = r.orificeCoefficient * riserArea(r) * Math.sqrt(2 * GRAVITY * orificeHead);
+  const weir = rimWeirFlow(r, ws, ds);
+  const orifice = rimOrificeFlow(r, ws, ds);
   return orifice < weir ? { flow: orifice, orificeControls: true } : { flow: weir, orificeControls: false };
+}
+
+/** The rim's flow alone (the smaller of the two forms), without allocating: the rating's hot path. */
+export function rimDischarge(r: Riser, ws: number, ds: number): number {
+  return Math.min(rimWeirFlow(r, ws, ds), rimOrificeFlow(r, ws, ds));
+}
+
+function rimWeirFlow(r: Riser, ws: number, ds: number): number {
+  const head = ws - r.crest;
+  if (head <= 0 || ds >= ws) return 0;
+  return villemonte(r.coefficient * riserPerimeter(r) * head * Math.sqrt(head), head, ds - r.crest, 1.5);
+}
+
+function rimOrificeFlow(r: Riser, ws: number, ds: number): number {
+  const head = ws - Math.max(r.crest, ds);
+  if (ws <= r.crest || head <= 0) return 0;
+  return r.orificeCoefficient * riserArea(r) * Math.sqrt(2 * GRAVITY * head);
 }

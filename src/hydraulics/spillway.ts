@@ -8,6 +8,7 @@ import { villemonte } from "./submergence.js";
 export function spillwayFlow(s: Spillway, ws: number, tw: number): number {
   const head = ws - s.crest;
   if (head <= 0 || tw >= ws) return 0;
-  const free = s.coefficient * (s.length * Math.pow(head, 1.5) + 0.8 * s.sideSlope * Math.pow(head, 2.5));
+  const h15 = head * Math.sqrt(head);
+  const free = s.coefficient * h15 * (s.length + 0.8 * s.sideSlope * head);
   return villemonte(free, head, tw - s.crest, 1.5);
 }

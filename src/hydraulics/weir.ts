@@ -22,14 +22,14 @@ export function rectangularWeirFlow(w: RectangularWeir, ws: number, ds: number):
   const head = ws - w.crest;
   if (head <= 0 || ds >= ws) return 0;
   const h = Math.min(head, francisHeadLimit(w));
-  const free = w.coefficient * (w.length - 0.1 * w.endContractions * h) * Math.pow(h, 1.5);
+  const free = w.coefficient * (w.length - 0.1 * w.endContractions * h) * h * Math.sqrt(h);
   return villemonte(free, head, ds - w.crest, 1.5);
 }
 
 export function vNotchWeirFlow(w: VNotchWeir, ws: number, ds: number): number {
   const head = ws - w.crest;
   if (head <= 0 || ds >= ws) return 0;
-  const free = w.coefficient * Math.tan((w.angle * Math.PI) / 360) * Math.pow(head, 2.5);
+  const free = w.coefficient * Math.tan((w.angle * Math.PI) / 360) * head * head * Math.sqrt(head);
   return villemonte(free, head, ds - w.crest, 2.5);
 }
 

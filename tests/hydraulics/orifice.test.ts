@@ -78,3 +78,20 @@ describe("rectangular orifice", () => {
     expect(orificeFlow(rect, h, -Infinity)).toBeCloseTo(0.61 * Math.sqrt(2 * GRAVITY) * (2 / 3) * 0.5 * h ** 1.5, 12);
   });
 });
+
+describe("wetted circular opening: series and quadrature agree with a brute-force sum", () => {
+  // Independent reference: midpoint sum of width(y) sqrt(WS - y) over the circle.
+  function brute(d: number, ws: number): number {
+    const n = 400_000;
+    let sum = 0;
+    for (let i = 0; i < n; i++) {
+      const y = ((i + 0.5) / n) * d;
+      const width = 2 * Math.sqrt(Math.max(0, (d / 2) ** 2 - (y - d / 2) ** 2));
+      sum += (width * Math.sqrt(ws - y) * d) / n;
+    }
+    return sum;
+  }
+  it.each([0.3001, 0.35, 0.45, 0.6, 0.9, 3.0])("D = 0.3 m, water surface at %f m above the invert", (ws) => {
+    expect(circularOpeningIntegral(0.3, 0, ws, -Infinity) / brute(0.3, ws)).toBeCloseTo(1, 5);
+  });
+});
