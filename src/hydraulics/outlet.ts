@@ -52,12 +52,40 @@ function solveWithTailwaterRating(outlet: Outlet, tail: Tailwater, ws: number): 
   let low = 0;
   let high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
   if (high <= 0) return 0;
-  for (let i = 0; i < 60 && high - low > 1e-12 * (1 + high); i++) {
-    const mid = 0.5 * (low + high);
-    if (dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, mid)) > mid) low = mid;
-    else high = mid;
+  // When even the largest possible outflow leaves the tailwater below every opening, it does not matter.
+  if (tailwaterLevel(tail, high) <= lowestOpening(outlet)) return high;
+  // Illinois (modified regula falsi) on g(O) = discharge(TW(O)) - O, bracketed by g(low) >= 0 >= g(high).
+  let gLow = high;
+  let gHigh = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, high)) - high;
+  if (gHigh >= 0) return high;
+  let side = 0;
+  for (let i = 0; i < 100 && high - low > 1e-12 * (1 + high); i++) {
+    const x = high - (gHigh * (high - low)) / (gHigh - gLow);
+    const g = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, x)) - x;
+    if (g === 0) return x;
+    if (g > 0) {
+      low = x;
+      gLow = g;
+      if (side === 1) gHigh /= 2;
+      side = 1;
+    } else {
+      high = x;
+      gHigh = g;
+      if (side === -1) gLow /= 2;
+      side = -1;
+    }
   }
   return 0.5 * (low + high);
+}
+
+/** Lowest elevation at which any part would feel a downstream level. */
+function lowestOpening(outlet: Outlet): number {
+  let z = Infinity;
+  for (const e of outlet.elements) z = Math.min(z, elementBottom(e));
+  if (outlet.riser) z = Math.min(z, outlet.riser.crest);
+  if (outlet.spillway) z = Math.min(z, outlet.spillway.crest);
+  if (outlet.barrel) z = Math.min(z, outlet.barrel.outletInvert);
+  return z;
 }
 
 /** What limits the flow at a stage, in words an engineer uses. */

@@ -1,0 +1,69 @@
+// The optimiser's figures for every bundled case: time and routings to the first compliant candidate,
+// routings per second, the best cost found, side by side with plain random search given the same
+// number of routings in the same run.
+import { readdirSync, existsSync } from "node:fs";
+import { join } from "node:path";
+import { loadCase } from "../src/case/load.js";
+import { buildProblem } from "../search/problem.js";
+import { runSearch } from "../search/run.js";
+import { randomSearch } from "../search/randomSearch.js";
+
+export interface SearchBenchRow {
+  name: string;
+  firstSeconds: number | null;
+  firstRoutings: number | null;
+  seconds: number;
+  routings: number;
+  perSecond: number;
+  bestCost: number | null;
+  randomFirstSeconds: number | null;
+  randomBestCost: number | null;
+  randomSeconds: number;
+}
+
+export function benchSearch(casesDir: string, budget: number): SearchBenchRow[] {
+  const rows: SearchBenchRow[] = [];
+  for (const name of readdirSync(casesDir).sort()) {
+    const file = join(casesDir, name, "case.json");
+    if (!existsSync(file)) continue;
+    const loaded = loadCase(file);
+    if (!loaded.data.catalogue) continue;
+    const problem = buildProblem(loaded.case, loaded.data);
+    const run = runSearch(problem, { seed: "bench", budget, top: 1, starts: 3, beam: 3 });
+    const best = run.candidates.find((c) => c.assessment.compliant) ?? null;
+    const random = randomSearch(problem, run.routings, "bench");
+    rows.push({
+      name,
+      firstSeconds: run.secondsToFirstCompliant,
+      firstRoutings: run.routingsToFirstCompliant,
+      seconds: run.seconds,
+      routings: run.routings,
+      perSecond: run.routings / run.seconds,
+      bestCost: best ? best.cost : null,
+      randomFirstSeconds: random.secondsToFirstCompliant,
+      randomBestCost: random.best ? random.best.cost : null,
+      randomSeconds: random.seconds,
+    });
+  }
+  return rows;
+}
+
+export function printSearchBench(rows: SearchBenchRow[], budget: number): void {
+  const f = (x: number | null, digits = 2) => (x === null ? "none" : x.toFixed(digits));
+  console.log(`\nOptimiser (budget ${budget} routings per case; random search gets the same number of routings)`);
+  const header = ["case", "first compliant", "routings to first", "routings/s", "search time", "best cost", "random: first", "random: best cost", "cost ratio random/search"];
+  const lines = rows.map((r) => [
+    r.name,
+    r.firstSeconds === null ? "none" : `${f(r.firstSeconds, 3)} s`,
+    r.firstRoutings === null ? "-" : String(r.firstRoutings),
+    Math.round(r.perSecond).toString(),
+    `${f(r.seconds)} s`,
+    f(r.bestCost, 1),
+    r.randomFirstSeconds === null ? "none" : `${f(r.randomFirstSeconds, 3)} s`,
+    f(r.randomBestCost, 1),
+    r.bestCost !== null && r.randomBestCost !== null ? (r.randomBestCost / r.bestCost).toFixed(2) : r.bestCost !== null ? "random found none" : "-",
+  ]);
+  const widths = header.map((h, i) => Math.max(h.length, ...lines.map((l) => l[i].length)));
+  console.log(header.map((h, i) => h.padEnd(widths[i])).join("  "));
+  for (const l of lines) console.log(l.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join("  "));
+}
