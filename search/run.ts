@@ -115,7 +115,8 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       else {
         const result = fitLayout(p, layout, evaluator, { starts: options.starts, iterations: 12, seed: `${options.seed}|${key}`, firstCompliant: true });
         designs = result.designs.slice(0, 2).map((d) => d.vars);
-        for (const d of result.designs.slice(0, 2)) accept(layout, d.vars, d.file);
+        // A design that breaks a geometric rule (openings above the rim, levels out of order) is not proposed.
+        for (const d of result.designs.slice(0, 2)) if (d.violations === 0) accept(layout, d.vars, d.file);
       }
       if (previous) {
         for (const vars of designs) accept(layout, vars, designOutletFile(p, layout, vars));
