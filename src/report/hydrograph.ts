@@ -38,7 +38,8 @@ export function hydrographCsv(c: Case, h: Hydrograph): string {
   return lines.join("\n") + "\n";
 }
 
-function rainfallText(c: Case, s: StormHydrology): string {
+/** The rainfall of one storm on one area: the depth and its pattern, or the IDF intensity and duration used. */
+function rainfallText(c: Case, s: StormHydrology, r: AreaHydrograph): string {
   const hu = hydrologyUnits(c.units);
   const depth = (m: number) => `${hu.depth(m).toFixed(c.units === "US" ? 2 : 1)} ${hu.labels.depth}`;
   switch (s.rainfall.kind) {
@@ -47,7 +48,7 @@ function rainfallText(c: Case, s: StormHydrology): string {
     case "hyetograph":
       return `${depth(s.rainfall.depth)}, hyetograph`;
     case "idf":
-      return `IDF "${s.rainfall.name}"`;
+      return `${hu.intensity(r.rainfall / r.stormDuration!).toFixed(2)} ${hu.labels.intensity} for ${durationText(r.stormDuration!)} (IDF "${s.rainfall.name}")`;
   }
 }
 
@@ -87,14 +88,14 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     const r = item.result;
     storms.push([
       c.storms[item.stormIndex].name,
-      rainfallText(c, s),
+      rainfallText(c, s, r),
       item.area,
       depth(r.runoff),
       f.flow(r.peak),
       durationText(r.timeOfPeak),
       f.volume(r.volume),
       durationText(r.tc),
-      r.unitDuration !== null ? durationText(r.unitDuration) : `storm ${durationText(r.stormDuration!)}`,
+      r.unitDuration === null ? "-" : durationText(r.unitDuration),
       usedAs(item.area, given[item.stormIndex]),
     ]);
   }
