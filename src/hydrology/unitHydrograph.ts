@@ -94,7 +94,12 @@ export function gammaShape(peakRateFactor: number): DimensionlessShape {
   };
 }
 
-/** Table 16-1 for the standard factor 484; the gamma-equation DUH for any other. */
+/**
+ * Table 16-1 for the standard factor 484; the gamma-equation DUH for any other. Other factors are used
+ * where the land is flatter or steeper than average: NEH 630 ch. 16 describes values near 300 for flat,
+ * swampy land and near 600 for steep terrain; the Delmarva unit hydrograph has about 284 (Welle, Woodward
+ * & Moody 1980). (These from memory.)
+ */
 export function dimensionlessShape(peakRateFactor: number): DimensionlessShape {
   return peakRateFactor === STANDARD_PEAK_RATE_FACTOR ? STANDARD_SHAPE : gammaShape(peakRateFactor);
 }
