@@ -4,6 +4,7 @@ import { readFileSync } from "node:fs";
 import { Command, CommanderError } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
+import { hydrographCommand } from "./commands/hydrograph.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -94,12 +95,37 @@ program
     `
 Examples:
   outfit design cases/demo/case.json
-  outfit design cases/demo/case.json --top 3 --out results/demo
-  outfit route results/demo/candidate-01.json          # re-route a proposal
-  outfit design cases/demo/case.json --budget 200000 --out results/night --progress
-  outfit design cases/demo/case.json --budget 400000 --out results/night --resume`,
+  outfit design cases/demo/case.json --top 3 --out out/demo
+  outfit route out/demo/candidate-01.json          # re-route a proposal
+  outfit design cases/demo/case.json --budget 200000 --out out/night --progress
+  outfit design cases/demo/case.json --budget 400000 --out out/night --resume`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
+
+program
+  .command("hydrograph")
+  .description("derive each rainfall storm's runoff hydrograph per drainage area (NRCS or rational method) and write them as CSV")
+  .argument("<case>", "case file (JSON) with a hydrology section and storms described by rainfall")
+  .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): one <storm>-<area>.csv per storm and area in a directory, or one .csv file for a single selected hydrograph")
+  .option("--json", "print the results as JSON instead of tables")
+  .option("--storm <name>", "only this storm")
+  .option("--area <pre|post>", "only this drainage area: pre (before development; its peak is the target) or post (after; the inflow)")
+  .addHelpText(
+    "after",
+    `
+For each storm given by its rainfall (storms[].rainfall) and each area of the hydrology section, prints
+the rainfall, runoff depth, peak flow, time to peak, volume, the Tc used and the time step, and what the
+routed case uses it for. The CSV files can be read back as a storm's inflow file.
+
+Examples:
+  outfit hydrograph cases/demo-rainfall/case.json
+  outfit hydrograph cases/demo-rainfall/case.json --out hydrographs/
+  outfit hydrograph cases/demo-rainfall/case.json --storm 10-yr --area post --out inflow-10yr.csv
+  outfit hydrograph cases/demo-rainfall/case.json --json
+
+Exit codes: 0 done, 2 bad input.`,
+  )
+  .action((file: string, options) => run(() => hydrographCommand(file, options)));
 
 try {
   program.parse();

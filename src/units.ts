@@ -19,19 +19,77 @@ export const LENGTH_UNITS: Readonly<Record<string, number>> = {
   cm: 0.01,
 };
 
-const LENGTH_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z]+)?\s*$/;
+/** Square metres per area unit accepted for watershed areas (1 ac = 43,560 ft2; 1 mi2 = 640 ac). */
+export const AREA_UNITS: Readonly<Record<string, number>> = {
+  ac: 43560 * FOOT * FOOT,
+  ha: 1e4,
+  km2: 1e6,
+  mi2: 640 * 43560 * FOOT * FOOT,
+  ft2: FOOT * FOOT,
+  m2: 1,
+};
+
+/** Metres per second per rainfall-intensity unit. */
+export const INTENSITY_UNITS: Readonly<Record<string, number>> = {
+  "in/h": FOOT / 12 / SECONDS_PER_HOUR,
+  "in/hr": FOOT / 12 / SECONDS_PER_HOUR,
+  "mm/h": 0.001 / SECONDS_PER_HOUR,
+  "mm/hr": 0.001 / SECONDS_PER_HOUR,
+};
+
+/** A number, optionally followed by a unit such as "in", "km2" or "mm/h". */
+export const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*)?\s*$/;
+
+/** Parses a number with an optional unit from `units`; a bare number is in `base` (SI per bare unit). */
+function parseQuantity(
+  value: number | string,
+  units: Readonly<Record<string, number>>,
+  base: number,
+  what: string,
+  examples: string,
+): number | { error: string } {
+  if (typeof value === "number") return value * base;
+  const match = QUANTITY_PATTERN.exec(value);
+  if (!match) return { error: `${what}: a number, or a number and a unit such as ${examples}` };
+  const unit = match[2];
+  const number = Number(match[1]);
+  if (unit === undefined) return number * base;
+  const factor = units[unit.toLowerCase()];
+  if (factor === undefined) return { error: `${what} unit among ${Object.keys(units).join(", ")}` };
+  return number * factor;
+}
 
 /** Parses "6 in", "0.5 ft", "150 mm" or a bare number in the base unit; returns metres or an error text. */
 export function parseLength(value: number | string, system: UnitSystem): number | { error: string } {
-  if (typeof value === "number") return value * baseLength(system);
-  const match = LENGTH_PATTERN.exec(value);
-  if (!match) return { error: "a length: a number, or a number and a unit such as \"6 in\" or \"150 mm\"" };
-  const unit = match[2];
-  const number = Number(match[1]);
-  if (unit === undefined) return number * baseLength(system);
-  const factor = LENGTH_UNITS[unit.toLowerCase()];
-  if (factor === undefined) return { error: `a length unit among ${Object.keys(LENGTH_UNITS).join(", ")}` };
-  return number * factor;
+  return parseQuantity(value, LENGTH_UNITS, baseLength(system), "a length", '"6 in" or "150 mm"');
+}
+
+/** Parses a watershed area ("12 ac", "4.9 ha"; a bare number is acres (US) or hectares (SI)); returns m2. */
+export function parseArea(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, AREA_UNITS, baseWatershedArea(system), "an area", '"12 ac" or "4.9 ha"');
+}
+
+/** Parses a rainfall or runoff depth ("3.2 in", "81 mm"; a bare number is inches (US) or mm (SI)); returns m. */
+export function parseDepth(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, LENGTH_UNITS, baseDepth(system), "a depth", '"3.2 in" or "81 mm"');
+}
+
+/** Parses a rainfall intensity ("2.5 in/h", "60 mm/h"; a bare number is in/h (US) or mm/h (SI)); returns m/s. */
+export function parseIntensity(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, INTENSITY_UNITS, baseIntensity(system), "an intensity", '"2.5 in/h" or "60 mm/h"');
+}
+
+/** Square metres per bare watershed-area number: acres (US) or hectares (SI). */
+export function baseWatershedArea(system: UnitSystem): number {
+  return system === "US" ? AREA_UNITS.ac : AREA_UNITS.ha;
+}
+/** Metres per bare depth number: inches (US) or millimetres (SI). */
+export function baseDepth(system: UnitSystem): number {
+  return system === "US" ? LENGTH_UNITS.in : LENGTH_UNITS.mm;
+}
+/** Metres per second per bare intensity number: in/h (US) or mm/h (SI). */
+export function baseIntensity(system: UnitSystem): number {
+  return system === "US" ? INTENSITY_UNITS["in/h"] : INTENSITY_UNITS["mm/h"];
 }
 
 /** Metres per base length unit of a system. */
@@ -80,5 +138,18 @@ export function toCaseUnits(system: UnitSystem) {
     volume: (m3: number) => m3 / (L * L * L),
     flow: (q: number) => q / (L * L * L),
     weirCoefficient: (c: number) => c / Math.sqrt(L),
+  };
+}
+
+/** Labels and converters of the hydrology quantities (watershed area, rainfall depth, intensity) for output. */
+export function hydrologyUnits(system: UnitSystem) {
+  const area = baseWatershedArea(system);
+  const depth = baseDepth(system);
+  const intensity = baseIntensity(system);
+  return {
+    labels: system === "US" ? { area: "ac", depth: "in", intensity: "in/h" } : { area: "ha", depth: "mm", intensity: "mm/h" },
+    area: (m2: number) => m2 / area,
+    depth: (m: number) => m / depth,
+    intensity: (ms: number) => ms / intensity,
   };
 }

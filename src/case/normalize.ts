@@ -7,6 +7,7 @@ import { CaseError, show, type Problem } from "./errors.js";
 import { parseInflowCsv } from "./csv.js";
 import { baseArea, baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseLength, type UnitSystem } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
+import { caseHydrology, type StormHydrology } from "../hydrology/fromCase.js";
 
 export interface NormalizeContext {
   file: string;
@@ -42,7 +43,8 @@ export class Converter {
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
   const cv = new Converter(file.units, context.label);
   const pond = normalizePond(file, cv);
-  const storms = file.storms.map((storm, i) => normalizeStorm(storm, i, cv, context));
+  const hydrology = caseHydrology(file, cv);
+  const storms = file.storms.map((storm, i) => normalizeStorm(storm, i, cv, context, hydrology.storms[i]));
   const names = new Set<string>();
   file.storms.forEach((storm, i) => {
     if (names.has(storm.name)) cv.problem(`storms[${i}].name`, show(storm.name), "a storm name not used by another storm");
@@ -116,11 +118,12 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
   };
 }
 
-function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext): Storm {
+/** A storm's inflow and target: given explicitly, or derived from its rainfall (explicit values win). */
+function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm {
   const path = `storms[${index}]`;
   let minutes: number[] = [];
   let flows: number[] = [];
-  if (storm.inflow.series) {
+  if (storm.inflow?.series) {
     const series = storm.inflow.series;
     series.forEach(([t, q], i) => {
       if (q < 0) cv.problem(`${path}.inflow.series[${i}][1]`, show(q), "a flow of zero or more");
@@ -131,7 +134,7 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
     if (series.length < 2) cv.problem(`${path}.inflow.series`, `${series.length} points`, "at least two [minutes, flow] points");
     minutes = series.map((p) => p[0]);
     flows = series.map((p) => p[1]);
-  } else {
+  } else if (storm.inflow) {
     const name = storm.inflow.file!;
     const full = resolve(context.directory, name);
     let text: string | undefined;
@@ -149,14 +152,13 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
       }
     }
   }
-  const inflow: Hydrograph = {
-    times: Float64Array.from(minutes, (m) => m * 60),
-    flows: Float64Array.from(flows, (q) => q * cv.flow),
-  };
+  const inflow: Hydrograph = storm.inflow || !derived?.post
+    ? { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) }
+    : derived.post.hydrograph;
   return {
     name: storm.name,
     returnPeriod: storm.returnPeriod,
-    target: storm.target === undefined ? null : storm.target * cv.flow,
+    target: storm.target === undefined ? (derived?.pre?.peak ?? null) : storm.target * cv.flow,
     inflow,
   };
 }

@@ -1,25 +1,33 @@
 // The case file's schema: the single source of the file's types (see the case-format contract).
 // Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
 import { z } from "zod";
-import { LENGTH_UNITS } from "../units.js";
+import { AREA_UNITS, INTENSITY_UNITS, LENGTH_UNITS, QUANTITY_PATTERN } from "../units.js";
 
-const LENGTH_TEXT = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*([a-zA-Z]+)?\s*$/;
 const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "6 in"`;
 
 const finite = z.number({ error: "a finite number" }).refine(Number.isFinite, { message: "a finite number" });
 
+/** A number, or a string of a number and one of `units`; `expected` says what in messages. */
+function quantitySchema(units: Readonly<Record<string, number>>, expected: string) {
+  return z.union([finite, z.string()], { error: expected }).superRefine((value, ctx) => {
+    if (typeof value === "number") return;
+    const match = QUANTITY_PATTERN.exec(value);
+    if (!match || (match[2] !== undefined && units[match[2].toLowerCase()] === undefined)) {
+      ctx.addIssue({ code: "custom", message: expected, input: value });
+    }
+  });
+}
+/** The same, greater than zero. */
+function positiveQuantity(schema: ReturnType<typeof quantitySchema>, what: string) {
+  return schema.superRefine((value, ctx) => {
+    const n = typeof value === "number" ? value : parseFloat(String(value));
+    if (!(n > 0)) ctx.addIssue({ code: "custom", message: `${what} greater than zero`, input: value });
+  });
+}
+
 /** A length: a bare number in the case's base unit or a string with a unit ("6 in", "150 mm"). */
-export const lengthSchema = z.union([finite, z.string()], { error: LENGTH_EXPECTED }).superRefine((value, ctx) => {
-  if (typeof value === "number") return;
-  const match = LENGTH_TEXT.exec(value);
-  if (!match || (match[1] !== undefined && LENGTH_UNITS[match[1].toLowerCase()] === undefined)) {
-    ctx.addIssue({ code: "custom", message: LENGTH_EXPECTED, input: value });
-  }
-});
-const positiveLength = lengthSchema.superRefine((value, ctx) => {
-  const n = typeof value === "number" ? value : parseFloat(String(value));
-  if (!(n > 0)) ctx.addIssue({ code: "custom", message: "a length greater than zero", input: value });
-});
+export const lengthSchema = quantitySchema(LENGTH_UNITS, LENGTH_EXPECTED);
+const positiveLength = positiveQuantity(lengthSchema, "a length");
 const positive = finite.refine((v) => v > 0, { message: "a number greater than zero" });
 const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
 const pair = z.tuple([finite, finite], { error: "a pair of numbers [x, y]" });
@@ -95,12 +103,136 @@ export const inflowSchema = z
   })
   .superRefine(exactlyOne(["file", "series"], "inflow"));
 
-export const stormSchema = z.object({
-  name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
-  returnPeriod: positive,
-  target: nonNegative.optional(),
-  inflow: inflowSchema,
+// --- hydrology: rainfall and watershed data from which storms derive inflows and targets ---
+
+/** A watershed area: a bare number in acres (US) or hectares (SI), or "12 ac", "4.9 ha", "0.3 km2". */
+const positiveArea = positiveQuantity(
+  quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "12 ac"`),
+  "an area",
+);
+/** A rainfall depth: a bare number in inches (US) or millimetres (SI), or "3.2 in", "81 mm". */
+export const depthSchema = quantitySchema(LENGTH_UNITS, `a depth: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "3.2 in"`);
+const positiveDepth = positiveQuantity(depthSchema, "a depth");
+/** A rainfall intensity: a bare number in in/h (US) or mm/h (SI), or "2.5 in/h", "60 mm/h". */
+const positiveIntensity = positiveQuantity(
+  quantitySchema(INTENSITY_UNITS, `an intensity: a number, or a number and a unit (${Object.keys(INTENSITY_UNITS).join(", ")}) such as "2.5 in/h"`),
+  "an intensity",
+);
+const slope = finite.refine((v) => v > 0 && v <= 1, { message: "a slope in ft/ft or m/m greater than 0 and at most 1 (0.02 for 2 %)" });
+const manningN = finite.refine((v) => v > 0 && v < 1, { message: "a Manning's n greater than 0 and less than 1" });
+const curveNumber = finite.refine((v) => v >= 30 && v <= 100, { message: "a runoff curve number from 30 to 100" });
+const runoffCoefficient = finite.refine((v) => v > 0 && v <= 1, { message: "a runoff coefficient greater than 0 and at most 1" });
+
+export const flowSegmentSchema = z.discriminatedUnion(
+  "type",
+  [
+    z.object({ type: z.literal("sheet"), length: positiveLength, slope, manningN }),
+    z.object({
+      type: z.literal("shallow"),
+      length: positiveLength,
+      slope,
+      surface: z.enum(["paved", "unpaved"], { error: '"paved" or "unpaved"' }),
+    }),
+    z.object({ type: z.literal("channel"), length: positiveLength, slope, manningN, hydraulicRadius: positiveLength }),
+  ],
+  { error: 'a flow segment type: "sheet", "shallow" or "channel"' },
+);
+
+const subAreaSchema = z
+  .object({
+    name: z.string().optional(),
+    area: positiveArea,
+    curveNumber: curveNumber.optional(),
+    runoffCoefficient: runoffCoefficient.optional(),
+  })
+  .superRefine((part, ctx) => {
+    if (part.curveNumber === undefined && part.runoffCoefficient === undefined) {
+      ctx.addIssue({ code: "custom", message: "a curveNumber or a runoffCoefficient for the sub-area", input: "neither" });
+    }
+  });
+
+/** One drainage area (before or after development): size, runoff parameters and Tc. */
+export const catchmentSchema = z
+  .object({
+    area: positiveArea.optional(),
+    curveNumber: curveNumber.optional(),
+    runoffCoefficient: runoffCoefficient.optional(),
+    parts: z.array(subAreaSchema, { error: "a list of sub-areas" }).min(1, { message: "at least one sub-area" }).optional(),
+    tc: positive.optional(),
+    flowPath: z.array(flowSegmentSchema, { error: "a list of flow segments" }).min(1, { message: "at least one flow segment" }).optional(),
+    watershedLag: z.object({ flowLength: positiveLength, slope }).optional(),
+  })
+  .superRefine((c, ctx) => {
+    exactlyOne(["tc", "flowPath", "watershedLag"], "time of concentration")(c, ctx);
+    if (c.parts !== undefined) {
+      const extra = (["area", "curveNumber", "runoffCoefficient"] as const).filter((k) => c[k] !== undefined);
+      if (extra.length > 0) {
+        ctx.addIssue({ code: "custom", message: "either parts or area with curveNumber/runoffCoefficient, not both", input: `parts and ${extra.join(", ")}` });
+      }
+    } else {
+      if (c.area === undefined) ctx.addIssue({ code: "custom", path: ["area"], message: "an area (or a list of parts)", input: undefined });
+      if (c.curveNumber === undefined && c.runoffCoefficient === undefined) {
+        ctx.addIssue({ code: "custom", message: "a curveNumber (NRCS method) or a runoffCoefficient (rational method), or both", input: "neither" });
+      }
+    }
+  });
+
+/** A rainfall intensity-duration relation for the rational method. */
+export const idfSchema = z
+  .object({
+    table: z
+      .array(z.tuple([positive, positiveIntensity], { error: "a pair [minutes, intensity]" }), { error: "a table of [minutes, intensity] rows" })
+      .min(2, { message: "at least two [minutes, intensity] rows" })
+      .optional(),
+    formula: z.object({ a: positive, b: nonNegative, c: positive }).optional(),
+  })
+  .superRefine(exactlyOne(["table", "formula"], "IDF curve"));
+
+export const hydrologySchema = z.object({
+  pre: catchmentSchema.optional(),
+  post: catchmentSchema.optional(),
+  twoYearRainfall: positiveDepth.optional(),
+  initialAbstractionRatio: z.union([z.literal(0.2), z.literal(0.05)], { error: "0.2 or 0.05" }).optional(),
+  peakRateFactor: finite.refine((v) => v >= 100 && v <= 700, { message: "a peak rate factor from 100 to 700 (484 standard)" }).optional(),
+  idf: z.record(z.string(), idfSchema, { error: "an object of named IDF curves" }).optional(),
 });
+
+export const DISTRIBUTION_NAMES = ["I", "IA", "II", "III"] as const;
+
+/** A storm's rainfall: an NRCS 24-hour depth and distribution, a hyetograph, or an IDF curve by name. */
+export const rainfallSchema = z
+  .object({
+    depth: positiveDepth.optional(),
+    distribution: z.enum(DISTRIBUTION_NAMES, { error: 'an NRCS 24-hour distribution: "I", "IA", "II" or "III"' }).optional(),
+    hyetograph: z
+      .array(z.tuple([finite, depthSchema], { error: "a pair [minutes, cumulative depth]" }), { error: "a list of [minutes, cumulative depth] pairs" })
+      .min(2, { message: "at least two [minutes, cumulative depth] points" })
+      .optional(),
+    idf: z.string({ error: "the name of a curve in hydrology.idf" }).min(1).optional(),
+  })
+  .superRefine((r, ctx) => {
+    exactlyOne(["distribution", "hyetograph", "idf"], "rainfall")(r, ctx);
+    if (r.distribution !== undefined && r.depth === undefined) {
+      ctx.addIssue({ code: "custom", path: ["depth"], message: "the 24-hour rainfall depth for the distribution", input: undefined });
+    }
+    if (r.distribution === undefined && r.depth !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["depth"], message: "no depth here: a hyetograph carries its own depths, an IDF curve its intensities", input: r.depth });
+    }
+  });
+
+export const stormSchema = z
+  .object({
+    name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
+    returnPeriod: positive,
+    target: nonNegative.optional(),
+    inflow: inflowSchema.optional(),
+    rainfall: rainfallSchema.optional(),
+  })
+  .superRefine((storm, ctx) => {
+    if (storm.inflow === undefined && storm.rainfall === undefined) {
+      ctx.addIssue({ code: "custom", path: ["inflow"], message: "an inflow, or a rainfall to derive it from the hydrology section", input: undefined });
+    }
+  });
 
 export const criteriaSchema = z.object({
   tolerance: z
@@ -270,6 +402,7 @@ export const caseSchema = z.object({
   outlet: outletSchema.optional(),
   catalogue: catalogueSchema.optional(),
   costs: costsSchema.optional(),
+  hydrology: hydrologySchema.optional(),
 });
 
 export type CaseFile = z.infer<typeof caseSchema>;
@@ -281,3 +414,6 @@ export type SpillwayFile = z.infer<typeof spillwaySchema>;
 export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type Length = z.infer<typeof lengthSchema>;
+export type HydrologyFile = z.infer<typeof hydrologySchema>;
+export type CatchmentFile = z.infer<typeof catchmentSchema>;
+export type RainfallFile = z.infer<typeof rainfallSchema>;

@@ -1,0 +1,73 @@
+// `outfit hydrograph`: each rainfall storm's runoff per drainage area, and the hydrographs as CSV.
+import { readFileSync } from "node:fs";
+import { basename, join } from "node:path";
+import { caseSchema, type CaseFile } from "../case/schema.js";
+import { Converter } from "../case/normalize.js";
+import { CaseError } from "../case/errors.js";
+import { caseHydrology, AREA_NAMES } from "../hydrology/fromCase.js";
+import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
+import { writeFileAtomic } from "../io.js";
+import { emit, load, UsageError } from "./common.js";
+
+export interface HydrographCommandOptions {
+  out?: string;
+  json?: boolean;
+  storm?: string;
+  area?: string;
+}
+
+export function hydrographCommand(path: string, options: HydrographCommandOptions): number {
+  const { case: c } = load(path);
+  // The case is valid now; read its file once more for the hydrology details behind each storm.
+  const file: CaseFile = caseSchema.parse(JSON.parse(readFileSync(path, "utf8")));
+  const hydrology = caseHydrology(file, new Converter(file.units, basename(path)));
+  const withRainfall = c.storms.filter((_, i) => hydrology.storms[i] !== null).map((s) => s.name);
+  if (withRainfall.length === 0) {
+    throw new CaseError([{ where: `${basename(path)}: storms`, found: "no storm with a rainfall", expected: "at least one storm described by its rainfall (storms[].rainfall) and a hydrology section" }]);
+  }
+  if (options.storm !== undefined && !withRainfall.includes(options.storm)) {
+    throw new UsageError("--storm", options.storm, `the name of a storm with a rainfall (${withRainfall.join(", ")})`);
+  }
+  if (options.area !== undefined && !(AREA_NAMES as readonly string[]).includes(options.area)) {
+    throw new UsageError("--area", options.area, '"pre" or "post"');
+  }
+  const items: HydrographItem[] = [];
+  hydrology.storms.forEach((s, stormIndex) => {
+    if (!s || (options.storm !== undefined && c.storms[stormIndex].name !== options.storm)) return;
+    for (const area of AREA_NAMES) {
+      const result = s[area];
+      if (result && (options.area === undefined || options.area === area)) items.push({ stormIndex, area, result, file: null });
+    }
+  });
+  if (items.length === 0) throw new UsageError("--area", options.area ?? "", "an area the selected storms have (hydrology.pre or hydrology.post)");
+  if (options.out !== undefined) assignFiles(items, options.out, c.storms.map((s) => s.name));
+  // Everything is computed before anything is written; each file is written whole.
+  for (const item of items) if (item.file) writeFileAtomic(item.file, hydrographCsv(c, item.result.hydrograph));
+  const given: GivenValues[] = file.storms.map((s) => ({ inflow: s.inflow !== undefined, target: s.target !== undefined }));
+  emit(options.json ? JSON.stringify(hydrographJson(c, hydrology, items, given), null, 2) : hydrographText(c, hydrology, items, given), undefined);
+  return 0;
+}
+
+/** `--out x.csv` takes exactly one hydrograph; any other `--out` is a directory of `<storm>-<area>.csv` files. */
+function assignFiles(items: HydrographItem[], out: string, stormNames: string[]): void {
+  if (out.toLowerCase().endsWith(".csv")) {
+    if (items.length !== 1) {
+      throw new UsageError("--out", out, `a directory (${items.length} hydrographs are selected; use --storm and --area to select one for a single file)`);
+    }
+    items[0].file = out;
+    return;
+  }
+  const used = new Set<string>();
+  for (const item of items) {
+    const stem = `${safeName(stormNames[item.stormIndex])}-${item.area}`;
+    let name = `${stem}.csv`;
+    for (let n = 2; used.has(name); n++) name = `${stem}-${n}.csv`;
+    used.add(name);
+    item.file = join(out, name);
+  }
+}
+
+/** A storm name as a file name: letters, digits, dot, dash and underscore kept, the rest as "_". */
+function safeName(name: string): string {
+  return name.replace(/[^A-Za-z0-9._-]+/g, "_") || "storm";
+}

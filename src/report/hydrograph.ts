@@ -1,0 +1,204 @@
+// Output of `outfit hydrograph`: the areas, each storm's runoff per area, the rational duration sweep,
+// and the hydrographs as CSV, in the case's units.
+import type { Case, Hydrograph } from "../case/model.js";
+import type { AreaName, CaseHydrology, Catchment, StormHydrology } from "../hydrology/fromCase.js";
+import type { AreaHydrograph } from "../hydrology/hydrograph.js";
+import { dimensionlessShape } from "../hydrology/unitHydrograph.js";
+import { formatter, trimNumber } from "../format.js";
+import { hydrologyUnits, toCaseUnits } from "../units.js";
+import { plainTable } from "./console.js";
+import { CAUTION } from "./caution.js";
+
+/** Which of a storm's inflow and target the case file gives explicitly (explicit values win). */
+export interface GivenValues {
+  inflow: boolean;
+  target: boolean;
+}
+
+/** One hydrograph selected for output, with the CSV file it is written to (if any). */
+export interface HydrographItem {
+  stormIndex: number;
+  area: AreaName;
+  result: AreaHydrograph;
+  file: string | null;
+}
+
+const SECONDS_PER_MINUTE = 60;
+
+/** A duration in minutes below two hours, else in hours. */
+export function durationText(seconds: number): string {
+  return seconds < 7200 ? `${(seconds / 60).toFixed(1)} min` : `${(seconds / 3600).toFixed(2)} h`;
+}
+
+/** The hydrograph as CSV: header `minutes,flow`, flows in the case's flow unit (readable as an inflow file). */
+export function hydrographCsv(c: Case, h: Hydrograph): string {
+  const u = toCaseUnits(c.units);
+  const lines = ["minutes,flow"];
+  for (let i = 0; i < h.times.length; i++) lines.push(`${trimNumber(h.times[i] / SECONDS_PER_MINUTE, 4)},${Number(u.flow(h.flows[i]).toPrecision(6))}`);
+  return lines.join("\n") + "\n";
+}
+
+/** The rainfall of one storm on one area: the depth and its pattern, or the IDF intensity and duration used. */
+function rainfallText(c: Case, s: StormHydrology, r: AreaHydrograph): string {
+  const hu = hydrologyUnits(c.units);
+  const depth = (m: number) => `${hu.depth(m).toFixed(c.units === "US" ? 2 : 1)} ${hu.labels.depth}`;
+  switch (s.rainfall.kind) {
+    case "distribution":
+      return `${depth(s.rainfall.depth)}, 24-h Type ${s.rainfall.distribution}`;
+    case "hyetograph":
+      return `${depth(s.rainfall.depth)}, hyetograph`;
+    case "idf":
+      return `${hu.intensity(r.rainfall / r.stormDuration!).toFixed(2)} ${hu.labels.intensity} for ${durationText(r.stormDuration!)} (IDF "${s.rainfall.name}")`;
+  }
+}
+
+function tcText(k: Catchment): string {
+  return k.tcMethod === "flow path" ? `flow path (${k.travelTimes.length} segment${k.travelTimes.length > 1 ? "s" : ""})` : k.tcMethod;
+}
+
+/** What a derived hydrograph is used for in the routed case. */
+function usedAs(area: AreaName, given: GivenValues): string {
+  if (area === "post") return given.inflow ? "shown only (inflow given)" : "inflow";
+  return given.target ? "shown only (target given)" : "target (its peak)";
+}
+
+export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[], given: GivenValues[]): string {
+  const f = formatter(c.units);
+  const hu = hydrologyUnits(c.units);
+  const depth = (m: number) => `${hu.depth(m).toFixed(c.units === "US" ? 2 : 1)} ${hu.labels.depth}`;
+  const areas = plainTable(["Area", "Size", "Curve number", "Runoff coefficient", "Tc", "Tc from"], [false, true, true, true, true, false]);
+  for (const name of ["pre", "post"] as const) {
+    const k = h.catchments[name];
+    if (!k) continue;
+    areas.push([
+      name,
+      `${hu.area(k.area).toFixed(2)} ${hu.labels.area}`,
+      k.curveNumber === null ? "-" : k.curveNumber.toFixed(1),
+      k.runoffCoefficient === null ? "-" : k.runoffCoefficient.toFixed(2),
+      durationText(k.tc),
+      tcText(k),
+    ]);
+  }
+  const storms = plainTable(
+    ["Storm", "Rainfall", "Area", "Runoff", "Peak", "Time to peak", "Volume", "Tc used", "Step", "Used as"],
+    [false, false, false, true, true, true, true, true, true, false],
+  );
+  for (const item of items) {
+    const s = h.storms[item.stormIndex]!;
+    const r = item.result;
+    storms.push([
+      c.storms[item.stormIndex].name,
+      rainfallText(c, s, r),
+      item.area,
+      depth(r.runoff),
+      f.flow(r.peak),
+      durationText(r.timeOfPeak),
+      f.volume(r.volume),
+      durationText(r.tc),
+      r.unitDuration === null ? "-" : durationText(r.unitDuration),
+      usedAs(item.area, given[item.stormIndex]),
+    ]);
+  }
+  const methods = new Set(h.storms.filter((s) => s !== null).map((s) => s!.method));
+  const lines = [`outfit hydrograph: ${c.name} (${c.units} units)`];
+  if (methods.has("nrcs")) {
+    lines.push(
+      `NRCS method: initial abstraction ratio ${h.nrcs.ratio}${h.nrcs.ratio === 0.05 ? " (curve numbers converted, Hawkins et al. 2002)" : ""}; ` +
+        `unit hydrograph ${dimensionlessShape(h.nrcs.peakRateFactor).source}; step = unit duration <= 0.133 Tc`,
+    );
+  }
+  if (methods.has("rational")) lines.push("Rational method: Q = C i A; inflow = modified rational hydrograph of the duration needing the most storage");
+  lines.push("", areas.toString(), "", storms.toString());
+  const sweeps = items.filter((i) => i.area === "post" && h.storms[i.stormIndex]!.sweep);
+  for (const item of sweeps) {
+    const s = h.storms[item.stormIndex]!;
+    const k = s.sweep!.critical;
+    lines.push(
+      "",
+      `${c.storms[item.stormIndex].name}: of ${s.sweep!.trials.length} storm durations from ${durationText(s.sweep!.trials[0].duration)} to ` +
+        `${durationText(s.sweep!.trials[s.sweep!.trials.length - 1].duration)}, ${durationText(k.duration)} needs the most storage: ` +
+        `${hu.intensity(k.intensity).toFixed(2)} ${hu.labels.intensity}, peak ${f.flow(k.peak)}, ${f.volume(k.storage)} held to a release of ${f.flow(s.allowable!)}`,
+    );
+  }
+  const written = items.filter((i) => i.file !== null);
+  if (written.length > 0) lines.push("", "Hydrographs written (minutes, flow in " + f.labels.flow + "):", ...written.map((i) => `  ${i.file}`));
+  lines.push("", `Caution: ${CAUTION}`);
+  return lines.join("\n");
+}
+
+export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[], given: GivenValues[]) {
+  const u = toCaseUnits(c.units);
+  const hu = hydrologyUnits(c.units);
+  const minutes = (s: number | null) => (s === null ? null : s / SECONDS_PER_MINUTE);
+  const catchment = (k: Catchment | null) =>
+    k && {
+      area: hu.area(k.area),
+      curveNumber: k.curveNumber,
+      runoffCoefficient: k.runoffCoefficient,
+      tc: minutes(k.tc),
+      tcFrom: k.tcMethod,
+      travelTimes: k.travelTimes.map((t) => minutes(t)),
+    };
+  const storms = h.storms.flatMap((s, index) => {
+    const mine = items.filter((i) => i.stormIndex === index);
+    if (!s || mine.length === 0) return [];
+    const r = s.rainfall;
+    return [
+      {
+        name: c.storms[index].name,
+        returnPeriod: c.storms[index].returnPeriod,
+        method: s.method,
+        rainfall: {
+          kind: r.kind,
+          depth: r.kind === "idf" ? null : hu.depth(r.depth),
+          distribution: r.kind === "distribution" ? r.distribution : null,
+          idf: r.kind === "idf" ? r.name : null,
+        },
+        inflow: given[index].inflow ? "given" : "derived",
+        target: c.storms[index].target === null ? null : u.flow(c.storms[index].target!),
+        targetFrom: given[index].target ? "given" : c.storms[index].target === null ? null : "derived",
+        areas: Object.fromEntries(
+          mine.map((i) => [
+            i.area,
+            {
+              rainfall: hu.depth(i.result.rainfall),
+              runoff: hu.depth(i.result.runoff),
+              peak: u.flow(i.result.peak),
+              timeOfPeak: minutes(i.result.timeOfPeak),
+              volume: u.volume(i.result.volume),
+              tc: minutes(i.result.tc),
+              unitDuration: minutes(i.result.unitDuration),
+              unitTimeToPeak: minutes(i.result.unitTimeToPeak),
+              stormDuration: minutes(i.result.stormDuration),
+              points: i.result.hydrograph.times.length,
+              file: i.file,
+            },
+          ]),
+        ),
+        sweep: s.sweep && {
+          allowable: u.flow(s.allowable!),
+          criticalDuration: minutes(s.sweep.critical.duration),
+          storage: u.volume(s.sweep.critical.storage),
+          trials: s.sweep.trials.map((t) => ({
+            duration: minutes(t.duration),
+            intensity: hu.intensity(t.intensity),
+            peak: u.flow(t.peak),
+            storage: u.volume(t.storage),
+          })),
+        },
+      },
+    ];
+  });
+  const labels = formatter(c.units).labels;
+  return {
+    tool: "outfit",
+    command: "hydrograph",
+    case: c.name,
+    units: c.units,
+    caution: CAUTION,
+    unitLabels: { flow: labels.flow, volume: labels.volume, area: hu.labels.area, depth: hu.labels.depth, intensity: hu.labels.intensity, time: "min" },
+    nrcs: { initialAbstractionRatio: h.nrcs.ratio, peakRateFactor: h.nrcs.peakRateFactor, unitHydrograph: dimensionlessShape(h.nrcs.peakRateFactor).source },
+    areas: { pre: catchment(h.catchments.pre), post: catchment(h.catchments.post) },
+    storms,
+  };
+}

@@ -1,0 +1,68 @@
+import { describe, expect, it } from "vitest";
+import { nrcsHydrograph, unitDuration } from "../../src/hydrology/nrcsHydrograph.js";
+import { distributionMassCurve, DISTRIBUTIONS } from "../../src/hydrology/distributions.js";
+import { runoffDepth } from "../../src/hydrology/runoff.js";
+
+const IN = 0.0254;
+const MM = 0.001;
+const SQUARE_MILE = 640 * 43560 * 0.3048 ** 2;
+const CFS = 0.3048 ** 3;
+const HOUR = 3600;
+
+describe("NRCS runoff hydrograph", () => {
+  it.each([
+    ["II", 78, 0.8, 5.9],
+    ["II", 61, 0.3, 3.1],
+    ["III", 90, 1.5, 7.0],
+    ["IA", 70, 0.12, 4.0],
+  ] as const)("holds the runoff depth of the whole storm: volume = A Q(P) within 0.5 %% (Type %s, CN %i, Tc %f h, P %f in)", (type, cn, tc, p) => {
+    const area = 0.7 * SQUARE_MILE;
+    const h = nrcsHydrograph(area, cn, tc * HOUR, distributionMassCurve(type, p * IN));
+    expect(Math.abs(h.volume / (area * runoffDepth(p * IN, cn)) - 1)).toBeLessThan(0.005);
+  });
+
+  // FHWA HEC-22 (3rd ed., 2009) Example 3-5: A = 2.35 mi2 (6.1 km2), CN 78, P = 5.9 in (150 mm), Type II,
+  // Tc = 0.8 h -> qp = 3354 cfs (96 m3/s). The printed peak comes from TR-55's graphical method (its
+  // App. F fit to TR-20 hydrographs), not from a convolution; the convolved peak must agree within 5 %
+  // (our allowance for that fit and for the 0.25-h resolution of the Type II values near 12 h).
+  it("HEC-22 Example 3-5 (US): peak within 5 % of 3354 cfs", () => {
+    const h = nrcsHydrograph(2.35 * SQUARE_MILE, 78, 0.8 * HOUR, distributionMassCurve("II", 5.9 * IN));
+    expect(Math.abs(h.runoff / IN - 3.49)).toBeLessThanOrEqual(0.005);
+    expect(Math.abs(h.peak / CFS / 3354 - 1)).toBeLessThan(0.05);
+  });
+  it("HEC-22 Example 3-5 (SI): peak within 5 % of 96 m3/s", () => {
+    const h = nrcsHydrograph(6.1e6, 78, 0.8 * HOUR, distributionMassCurve("II", 150 * MM));
+    expect(Math.abs(h.runoff / MM - 89)).toBeLessThanOrEqual(0.5);
+    expect(Math.abs(h.peak / 96 - 1)).toBeLessThan(0.05);
+  });
+
+  it("gives the same hydrograph for the Type II values given as a hyetograph", () => {
+    const depth = 4 * IN;
+    const rows = DISTRIBUTIONS.II.rows;
+    const hyetograph = { times: rows.map((r) => r[0] * HOUR), depths: rows.map((r) => r[1] * depth) };
+    const a = nrcsHydrograph(1e6, 82, 1800, distributionMassCurve("II", depth));
+    const b = nrcsHydrograph(1e6, 82, 1800, hyetograph);
+    expect(Array.from(b.hydrograph.flows)).toEqual(Array.from(a.hydrograph.flows));
+  });
+
+  it("steps no longer than 0.133 Tc nor the rainfall's resolution (NEH 630 ch. 16)", () => {
+    expect(unitDuration(45 * 60, 900)).toBe(5 * 60);
+    expect(unitDuration(3 * HOUR, 900)).toBe(15 * 60);
+    expect(unitDuration(3 * HOUR, 240)).toBe(3 * 60);
+    expect(unitDuration(6 * 60, 900)).toBe(30);
+    expect(unitDuration(6 * 60, 10)).toBe(10);
+  });
+
+  it("a larger peak rate factor gives a sharper, higher peak for the same runoff", () => {
+    const curve = distributionMassCurve("II", 5 * IN);
+    const peaks = [300, 484, 600].map((prf) => nrcsHydrograph(SQUARE_MILE, 80, HOUR, curve, { ratio: 0.2, peakRateFactor: prf }).peak);
+    expect(peaks[0]).toBeLessThan(peaks[1]);
+    expect(peaks[1]).toBeLessThan(peaks[2]);
+  });
+
+  it("peaks after the Type II burst at 11.75-12 h and after it by about the lag", () => {
+    const h = nrcsHydrograph(SQUARE_MILE, 80, HOUR, distributionMassCurve("II", 5 * IN));
+    expect(h.timeOfPeak).toBeGreaterThan(12 * HOUR);
+    expect(h.timeOfPeak).toBeLessThan(12 * HOUR + 1.5 * 0.6 * HOUR);
+  });
+});
