@@ -2,39 +2,19 @@
 // chamber, which the barrel drains; without a barrel they discharge straight to tailwater. The
 // spillway always discharges straight downstream. No reverse flow: a downstream level above the
 // pond stage gives zero outflow.
-import type { Element, Outlet, Tailwater } from "../case/model.js";
-import { orificeFlow } from "./orifice.js";
-import { weirFlow } from "./weir.js";
-import { regulatorFlow } from "./regulator.js";
+import type { Outlet, Tailwater } from "../case/model.js";
 import { rimFlow } from "./riser.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
-import { chamberLevel, type ChamberSolution } from "./chamber.js";
+import { chamberFlow, chamberLevel, type ChamberSolution } from "./chamber.js";
+import { elementBottom, elementFlow, openingsFlow } from "./openings.js";
 
-export function elementFlow(e: Element, ws: number, ds: number): number {
-  switch (e.type) {
-    case "orifice":
-      return orificeFlow(e, ws, ds);
-    case "weir":
-      return weirFlow(e, ws, ds);
-    case "regulator":
-      return regulatorFlow(e, ws, ds);
-  }
-}
-
-/** Flow in through every opening and the rim for a downstream (chamber or tailwater) level. */
-export function openingsFlow(outlet: Outlet, ws: number, ds: number): number {
-  let q = 0;
-  const elements = outlet.elements;
-  for (let i = 0; i < elements.length; i++) q += elementFlow(elements[i], ws, ds);
-  if (outlet.riser) q += rimFlow(outlet.riser, ws, ds).flow;
-  return q;
-}
+export { elementBottom, elementFlow, openingsFlow } from "./openings.js";
 
 /** Total outflow for a given tailwater level (-Infinity for a free outfall). */
 export function dischargeAtTailwater(outlet: Outlet, ws: number, tw: number): number {
   const spill = outlet.spillway ? spillwayFlow(outlet.spillway, ws, tw) : 0;
-  if (outlet.barrel) return chamberLevel(outlet, ws, tw).flow + spill;
+  if (outlet.barrel) return chamberFlow(outlet, ws, tw) + spill;
   return openingsFlow(outlet, ws, tw) + spill;
 }
 
@@ -82,6 +62,11 @@ export interface OutletDetail {
   barrel: number | null;
   /** Chamber level when a barrel drains the chamber. */
   chamber: number | null;
+  /** The barrel's headwater above its inlet invert (m) at its flow: the larger of inlet and
+   * outlet control, which may stand above the pond when nothing flows. */
+  barrelHeadwater: number | null;
+  /** Which control the barrel is under at its flow (even while the openings govern). */
+  barrelControl: "inlet" | "outlet" | null;
   /** Tailwater level, null for a free outfall. */
   tailwater: number | null;
   control: Control;
@@ -117,12 +102,9 @@ export function outletDetail(outlet: Outlet, tail: Tailwater, ws: number): Outle
     spillway,
     barrel: chamber ? chamber.flow : null,
     chamber: chamber ? chamber.level : null,
+    barrelHeadwater: chamber ? chamber.barrel.headwater : null,
+    barrelControl: chamber ? chamber.barrel.control : null,
     tailwater: tw,
     control,
   };
-}
-
-/** Lowest point of an element's opening (invert or crest). */
-export function elementBottom(e: Element): number {
-  return e.type === "weir" ? e.crest : e.invert;
 }
