@@ -32,9 +32,10 @@ function segmentAreaByAngle(d: number, theta: number): number {
  * (theta -> 2 pi), so the root is unique.
  */
 function circularCriticalAngle(flow: number, d: number): number {
-  const target = Math.log((flow * flow) / GRAVITY);
+  // In logarithms throughout, so that no square of a tiny flow underflows.
+  const target = 2 * Math.log(flow) - Math.log(GRAVITY);
   // Small-angle start: A ~ d^2 theta^3 / 48, T ~ d theta / 2, so A^3/T ~ d^5 theta^8 / 55296.
-  let theta = Math.pow((55296 * flow * flow) / (GRAVITY * Math.pow(d, 5)), 0.125);
+  let theta = Math.exp((Math.log(55296) + target - 5 * Math.log(d)) / 8);
   let low = 0;
   let high = 2 * Math.PI;
   if (!(theta > low && theta < high)) theta = Math.PI;
@@ -43,12 +44,13 @@ function circularCriticalAngle(flow: number, d: number): number {
     const half = 0.5 * theta;
     const top = d * Math.sin(half);
     const g = 3 * Math.log(area) - Math.log(top) - target;
+    if (g === 0) return theta;
     if (g > 0) high = theta;
     else low = theta;
     const slope = (3 * (d * d * (1 - Math.cos(theta)))) / 8 / area - (0.5 * d * Math.cos(half)) / top;
     let next = theta - g / slope;
-    if (!(next > low && next < high)) next = 0.5 * (low + high);
-    if (Math.abs(next - theta) <= 1e-14 * (1 + theta) || high - low <= 1e-15) return next;
+    if (!(next >= low && next <= high)) next = 0.5 * (low + high);
+    if (Math.abs(next - theta) <= 1e-13 * theta || high - low <= 1e-13 * theta) return next;
     theta = next;
   }
   return theta;

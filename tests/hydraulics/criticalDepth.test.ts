@@ -35,6 +35,15 @@ describe("critical depth", () => {
     );
   });
 
+  it("follows the small-depth limit A^3/T ~ d^5 theta^8 / 55296 down to vanishing flows (no underflow)", () => {
+    // theta = 4 asin(sqrt(y/d)); for small theta, Q^2/g = d^5 theta^8 / 55296 (series of A and T).
+    for (const q of [1e-150, 1e-100, 1e-40, 1e-20]) {
+      const y = circularCriticalDepth(q, 0.5);
+      const theta = 4 * Math.asin(Math.sqrt(y / 0.5));
+      expect(5 * Math.log(0.5) + 8 * Math.log(theta) - Math.log(55296) - (2 * Math.log(q) - Math.log(GRAVITY))).toBeCloseTo(0, 9);
+    }
+  });
+
   it("rises with flow and is zero at zero flow", () => {
     expect(circularCriticalDepth(0, 1)).toBe(0);
     expect(boxCriticalDepth(0, 1)).toBe(0);
