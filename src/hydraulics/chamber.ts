@@ -38,7 +38,7 @@ export function chamberFlow(outlet: Outlet, ws: number, tw: number): number {
   const freeExcess = freeLevel < ws ? openingsFlow(outlet, ws, freeLevel) - free : -free;
   if (freeExcess >= 0) return free;
   const excess = (q: number) => openingsFlow(outlet, ws, b.inletInvert + barrelHeadwater(b, q, tw)) - q;
-  const atZero = excess(0);
+  const atZero = b.inletInvert + barrelHeadwater(b, 0, tw) <= lowestOpening(outlet) ? free : excess(0);
   if (!(atZero > 0)) return 0;
   return brentRoot(excess, 0, free, atZero, freeExcess, CHAMBER_TOLERANCE * free);
 }

@@ -8,6 +8,7 @@ import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { chamberFlow, chamberLevel, type ChamberSolution } from "./chamber.js";
 import { elementBottom, elementFlow, openingsFlow } from "./openings.js";
+import { brentRoot } from "./roots.js";
 
 export { elementBottom, elementFlow, openingsFlow } from "./openings.js";
 
@@ -26,18 +27,14 @@ export function outletDischarge(outlet: Outlet, tail: Tailwater, ws: number): nu
 
 /**
  * With a downstream channel rating the tailwater depends on the outflow itself: find O with
- * O = discharge(ws, TW(O)). The right side falls as O rises, so the root is unique; bisection.
+ * O = discharge(ws, TW(O)). The right side falls as O rises, so the root is unique; Brent's method
+ * on [0, discharge at the lowest tailwater] (each evaluation may be a chamber solve, so few matter).
  */
 function solveWithTailwaterRating(outlet: Outlet, tail: Tailwater, ws: number): number {
-  let low = 0;
-  let high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
-  if (high <= 0) return 0;
-  for (let i = 0; i < 60 && high - low > 1e-12 * (1 + high); i++) {
-    const mid = 0.5 * (low + high);
-    if (dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, mid)) > mid) low = mid;
-    else high = mid;
-  }
-  return 0.5 * (low + high);
+  const high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
+  if (!(high > 0)) return 0;
+  const excess = (o: number) => dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, o)) - o;
+  return brentRoot(excess, 0, high, high, excess(high), 1e-11 * high);
 }
 
 /** What limits the flow at a stage, in words an engineer uses. */
