@@ -83,9 +83,9 @@ export function submergedRatio(e: Entrance, x: number, slope: number): number {
 
 /**
  * Unsubmerged HW/D of a barrel at a flow. At very small flows the fitted forms fall below the
- * critical specific head (the slope term alone makes form 1 negative as Q -> 0), which no water
- * can enter a barrel with; there the critical specific head is used, so the headwater rises
- * strictly and continuously from zero.
+ * critical specific head Hc, the least energy with which the flow can pass the inlet (the slope
+ * term alone makes form 1 negative as Q -> 0); there Hc is used, so the headwater rises strictly
+ * and continuously from zero.
  */
 function unsubmergedHeadwaterRatio(b: Barrel, e: Entrance, flow: number, slope: number, dc: number): number {
   const hcRatio = criticalHead(b, flow, dc) / barrelRise(b);
