@@ -8,7 +8,8 @@ import { openingHeight, openingWidth } from "../hydraulics/orifice.js";
 import { weirWidth } from "../hydraulics/weir.js";
 import { riserPerimeter } from "../hydraulics/riser.js";
 import { regulatorMaxHead } from "../hydraulics/regulator.js";
-import { elementBottom } from "../hydraulics/outlet.js";
+import { elementBottom, openingsFlow, outletDetail } from "../hydraulics/outlet.js";
+import { barrelRise } from "../hydraulics/barrel.js";
 
 export interface Warning {
   /** Which part: its path in the case file and a short description. */
@@ -28,6 +29,15 @@ export const VNOTCH_ANGLES = [20, 100] as const;
 /** Orifice discharge coefficients 0.40 (ragged) to 0.60 (square-edged) (HEC-22 sec. 8.4.4.1) and 0.61-0.62
  * for sharp-edged plates (USBR WMM; from memory). */
 export const ORIFICE_COEFFICIENTS = [0.4, 0.62] as const;
+/** Largest HW/D the HDS-5 inlet-control charts cover: the regression polynomials fitted to them apply
+ * for 0.5 <= HW/D <= 3.0 (TxDOT Hydraulic Design Manual, ch. 8 sec. 3, eq 8-4); beyond it the
+ * equations are extrapolated. */
+export const BARREL_MAX_HEADWATER_RATIO = 3.0;
+/** Below HW = 0.75 D HDS-5 advises against the approximate outlet-control method with
+ * ho = max(TW, (dc + D)/2) and calls for a backwater calculation (HDS-5 2nd ed. ch. III). */
+export const BARREL_PART_FULL_RATIO = 0.75;
+/** Stages scanned below the highest routed stage when looking for the part-full approximation. */
+const BARREL_SCAN_STAGES = 48;
 
 export function partLabel(e: Element, index: number, f: Formatter): string {
   const where = `outlet.elements[${index}]`;
@@ -79,6 +89,7 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
     }
   });
   if (outlet.riser) warnings.push(...wallWarnings(outlet, maxStage, f));
+  if (outlet.barrel) warnings.push(...barrelWarnings(c, outlet, routing, f));
   if (routing.table.heldNodes > 0) {
     warnings.push({ part: "outlet", reason: `the combined rating fell with rising stage at ${routing.table.heldNodes} stages and was held level there` });
   }
@@ -108,6 +119,59 @@ function wallWarnings(outlet: Outlet, maxStage: number, f: Formatter): Warning[]
         reason: `openings at ${f.elevation(bottom)} need ${f.length(width)} of wall, more than the riser's perimeter of ${f.length(perimeter)}`,
       });
     }
+  }
+  return warnings;
+}
+
+/** The barrel used outside what its HDS-5 forms cover, judged where it limits the outflow. */
+export function barrelWarnings(c: Case, outlet: Outlet, routing: CaseRouting, f: Formatter): Warning[] {
+  const b = outlet.barrel!;
+  const rise = barrelRise(b);
+  const part = `outlet.barrel (${b.shape === "circular" ? f.size(b.diameter) : `${f.length(b.span)} x ${f.length(b.rise)}`} barrel)`;
+  const warnings: Warning[] = [];
+  const fullAgainstTailwater: string[] = [];
+  let steepest: { storm: string; ratio: number } | null = null;
+  for (const { storm, result } of routing.storms) {
+    const d = outletDetail(outlet, c.tailwater, result.maxStage);
+    if (d.chamber === null) continue;
+    const ratio = (d.chamber - b.inletInvert) / rise;
+    if (ratio > BARREL_MAX_HEADWATER_RATIO && (!steepest || ratio > steepest.ratio)) steepest = { storm: storm.name, ratio };
+    if (d.control === "barrel outlet control" && d.tailwater !== null && d.tailwater - b.outletInvert >= rise) {
+      fullAgainstTailwater.push(`${storm.name} (tailwater ${f.length(d.tailwater - b.outletInvert)} above the outlet invert)`);
+    }
+  }
+  if (fullAgainstTailwater.length) {
+    warnings.push({
+      part,
+      reason: `runs full under outlet control against a tailwater at or above its crown at the peak of ${fullAgainstTailwater.join(", ")}: the downstream level sets the outlet's capacity, so check the tailwater rating`,
+    });
+  }
+  if (steepest) {
+    warnings.push({
+      part,
+      reason: `headwater reaches HW/D = ${steepest.ratio.toFixed(2)} at the peak of ${steepest.storm}, beyond the ${BARREL_MAX_HEADWATER_RATIO.toFixed(1)} the HDS-5 inlet-control charts cover; the equations are extrapolated`,
+    });
+  }
+  const top = Math.max(...routing.storms.map((s) => s.result.maxStage));
+  let lowest = Infinity;
+  let highest = -Infinity;
+  for (let i = 1; i <= BARREL_SCAN_STAGES; i++) {
+    const stage = c.pond.pool + ((top - c.pond.pool) * i) / BARREL_SCAN_STAGES;
+    const d = outletDetail(outlet, c.tailwater, stage);
+    // The approximation limits the outflow where the chamber holds the openings back (down to no
+    // flow at all) while the barrel is in outlet control with a headwater below 0.75 D.
+    const held = d.barrel !== null && d.barrel < openingsFlow(outlet, stage, -Infinity) * (1 - 1e-9);
+    const belowPond = d.tailwater === null || d.tailwater < stage;
+    if (held && belowPond && d.barrelControl === "outlet" && d.barrelHeadwater !== null && d.barrelHeadwater < BARREL_PART_FULL_RATIO * rise) {
+      lowest = Math.min(lowest, stage);
+      highest = Math.max(highest, stage);
+    }
+  }
+  if (highest >= lowest) {
+    warnings.push({
+      part,
+      reason: `limits the outflow under outlet control with a headwater below 0.75 D (stages ${f.elevation(lowest)} to ${f.elevation(highest)}), where HDS-5's approximation ho = max(TW, (dc + D)/2) is weak and a backwater calculation is called for; the chamber level there is likely too high`,
+    });
   }
   return warnings;
 }

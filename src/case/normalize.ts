@@ -8,6 +8,7 @@ import { parseInflowCsv } from "./csv.js";
 import { baseArea, baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseLength, type UnitSystem } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "../hydrology/fromCase.js";
+import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
 
 export interface NormalizeContext {
   file: string;
@@ -213,6 +214,10 @@ export function normalizeOutlet(o: OutletFile, cv: Converter, path: string): Out
       entrance: b.entrance,
       keep: b.keep ?? false,
     };
+    const row = ENTRANCE_TABLE[b.entrance];
+    if (row.shape !== b.shape) {
+      cv.problem(`${path}.barrel.entrance`, show(b.entrance), `an entrance for a ${b.shape} barrel (${entrancesFor(b.shape).join(", ")})`);
+    }
     outlet.barrel =
       b.shape === "circular"
         ? { shape: "circular", diameter: cv.length(b.diameter, `${path}.barrel.diameter`), ...common }

@@ -2,39 +2,20 @@
 // chamber, which the barrel drains; without a barrel they discharge straight to tailwater. The
 // spillway always discharges straight downstream. No reverse flow: a downstream level above the
 // pond stage gives zero outflow.
-import type { Element, Outlet, Tailwater } from "../case/model.js";
-import { orificeFlow } from "./orifice.js";
-import { weirFlow } from "./weir.js";
-import { regulatorFlow } from "./regulator.js";
-import { rimDischarge, rimFlow } from "./riser.js";
+import type { Outlet, Tailwater } from "../case/model.js";
+import { rimFlow } from "./riser.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
-import { chamberLevel, type ChamberSolution } from "./chamber.js";
+import { chamberFlow, chamberLevel, type ChamberSolution } from "./chamber.js";
+import { elementBottom, elementFlow, lowestOpening, openingsFlow } from "./openings.js";
+import { brentRoot } from "./roots.js";
 
-export function elementFlow(e: Element, ws: number, ds: number): number {
-  switch (e.type) {
-    case "orifice":
-      return orificeFlow(e, ws, ds);
-    case "weir":
-      return weirFlow(e, ws, ds);
-    case "regulator":
-      return regulatorFlow(e, ws, ds);
-  }
-}
-
-/** Flow in through every opening and the rim for a downstream (chamber or tailwater) level. */
-export function openingsFlow(outlet: Outlet, ws: number, ds: number): number {
-  let q = 0;
-  const elements = outlet.elements;
-  for (let i = 0; i < elements.length; i++) q += elementFlow(elements[i], ws, ds);
-  if (outlet.riser) q += rimDischarge(outlet.riser, ws, ds);
-  return q;
-}
+export { elementBottom, elementFlow, openingsFlow } from "./openings.js";
 
 /** Total outflow for a given tailwater level (-Infinity for a free outfall). */
 export function dischargeAtTailwater(outlet: Outlet, ws: number, tw: number): number {
   const spill = outlet.spillway ? spillwayFlow(outlet.spillway, ws, tw) : 0;
-  if (outlet.barrel) return chamberLevel(outlet, ws, tw).flow + spill;
+  if (outlet.barrel) return chamberFlow(outlet, ws, tw) + spill;
   return openingsFlow(outlet, ws, tw) + spill;
 }
 
@@ -46,43 +27,21 @@ export function outletDischarge(outlet: Outlet, tail: Tailwater, ws: number): nu
 
 /**
  * With a downstream channel rating the tailwater depends on the outflow itself: find O with
- * O = discharge(ws, TW(O)). The right side falls as O rises, so the root is unique; bisection.
+ * O = discharge(ws, TW(O)). The right side falls as O rises, so the root is unique; Brent's method
+ * on [0, discharge at the lowest tailwater] (each evaluation may be a chamber solve, so few matter).
  */
 function solveWithTailwaterRating(outlet: Outlet, tail: Tailwater, ws: number): number {
-  let low = 0;
-  let high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
-  if (high <= 0) return 0;
-  // When even the largest possible outflow leaves the tailwater below every opening, it does not matter.
-  if (tailwaterLevel(tail, high) <= lowestOpening(outlet)) return high;
-  // Illinois (modified regula falsi) on g(O) = discharge(TW(O)) - O, bracketed by g(low) >= 0 >= g(high).
-  let gLow = high;
-  let gHigh = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, high)) - high;
-  if (gHigh >= 0) return high;
-  let side = 0;
-  for (let i = 0; i < 100 && high - low > 1e-12 * (1 + high); i++) {
-    const x = high - (gHigh * (high - low)) / (gHigh - gLow);
-    const g = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, x)) - x;
-    if (g === 0) return x;
-    if (g > 0) {
-      low = x;
-      gLow = g;
-      if (side === 1) gHigh /= 2;
-      side = 1;
-    } else {
-      high = x;
-      gHigh = g;
-      if (side === -1) gLow /= 2;
-      side = -1;
-    }
-  }
-  return 0.5 * (low + high);
+  const high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
+  if (!(high > 0)) return 0;
+  // When even the largest possible outflow leaves the tailwater below every part, it does not matter.
+  if (tailwaterLevel(tail, high) <= lowestTailwaterEffect(outlet)) return high;
+  const excess = (o: number) => dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, o)) - o;
+  return brentRoot(excess, 0, high, high, excess(high), 1e-11 * high);
 }
 
-/** Lowest elevation at which any part would feel a downstream level. */
-function lowestOpening(outlet: Outlet): number {
-  let z = Infinity;
-  for (const e of outlet.elements) z = Math.min(z, elementBottom(e));
-  if (outlet.riser) z = Math.min(z, outlet.riser.crest);
+/** Lowest tailwater elevation that any part (openings, rim, spillway, barrel outlet) would feel. */
+function lowestTailwaterEffect(outlet: Outlet): number {
+  let z = lowestOpening(outlet);
   if (outlet.spillway) z = Math.min(z, outlet.spillway.crest);
   if (outlet.barrel) z = Math.min(z, outlet.barrel.outletInvert);
   return z;
@@ -110,6 +69,11 @@ export interface OutletDetail {
   barrel: number | null;
   /** Chamber level when a barrel drains the chamber. */
   chamber: number | null;
+  /** The barrel's headwater above its inlet invert (m) at its flow: the larger of inlet and
+   * outlet control, which may stand above the pond when nothing flows. */
+  barrelHeadwater: number | null;
+  /** Which control the barrel is under at its flow (even while the openings govern). */
+  barrelControl: "inlet" | "outlet" | null;
   /** Tailwater level, null for a free outfall. */
   tailwater: number | null;
   control: Control;
@@ -145,12 +109,9 @@ export function outletDetail(outlet: Outlet, tail: Tailwater, ws: number): Outle
     spillway,
     barrel: chamber ? chamber.flow : null,
     chamber: chamber ? chamber.level : null,
+    barrelHeadwater: chamber ? chamber.barrel.headwater : null,
+    barrelControl: chamber ? chamber.barrel.control : null,
     tailwater: tw,
     control,
   };
-}
-
-/** Lowest point of an element's opening (invert or crest). */
-export function elementBottom(e: Element): number {
-  return e.type === "weir" ? e.crest : e.invert;
 }

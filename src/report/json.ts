@@ -6,6 +6,7 @@ import type { Check } from "../assess/checks.js";
 import { toCaseUnits } from "../units.js";
 import { CAUTION } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
+import { outletDetail } from "../hydraulics/outlet.js";
 
 export interface StormJson {
   name: string;
@@ -89,7 +90,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
 /** Per-storm results, checks, warnings and compliance of one routed outlet. */
 export function assessmentJson(c: Case, routing: CaseRouting, assessment: Assessment) {
   return {
-    storms: routing.storms.map((s) => stormJson(c, s)),
+    storms: routing.storms.map((s) => ({ ...stormJson(c, s), controlAtPeak: outletDetail(routing.outlet, c.tailwater, s.result.maxStage).control })),
     checks: assessment.checks.map((check) => checkJson(c, check)),
     warnings: assessment.warnings,
     compliant: assessment.compliant,

@@ -7,6 +7,7 @@ import { toCaseUnits } from "../units.js";
 import { plainTable } from "./console.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
+import { barrelRise } from "../hydraulics/barrel.js";
 
 export interface RatingRow {
   detail: OutletDetail;
@@ -27,7 +28,9 @@ export function ratingRows(c: Case, outlet: Outlet, step: number): RatingRow[] {
   const rows: RatingRow[] = [];
   const n = Math.round((c.pond.top - c.pond.bottom) / step);
   for (let i = 0; i <= n + 1e-9; i++) {
-    const stage = Math.min(c.pond.bottom + i * step, c.pond.top);
+    let stage = Math.min(c.pond.bottom + i * step, c.pond.top);
+    // A stage a rounding error short of the top is the top (so the top is not listed twice).
+    if (c.pond.top - stage < 1e-9 * step) stage = c.pond.top;
     rows.push({ detail: outletDetail(outlet, c.tailwater, stage), storage: curve.volume(stage) });
     if (stage >= c.pond.top) break;
   }
@@ -53,10 +56,21 @@ function partFlows(outlet: Outlet, d: OutletDetail): number[] {
   return flows;
 }
 
+/** The barrel's headwater over its rise, and the control it is under at its flow ("1.35 inlet"). */
+function barrelColumn(outlet: Outlet, d: OutletDetail): string {
+  if (!outlet.barrel || d.chamber === null || d.barrelControl === null) return "-";
+  return `${headwaterRatio(outlet, d).toFixed(2)} ${d.barrelControl}`;
+}
+
+/** Chamber level above the barrel's inlet invert over the barrel's rise. */
+function headwaterRatio(outlet: Outlet, d: OutletDetail): number {
+  return (d.chamber! - outlet.barrel!.inletInvert) / barrelRise(outlet.barrel!);
+}
+
 export function ratingText(c: Case, outlet: Outlet, rows: RatingRow[]): string {
   const f = formatter(c.units);
   const names = columnNames(outlet);
-  const head = ["Stage", "Storage", ...names, "Total", ...(outlet.barrel ? ["Chamber"] : []), "Control"];
+  const head = ["Stage", "Storage", ...names, "Total", ...(outlet.barrel ? ["Chamber", "Barrel HW/D"] : []), "Control"];
   const table = plainTable(head, head.map((h) => h !== "Control"));
   for (const { detail, storage } of rows) {
     table.push([
@@ -64,7 +78,7 @@ export function ratingText(c: Case, outlet: Outlet, rows: RatingRow[]): string {
       f.volume(storage),
       ...partFlows(outlet, detail).map((q) => f.flow(q)),
       f.flow(detail.total),
-      ...(outlet.barrel ? [detail.chamber === null ? "-" : f.elevation(detail.chamber)] : []),
+      ...(outlet.barrel ? [detail.chamber === null ? "-" : f.elevation(detail.chamber), barrelColumn(outlet, detail)] : []),
       detail.control,
     ]);
   }
@@ -76,7 +90,14 @@ export function ratingCsv(c: Case, outlet: Outlet, rows: RatingRow[]): string {
   const u = toCaseUnits(c.units);
   const L = formatter(c.units).labels;
   const names = columnNames(outlet).map((n) => `${n} (${L.flow})`);
-  const head = [`stage (${L.length})`, `storage (${L.volume})`, ...names, `total (${L.flow})`, ...(outlet.barrel ? [`chamber (${L.length})`] : []), "control"];
+  const head = [
+    `stage (${L.length})`,
+    `storage (${L.volume})`,
+    ...names,
+    `total (${L.flow})`,
+    ...(outlet.barrel ? [`chamber (${L.length})`, "barrel HW/D", "barrel control"] : []),
+    "control",
+  ];
   const lines = [head.join(",")];
   for (const { detail, storage } of rows) {
     lines.push(
@@ -85,7 +106,9 @@ export function ratingCsv(c: Case, outlet: Outlet, rows: RatingRow[]): string {
         u.volume(storage).toFixed(2),
         ...partFlows(outlet, detail).map((q) => significant(u.flow(q))),
         significant(u.flow(detail.total)),
-        ...(outlet.barrel ? [detail.chamber === null ? "" : u.length(detail.chamber).toFixed(4)] : []),
+        ...(outlet.barrel
+          ? [detail.chamber === null ? "" : u.length(detail.chamber).toFixed(4), detail.chamber === null ? "" : headwaterRatio(outlet, detail).toFixed(4), detail.barrelControl ?? ""]
+          : []),
         detail.control,
       ].join(","),
     );
@@ -111,6 +134,8 @@ export function ratingJson(c: Case, outlet: Outlet, rows: RatingRow[]) {
       spillway: u.flow(detail.spillway),
       total: u.flow(detail.total),
       chamber: detail.chamber === null ? null : u.length(detail.chamber),
+      barrelHeadwaterRatio: detail.chamber === null || !outlet.barrel ? null : headwaterRatio(outlet, detail),
+      barrelControl: detail.barrelControl,
       tailwater: detail.tailwater === null ? null : u.length(detail.tailwater),
       control: detail.control,
     })),

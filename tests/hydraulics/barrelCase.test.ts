@@ -1,0 +1,138 @@
+import { describe, expect, it } from "vitest";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join, resolve } from "node:path";
+import { spawnSync } from "node:child_process";
+import { parseCase } from "../../src/case/load.js";
+import { CaseError } from "../../src/case/errors.js";
+import type { Case } from "../../src/case/model.js";
+import { routeCase } from "../../src/routing/routeCase.js";
+import { assess } from "../../src/assess/assess.js";
+import { routeJson } from "../../src/report/json.js";
+import { routeReport } from "../../src/report/console.js";
+import { ratingJson, ratingRows } from "../../src/report/rating.js";
+import { outletDetail } from "../../src/hydraulics/outlet.js";
+import { BARREL_MAX_HEADWATER_RATIO } from "../../src/assess/warnings.js";
+import { FOOT } from "../../src/units.js";
+
+const DEMO = resolve("cases/demo/case.json");
+
+/** The demo case file as JSON, changed by `edit`, loaded as the demo would be. */
+function demoCase(edit: (json: any) => void = () => {}): Case {
+  const json = JSON.parse(readFileSync(DEMO, "utf8"));
+  edit(json);
+  return parseCase(json, { file: DEMO }).case;
+}
+
+function barrelWarnings(c: Case): string[] {
+  const routing = routeCase(c, c.outlet!);
+  return assess(c, routing).warnings.filter((w) => w.part.startsWith("outlet.barrel")).map((w) => w.reason);
+}
+
+describe("the demo case with its barrel", () => {
+  const c = demoCase();
+  const routing = routeCase(c, c.outlet!);
+  const assessment = assess(c, routing);
+
+  it("has an 18-in concrete barrel, and its outlet still fails at least one check", () => {
+    expect(c.outlet!.barrel).toMatchObject({ shape: "circular", entrance: "concrete-square-headwall", manningN: 0.013 });
+    expect(c.outlet!.barrel!.shape === "circular" && c.outlet!.barrel!.diameter).toBeCloseTo(1.5 * FOOT, 12);
+    expect(assessment.checks.some((check) => !check.passed)).toBe(true);
+  });
+
+  it("keeps the routing's mass balance below 0.01 % for every storm", () => {
+    for (const { result } of routing.storms) expect(Math.abs(result.massBalanceError)).toBeLessThan(1e-4);
+  });
+
+  it("names the control at each storm's peak in the JSON and the console table", () => {
+    const json = routeJson(c, routing, assessment);
+    const text = routeReport(c, routing, assessment);
+    json.storms.forEach((s, i) => {
+      const expected = outletDetail(c.outlet!, c.tailwater, routing.storms[i].result.maxStage).control;
+      expect(s.controlAtPeak).toBe(expected);
+      expect(text).toContain(expected);
+    });
+    // The 18-in barrel limits the outlet at the 100-yr peak (its chamber stands above the rim).
+    expect(json.storms.map((s) => s.controlAtPeak)).toContain("barrel outlet control");
+  });
+
+  it("rates every stage with the chamber level, the barrel's HW/D and its control", () => {
+    const rows = ratingJson(c, c.outlet!, ratingRows(c, c.outlet!, 0.5 * FOOT)).rows;
+    expect(rows).toHaveLength(13);
+    for (const row of rows) {
+      expect(row.chamber).not.toBeNull();
+      expect(row.chamber!).toBeLessThanOrEqual(row.stage);
+      expect(row.barrelHeadwaterRatio).toBeCloseTo((row.chamber! - 99.5) / 1.5, 9);
+      expect(["inlet", "outlet"]).toContain(row.barrelControl);
+      expect(row.barrel).toBeCloseTo(row.elements.reduce((a, b) => a + b, 0) + row.rim, 6);
+    }
+  });
+
+  it(`warns that the 100-yr headwater exceeds HW/D ${BARREL_MAX_HEADWATER_RATIO}`, () => {
+    expect(barrelWarnings(c).some((r) => r.includes("HW/D") && r.includes("100-yr"))).toBe(true);
+  });
+});
+
+describe("barrel warnings", () => {
+  it("a barrel running full under outlet control against a tailwater above its crown", () => {
+    const c = demoCase((json) => (json.tailwater = { elevation: 101.0 }));
+    expect(barrelWarnings(c).some((r) => r.startsWith("runs full under outlet control against a tailwater"))).toBe(true);
+  });
+
+  it("the part-full outlet-control approximation where it limits the outflow below HW = 0.75 D", () => {
+    // A 24-in barrel with its inlet at 99.5 ft: (0 + D)/2 - L S = 0.5 ft puts the chamber at the
+    // low orifice's invert (100 ft) even at small flows.
+    const c = demoCase((json) => (json.outlet.barrel.diameter = "24 in"));
+    expect(barrelWarnings(c).some((r) => r.includes("below 0.75 D"))).toBe(true);
+  });
+
+  it("none for a barrel set in a sump deep enough and large enough for the storms", () => {
+    const c = demoCase((json) => {
+      json.outlet.barrel = { ...json.outlet.barrel, diameter: "30 in", inletInvert: 97.0, outletInvert: 96.5 };
+    });
+    expect(barrelWarnings(c)).toEqual([]);
+  });
+
+  it("mass balance stays below 0.01 % with a box barrel and a tailwater rating", () => {
+    const c = demoCase((json) => {
+      json.outlet.barrel = { shape: "box", span: 2.0, rise: 1.5, length: 50, inletInvert: 98.5, outletInvert: 98.2, manningN: 0.013, entrance: "box-wingwall-30-75" };
+      json.tailwater = { rating: [[0, 98.0], [10, 99.5], [60, 101.0]] };
+    });
+    const routing = routeCase(c, c.outlet!);
+    for (const { result } of routing.storms) expect(Math.abs(result.massBalanceError)).toBeLessThan(1e-4);
+  });
+});
+
+describe("bad barrel input", () => {
+  it("an entrance that does not fit the barrel's shape is a CaseError naming the field, the value and what fits", () => {
+    let error: unknown;
+    try {
+      demoCase((json) => (json.outlet.barrel = { ...json.outlet.barrel, shape: "box", span: 2, rise: 1.5, diameter: undefined }));
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(CaseError);
+    const problem = (error as CaseError).problems[0];
+    expect(problem.where).toBe("case.json: outlet.barrel.entrance");
+    expect(problem.found).toBe('"concrete-square-headwall"');
+    expect(problem.expected).toContain("box-wingwall-30-75");
+  });
+
+  it("the CLI reports it and exits 2 without a stack trace", () => {
+    const json = JSON.parse(readFileSync(DEMO, "utf8"));
+    json.outlet.barrel.entrance = "box-wingwall-15-90";
+    for (const storm of json.storms) storm.inflow.file = resolve("cases/demo", storm.inflow.file);
+    const dir = mkdtempSync(join(tmpdir(), "outfit-barrel-"));
+    const path = join(dir, "bad-entrance.json");
+    writeFileSync(path, JSON.stringify(json));
+    try {
+      const run = spawnSync(process.execPath, [resolve("dist/src/cli.js"), "route", path], { encoding: "utf8" });
+      expect(run.status).toBe(2);
+      expect(run.stderr).toContain("outlet.barrel.entrance");
+      expect(run.stderr).toContain("an entrance for a circular barrel");
+      expect(run.stderr).not.toMatch(/\n\s+at /);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
