@@ -7,6 +7,7 @@ import { buildRatingTable } from "../src/routing/ratingTable.js";
 import { route } from "../src/routing/router.js";
 import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
+import { CONTRACTED_WEIR_MAX_HEAD_RATIO, VNOTCH_MAX_HEAD } from "../src/assess/warnings.js";
 import { aimBand, type SearchProblem } from "./problem.js";
 import { designOutlet, designOutletFile, elevations, type Layout } from "./layout.js";
 import { baseLength } from "../src/units.js";
@@ -57,6 +58,7 @@ export class Evaluator {
     const storms = this.routeStorms(outlet, p.case.storms);
     const checks = evaluateChecks(p.case, outlet, storms);
     const residuals = checkResiduals(p, checks);
+    rangeResiduals(p, outlet, storms, residuals);
     const violations = geometryResiduals(p, layout, vars, residuals);
     let objective = 0;
     for (const r of residuals) objective += r * r;
@@ -91,6 +93,26 @@ export function requiredSlack(p: SearchProblem, check: Check): number {
     return check.kind === "peak-upper" ? (check.limit - high) / check.limit : (low - check.limit) / check.limit;
   }
   return 0.002;
+}
+
+/** Weight of heads beyond a part's published range, per pond depth of excess (a preference, not a rule). */
+const RANGE_WEIGHT = 1;
+
+/**
+ * Parts pushed beyond the range their formula covers, as soft residuals so that the fit prefers
+ * designs the assessment will not flag: a contracted rectangular weir's head above half its length,
+ * a v-notch's head above the coefficient's range (the same limits as the warnings).
+ */
+function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly StormRouting[], residuals: number[]): void {
+  const depth = p.case.pond.top - p.case.pond.bottom;
+  let maxStage = -Infinity;
+  for (const s of storms) if (s.result.maxStage > maxStage) maxStage = s.result.maxStage;
+  for (const e of outlet.elements) {
+    if (e.type !== "weir" || e.keep) continue;
+    const head = maxStage - e.crest;
+    const limit = e.shape === "rectangular" ? (e.endContractions > 0 ? CONTRACTED_WEIR_MAX_HEAD_RATIO * e.length : Infinity) : VNOTCH_MAX_HEAD;
+    residuals.push((RANGE_WEIGHT * Math.max(0, head - limit)) / depth);
+  }
 }
 
 /**

@@ -47,7 +47,7 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
   const names = variableNames(p, c.layout);
   const { min, max } = variableBounds(p, c.layout);
   const unit = p.case.units === "US" ? "ft" : "m";
-  const moves: { text: string; gain: number }[] = [];
+  const moves: { text: string; gain: number; breaks: boolean }[] = [];
   for (let i = 0; i < c.vars.length; i++) {
     for (const direction of [-1, 1]) {
       const vars = [...c.vars];
@@ -58,14 +58,17 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
       const gain = after.slack - binding.slack;
       if (gain <= 1e-6) continue;
       const next = moved.assessment.binding!;
-      const cost = next.name !== binding.name ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
+      const breaks = c.assessment.compliant && !moved.assessment.compliant;
+      const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.name !== binding.name ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
       moves.push({
         gain,
+        breaks,
         text: `${direction > 0 ? "raise" : "lower"} ${names[i]} by ${p.step} ${unit} to ${formatter(p.case.units).elevation(vars[i] * baseLength(p.case.units))}: ${binding.name.replace(/ within .*| freeboard| spillway dry| drawdown| no overtopping/, "")} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
       });
     }
   }
-  moves.sort((a, b) => b.gain - a.gain);
+  // Moves that keep a compliant design compliant first, then by how much they relax the binding check.
+  moves.sort((a, b) => Number(a.breaks) - Number(b.breaks) || b.gain - a.gain);
   if (moves.length > 0) lines.push(...moves.slice(0, 2).map((m) => `relax: ${m.text}`));
   else lines.push(`relax: ${discreteRemedy(binding)}`);
   return lines;
@@ -141,7 +144,7 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
     const file = designOutletFile(p, { levels: [smallest.part], riser: null, barrel: null }, []);
     const flowThere = outletDischarge(designOutlet(p, { ...file, spillway: undefined }), p.case.tailwater, stage);
     lines.push(
-      `The smallest catalogue opening at the pond floor (${partWords(smallest.part)}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
+      `The smallest catalogue opening at the pond floor (${partWords(p, smallest.part)}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
         `the stage where the ${storm.name} storm's volume above its allowable peak (${f.volume(held)} above ${f.flow(limit)}) must be held; ` +
         `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
     );

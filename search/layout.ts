@@ -36,17 +36,19 @@ export function variableCount(p: SearchProblem, l: Layout): number {
 export function variableNames(p: SearchProblem, l: Layout): string[] {
   const names: string[] = [];
   const first = firstLevelFixed(p, l) ? 1 : 0;
-  for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${partWords(l.levels[i])})`);
+  for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${partWords(p, l.levels[i])})`);
   if (l.riser) names.push("riser rim");
   return names;
 }
 
-export function partWords(part: PartOption): string {
+/** A part in words, its size as the catalogue gives it (a bare number gets the case's length unit). */
+export function partWords(p: SearchProblem, part: PartOption): string {
+  const size = typeof part.size === "number" ? `${part.size} ${p.case.units === "US" ? "ft" : "m"}` : String(part.size);
   switch (part.kind) {
     case "orifice":
-      return `${part.count} x ${String(part.size)} orifice${part.count > 1 ? "s" : ""}`;
+      return `${part.count} x ${size} orifice${part.count > 1 ? "s" : ""}`;
     case "rectangular":
-      return `${String(part.size)} weir`;
+      return `${size} weir`;
     case "v-notch":
       return `${part.angle} deg v-notch`;
   }

@@ -1,7 +1,7 @@
 // Parts used outside the range their formula or coefficient was published for, openings that do not
 // fit their wall, and numerical cautions of the routing. The search prefers designs without them.
 import type { Case, Element, Outlet } from "../case/model.js";
-import type { CaseRouting } from "../routing/routeCase.js";
+import { drainedStage, type CaseRouting } from "../routing/routeCase.js";
 import { formatter, type Formatter } from "../format.js";
 import { FOOT } from "../units.js";
 import { openingHeight, openingWidth } from "../hydraulics/orifice.js";
@@ -96,6 +96,13 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
   for (const { storm, result } of routing.storms) {
     if (result.beyondTable) warnings.push({ part: "routing", reason: `${storm.name}: the stage rose above the rating table (${f.elevation(routing.table.stage[routing.table.stage.length - 1])}); storage and outflow extrapolated` });
     if (result.clampedSteps > 0) warnings.push({ part: "routing", reason: `${storm.name}: ${result.clampedSteps} steps emptied the pond within one step; use a shorter step` });
+    if (result.drawdownTime === null) {
+      // A pond that never returns to its pool is a defect whether or not a drawdown rule applies.
+      warnings.push({
+        part: "outlet",
+        reason: `${storm.name}: the pond does not drain to ${f.elevation(drainedStage(c))} within ${(result.duration / 86400).toFixed(1)} days of the storm's start: the openings do not drain it to its ${c.pond.pool > c.pond.bottom ? "permanent pool" : "floor"}, or far too slowly`,
+      });
+    }
   }
   return warnings;
 }
