@@ -1,11 +1,14 @@
 // Round tick positions: steps of 1, 2 or 5 times a power of ten, about `count` of them over a span.
 
-/** The tick step nearest to span / count among 1, 2 and 5 times a power of ten. */
+/**
+ * The tick step nearest to span / count, by ratio, among 1, 2 and 5 times a power of ten: the
+ * thresholds are the geometric means of neighbouring steps (sqrt 2, sqrt 10, sqrt 50).
+ */
 export function tickStep(span: number, count: number): number {
   const raw = span / Math.max(1, count);
   const power = Math.pow(10, Math.floor(Math.log10(raw)));
   const scaled = raw / power;
-  const mantissa = scaled >= 7.5 ? 10 : scaled >= 3.5 ? 5 : scaled >= 1.5 ? 2 : 1;
+  const mantissa = scaled >= Math.sqrt(50) ? 10 : scaled >= Math.sqrt(10) ? 5 : scaled >= Math.SQRT2 ? 2 : 1;
   return mantissa * power;
 }
 
