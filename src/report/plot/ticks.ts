@@ -36,9 +36,13 @@ export function niceAxis(min: number, max: number, count = 6): Axis {
     high += pad;
   }
   const step = tickStep(high - low, count);
-  const start = Math.floor(low / step + 1e-9) * step;
-  const end = Math.ceil(high / step - 1e-9) * step;
-  return { domain: [round(start, step), round(end, step)], ticks: tickValues(start, end, step), step };
+  // Whole steps around the data; the tolerance keeps a value that is a multiple up to rounding from
+  // adding a step, and the checks after rounding keep the domain around the data all the same.
+  let start = round(Math.floor(low / step + 1e-9) * step, step);
+  let end = round(Math.ceil(high / step - 1e-9) * step, step);
+  if (start > low) start = round(start - step, step);
+  if (end < high) end = round(end + step, step);
+  return { domain: [start, end], ticks: tickValues(start, end, step), step };
 }
 
 /** Ticks at whole multiples of a step within [min, max]. */
