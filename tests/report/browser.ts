@@ -77,3 +77,22 @@ export async function openFile(browser: Browser, file: string): Promise<Watched>
   await page.goto(url, { waitUntil: "load" });
   return watched;
 }
+
+export interface Lazy<T> {
+  /** Starts the preparation on first call; every later call gets the same promise. */
+  get(): Promise<T>;
+  /** The prepared value if the preparation was started and succeeded (for clean-up). */
+  settled(): Promise<T | undefined>;
+}
+
+/**
+ * A preparation shared by the tests of a file and awaited by each of them, so that a missing
+ * browser fails every test with its message (a failing `beforeAll` would report them as skipped).
+ */
+export function lazy<T>(prepare: () => Promise<T>): Lazy<T> {
+  let started: Promise<T> | undefined;
+  return {
+    get: () => (started ??= prepare()),
+    settled: async () => (started ? started.catch(() => undefined) : undefined),
+  };
+}

@@ -1,7 +1,7 @@
 // The demo case's HTML report opened in Chromium: the plotted data is read back from the page and
 // compared with the case routed here through the project's API; the page prints on A4 and Letter
 // without splitting a plot.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { loadCase } from "../../src/case/load.js";
@@ -11,8 +11,8 @@ import { outletDetail } from "../../src/hydraulics/outlet.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { toCaseUnits } from "../../src/units.js";
 import { CAUTION } from "../../src/report/caution.js";
-import { launchBrowser, openFile, type Browser, type Watched } from "./browser.js";
-import { interpolate, inverters, readPlots, seriesData, type PlotReading } from "./readPlots.js";
+import { launchBrowser, lazy, openFile } from "./browser.js";
+import { interpolate, inverters, readPlots, seriesData } from "./readPlots.js";
 import { PAPER, printFigures, splitFigures } from "./printCheck.js";
 import { DEMO, ROOT, outfit, temporaryDirectory } from "./support.js";
 
@@ -22,45 +22,44 @@ const routing = routeCase(c, outlet, { record: true });
 const u = toCaseUnits(c.units);
 
 describe("HTML report of the demo case, in Chromium", () => {
-  let browser: Browser;
-  let watched: Watched;
-  let plots: PlotReading[];
-  let dir: string;
-  let file: string;
-
-  beforeAll(async () => {
-    dir = temporaryDirectory();
-    file = join(dir, "demo.report.html");
+  const report = lazy(async () => {
+    const dir = temporaryDirectory();
+    const file = join(dir, "demo.report.html");
     const run = outfit("report", DEMO, "--out", file);
-    expect(run.status, run.stderr).toBe(0);
-    browser = await launchBrowser();
-    watched = await openFile(browser, file);
-    plots = await readPlots(watched.page);
+    if (run.status !== 0) throw new Error(`outfit report failed: ${run.stderr}`);
+    const browser = await launchBrowser();
+    const watched = await openFile(browser, file);
+    return { dir, file, browser, watched, plots: await readPlots(watched.page) };
   });
 
   afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
+    const ready = await report.settled();
+    await ready?.browser.close();
+    if (ready) rmSync(ready.dir, { recursive: true, force: true });
   });
 
-  const plot = (figure: string) => {
+  const plot = async (figure: string) => {
+    const { plots } = await report.get();
     const found = plots.find((p) => p.figure === figure);
     if (!found) throw new Error(`no figure ${figure} (has ${plots.map((p) => p.figure).join(", ")})`);
     return found;
   };
 
-  it("loads with no console error, no request beyond the file itself and no dialog", () => {
+  it("loads with no console error, no request beyond the file itself and no dialog", async () => {
+    const { watched } = await report.get();
     expect(watched.errors).toEqual([]);
     expect(watched.requests).toEqual([]);
     expect(watched.dialogs).toEqual([]);
   });
 
-  it("refers to no external asset and holds no script", () => {
+  it("refers to no external asset and holds no script", async () => {
+    const { file } = await report.get();
     const html = readFileSync(file, "utf8");
     expect(html).not.toMatch(/<script|<link|<img|<iframe|@import|src=|url\((?!#)|https?:/i);
   });
 
-  it("draws every plot with a non-zero size and the expected number of series", () => {
+  it("draws every plot with a non-zero size and the expected number of series", async () => {
+    const { plots } = await report.get();
     const parts = outlet.elements.length + (outlet.riser ? 1 : 0) + (outlet.barrel ? 1 : 0) + (outlet.spillway ? 1 : 0);
     const expected = new Map<string, number>([["stage-storage", 1], ["rating", parts + 1]]);
     c.storms.forEach((_, i) => {
@@ -76,9 +75,9 @@ describe("HTML report of the demo case, in Chromium", () => {
     }
   });
 
-  it("plots each storm's inflow and outflow as routed, at sampled times", () => {
-    routing.storms.forEach(({ storm, result }, i) => {
-      const p = plot(`storm-${i + 1}-hydrograph`);
+  it("plots each storm's inflow and outflow as routed, at sampled times", async () => {
+    for (const [i, { storm, result }] of routing.storms.entries()) {
+      const p = await plot(`storm-${i + 1}-hydrograph`);
       const series = result.series!;
       const hours = series.time.map((t) => t / 3600);
       const inflowEnd = storm.inflow.times[storm.inflow.times.length - 1] / 3600;
@@ -103,12 +102,12 @@ describe("HTML report of the demo case, in Chromium", () => {
       expect(marked.x).toBeCloseTo(result.timeOfPeakOutflow / 3600, 9);
       expect(marked.y).toBeCloseTo(u.flow(result.peakOutflow), 9);
       expect(p.references.find((r) => r.key === "target")!.value).toBeCloseTo(u.flow(storm.target!), 9);
-    });
+    }
   });
 
-  it("plots each storm's stage as routed, with the top of embankment, freeboard line and spillway crest", () => {
-    routing.storms.forEach(({ storm, result }, i) => {
-      const p = plot(`storm-${i + 1}-stage`);
+  it("plots each storm's stage as routed, with the top of embankment, freeboard line and spillway crest", async () => {
+    for (const [i, { storm, result }] of routing.storms.entries()) {
+      const p = await plot(`storm-${i + 1}-stage`);
       const series = result.series!;
       const routed = series.time.map((t, k) => [t / 3600, u.length(series.stage[k])] as const);
       const drawn = seriesData(p, "stage");
@@ -124,11 +123,11 @@ describe("HTML report of the demo case, in Chromium", () => {
       expect(refs.get("top")).toBeCloseTo(u.length(c.pond.top), 9);
       expect(refs.get("freeboard")).toBeCloseTo(u.length(c.pond.top - c.criteria.freeboardDepth), 9);
       expect(refs.get("spillway")).toBeCloseTo(u.length(outlet.spillway!.crest), 9);
-    });
+    }
   });
 
-  it("plots the rating as the routing's rating table, part by part, with each storm's target band and routed peak", () => {
-    const p = plot("rating");
+  it("plots the rating as the routing's rating table, part by part, with each storm's target band and routed peak", async () => {
+    const p = await plot("rating");
     const { x } = inverters(p);
     const tolerance = 0.002 * (x(p.xRange[1]) - x(p.xRange[0]));
     const total = seriesData(p, "total");
@@ -157,8 +156,8 @@ describe("HTML report of the demo case, in Chromium", () => {
     });
   });
 
-  it("plots stage-storage as the pond's storage curve", () => {
-    const p = plot("stage-storage");
+  it("plots stage-storage as the pond's storage curve", async () => {
+    const p = await plot("stage-storage");
     const curve = storageCurve(c.pond);
     const drawn = seriesData(p, "storage");
     expect(drawn[0][1]).toBeCloseTo(u.length(c.pond.bottom), 3);
@@ -168,6 +167,7 @@ describe("HTML report of the demo case, in Chromium", () => {
   });
 
   it("shows every number in a table with its unit", async () => {
+    const { watched } = await report.get();
     const cells = await watched.page.$$eval("td.number", (tds) => tds.map((td) => td.textContent ?? ""));
     expect(cells.length).toBeGreaterThan(50);
     const unit = /(ft|ft3|cfs|in|h|%|yr)(, (in|below|above) band)?$/;
@@ -175,6 +175,7 @@ describe("HTML report of the demo case, in Chromium", () => {
   });
 
   it("shows the checks with their slack, the methods with their sources and the caution", async () => {
+    const { watched } = await report.get();
     const text = await watched.page.locator("body").innerText();
     for (const check of ["2-yr peak within lower band", "100-yr freeboard", "100-yr spillway dry", "100-yr drawdown"]) expect(text).toContain(check);
     expect(text).toMatch(/-69\.6 %/); // the demo's binding check, as `outfit route` prints it
@@ -183,6 +184,7 @@ describe("HTML report of the demo case, in Chromium", () => {
   });
 
   it.each(Object.keys(PAPER) as (keyof typeof PAPER)[])("prints on %s without splitting a plot across pages", async (format) => {
+    const { watched, plots } = await report.get();
     const printed = await printFigures(watched.page, format);
     for (const box of printed.mediaBoxes) {
       expect(box[2]).toBeCloseTo(PAPER[format][0], 0);
@@ -196,6 +198,7 @@ describe("HTML report of the demo case, in Chromium", () => {
   });
 
   it("the page-split check finds a plot that is split (control)", async () => {
+    const { browser, file } = await report.get();
     const page = await browser.context.newPage();
     await page.goto(`file://${file}`);
     // The first figure alone, below a spacer that leaves it too little room on page 1, and free to
@@ -217,6 +220,7 @@ describe("HTML report of the demo case, in Chromium", () => {
   });
 
   it("saves a screenshot of the first screen", async () => {
+    const { watched } = await report.get();
     const folder = join(ROOT, "out/report");
     mkdirSync(folder, { recursive: true });
     const png = await watched.page.screenshot({ fullPage: false });

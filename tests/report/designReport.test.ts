@@ -1,15 +1,15 @@
 // The report of a design run (the fixture results directory): the candidates compared against each
 // candidate's case file routed here through the project's API, the explanation lines, the plots, and
 // the warning when the design run's numbers disagree with routing its candidate again.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { cpSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { loadCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { outletDischarge } from "../../src/hydraulics/outlet.js";
 import { toCaseUnits } from "../../src/units.js";
-import { launchBrowser, openFile, type Browser, type Watched } from "./browser.js";
-import { inverters, readPlots, seriesData, type PlotReading } from "./readPlots.js";
+import { launchBrowser, lazy, openFile } from "./browser.js";
+import { inverters, readPlots, seriesData } from "./readPlots.js";
 import { printFigures, splitFigures } from "./printCheck.js";
 import { DESIGN_RUN, outfit, temporaryDirectory } from "./support.js";
 
@@ -29,31 +29,29 @@ const c = candidates[0].case;
 const u = toCaseUnits(c.units);
 
 describe("HTML report of a design run, in Chromium", () => {
-  let browser: Browser;
-  let watched: Watched;
-  let plots: PlotReading[];
-  let dir: string;
-
-  beforeAll(async () => {
-    dir = temporaryDirectory();
+  const report = lazy(async () => {
+    const dir = temporaryDirectory();
     const run = outfit("report", DESIGN_RUN, "--out", join(dir, "report.html"));
-    expect(run.status, run.stderr).toBe(0);
-    browser = await launchBrowser();
-    watched = await openFile(browser, join(dir, "report.html"));
-    plots = await readPlots(watched.page);
+    if (run.status !== 0) throw new Error(`outfit report failed: ${run.stderr}`);
+    const browser = await launchBrowser();
+    const watched = await openFile(browser, join(dir, "report.html"));
+    return { dir, browser, watched, plots: await readPlots(watched.page) };
   });
 
   afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
+    const ready = await report.settled();
+    await ready?.browser.close();
+    if (ready) rmSync(ready.dir, { recursive: true, force: true });
   });
 
-  it("loads with no console error and no request", () => {
+  it("loads with no console error and no request", async () => {
+    const { watched } = await report.get();
     expect(watched.errors).toEqual([]);
     expect(watched.requests).toEqual([]);
   });
 
   it("compares the candidates: per-storm peak/target, max stage and binding check as routed again", async () => {
+    const { watched } = await report.get();
     const table = watched.page.locator("table", { has: watched.page.locator("caption", { hasText: "Candidates, best first" }) });
     const head = await table.locator("th").allTextContents();
     const rows = await table.locator("tbody tr").evaluateAll((trs) => trs.map((tr) => Array.from(tr.querySelectorAll("td"), (td) => td.textContent ?? "")));
@@ -73,12 +71,14 @@ describe("HTML report of a design run, in Chromium", () => {
   });
 
   it("shows each candidate's explanation lines and no disagreement with the design run", async () => {
+    const { watched } = await report.get();
     const items = await watched.page.locator("li").allTextContents();
     for (const { reported } of candidates) for (const line of reported.explanation) expect(items).toContain(line);
     expect(await watched.page.locator(".note.warning").count()).toBe(0);
   });
 
-  it("plots every candidate's rating with its routed peaks, and each candidate in full", () => {
+  it("plots every candidate's rating with its routed peaks, and each candidate in full", async () => {
+    const { plots } = await report.get();
     const compared = plots.find((p) => p.figure === "candidates")!;
     expect(compared.series.length).toBe(candidates.length);
     const { x } = inverters(compared);
@@ -100,12 +100,14 @@ describe("HTML report of a design run, in Chromium", () => {
   });
 
   it("prints on A4 without splitting a plot across pages", async () => {
+    const { watched, plots } = await report.get();
     const printed = await printFigures(watched.page, "A4");
     expect(printed.figurePages.size).toBe(plots.length);
     expect(splitFigures(printed)).toEqual([]);
   });
 
   it("warns when the design run's numbers disagree with routing its candidate again, and escapes its text", async () => {
+    const { browser, dir } = await report.get();
     const copy = join(dir, "tampered");
     cpSync(DESIGN_RUN, copy, { recursive: true });
     const json = JSON.parse(readFileSync(join(copy, "results.json"), "utf8"));

@@ -1,9 +1,9 @@
 // User text (case, storm and file names) is shown as text: a case named <script>alert(1)</script>
 // renders literally and nothing in it runs, in the HTML report, the Markdown and its SVG files.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { copyFileSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
-import { launchBrowser, openFile, type Browser } from "./browser.js";
+import { launchBrowser, lazy, openFile } from "./browser.js";
 import { DEMO, outfit, temporaryDirectory } from "./support.js";
 import { markdownText } from "../../src/report/markdown.js";
 
@@ -13,32 +13,28 @@ const OTHER_STORM = `10-yr "wet" & 'windy'`;
 const FILE_NAME = `odd <b>name<b> & "quoted".json`;
 
 describe("escaping of user text", () => {
-  let dir: string;
-  let caseFile: string;
-  let html: string;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    dir = temporaryDirectory();
+  const report = lazy(async () => {
+    const dir = temporaryDirectory();
     const demo = JSON.parse(readFileSync(DEMO, "utf8"));
     for (const storm of demo.storms) copyFileSync(join(dirname(DEMO), storm.inflow.file), join(dir, storm.inflow.file));
     demo.name = CASE_NAME;
     demo.storms[0].name = STORM_NAME;
     demo.storms[1].name = OTHER_STORM;
-    caseFile = join(dir, FILE_NAME);
+    const caseFile = join(dir, FILE_NAME);
     writeFileSync(caseFile, JSON.stringify(demo));
     const run = outfit("report", caseFile, "--out", join(dir, "report.html"));
-    expect(run.status, run.stderr).toBe(0);
-    html = readFileSync(join(dir, "report.html"), "utf8");
-    browser = await launchBrowser();
+    if (run.status !== 0) throw new Error(`outfit report failed: ${run.stderr}`);
+    return { dir, caseFile, html: readFileSync(join(dir, "report.html"), "utf8"), browser: await launchBrowser() };
   });
 
   afterAll(async () => {
-    await browser?.close();
-    rmSync(dir, { recursive: true, force: true });
+    const ready = await report.settled();
+    await ready?.browser.close();
+    if (ready) rmSync(ready.dir, { recursive: true, force: true });
   });
 
-  it("writes the names escaped into the HTML", () => {
+  it("writes the names escaped into the HTML", async () => {
+    const { html } = await report.get();
     expect(html).not.toContain("<script");
     expect(html).not.toContain("<img");
     expect(html).not.toContain("<b>name");
@@ -48,6 +44,7 @@ describe("escaping of user text", () => {
   });
 
   it("renders the names as text in Chromium and runs nothing", async () => {
+    const { browser, dir } = await report.get();
     const watched = await openFile(browser, join(dir, "report.html"));
     const page = watched.page;
     expect(watched.dialogs).toEqual([]);
@@ -69,6 +66,7 @@ describe("escaping of user text", () => {
   });
 
   it("escapes the names in Markdown and in the SVG files beside it, which run nothing either", async () => {
+    const { browser, dir, caseFile } = await report.get();
     const out = join(dir, "md", "report.md");
     const run = outfit("report", caseFile, "--format", "md", "--out", out);
     expect(run.status, run.stderr).toBe(0);
