@@ -25,7 +25,9 @@ describe("HTML report of the demo case, in Chromium", () => {
   const report = lazy(async () => {
     const dir = temporaryDirectory();
     const file = join(dir, "demo.report.html");
-    const run = outfit("report", DEMO, "--out", file);
+    // As the README shows it (the command runs in the repository's root), so the screenshot below
+    // can serve as the README's.
+    const run = outfit("report", "cases/demo/case.json", "--out", file);
     if (run.status !== 0) throw new Error(`outfit report failed: ${run.stderr}`);
     const browser = await launchBrowser();
     const watched = await openFile(browser, file);
