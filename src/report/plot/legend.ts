@@ -1,9 +1,8 @@
-// The legend: one entry per series, group of points, reference line and band, laid out in rows
-// above the plot area. Text widths are estimated (no font metrics in a pure function).
+// The legend: one entry per series, group of points and band (reference lines are labelled where
+// they are drawn), in rows above the plot area. Text widths are estimated (no font metrics here).
 import { DASH_ARRAYS, INK, type LineStyle } from "./style.js";
-import { element } from "./svg.js";
+import { element, escapeMarkup } from "./svg.js";
 import { markerPath, isStrokeOnly } from "./markers.js";
-import { escapeMarkup } from "./svg.js";
 
 export interface LegendEntry {
   label: string;
