@@ -5,6 +5,7 @@ import { Command, CommanderError } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
+import { reportCommand } from "./commands/report.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -126,6 +127,32 @@ Examples:
 Exit codes: 0 done, 2 bad input.`,
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
+
+program
+  .command("report")
+  .description("write the review report of a case's outlet, or of a design run's candidates: one self-contained HTML file with plots")
+  .argument("<input>", "case file (JSON), or the results directory of a design run (outfit design --out DIR)")
+  .option("--out <file>", "where to write the report (default: CASE.report.html beside the case file, or DIR/report.html)")
+  .option("--format <format>", "html (one self-contained file) or md (Markdown, the plots as SVG files beside it)", "html")
+  .option("--step <minutes>", "fixed routing time step in minutes (default: chosen and refined automatically)")
+  .addHelpText(
+    "after",
+    `
+The report holds the case summary, stage-storage, the outlet's rating part by part with each
+storm's target band and routed peak, every storm's hydrographs and stage, the checks with their
+slack, the methods with their sources and the caution. For a design run it compares the candidates
+and explains the binding check of each; every candidate is routed again from its own case file.
+It loads nothing from the network and prints on A4 or Letter.
+
+Examples:
+  outfit report cases/demo/case.json                       # writes cases/demo/case.report.html
+  outfit report cases/demo/case.json --out review.html
+  outfit report cases/demo/case.json --format md --out review/demo.md
+  outfit report results/                                   # a design run: writes results/report.html
+
+Exit codes: 0 written, 2 bad input (nothing is written).`,
+  )
+  .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
 
 try {
   program.parse();

@@ -1,0 +1,81 @@
+// The review report of one outlet routed through a case: summary, storage, rating, storms, checks,
+// methods and the caution.
+import type { Case, Outlet } from "../../case/model.js";
+import { drainedStage, type CaseRouting } from "../../routing/routeCase.js";
+import type { Assessment } from "../../assess/assess.js";
+import { formatter } from "../../format.js";
+import { CAUTION } from "../caution.js";
+import { hydrographChart, hydrographWindow, ratingChart, stageChart, storageChart } from "./figures.js";
+import { methodsTable } from "./methods.js";
+import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, warningsList } from "./tables.js";
+import { FigureCounter, section, type Block, type ReportDocument, type Section } from "./model.js";
+
+export interface RoutedOutlet {
+  outlet: Outlet;
+  routing: CaseRouting;
+  assessment: Assessment;
+}
+
+/** Stage-storage figure and the pond facts. */
+export function storageSection(c: Case, outlet: Outlet | undefined, figures: FigureCounter): Section {
+  const f = formatter(c.units);
+  return section("storage", "Pond and stage-storage", [
+    figures.figure("stage-storage", "Stage-storage", `Storage above the pond bottom (${f.elevation(c.pond.bottom)}) against stage, up to the top of embankment (${f.elevation(c.pond.top)}).`, (id) => storageChart(id, c, outlet)),
+  ]);
+}
+
+/**
+ * The sections of one routed outlet: its rating, the storms and the checks. `prefix` keeps ids
+ * unique when a report holds several outlets (a design run's candidates).
+ */
+export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCounter, prefix = ""): Section[] {
+  const { outlet, routing, assessment } = routed;
+  const f = formatter(c.units);
+  const rating = section(`${prefix}rating`, "Outlet and rating", [
+    partsTable(c, outlet),
+    figures.figure(`${prefix}rating`, "Rating, part by part", "Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.", (id) => ratingChart(id, c, outlet, routing.storms)),
+    ratingTable(c, outlet),
+  ]);
+  const stormSections = routing.storms.map((sr, i) => {
+    const window = hydrographWindow(sr);
+    const blocks: Block[] = [
+      { kind: "text", text: stormSummary(c, sr) },
+      figures.figure(`${prefix}storm-${i + 1}-hydrograph`, `${sr.storm.name}: inflow and outflow`,
+        `Inflow (solid) and total outflow (dashed, squares)${sr.storm.target === null ? "" : "; hatched: the target band, dotted: the target"}. The first ${window.end.toFixed(2)} h of ${window.simulated.toFixed(2)} h simulated; the stage plot below covers the whole simulation.`,
+        (id) => hydrographChart(id, c, sr)),
+      figures.figure(`${prefix}storm-${i + 1}-stage`, `${sr.storm.name}: stage`,
+        `Stage until the pond has drained (at or below ${f.elevation(drainedStage(c))}) or the simulation ended, with the top of embankment, the freeboard line${outlet.spillway ? " and the spillway crest" : ""}.`,
+        (id) => stageChart(id, c, outlet, sr)),
+    ];
+    return section(`${prefix}storm-${i + 1}`, `${sr.storm.name} storm (${sr.storm.returnPeriod} yr)`, blocks);
+  });
+  const storms = section(`${prefix}storms`, "Storms routed", [resultsTable(c, routing)], stormSections);
+  const checks = section(`${prefix}checks`, "Checks", [verdictNote(assessment), checksTable(c, assessment), { kind: "text", text: "Warnings:" }, warningsList(assessment)]);
+  return [rating, storms, checks];
+}
+
+export function methodsSection(c: Case, outlets: readonly Outlet[]): Section {
+  return section("methods", "Methods and sources", [methodsTable(c, outlets)]);
+}
+
+export function cautionSection(): Section {
+  return section("caution", "Caution", [{ kind: "note", tone: "caution", text: CAUTION }]);
+}
+
+/** The report of the case's own outlet. */
+export function caseReport(c: Case, routed: RoutedOutlet, source: string): ReportDocument {
+  const figures = new FigureCounter();
+  return {
+    title: `Review report: ${c.name}`,
+    subtitle: `The outlet of case file ${source}, routed and checked by outfit.`,
+    verdict: verdictNote(routed.assessment),
+    caution: CAUTION,
+    sections: [
+      section("summary", "Case", [caseFacts(c), stormsTable(c)]),
+      storageSection(c, routed.outlet, figures),
+      ...outletSections(c, routed, figures),
+      methodsSection(c, [routed.outlet]),
+      cautionSection(),
+    ],
+  };
+}

@@ -1,0 +1,133 @@
+// The review report of a design run: the candidates compared with the binding constraint of each
+// and its explanation, then every candidate routed again from its own case file.
+import type { Case } from "../../case/model.js";
+import { formatter, significant, trimNumber } from "../../format.js";
+import { CAUTION } from "../caution.js";
+import { percent } from "../console.js";
+import { withinBand } from "../json.js";
+import { toCaseUnits } from "../../units.js";
+import { candidatesChart } from "./figures.js";
+import { cautionSection, methodsSection, outletSections, storageSection, type RoutedOutlet } from "./caseReport.js";
+import { caseFacts, stormsTable, verdictNote } from "./tables.js";
+import type { DesignRun, LoadedCandidate } from "./designRun.js";
+import { FigureCounter, section, type Block, type Cell, type NoteBlock, type ReportDocument, type Section, type TableBlock } from "./model.js";
+
+export interface RoutedCandidate extends RoutedOutlet {
+  candidate: LoadedCandidate;
+}
+
+/** Relative difference of peaks and difference of stages above which the reported and re-routed results disagree. */
+const PEAK_AGREEMENT = 0.005;
+const STAGE_AGREEMENT = { US: 0.01, SI: 0.003 } as const;
+
+/** Where the design run's reported storms differ from routing its candidate again. */
+export function disagreements(c: Case, routed: RoutedCandidate): string[] {
+  const u = toCaseUnits(c.units);
+  const f = formatter(c.units);
+  const out: string[] = [];
+  for (const { storm, result } of routed.routing.storms) {
+    const reported = routed.candidate.reported.storms.find((s) => s.name === storm.name);
+    if (!reported) {
+      out.push(`${storm.name}: not in the design run's results`);
+      continue;
+    }
+    const peak = u.flow(result.peakOutflow);
+    if (Math.abs(reported.peakOutflow - peak) > PEAK_AGREEMENT * Math.max(Math.abs(peak), 1e-9)) {
+      out.push(`${storm.name}: peak outflow reported ${significant(reported.peakOutflow)} ${f.labels.flow}, routed again ${f.flow(result.peakOutflow)}`);
+    }
+    if (Math.abs(reported.maxStage - u.length(result.maxStage)) > STAGE_AGREEMENT[c.units]) {
+      out.push(`${storm.name}: maximum stage reported ${reported.maxStage.toFixed(3)} ${f.labels.length}, routed again ${f.elevation(result.maxStage)}`);
+    }
+  }
+  return out;
+}
+
+function comparisonTable(c: Case, routed: readonly RoutedCandidate[]): TableBlock {
+  const f = formatter(c.units);
+  const targeted = c.storms.filter((s) => s.target !== null);
+  return {
+    kind: "table",
+    caption: "Candidates, best first (peak outflow as a percentage of the target; maximum stage over all storms)",
+    head: ["Rank", "Description", ...targeted.map((s) => `${s.name} out / target`), "Max stage", "Cost", "Binding check", "Compliant"],
+    numeric: [true, false, ...targeted.map(() => true), true, true, false, false],
+    rows: routed.map((r) => {
+      const reported = r.candidate.reported;
+      const ratios = targeted.map((storm): Cell => {
+        const s = r.routing.storms.find((x) => x.storm.name === storm.name)!;
+        const inBand = withinBand(c, s.result.peakOutflow, storm.target)!;
+        return { text: percent(s.result.peakOutflow / storm.target!), tone: inBand ? "pass" : "fail" };
+      });
+      const maxStage = Math.max(...r.routing.storms.map((s) => s.result.maxStage));
+      const binding = reported.binding ? `${reported.binding.name} (slack ${percent(reported.binding.slack)})` : "none";
+      return [
+        `#${reported.rank}`,
+        reported.description,
+        ...ratios,
+        f.elevation(maxStage),
+        reported.cost === null || reported.cost === undefined ? "not given" : `${trimNumber(reported.cost, 2)} cost units`,
+        binding,
+        { text: reported.compliant ? "yes" : "no", tone: reported.compliant ? "pass" : "fail" },
+      ];
+    }),
+  };
+}
+
+function explanationBlocks(c: Case, r: RoutedCandidate): Block[] {
+  const blocks: Block[] = [];
+  const reported = r.candidate.reported;
+  blocks.push({ kind: "text", text: `Candidate ${reported.rank}: ${reported.description}` });
+  blocks.push(reported.explanation.length ? { kind: "list", items: reported.explanation } : { kind: "text", text: "The design run gave no explanation." });
+  const differences = disagreements(c, r);
+  if (differences.length) {
+    blocks.push({ kind: "note", tone: "warning", text: `Routed again from ${reported.caseFile}, this candidate does not match the design run's results: ${differences.join("; ")}.` });
+  }
+  return blocks;
+}
+
+export function designReport(run: DesignRun, routed: readonly RoutedCandidate[]): ReportDocument {
+  const figures = new FigureCounter();
+  const best = routed[0];
+  const c = best.candidate.case;
+  const s = run.results.search;
+  const runFacts: Block = {
+    kind: "facts",
+    rows: [
+      ["Case", run.results.case],
+      ["Input case file", run.results.caseFile],
+      ["Results directory", run.directory],
+      ["Candidates", `${routed.length}, best first`],
+      ["Search stopped because", s.stoppedBecause],
+      ["Search effort", `${s.layouts} layouts, ${s.routings} routings, ${trimNumber(s.seconds, 1)} s, seed ${String(s.seed)}`],
+    ],
+  };
+  const compared = section("candidates", "Candidates compared", [
+    comparisonTable(c, routed),
+    figures.figure("candidates", "Candidates compared", "Total rating of each candidate against stage; hatched: each storm's target band; open markers: each candidate's routed peak outflow at its maximum stage, named by storm.",
+      (id) => candidatesChart(id, c, routed.map((r) => ({ rank: r.candidate.reported.rank, outlet: r.outlet, storms: r.routing.storms })))),
+  ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));
+  const candidateSections: Section[] = routed.map((r) => {
+    const rank = r.candidate.reported.rank;
+    const prefix = `c${rank}-`;
+    return section(`candidate-${rank}`, `Candidate ${rank}`, [
+      { kind: "text", text: `${r.candidate.reported.description} (case file ${r.candidate.reported.caseFile}).` },
+      verdictNote(r.assessment),
+    ], outletSections(c, r, figures, prefix));
+  });
+  const verdict: NoteBlock = { ...verdictNote(best.assessment) };
+  verdict.text = `Candidate ${best.candidate.reported.rank}: ${verdict.text}`;
+  return {
+    title: `Design report: ${run.results.case}`,
+    subtitle: `Design run in ${run.directory}: ${routed.length} candidate${routed.length === 1 ? "" : "s"}, each routed again from its own case file by outfit.`,
+    verdict,
+    caution: CAUTION,
+    sections: [
+      section("run", "Design run", [runFacts]),
+      compared,
+      section("summary", "Case", [caseFacts(c), stormsTable(c)]),
+      storageSection(c, best.outlet, figures),
+      ...candidateSections,
+      methodsSection(c, routed.map((r) => r.outlet)),
+      cautionSection(),
+    ],
+  };
+}

@@ -1,0 +1,290 @@
+// The report's plots, in the case's units: stage-storage, the outlet's rating with each storm's
+// target and routed peak, each storm's hydrographs and stage, and the candidates of a design run.
+import type { Case, Outlet } from "../../case/model.js";
+import type { StormRouting } from "../../routing/routeCase.js";
+import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
+import { outletDetail } from "../../hydraulics/outlet.js";
+import { formatter } from "../../format.js";
+import { describeElement } from "../describe.js";
+import { niceAxis } from "../plot/ticks.js";
+import { chart, type Band, type Point, type PointGroup, type ReferenceLine, type Series } from "../plot/chart.js";
+import { cycleStyle, PALETTE, INK, type LineStyle } from "../plot/style.js";
+
+/** Rating and storage curves are drawn with about this many intervals over the pond's depth. */
+const CURVE_INTERVALS = 240;
+/** The hydrograph plot spans this many times the inflow's duration (the stage plot spans all). */
+const HYDROGRAPH_SPAN = 3;
+
+const line = (colour: string, dash: LineStyle["dash"], width = 1.6): LineStyle => ({ colour, dash, width, marker: "none" });
+const TOP_STYLE = line(INK, "solid", 1.8);
+const FREEBOARD_STYLE = line(INK, "dash-dot");
+const SPILLWAY_STYLE = line(PALETTE.orange, "dashed", 1.8);
+const POOL_STYLE = line(PALETTE.skyBlue, "long-dash");
+const TARGET_COLOUR = PALETTE.reddishPurple;
+
+/** Stages from pond.bottom to pond.top with every kink of the outlet's rating as a node. */
+function curveStages(c: Case, outlet: Outlet): Float64Array {
+  const breaks = ratingBreaks(c.pond, outlet);
+  const grid = stageGrid(c.pond, breaks, (c.pond.top - c.pond.bottom) / CURVE_INTERVALS);
+  return grid.stage.filter((z) => z <= c.pond.top + 1e-9);
+}
+
+function pondReferences(c: Case, outlet: Outlet | undefined, withFreeboard: boolean): ReferenceLine[] {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const refs: ReferenceLine[] = [
+    { key: "top", axis: "y", value: u.length(c.pond.top), label: `top of embankment ${f.elevation(c.pond.top)}`, style: TOP_STYLE },
+  ];
+  if (withFreeboard) {
+    const z = c.pond.top - c.criteria.freeboardDepth;
+    refs.push({ key: "freeboard", axis: "y", value: u.length(z), label: `freeboard line ${f.elevation(z)} (${f.length(c.criteria.freeboardDepth)} below top)`, style: FREEBOARD_STYLE });
+  }
+  if (outlet?.spillway) {
+    refs.push({ key: "spillway", axis: "y", value: u.length(outlet.spillway.crest), label: `spillway crest ${f.elevation(outlet.spillway.crest)}`, style: SPILLWAY_STYLE });
+  }
+  if (c.pond.pool > c.pond.bottom) {
+    refs.push({ key: "pool", axis: "y", value: u.length(c.pond.pool), label: `permanent pool ${f.elevation(c.pond.pool)}`, style: POOL_STYLE });
+  }
+  return refs;
+}
+
+export function storageChart(id: string, c: Case, outlet: Outlet | undefined): string {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const grid = stageGrid(c.pond, outlet ? ratingBreaks(c.pond, outlet) : [c.pond.top], (c.pond.top - c.pond.bottom) / CURVE_INTERVALS);
+  const points: Point[] = [];
+  grid.stage.forEach((z, i) => {
+    if (z <= c.pond.top + 1e-9) points.push([u.volume(grid.storage[i]), u.length(z)]);
+  });
+  return chart({
+    id,
+    key: "stage-storage",
+    title: `Stage-storage of ${c.name}`,
+    description: `Storage above the pond bottom against stage, from ${f.elevation(c.pond.bottom)} to ${f.elevation(c.pond.top)}.`,
+    x: { label: "Storage above pond bottom", unit: f.labels.volume, includeZero: true },
+    y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
+    series: [{ key: "storage", label: "storage", points, style: { colour: PALETTE.bluishGreen, dash: "solid", width: 2.2, marker: "none" } }],
+    references: pondReferences(c, outlet, false),
+  });
+}
+
+/** One series per part of the outlet (elements, rim, barrel, spillway) and the total. */
+export function ratingSeries(c: Case, outlet: Outlet): Series[] {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const details = Array.from(curveStages(c, outlet), (z) => outletDetail(outlet, c.tailwater, z));
+  const along = (flow: (d: (typeof details)[number]) => number): Point[] => details.map((d) => [u.flow(flow(d)), u.length(d.stage)]);
+  const parts: Omit<Series, "style">[] = outlet.elements.map((e, i) => ({ key: `element-${i + 1}`, label: `E${i + 1}: ${describeElement(e, f)}`, points: along((d) => d.elements[i]) }));
+  if (outlet.riser) parts.push({ key: "rim", label: `riser rim at ${f.elevation(outlet.riser.crest)}`, points: along((d) => d.rim) });
+  if (outlet.barrel) parts.push({ key: "barrel", label: "barrel (all openings and rim)", points: along((d) => d.barrel ?? 0) });
+  if (outlet.spillway) parts.push({ key: "spillway", label: `spillway at ${f.elevation(outlet.spillway.crest)}`, points: along((d) => d.spillway) });
+  return [
+    ...parts.map((p, i) => ({ ...p, points: fromLastZero(p.points), style: cycleStyle(i) })),
+    { key: "total", label: "total outflow", points: along((d) => d.total), style: { colour: INK, dash: "solid", width: 2.6, marker: "none" } },
+  ];
+}
+
+/** A part's curve from the last stage where it is still dry (its invert or crest) upward. */
+function fromLastZero(points: readonly Point[]): readonly Point[] {
+  const first = points.findIndex(([q]) => q > 0);
+  return first > 0 ? points.slice(first - 1) : points;
+}
+
+/** Each storm's target at its maximum stage with the target band, and its routed peak. */
+function stormPoints(c: Case, storms: readonly StormRouting[]): PointGroup[] {
+  const u = formatter(c.units).raw;
+  const { over, under } = c.criteria;
+  const targets = storms.filter((s) => s.storm.target !== null);
+  return [
+    {
+      key: "targets",
+      label: "target at the storm's max stage, with its band",
+      style: { colour: TARGET_COLOUR, dash: "solid", width: 1.6, marker: "diamond", open: true },
+      points: targets.map((s) => ({
+        x: u.flow(s.storm.target!),
+        y: u.length(s.result.maxStage),
+        label: s.storm.name,
+        xRange: [u.flow(s.storm.target! * (1 - under)), u.flow(s.storm.target! * (1 + over))] as const,
+      })),
+    },
+    {
+      key: "peaks",
+      label: "routed peak outflow at max stage",
+      style: { colour: INK, dash: "solid", width: 1.6, marker: "circle" },
+      points: storms.map((s) => ({ x: u.flow(s.result.peakOutflow), y: u.length(s.result.maxStage) })),
+    },
+  ];
+}
+
+/**
+ * The rating plot's flow axis (case units): up to twice the largest target band edge or routed peak,
+ * so that the storms' points stay readable, and no further than the total at the top of embankment.
+ * Flows beyond run off the right edge (the rating table lists them).
+ */
+export function ratingFlowLimit(c: Case, storms: readonly StormRouting[], totalAtTop: number): number {
+  const u = formatter(c.units).raw;
+  let largest = 0;
+  for (const s of storms) {
+    largest = Math.max(largest, u.flow(s.result.peakOutflow), s.storm.target === null ? 0 : u.flow(s.storm.target * (1 + c.criteria.over)));
+  }
+  return niceAxis(0, largest > 0 ? Math.min(totalAtTop, 2 * largest) : totalAtTop).domain[1];
+}
+
+export function ratingChart(id: string, c: Case, outlet: Outlet, storms: readonly StormRouting[]): string {
+  const f = formatter(c.units);
+  const series = ratingSeries(c, outlet);
+  const total = series[series.length - 1].points;
+  const limit = ratingFlowLimit(c, storms, total[total.length - 1][0]);
+  return chart({
+    id,
+    key: "rating",
+    title: `Rating of the outlet of ${c.name}`,
+    description: "Outflow of each part of the outlet and the total against pond stage, with each storm's target band and routed peak at its maximum stage.",
+    x: { label: "Outflow", unit: f.labels.flow, domain: [0, limit] },
+    y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
+    series,
+    references: pondReferences(c, undefined, false),
+    points: stormPoints(c, storms),
+  });
+}
+
+/** Pond bottom to a little above the top of embankment, in case units. */
+function stageDomain(c: Case): [number, number] {
+  const u = formatter(c.units).raw;
+  const bottom = u.length(c.pond.bottom);
+  const top = u.length(c.pond.top);
+  return [bottom, top + 0.04 * (top - bottom)];
+}
+
+/** A series cut at time `end` (hours), with the value at `end` interpolated. */
+function until(times: readonly number[], values: readonly number[], end: number): Point[] {
+  const out: Point[] = [];
+  for (let i = 0; i < times.length; i++) {
+    if (times[i] <= end) out.push([times[i], values[i]]);
+    else {
+      if (i > 0 && times[i - 1] < end) {
+        const w = (end - times[i - 1]) / (times[i] - times[i - 1]);
+        out.push([end, values[i - 1] + w * (values[i] - values[i - 1])]);
+      }
+      break;
+    }
+  }
+  return out;
+}
+
+export interface TimeWindow {
+  /** Hours shown. */
+  end: number;
+  /** Hours simulated. */
+  simulated: number;
+}
+
+/** The hydrograph plot's time window: three times the inflow's duration, within the simulation. */
+export function hydrographWindow(sr: StormRouting): TimeWindow {
+  const series = sr.result.series!;
+  const simulated = series.time[series.time.length - 1] / 3600;
+  const inflowEnd = sr.storm.inflow.times[sr.storm.inflow.times.length - 1] / 3600;
+  return { end: Math.min(simulated, HYDROGRAPH_SPAN * inflowEnd), simulated };
+}
+
+export function hydrographChart(id: string, c: Case, sr: StormRouting): string {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const series = sr.result.series!;
+  const window = hydrographWindow(sr);
+  const hours = series.time.map((t) => t / 3600);
+  const bands: Band[] = [];
+  const references: ReferenceLine[] = [];
+  const target = sr.storm.target;
+  if (target !== null) {
+    const { over, under } = c.criteria;
+    bands.push({ key: "target-band", axis: "y", from: u.flow(target * (1 - under)), to: u.flow(target * (1 + over)), label: `target band ${f.flow(target * (1 - under))} to ${f.flow(target * (1 + over))}`, colour: TARGET_COLOUR });
+    references.push({ key: "target", axis: "y", value: u.flow(target), label: `target ${f.flow(target)}`, style: line(TARGET_COLOUR, "dotted", 1.8) });
+  }
+  return chart({
+    id,
+    key: "hydrograph",
+    title: `${sr.storm.name}: inflow and outflow`,
+    description: `Inflow and routed outflow of the ${sr.storm.name} storm over the first ${window.end.toFixed(1)} h.`,
+    x: { label: "Time from start of storm", unit: "h", domain: [0, window.end] },
+    y: { label: "Flow", unit: f.labels.flow, includeZero: true },
+    series: [
+      { key: "inflow", label: "inflow", points: until(hours, series.inflow.map(u.flow), window.end), style: { colour: PALETTE.blue, dash: "solid", width: 2, marker: "none" } },
+      { key: "outflow", label: "outflow (total)", points: until(hours, series.outflow.map(u.flow), window.end), style: { colour: PALETTE.vermillion, dash: "dashed", width: 2, marker: "square" } },
+    ],
+    references,
+    bands,
+    points: [{
+      key: "peak-outflow",
+      label: "peak outflow",
+      style: { colour: PALETTE.vermillion, dash: "solid", width: 1.6, marker: "circle", open: true },
+      points: sr.result.timeOfPeakOutflow / 3600 <= window.end
+        ? [{ x: sr.result.timeOfPeakOutflow / 3600, y: u.flow(sr.result.peakOutflow), label: `${f.flow(sr.result.peakOutflow)} at ${(sr.result.timeOfPeakOutflow / 3600).toFixed(2)} h` }]
+        : [],
+    }],
+  });
+}
+
+export function stageChart(id: string, c: Case, outlet: Outlet, sr: StormRouting): string {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const series = sr.result.series!;
+  const hours = series.time.map((t) => t / 3600);
+  return chart({
+    id,
+    key: "stage",
+    title: `${sr.storm.name}: stage over time`,
+    description: `Pond stage during the ${sr.storm.name} storm until the pond has drained, with the top of embankment, the freeboard line and the spillway crest.`,
+    x: { label: "Time from start of storm", unit: "h", includeZero: true },
+    y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
+    series: [{ key: "stage", label: "stage", points: hours.map((t, i) => [t, u.length(series.stage[i])] as const), style: { colour: PALETTE.bluishGreen, dash: "solid", width: 2.2, marker: "none" } }],
+    references: pondReferences(c, outlet, true),
+    points: [{
+      key: "max-stage",
+      label: "maximum stage",
+      style: { colour: PALETTE.bluishGreen, dash: "solid", width: 1.6, marker: "triangle" },
+      points: [{ x: sr.result.timeOfMaxStage / 3600, y: u.length(sr.result.maxStage), label: `${f.elevation(sr.result.maxStage)} at ${(sr.result.timeOfMaxStage / 3600).toFixed(2)} h` }],
+    }],
+  });
+}
+
+export interface ComparedCandidate {
+  rank: number;
+  outlet: Outlet;
+  storms: readonly StormRouting[];
+}
+
+/** Every candidate's total rating, the storms' target bands and each candidate's routed peaks. */
+export function candidatesChart(id: string, c: Case, candidates: readonly ComparedCandidate[]): string {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const { over, under } = c.criteria;
+  const styles = candidates.map((_, i) => ({ ...cycleStyle(i), width: 2.2 }));
+  const series = candidates.map((k, i) => {
+    return {
+      key: `candidate-${k.rank}`,
+      label: `candidate ${k.rank}`,
+      points: Array.from(curveStages(c, k.outlet), (z) => [u.flow(outletDetail(k.outlet, c.tailwater, z).total), u.length(z)] as const),
+      style: styles[i],
+    };
+  });
+  const limit = Math.max(...candidates.map((k, i) => ratingFlowLimit(c, k.storms, series[i].points[series[i].points.length - 1][0])));
+  return chart({
+    id,
+    key: "candidates",
+    title: "Candidates compared",
+    description: "Total rating of each candidate with the storms' target bands and each candidate's routed peaks.",
+    x: { label: "Outflow", unit: f.labels.flow, domain: [0, limit] },
+    y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
+    series,
+    bands: c.storms.filter((s) => s.target !== null).map((s, i) => ({
+      key: `band-${i + 1}`, axis: "x" as const, from: u.flow(s.target! * (1 - under)), to: u.flow(s.target! * (1 + over)), label: "target band of each storm", colour: TARGET_COLOUR,
+    })),
+    points: candidates.map((k, i) => ({
+      key: `peaks-${k.rank}`,
+      label: `candidate ${k.rank}: routed peaks`,
+      style: { ...styles[i], open: true },
+      points: k.storms.map((s) => ({ x: u.flow(s.result.peakOutflow), y: u.length(s.result.maxStage), label: s.storm.name })),
+    })),
+  });
+}

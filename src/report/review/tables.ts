@@ -1,0 +1,230 @@
+// The report's tables and summaries, every number with its unit, in the case's units.
+import type { Case, Element, Outlet } from "../../case/model.js";
+import type { CaseRouting } from "../../routing/routeCase.js";
+import type { Assessment } from "../../assess/assess.js";
+import { hydrographVolume } from "../../routing/router.js";
+import { storageCurve } from "../../storage/curve.js";
+import { formatter, significant, trimNumber, type Formatter } from "../../format.js";
+import { checkValue, hours, percent } from "../console.js";
+import { withinBand } from "../json.js";
+import { describeOutlet } from "../describe.js";
+import { niceStep, ratingJson, ratingRows } from "../rating.js";
+import { baseLength } from "../../units.js";
+import type { Cell, FactsBlock, ListBlock, NoteBlock, TableBlock } from "./model.js";
+
+/** A percentage that prints no negative zero. */
+function signedPercent(fraction: number, digits: number): string {
+  const text = (100 * fraction).toFixed(digits);
+  return `${Number(text) === 0 ? (0).toFixed(digits) : text} %`;
+}
+
+const hoursText = (seconds: number) => `${(seconds / 3600).toFixed(2)} h`;
+
+/** Weir-type coefficients carry the unit length^0.5 / time. */
+function weirCoefficient(f: Formatter, si: number): string {
+  return `${trimNumber(f.raw.weirCoefficient(si), 3)} ${f.labels.length}^0.5/s`;
+}
+
+function storageText(c: Case, f: Formatter): string {
+  const s = c.pond.storage;
+  switch (s.kind) {
+    case "prismoid":
+      return `prismoid: ${f.length(s.length, 1)} x ${f.length(s.width, 1)} floor, side slopes ${trimNumber(s.sideSlope, 3)} H : 1 V`;
+    case "stageArea":
+      return `stage-area table, ${s.elevations.length} rows (conic between rows)`;
+    case "stageStorage":
+      return `stage-storage table, ${s.elevations.length} rows (linear between rows)`;
+  }
+}
+
+function tailwaterText(c: Case, f: Formatter): string {
+  const t = c.tailwater;
+  switch (t.kind) {
+    case "free":
+      return "free outfall";
+    case "elevation":
+      return `constant at ${f.elevation(t.elevation)}`;
+    case "rating":
+      return `downstream rating, ${t.flows.length} rows, ${f.elevation(t.elevations[0])} to ${f.elevation(t.elevations[t.elevations.length - 1])}`;
+  }
+}
+
+/** The pond, the tailwater and the criteria. */
+export function caseFacts(c: Case): FactsBlock {
+  const f = formatter(c.units);
+  const k = c.criteria;
+  const dry = c.pond.pool <= c.pond.bottom;
+  const rows: [string, string][] = [
+    ["Case", c.name],
+    ["Units", c.units === "US" ? "US: ft, ft3, cfs; times in minutes and hours" : "SI: m, m3, m3/s; times in minutes and hours"],
+    ["Pond", `bottom ${f.elevation(c.pond.bottom)}, top of embankment ${f.elevation(c.pond.top)} (depth ${f.length(c.pond.top - c.pond.bottom)})`],
+    ["Permanent pool", dry ? "none (dry pond)" : f.elevation(c.pond.pool)],
+    ["Storage", storageText(c, f)],
+    ["Storage at top of embankment", f.volume(storageCurve(c.pond).volume(c.pond.top))],
+    ["Tailwater", tailwaterText(c, f)],
+    ["Target band", `${percent(-k.under, 0)} to +${percent(k.over, 0)} of each storm's target`],
+    ["Freeboard", `${f.length(k.freeboardDepth)} below the top of embankment for the ${k.freeboardStorm} storm`],
+    ["Drawdown", k.drawdownHours === null ? "no limit" : `within ${trimNumber(k.drawdownHours, 2)} h of the peak stage, to ${f.length(k.drawdownDepth)} above ${dry ? "the pond bottom" : "the permanent pool"}`],
+    ["Spillway dry", `storms up to ${trimNumber(k.spillwayDryThrough, 2)} yr`],
+  ];
+  return { kind: "facts", rows };
+}
+
+/** The storms as given: return period, target, band and inflow. */
+export function stormsTable(c: Case): TableBlock {
+  const f = formatter(c.units);
+  const { over, under } = c.criteria;
+  return {
+    kind: "table",
+    caption: "Design storms",
+    head: ["Storm", "Return period", "Target", "Target band", "Peak inflow", "Inflow volume", "Inflow ends"],
+    numeric: [false, true, true, true, true, true, true],
+    rows: c.storms.map((s) => {
+      let peak = 0;
+      for (const q of s.inflow.flows) if (q > peak) peak = q;
+      return [
+        s.name,
+        `${trimNumber(s.returnPeriod, 2)} yr`,
+        s.target === null ? "none" : f.flow(s.target),
+        s.target === null ? "none" : `${f.flow(s.target * (1 - under))} to ${f.flow(s.target * (1 + over))}`,
+        f.flow(peak),
+        f.volume(hydrographVolume(s.inflow)),
+        hoursText(s.inflow.times[s.inflow.times.length - 1]),
+      ];
+    }),
+  };
+}
+
+function elementRow(e: Element, i: number, f: Formatter): string[] {
+  const name = `E${i + 1}`;
+  switch (e.type) {
+    case "orifice": {
+      const size = e.shape === "circular" ? `${f.size(e.diameter)} diameter` : `${f.size(e.width)} wide x ${f.size(e.height)} high`;
+      return [name, `${e.shape} orifice`, `${e.count} x ${size}`, `invert ${f.elevation(e.invert)}`, `Cd ${trimNumber(e.coefficient, 3)} (dimensionless)`];
+    }
+    case "weir":
+      return e.shape === "rectangular"
+        ? [name, "rectangular weir", `${f.length(e.length)} long, ${e.endContractions} end contraction${e.endContractions === 1 ? "" : "s"}`, `crest ${f.elevation(e.crest)}`, `C ${weirCoefficient(f, e.coefficient)}`]
+        : [name, "v-notch weir", `${trimNumber(e.angle, 2)} degree notch`, `crest ${f.elevation(e.crest)}`, `C ${weirCoefficient(f, e.coefficient)}`];
+    case "regulator":
+      return [name, "flow regulator", `rating of ${e.heads.length} points to ${f.length(e.heads[e.heads.length - 1])} of head`, `invert ${f.elevation(e.invert)}`, "maker's rating"];
+  }
+}
+
+/** Every part of the outlet with its size, elevation and coefficient. */
+export function partsTable(c: Case, outlet: Outlet): TableBlock {
+  const f = formatter(c.units);
+  const rows = outlet.elements.map((e, i) => elementRow(e, i, f));
+  if (outlet.riser) {
+    const r = outlet.riser;
+    const size = r.shape === "circular" ? `${f.length(r.diameter)} diameter` : `${f.length(r.length)} x ${f.length(r.width)} box`;
+    rows.push(["rim", "riser rim", size, `rim ${f.elevation(r.crest)}`, `weir C ${weirCoefficient(f, r.coefficient)}; top opening Cd ${trimNumber(r.orificeCoefficient, 3)} (dimensionless)`]);
+  }
+  if (outlet.barrel) {
+    const b = outlet.barrel;
+    const size = b.shape === "circular" ? `${f.size(b.diameter)} diameter` : `${f.length(b.span)} span x ${f.length(b.rise)} rise`;
+    rows.push(["barrel", `barrel (${b.entrance})`, `${size}, ${f.length(b.length, 1)} long`, `inlet ${f.elevation(b.inletInvert)}, outlet ${f.elevation(b.outletInvert)}`, `Manning n ${trimNumber(b.manningN, 4)} (s/m^(1/3))`]);
+  }
+  if (outlet.spillway) {
+    const s = outlet.spillway;
+    rows.push(["spillway", "trapezoidal spillway", `${f.length(s.length, 1)} bottom, side slopes ${trimNumber(s.sideSlope, 3)} H : 1 V`, `crest ${f.elevation(s.crest)}`, `C ${weirCoefficient(f, s.coefficient)}`]);
+  }
+  return { kind: "table", caption: `Outlet: ${describeOutlet(outlet, f)}`, head: ["Part", "Kind", "Size", "Elevation", "Coefficient"], numeric: [false, false, false, true, false], rows };
+}
+
+/** The outlet's rating, part by part, with storage, at a round stage step (as `outfit rate`). */
+export function ratingTable(c: Case, outlet: Outlet): TableBlock {
+  const f = formatter(c.units);
+  const L = baseLength(c.units);
+  const step = niceStep((c.pond.top - c.pond.bottom) / L) * L;
+  const rating = ratingJson(c, outlet, ratingRows(c, outlet, step));
+  const unit = (x: number, digits: number, label: string) => `${x.toFixed(digits)} ${label}`;
+  return {
+    kind: "table",
+    caption: `Rating at ${f.length(step)} intervals: flow of each part and the total`,
+    head: ["Stage", "Storage", ...rating.parts, "Total", "Control"],
+    numeric: [true, true, ...rating.parts.map(() => true), true, false],
+    rows: rating.rows.map((r) => [
+      unit(r.stage, c.units === "US" ? 2 : 3, f.labels.length),
+      `${Math.round(r.storage).toLocaleString("en-US")} ${f.labels.volume}`,
+      ...[...r.elements, ...(outlet.riser ? [r.rim] : []), ...(outlet.barrel ? [r.barrel ?? 0] : []), ...(outlet.spillway ? [r.spillway] : [])].map((q) => `${significant(q)} ${f.labels.flow}`),
+      `${significant(r.total)} ${f.labels.flow}`,
+      r.control,
+    ]),
+  };
+}
+
+/** Where a peak lies against its target band, in words. */
+export function bandWords(c: Case, peak: number, target: number): string {
+  if (withinBand(c, peak, target)) return "in band";
+  return peak > target ? "above band" : "below band";
+}
+
+/** The routed results of every storm. */
+export function resultsTable(c: Case, routing: CaseRouting): TableBlock {
+  const f = formatter(c.units);
+  return {
+    kind: "table",
+    caption: "Routed results",
+    head: ["Storm", "Peak inflow", "Peak outflow", "Target", "Outflow / target", "Max stage", "Freeboard left", "Drawdown"],
+    numeric: [false, true, true, true, true, true, true, true],
+    rows: routing.storms.map(({ storm, result }) => {
+      const ratio: Cell = storm.target === null
+        ? { text: "no target" }
+        : { text: `${percent(result.peakOutflow / storm.target)}, ${bandWords(c, result.peakOutflow, storm.target)}`, tone: withinBand(c, result.peakOutflow, storm.target) ? "pass" : "fail" };
+      return [
+        storm.name,
+        f.flow(result.peakInflow),
+        f.flow(result.peakOutflow),
+        storm.target === null ? "none" : f.flow(storm.target),
+        ratio,
+        f.elevation(result.maxStage),
+        f.length(c.pond.top - result.maxStage),
+        hours(result.drawdownTime === null ? null : result.drawdownTime / 3600),
+      ];
+    }),
+  };
+}
+
+/** One storm's routing in a sentence: peaks, stage, storage, drawdown and the mass balance. */
+export function stormSummary(c: Case, sr: CaseRouting["storms"][number]): string {
+  const f = formatter(c.units);
+  const r = sr.result;
+  const target = sr.storm.target;
+  const ratio = target === null ? "no target" : `${percent(r.peakOutflow / target)} of the target ${f.flow(target)}, ${bandWords(c, r.peakOutflow, target)}`;
+  const drawdown = r.drawdownTime === null ? "not drained within the simulation" : `drained ${hours(r.drawdownTime / 3600)} after the peak stage`;
+  return `Peak inflow ${f.flow(r.peakInflow)}; peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)} (${ratio}); maximum stage ${f.elevation(r.maxStage)} at ${hoursText(r.timeOfMaxStage)}, ${f.length(c.pond.top - r.maxStage)} below the top of embankment, storing ${f.volume(r.maxStorage)}; ${drawdown}; mass balance error ${signedPercent(r.massBalanceError, 3)}.`;
+}
+
+/** Every check with value, limit and slack; the binding check marked. */
+export function checksTable(c: Case, assessment: Assessment): TableBlock {
+  return {
+    kind: "table",
+    caption: "Checks (slack: how far from failing, as a fraction of the limit; the binding check has the least)",
+    head: ["Check", "Value", "Limit", "Slack", "Result"],
+    numeric: [false, true, true, true, false],
+    rows: assessment.checks.map((check) => {
+      const binding = check === assessment.binding;
+      return [
+        binding ? { text: `${check.name} (binding)`, tone: "binding" } : check.name,
+        checkValue(c, check, check.value),
+        `${check.kind === "peak-lower" ? "at least" : "at most"} ${checkValue(c, check, check.limit)}`,
+        { text: percent(check.slack), tone: check.passed ? "pass" : "fail" },
+        { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
+      ];
+    }),
+  };
+}
+
+export function warningsList(assessment: Assessment): ListBlock | NoteBlock {
+  if (assessment.warnings.length === 0) return { kind: "note", tone: "pass", text: "No warnings: every part is used within the range of its formula." };
+  return { kind: "list", items: assessment.warnings.map((w) => `${w.part}: ${w.reason}`) };
+}
+
+export function verdictNote(assessment: Assessment): NoteBlock {
+  const b = assessment.binding;
+  const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks apply";
+  return assessment.compliant
+    ? { kind: "note", tone: "pass", text: `Compliant: every check passes; ${binding}.` }
+    : { kind: "note", tone: "fail", text: `Not compliant: ${assessment.checks.filter((k) => !k.passed).length} of ${assessment.checks.length} checks fail; ${binding}.` };
+}
