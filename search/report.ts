@@ -43,6 +43,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
     search: {
       success: run.success,
       stoppedBecause: run.stoppedBecause,
+      layouts: run.layoutsFitted,
       layoutsPlanned: run.layoutsPlanned,
       layoutsFitted: run.layoutsFitted,
       candidatesRouted: run.candidates.length,

@@ -56,7 +56,8 @@ export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase
   return { case: normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd() }), data, json, notices };
 }
 
-function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {
+/** A zod issue as a problem naming the path, the value found and what was expected. */
+export function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {
   const where = `${label}: ${jsonPath(issue.path)}`;
   const input = (issue as { input?: unknown }).input;
   const custom = !issue.message.startsWith("Invalid") && !issue.message.startsWith("Too ");

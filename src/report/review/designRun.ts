@@ -4,7 +4,7 @@ import { readFileSync, statSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { z } from "zod";
 import { CaseError, jsonPath, show } from "../../case/errors.js";
-import { loadCase } from "../../case/load.js";
+import { fromIssue, loadCase } from "../../case/load.js";
 import type { Case } from "../../case/model.js";
 
 const stormSchema = z.looseObject({
@@ -84,11 +84,7 @@ export function loadDesignRun(directory: string): DesignRun {
   }
   const parsed = designResultsSchema.safeParse(json, { reportInput: true });
   if (!parsed.success) {
-    throw new CaseError(parsed.error.issues.slice(0, 12).map((issue) => ({
-      where: `${file}: ${jsonPath(issue.path)}`,
-      found: show((issue as { input?: unknown }).input),
-      expected: issue.message.replace(/^Invalid input:?\s*/i, "") || "the field as outfit design writes it",
-    })));
+    throw new CaseError(parsed.error.issues.slice(0, 12).map((issue) => fromIssue(issue, file)));
   }
   const results = parsed.data;
   const ranks = new Set<number>();
