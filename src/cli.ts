@@ -34,7 +34,19 @@ program
   .name("outfit")
   .version(version)
   .description("Designs, checks and explains the outlet structures of stormwater detention ponds.")
-  .addHelpText("after", `\nCaution: ${CAUTION}\n`)
+  .addHelpText(
+    "after",
+    `
+Examples:
+  outfit design cases/demo/case.json      # propose outlets from the case's catalogue
+  outfit route cases/demo/case.json       # route and check the case's own outlet
+  outfit rate cases/demo/case.json        # the outlet's stage-discharge table
+  outfit report cases/demo/case.json      # a review report (HTML)
+  outfit <command> --help                 # every option of a command, with examples
+
+Caution: ${CAUTION}
+`,
+  )
   .showHelpAfterError()
   .exitOverride();
 

@@ -62,6 +62,22 @@ describe("outfit design", () => {
     expect(b.search.layoutsFitted).toBeGreaterThan(a.search.layoutsFitted);
   });
 
+  it("runs on the demo variant whose storms are given by rainfall only", () => {
+    const run = outfit("design", "cases/demo-rainfall/case.json", "--budget", "1500", "--top", "1", "--json");
+    expect(run.code).toBe(0);
+    const results = JSON.parse(run.stdout);
+    expect(results.candidates.length).toBe(1);
+    // Targets come from the pre-development peaks the hydrology derives.
+    for (const s of results.candidates[0].storms) expect(s.target).toBeGreaterThan(0);
+  });
+
+  it.each(["route", "rate", "design", "report", "hydrograph"])("`%s --help` lists its options and shows an example", (command) => {
+    const help = outfit(command, "--help");
+    expect(help.code).toBe(0);
+    expect(help.stdout).toMatch(/Options:/);
+    expect(help.stdout).toMatch(/Examples?:\n\s+outfit /);
+  });
+
   it("refuses --resume with a journal of another case (exit 2, names the option)", () => {
     const dir = mkdtempSync(join(tmpdir(), "outfit-resume-"));
     expect(outfit("design", "cases/small-compliant/case.json", "--budget", "500", "--out", dir).code).toBe(0);
