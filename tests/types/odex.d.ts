@@ -1,0 +1,36 @@
+// Types for the parts of the `odex` ODE solver (2.0.4, a CommonJS package without its own types) that
+// the tests use: Hairer and Wanner's ODEX extrapolation integrator.
+declare module "odex" {
+  export type Derivative = (x: number, y: number[]) => number[];
+  export type OutputFunction = (
+    step: number,
+    xOld: number,
+    x: number,
+    y: number[],
+    dense?: (component: number, x: number) => number,
+  ) => boolean | void;
+  export enum Outcome {
+    Converged = 0,
+    MaxStepsExceeded = 1,
+    EarlyReturn = 2,
+  }
+  export interface Solution {
+    y: number[];
+    outcome: Outcome;
+    nStep: number;
+    xEnd: number;
+    nAccept: number;
+    nReject: number;
+    nEval: number;
+  }
+  export class Solver {
+    constructor(n: number);
+    maxSteps: number;
+    initialStepSize: number;
+    maxStepSize: number;
+    denseOutput: boolean;
+    relativeTolerance: number | number[];
+    absoluteTolerance: number | number[];
+    solve(f: Derivative, x0: number, y0: number[], xEnd: number, out?: OutputFunction): Solution;
+  }
+}
