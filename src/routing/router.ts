@@ -22,9 +22,9 @@ export interface RouteOptions {
   maxStep?: number;
   /** Automatic step: smallest step (s), default 1. */
   minStep?: number;
-  /** Automatic step: fraction of the peak inflow the inflow may change in one step, default 0.02. */
+  /** Automatic step: fraction of the peak inflow the inflow may change in one step, default 0.01. */
   inflowFraction?: number;
-  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.5. */
+  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.25. */
   timeConstantFraction?: number;
 }
 
@@ -58,6 +58,8 @@ export interface RouteResult {
   largestStep: number;
   /** Steps shortened below the inflow's own step because the outflow changes fast relative to storage. */
   refinedSteps: number;
+  /** Automatic mode: steps done again, shorter, because they ended where the outflow changes fast. */
+  redoneSteps: number;
   /** Steps where the storage-indication value fell below zero and the pond was taken as empty. */
   clampedSteps: number;
   /** The stage rose above the last row of the rating table (extrapolated). */
@@ -66,6 +68,11 @@ export interface RouteResult {
 }
 
 const TEN_DAYS = 10 * 86400;
+/**
+ * Automatic step: a step is done again when it is longer than this many times the time-constant
+ * limit of the table interval it ends in (the limit of the interval it starts in is applied before).
+ */
+const REDO_FACTOR = 1.5;
 
 /** Exact volume of a piecewise-linear hydrograph (m3). */
 export function hydrographVolume(h: Hydrograph): number {
@@ -89,11 +96,11 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const fixed = options.step;
   const maxStep = options.maxStep ?? 600;
   const minStep = options.minStep ?? 1;
-  const tauFraction = options.timeConstantFraction ?? 0.5;
+  const tauFraction = options.timeConstantFraction ?? 0.25;
   const drained = options.drainedStage;
   let peakInflow = 0;
   for (let i = 0; i < nIn; i++) if (flows[i] > peakInflow) peakInflow = flows[i];
-  const inflowChange = (options.inflowFraction ?? 0.02) * peakInflow;
+  const inflowChange = (options.inflowFraction ?? 0.01) * peakInflow;
 
   // Start: pond at the start stage with zero inflow history, at the first inflow point.
   let k = locate(Z, options.startStage);
@@ -117,6 +124,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   let largest = 0;
   let refined = 0;
   let clamped = 0;
+  let redone = 0;
   let beyond = false;
   let drainedAt = H1 <= drained ? t : NaN;
 
@@ -155,27 +163,38 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         }
       }
     }
-    const t2 = t + dt;
-
-    // 2. Inflow at the end of the step (linear between points, zero outside them).
+    // 2-4. Solve the step. In the automatic mode a step that lands in a table interval whose time
+    // constant is much shorter than the step (the outflow turned steep inside the step, e.g. over a
+    // weir crest) is done again, shorter.
+    let t2: number;
     let I2: number;
-    if (t2 > tLast) I2 = 0;
-    else {
-      while (j < nIn - 2 && times[j + 1] < t2) j++;
-      const t0 = times[j];
-      I2 = flows[j] + ((flows[j + 1] - flows[j]) * (t2 - t0)) / (times[j + 1] - t0);
+    let N: number;
+    let twoOverDt: number;
+    for (;;) {
+      t2 = t + dt;
+      // Inflow at the end of the step (linear between points, zero outside them).
+      if (t2 > tLast) I2 = 0;
+      else {
+        while (j < nIn - 2 && times[j + 1] < t2) j++;
+        const t0 = times[j];
+        I2 = flows[j] + ((flows[j + 1] - flows[j]) * (t2 - t0)) / (times[j + 1] - t0);
+      }
+      // Storage indication: 2 S2/dt + O2 = N.
+      twoOverDt = 2 / dt;
+      N = I1 + I2 + twoOverDt * S1 - O1;
+      if (N < 0) N = 0;
+      // Walk the cursor to the table interval holding N.
+      while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
+      while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
+      if (fixed !== undefined || dt <= minStep) break;
+      const dO = O[k + 1] - O[k];
+      if (!(dO > 0)) break;
+      const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
+      if (dt <= REDO_FACTOR * tau) break;
+      dt = tau < minStep ? minStep : tau;
+      redone++;
     }
-
-    // 3. Storage indication: 2 S2/dt + O2 = N.
-    const twoOverDt = 2 / dt;
-    let N = I1 + I2 + twoOverDt * S1 - O1;
-    if (N < 0) {
-      N = 0;
-      clamped++;
-    }
-    // 4. Walk the cursor to the table interval holding N.
-    while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
-    while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
+    if (I1 + I2 + twoOverDt * S1 - O1 < 0) clamped++;
     const f0 = twoOverDt * S[k] + O[k];
     const f1 = twoOverDt * S[k + 1] + O[k + 1];
     u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
@@ -241,6 +260,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     smallestStep: smallest,
     largestStep: largest,
     refinedSteps: refined,
+    redoneSteps: redone,
     clampedSteps: clamped,
     beyondTable: beyond,
     series,
