@@ -102,6 +102,8 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   for (let i = 0; i < nIn; i++) if (flows[i] > peakInflow) peakInflow = flows[i];
   const inflowChange = (options.inflowFraction ?? 0.01) * peakInflow;
 
+  const drainedStorage = drained <= Z[0] ? 0 : interpolateAtStage(table, S, Math.min(drained, Z[last]));
+
   // Start: pond at the start stage with zero inflow history, at the first inflow point.
   let k = locate(Z, options.startStage);
   let u = (options.startStage - Z[k]) / (Z[k + 1] - Z[k]);
@@ -232,7 +234,13 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     S1 = S2;
     O1 = O2;
     H1 = H2;
-    if (t >= tLast && (H2 <= drained || t >= tEnd)) break;
+    if (t >= tLast) {
+      if (H2 <= drained || t >= tEnd) break;
+      // With no inflow left the outflow only falls. If even the present outflow kept up until the end
+      // could not empty the storage above the drained stage, the pond does not drain in the simulated
+      // time (e.g. it is held up by tailwater): stop here rather than creep on in tiny steps.
+      if (O2 * (tEnd - t) < S2 - drainedStorage) break;
+    }
   }
 
   const storageChange = S1 - S0;

@@ -4,7 +4,7 @@ import { hydrographVolume, route } from "../../src/routing/router.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import type { Hydrograph } from "../../src/case/model.js";
 import { routeByOde } from "./support/levelPoolOde.js";
-import { caseOf, dryMultiStage } from "./support/ponds.js";
+import { caseOf, dryMultiStage, stageStorageWithTailwater } from "./support/ponds.js";
 
 const MASS_BALANCE = 1e-4;
 const hydrograph = (points: [number, number][]): Hydrograph => ({
@@ -49,6 +49,18 @@ describe("router, automatic step", () => {
     expect(Math.abs(result.peakOutflow / ode.peakOutflow - 1)).toBeLessThan(0.005);
     expect(Math.abs(result.peakOutflow / 0.1 - 1)).toBeLessThan(0.005);
     expect(Math.abs(result.maxStage - ode.maxStage)).toBeLessThan(0.003);
+    expect(Math.abs(result.massBalanceError)).toBeLessThan(MASS_BALANCE);
+  });
+
+  it("stops once a pond held up by tailwater cannot drain in the simulated time; drawdown is null", () => {
+    // Tailwater at 300.6 ft stands above the drained stage (300.1 ft): the pond settles at the
+    // tailwater level and never drains. Routing stops when even the present outflow kept up for
+    // the rest of the 10 days could not empty the storage above the drained stage.
+    const c = caseOf(stageStorageWithTailwater);
+    const { result } = routeCase(c, c.outlet!).storms[0];
+    expect(result.drawdownTime).toBeNull();
+    expect(result.steps).toBeLessThan(2000);
+    expect(result.duration).toBeLessThan(10 * 86400);
     expect(Math.abs(result.massBalanceError)).toBeLessThan(MASS_BALANCE);
   });
 
