@@ -230,7 +230,8 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       series!.stage.push(H2);
     }
     t = t2;
-    I1 = I2;
+    // After the last inflow point the inflow is zero: a hydrograph that ends above zero drops there.
+    I1 = t >= tLast ? 0 : I2;
     S1 = S2;
     O1 = O2;
     H1 = H2;

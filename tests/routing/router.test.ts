@@ -64,6 +64,18 @@ describe("router, automatic step", () => {
     expect(Math.abs(result.massBalanceError)).toBeLessThan(MASS_BALANCE);
   });
 
+  it("a hydrograph that ends above zero drops to zero at its last point (contract: zero after the last point)", () => {
+    // Before, the step after the last point ramped the inflow down linearly and took in half a step's
+    // worth of water that the hydrograph does not have.
+    const table = tableFromColumns([0, 1, 3], [0, 5000, 20000], [0, 0.2, 1.5]);
+    const inflow = hydrograph([[0, 0], [10, 0.5], [60, 0.5]]);
+    for (const step of [undefined, 60]) {
+      const result = route(table, inflow, { step, startStage: 0, drainedStage: 0.01 });
+      expect(result.volumeIn).toBeCloseTo(0.5 * 0.5 * 600 + 0.5 * 3000, 9);
+      expect(Math.abs(result.massBalanceError)).toBeLessThan(1e-12);
+    }
+  });
+
   it("a pond that drains reports the time from its peak stage until the drained stage", () => {
     const c = caseOf(dryMultiStage);
     const { result } = routeCase(c, c.outlet!, { record: true }).storms[0];
