@@ -24,7 +24,7 @@ export interface RouteOptions {
   minStep?: number;
   /** Automatic step: fraction of the peak inflow the inflow may change in one step, default 0.01. */
   inflowFraction?: number;
-  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.25. */
+  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.15. */
   timeConstantFraction?: number;
 }
 
@@ -96,7 +96,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const fixed = options.step;
   const maxStep = options.maxStep ?? 600;
   const minStep = options.minStep ?? 1;
-  const tauFraction = options.timeConstantFraction ?? 0.25;
+  const tauFraction = options.timeConstantFraction ?? 0.15;
   const drained = options.drainedStage;
   let peakInflow = 0;
   for (let i = 0; i < nIn; i++) if (flows[i] > peakInflow) peakInflow = flows[i];
