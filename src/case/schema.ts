@@ -12,8 +12,10 @@ const finite = z.number({ error: "a finite number" }).refine(Number.isFinite, { 
 export const lengthSchema = z.union([finite, z.string()], { error: LENGTH_EXPECTED }).superRefine((value, ctx) => {
   if (typeof value === "number") return;
   const match = LENGTH_TEXT.exec(value);
-  if (!match || (match[1] !== undefined && LENGTH_UNITS[match[1].toLowerCase()] === undefined)) {
-    ctx.addIssue({ code: "custom", message: LENGTH_EXPECTED, input: value });
+  if (!match) ctx.addIssue({ code: "custom", message: LENGTH_EXPECTED, input: value });
+  else if (match[1] !== undefined && LENGTH_UNITS[match[1].toLowerCase()] === undefined) {
+    const units = Object.keys(LENGTH_UNITS).join(", ");
+    ctx.addIssue({ code: "custom", message: `a length unit among ${units} ("${match[1]}" is not one), such as "6 in"`, input: value });
   }
 });
 const positiveLength = lengthSchema.superRefine((value, ctx) => {
