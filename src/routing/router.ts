@@ -74,6 +74,26 @@ const TEN_DAYS = 10 * 86400;
  */
 const REDO_FACTOR = 1.5;
 
+// Fixed step: the 2S/dt + O column and the reciprocals of its interval widths, formed once per route
+// call in scratch buffers reused from call to call (no allocation once they are large enough), so
+// that each step compares against a stored value and multiplies instead of dividing.
+let indication = new Float64Array(0);
+let inverseWidth = new Float64Array(0);
+
+function fillIndication(S: Float64Array, O: Float64Array, step: number): void {
+  const n = S.length;
+  if (indication.length < n) {
+    indication = new Float64Array(n);
+    inverseWidth = new Float64Array(n);
+  }
+  const twoOverDt = 2 / step;
+  for (let i = 0; i < n; i++) indication[i] = twoOverDt * S[i] + O[i];
+  for (let i = 0; i + 1 < n; i++) {
+    const width = indication[i + 1] - indication[i];
+    inverseWidth[i] = width > 0 ? 1 / width : 0;
+  }
+}
+
 /** Exact volume of a piecewise-linear hydrograph (m3). */
 export function hydrographVolume(h: Hydrograph): number {
   let v = 0;
@@ -130,14 +150,35 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   let beyond = false;
   let drainedAt = H1 <= drained ? t : NaN;
 
+  if (fixed !== undefined) fillIndication(S, O, fixed);
+  const F = indication;
+  const G = inverseWidth;
+  const fixedTwoOverDt = fixed !== undefined ? 2 / fixed : 0;
+
   const record = options.record === true;
   const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [O1], stage: [H1] } : undefined;
 
   while (true) {
-    // 1. The step.
     let dt: number;
-    if (fixed !== undefined) dt = fixed;
-    else {
+    let t2: number;
+    let I2: number;
+    let N: number;
+    if (fixed !== undefined) {
+      // Fixed step: inflow at the end of the step, storage indication, walk, interpolate.
+      dt = fixed;
+      t2 = t + dt;
+      j = segmentAt(times, j, t2);
+      I2 = t2 > tLast ? 0 : inflowOn(times, flows, j, t2);
+      N = I1 + I2 + fixedTwoOverDt * S1 - O1;
+      if (N < 0) {
+        N = 0;
+        clamped++;
+      }
+      while (k < last - 1 && F[k + 1] < N) k++;
+      while (k > 0 && F[k] > N) k--;
+      u = (N - F[k]) * G[k];
+    } else {
+      // 1. The step.
       dt = maxStep;
       if (t < tLast) {
         while (j < nIn - 2 && times[j + 1] <= t) j++;
@@ -164,42 +205,35 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
           }
         }
       }
-    }
-    // 2-4. Solve the step. In the automatic mode a step that lands in a table interval whose time
-    // constant is much shorter than the step (the outflow turned steep inside the step, e.g. over a
-    // weir crest) is done again, shorter.
-    let t2: number;
-    let I2: number;
-    let N: number;
-    let twoOverDt: number;
-    for (;;) {
-      t2 = t + dt;
-      // Inflow at the end of the step (linear between points, zero outside them).
-      if (t2 > tLast) I2 = 0;
-      else {
-        while (j < nIn - 2 && times[j + 1] < t2) j++;
-        const t0 = times[j];
-        I2 = flows[j] + ((flows[j + 1] - flows[j]) * (t2 - t0)) / (times[j + 1] - t0);
+      // 2-4. Solve the step. A step that lands in a table interval whose time constant is much
+      // shorter than the step (the outflow turned steep inside the step, e.g. over a weir crest) is
+      // done again, shorter.
+      let twoOverDt: number;
+      for (;;) {
+        t2 = t + dt;
+        // Inflow at the end of the step (linear between points, zero outside them).
+        j = segmentAt(times, j, t2);
+        I2 = t2 > tLast ? 0 : inflowOn(times, flows, j, t2);
+        // Storage indication: 2 S2/dt + O2 = N.
+        twoOverDt = 2 / dt;
+        N = I1 + I2 + twoOverDt * S1 - O1;
+        if (N < 0) N = 0;
+        // Walk the cursor to the table interval holding N.
+        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
+        while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
+        if (dt <= minStep) break;
+        const dO = O[k + 1] - O[k];
+        if (!(dO > 0)) break;
+        const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
+        if (dt <= REDO_FACTOR * tau) break;
+        dt = tau < minStep ? minStep : tau;
+        redone++;
       }
-      // Storage indication: 2 S2/dt + O2 = N.
-      twoOverDt = 2 / dt;
-      N = I1 + I2 + twoOverDt * S1 - O1;
-      if (N < 0) N = 0;
-      // Walk the cursor to the table interval holding N.
-      while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
-      while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
-      if (fixed !== undefined || dt <= minStep) break;
-      const dO = O[k + 1] - O[k];
-      if (!(dO > 0)) break;
-      const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
-      if (dt <= REDO_FACTOR * tau) break;
-      dt = tau < minStep ? minStep : tau;
-      redone++;
+      if (I1 + I2 + twoOverDt * S1 - O1 < 0) clamped++;
+      const f0 = twoOverDt * S[k] + O[k];
+      const f1 = twoOverDt * S[k + 1] + O[k + 1];
+      u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
     }
-    if (I1 + I2 + twoOverDt * S1 - O1 < 0) clamped++;
-    const f0 = twoOverDt * S[k] + O[k];
-    const f1 = twoOverDt * S[k + 1] + O[k + 1];
-    u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
     if (u > 1) beyond = true;
     else if (u < 0) u = 0;
     const S2 = S[k] + u * (S[k + 1] - S[k]);
@@ -274,6 +308,19 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     beyondTable: beyond,
     series,
   };
+}
+
+/** The inflow segment holding t (times[j] < t <= times[j+1], or the last), searching on from j. */
+function segmentAt(times: Float64Array, j: number, t: number): number {
+  const end = times.length - 2;
+  while (j < end && times[j + 1] < t) j++;
+  return j;
+}
+
+/** Inflow at t, linear on segment j. */
+function inflowOn(times: Float64Array, flows: Float64Array, j: number, t: number): number {
+  const t0 = times[j];
+  return flows[j] + ((flows[j + 1] - flows[j]) * (t - t0)) / (times[j + 1] - t0);
 }
 
 /** Index k of the table interval [Z[k], Z[k+1]] holding a stage (clamped to the table). */
