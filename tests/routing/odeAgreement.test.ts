@@ -52,6 +52,7 @@ describe("router (automatic step) against the odex solution of dS/dt = I - O", (
     expect(result.series!.stage[0]).toBe(21);
     expect(result.series!.outflow[0]).toBe(0);
     expect(result.maxStage).toBeGreaterThan(22.3);
+    expect(Math.abs(result.massBalanceError)).toBeLessThan(MASS_BALANCE);
   });
 
   // Seeded random invented ponds: every storage form, dry and wet, orifices, weirs, risers and
