@@ -7,6 +7,18 @@ import { loadCase } from "../src/case/load.js";
 import { buildProblem } from "../search/problem.js";
 import { runSearch } from "../search/run.js";
 import { randomSearch } from "../search/randomSearch.js";
+import type { BenchSection } from "./section.js";
+
+/** Routings each case may spend in the bench (the design command's default budget). */
+const BENCH_BUDGET = 20000;
+
+export const searchSection: BenchSection = {
+  name: "search",
+  run() {
+    const rows = benchSearch(join(process.cwd(), "cases"), BENCH_BUDGET);
+    printSearchBench(rows, BENCH_BUDGET);
+  },
+};
 
 export interface SearchBenchRow {
   name: string;

@@ -38,3 +38,12 @@ export function jsonPath(path: readonly PropertyKey[]): string {
   }
   return out || "(top level)";
 }
+
+/** What a failed read found, in words ("no such file", "a directory", ...). */
+export function describeIoError(error: unknown): string {
+  const code = (error as { code?: string }).code;
+  if (code === "ENOENT") return "no such file";
+  if (code === "EISDIR") return "a directory";
+  if (code === "EACCES") return "a file that cannot be read (permission denied)";
+  return error instanceof Error ? error.message : String(error);
+}

@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import { basename, dirname, resolve } from "node:path";
 import type { z } from "zod";
 import { caseSchema, type CaseFile } from "./schema.js";
-import { CaseError, jsonPath, show, type Problem } from "./errors.js";
+import { CaseError, describeIoError, jsonPath, show, type Problem } from "./errors.js";
 import { normalizeCase } from "./normalize.js";
 import type { Case } from "./model.js";
 import { unknownFields } from "./unknownFields.js";
@@ -33,7 +33,7 @@ export function loadCase(path: string): LoadedCase {
     json = JSON.parse(text);
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
-    throw new CaseError([{ where: label, found: `text that is not JSON (${message})`, expected: "a JSON case file" }]);
+    throw new CaseError([{ where: jsonErrorPlace(text, message, label), found: `text that is not JSON (${message.split("\n")[0]})`, expected: "a JSON case file" }]);
   }
   return parseCase(json, { file, label });
 }
@@ -59,7 +59,11 @@ export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase
 /** A zod issue as a problem naming the path, the value found and what was expected. */
 export function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {
   const where = `${label}: ${jsonPath(issue.path)}`;
-  const input = (issue as { input?: unknown }).input;
+  let input = (issue as { input?: unknown }).input;
+  // A union without a matching discriminator reports the whole object at the discriminator's path
+  // (outlet.elements[2].type): show the discriminator's own value.
+  const last = issue.path[issue.path.length - 1];
+  if (issue.code === "invalid_union" && typeof last === "string" && isRecord(input) && last in input) input = input[last];
   const custom = !issue.message.startsWith("Invalid") && !issue.message.startsWith("Too ");
   const found = input === undefined ? "nothing (the field is missing)" : show(input);
   switch (issue.code) {
@@ -82,10 +86,16 @@ export function fromIssue(issue: z.core.$ZodIssue, label: string): Problem {
   }
 }
 
-function describeIoError(error: unknown): string {
-  const code = (error as { code?: string }).code;
-  if (code === "ENOENT") return "no such file";
-  if (code === "EISDIR") return "a directory";
-  if (code === "EACCES") return "a file that cannot be read (permission denied)";
-  return error instanceof Error ? error.message : String(error);
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === "object" && value !== null && !Array.isArray(value);
+}
+
+/** "file.json:3:14" for a JSON.parse message that gives a position, else just the file. */
+function jsonErrorPlace(text: string, message: string, label: string): string {
+  const match = /at position (\d+)/.exec(message);
+  if (!match) return label;
+  const before = text.slice(0, Number(match[1]));
+  const line = before.split("\n").length;
+  const column = before.length - before.lastIndexOf("\n");
+  return `${label}:${line}:${column}`;
 }

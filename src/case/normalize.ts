@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
 import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "./model.js";
-import { CaseError, show, type Problem } from "./errors.js";
+import { CaseError, describeIoError, show, type Problem } from "./errors.js";
 import { parseInflowCsv } from "./csv.js";
 import { baseArea, baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseLength, type UnitSystem } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
@@ -141,8 +141,8 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
     let text: string | undefined;
     try {
       text = readFileSync(full, "utf8");
-    } catch {
-      cv.problem(`${path}.inflow.file`, show(name), `a CSV file beside the case file (${full} cannot be read)`);
+    } catch (error) {
+      cv.problem(`${path}.inflow.file`, `${show(name)}: ${describeIoError(error)} (looked for ${full})`, "a readable CSV inflow file, named relative to the case file");
     }
     if (text !== undefined) {
       const parsed = parseInflowCsv(text, name);

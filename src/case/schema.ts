@@ -8,12 +8,14 @@ const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.ke
 const finite = z.number({ error: "a finite number" }).refine(Number.isFinite, { message: "a finite number" });
 
 /** A number, or a string of a number and one of `units`; `expected` says what in messages. */
-function quantitySchema(units: Readonly<Record<string, number>>, expected: string) {
+function quantitySchema(units: Readonly<Record<string, number>>, expected: string, noun: string) {
   return z.union([finite, z.string()], { error: expected }).superRefine((value, ctx) => {
     if (typeof value === "number") return;
     const match = QUANTITY_PATTERN.exec(value);
-    if (!match || (match[2] !== undefined && units[match[2].toLowerCase()] === undefined)) {
-      ctx.addIssue({ code: "custom", message: expected, input: value });
+    if (!match) ctx.addIssue({ code: "custom", message: expected, input: value });
+    else if (match[2] !== undefined && units[match[2].toLowerCase()] === undefined) {
+      const known = Object.keys(units).join(", ");
+      ctx.addIssue({ code: "custom", message: `a ${noun} unit among ${known} ("${match[2]}" is not one), such as ${expected.slice(expected.lastIndexOf("such as ") + 8)}`, input: value });
     }
   });
 }
@@ -26,7 +28,7 @@ function positiveQuantity(schema: ReturnType<typeof quantitySchema>, what: strin
 }
 
 /** A length: a bare number in the case's base unit or a string with a unit ("6 in", "150 mm"). */
-export const lengthSchema = quantitySchema(LENGTH_UNITS, LENGTH_EXPECTED);
+export const lengthSchema = quantitySchema(LENGTH_UNITS, LENGTH_EXPECTED, "length");
 const positiveLength = positiveQuantity(lengthSchema, "a length");
 const positive = finite.refine((v) => v > 0, { message: "a number greater than zero" });
 const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
@@ -107,15 +109,15 @@ export const inflowSchema = z
 
 /** A watershed area: a bare number in acres (US) or hectares (SI), or "12 ac", "4.9 ha", "0.3 km2". */
 const positiveArea = positiveQuantity(
-  quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "12 ac"`),
+  quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "12 ac"`, "area"),
   "an area",
 );
 /** A rainfall depth: a bare number in inches (US) or millimetres (SI), or "3.2 in", "81 mm". */
-export const depthSchema = quantitySchema(LENGTH_UNITS, `a depth: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "3.2 in"`);
+export const depthSchema = quantitySchema(LENGTH_UNITS, `a depth: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "3.2 in"`, "depth");
 const positiveDepth = positiveQuantity(depthSchema, "a depth");
 /** A rainfall intensity: a bare number in in/h (US) or mm/h (SI), or "2.5 in/h", "60 mm/h". */
 const positiveIntensity = positiveQuantity(
-  quantitySchema(INTENSITY_UNITS, `an intensity: a number, or a number and a unit (${Object.keys(INTENSITY_UNITS).join(", ")}) such as "2.5 in/h"`),
+  quantitySchema(INTENSITY_UNITS, `an intensity: a number, or a number and a unit (${Object.keys(INTENSITY_UNITS).join(", ")}) such as "2.5 in/h"`, "intensity"),
   "an intensity",
 );
 const slope = finite.refine((v) => v > 0 && v <= 1, { message: "a slope in ft/ft or m/m greater than 0 and at most 1 (0.02 for 2 %)" });

@@ -22,9 +22,9 @@ export interface RouteOptions {
   maxStep?: number;
   /** Automatic step: smallest step (s), default 1. */
   minStep?: number;
-  /** Automatic step: fraction of the peak inflow the inflow may change in one step, default 0.02. */
+  /** Automatic step: fraction of the peak inflow the inflow may change in one step, default 0.01. */
   inflowFraction?: number;
-  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.5. */
+  /** Automatic step: fraction of the local time constant dS/dO a step may span, default 0.15. */
   timeConstantFraction?: number;
 }
 
@@ -58,6 +58,8 @@ export interface RouteResult {
   largestStep: number;
   /** Steps shortened below the inflow's own step because the outflow changes fast relative to storage. */
   refinedSteps: number;
+  /** Automatic mode: steps done again, shorter, because they ended where the outflow changes fast. */
+  redoneSteps: number;
   /** Steps where the storage-indication value fell below zero and the pond was taken as empty. */
   clampedSteps: number;
   /** The stage rose above the last row of the rating table (extrapolated). */
@@ -66,6 +68,31 @@ export interface RouteResult {
 }
 
 const TEN_DAYS = 10 * 86400;
+/**
+ * Automatic step: a step is done again when it is longer than this many times the time-constant
+ * limit of the table interval it ends in (the limit of the interval it starts in is applied before).
+ */
+const REDO_FACTOR = 1.5;
+
+// Fixed step: the 2S/dt + O column and the reciprocals of its interval widths, formed once per route
+// call in scratch buffers reused from call to call (no allocation once they are large enough), so
+// that each step compares against a stored value and multiplies instead of dividing.
+let indication = new Float64Array(0);
+let inverseWidth = new Float64Array(0);
+
+function fillIndication(S: Float64Array, O: Float64Array, step: number): void {
+  const n = S.length;
+  if (indication.length < n) {
+    indication = new Float64Array(n);
+    inverseWidth = new Float64Array(n);
+  }
+  const twoOverDt = 2 / step;
+  for (let i = 0; i < n; i++) indication[i] = twoOverDt * S[i] + O[i];
+  for (let i = 0; i + 1 < n; i++) {
+    const width = indication[i + 1] - indication[i];
+    inverseWidth[i] = width > 0 ? 1 / width : 0;
+  }
+}
 
 /** Exact volume of a piecewise-linear hydrograph (m3). */
 export function hydrographVolume(h: Hydrograph): number {
@@ -89,11 +116,13 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const fixed = options.step;
   const maxStep = options.maxStep ?? 600;
   const minStep = options.minStep ?? 1;
-  const tauFraction = options.timeConstantFraction ?? 0.5;
+  const tauFraction = options.timeConstantFraction ?? 0.15;
   const drained = options.drainedStage;
   let peakInflow = 0;
   for (let i = 0; i < nIn; i++) if (flows[i] > peakInflow) peakInflow = flows[i];
-  const inflowChange = (options.inflowFraction ?? 0.02) * peakInflow;
+  const inflowChange = (options.inflowFraction ?? 0.01) * peakInflow;
+
+  const drainedStorage = drained <= Z[0] ? 0 : interpolateAtStage(table, S, Math.min(drained, Z[last]));
 
   // Start: pond at the start stage with zero inflow history, at the first inflow point.
   let k = locate(Z, options.startStage);
@@ -117,17 +146,39 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   let largest = 0;
   let refined = 0;
   let clamped = 0;
+  let redone = 0;
   let beyond = false;
   let drainedAt = H1 <= drained ? t : NaN;
+
+  if (fixed !== undefined) fillIndication(S, O, fixed);
+  const F = indication;
+  const G = inverseWidth;
+  const fixedTwoOverDt = fixed !== undefined ? 2 / fixed : 0;
 
   const record = options.record === true;
   const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [O1], stage: [H1] } : undefined;
 
   while (true) {
-    // 1. The step.
     let dt: number;
-    if (fixed !== undefined) dt = fixed;
-    else {
+    let t2: number;
+    let I2: number;
+    let N: number;
+    if (fixed !== undefined) {
+      // Fixed step: inflow at the end of the step, storage indication, walk, interpolate.
+      dt = fixed;
+      t2 = t + dt;
+      j = segmentAt(times, j, t2);
+      I2 = t2 > tLast ? 0 : inflowOn(times, flows, j, t2);
+      N = I1 + I2 + fixedTwoOverDt * S1 - O1;
+      if (N < 0) {
+        N = 0;
+        clamped++;
+      }
+      while (k < last - 1 && F[k + 1] < N) k++;
+      while (k > 0 && F[k] > N) k--;
+      u = (N - F[k]) * G[k];
+    } else {
+      // 1. The step.
       dt = maxStep;
       if (t < tLast) {
         while (j < nIn - 2 && times[j + 1] <= t) j++;
@@ -154,31 +205,35 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
           }
         }
       }
+      // 2-4. Solve the step. A step that lands in a table interval whose time constant is much
+      // shorter than the step (the outflow turned steep inside the step, e.g. over a weir crest) is
+      // done again, shorter.
+      let twoOverDt: number;
+      for (;;) {
+        t2 = t + dt;
+        // Inflow at the end of the step (linear between points, zero outside them).
+        j = segmentAt(times, j, t2);
+        I2 = t2 > tLast ? 0 : inflowOn(times, flows, j, t2);
+        // Storage indication: 2 S2/dt + O2 = N.
+        twoOverDt = 2 / dt;
+        N = I1 + I2 + twoOverDt * S1 - O1;
+        if (N < 0) N = 0;
+        // Walk the cursor to the table interval holding N.
+        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
+        while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
+        if (dt <= minStep) break;
+        const dO = O[k + 1] - O[k];
+        if (!(dO > 0)) break;
+        const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
+        if (dt <= REDO_FACTOR * tau) break;
+        dt = tau < minStep ? minStep : tau;
+        redone++;
+      }
+      if (I1 + I2 + twoOverDt * S1 - O1 < 0) clamped++;
+      const f0 = twoOverDt * S[k] + O[k];
+      const f1 = twoOverDt * S[k + 1] + O[k + 1];
+      u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
     }
-    const t2 = t + dt;
-
-    // 2. Inflow at the end of the step (linear between points, zero outside them).
-    let I2: number;
-    if (t2 > tLast) I2 = 0;
-    else {
-      while (j < nIn - 2 && times[j + 1] < t2) j++;
-      const t0 = times[j];
-      I2 = flows[j] + ((flows[j + 1] - flows[j]) * (t2 - t0)) / (times[j + 1] - t0);
-    }
-
-    // 3. Storage indication: 2 S2/dt + O2 = N.
-    const twoOverDt = 2 / dt;
-    let N = I1 + I2 + twoOverDt * S1 - O1;
-    if (N < 0) {
-      N = 0;
-      clamped++;
-    }
-    // 4. Walk the cursor to the table interval holding N.
-    while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
-    while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
-    const f0 = twoOverDt * S[k] + O[k];
-    const f1 = twoOverDt * S[k + 1] + O[k + 1];
-    u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
     if (u > 1) beyond = true;
     else if (u < 0) u = 0;
     const S2 = S[k] + u * (S[k + 1] - S[k]);
@@ -209,11 +264,18 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       series!.stage.push(H2);
     }
     t = t2;
-    I1 = I2;
+    // After the last inflow point the inflow is zero: a hydrograph that ends above zero drops there.
+    I1 = t >= tLast ? 0 : I2;
     S1 = S2;
     O1 = O2;
     H1 = H2;
-    if (t >= tLast && (H2 <= drained || t >= tEnd)) break;
+    if (t >= tLast) {
+      if (H2 <= drained || t >= tEnd) break;
+      // With no inflow left the outflow only falls. If even the present outflow kept up until the end
+      // could not empty the storage above the drained stage, the pond does not drain in the simulated
+      // time (e.g. it is held up by tailwater): stop here rather than creep on in tiny steps.
+      if (O2 * (tEnd - t) < S2 - drainedStorage) break;
+    }
   }
 
   const storageChange = S1 - S0;
@@ -241,10 +303,24 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     smallestStep: smallest,
     largestStep: largest,
     refinedSteps: refined,
+    redoneSteps: redone,
     clampedSteps: clamped,
     beyondTable: beyond,
     series,
   };
+}
+
+/** The inflow segment holding t (times[j] < t <= times[j+1], or the last), searching on from j. */
+function segmentAt(times: Float64Array, j: number, t: number): number {
+  const end = times.length - 2;
+  while (j < end && times[j + 1] < t) j++;
+  return j;
+}
+
+/** Inflow at t, linear on segment j. */
+function inflowOn(times: Float64Array, flows: Float64Array, j: number, t: number): number {
+  const t0 = times[j];
+  return flows[j] + ((flows[j + 1] - flows[j]) * (t - t0)) / (times[j + 1] - t0);
 }
 
 /** Index k of the table interval [Z[k], Z[k+1]] holding a stage (clamped to the table). */
