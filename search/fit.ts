@@ -5,7 +5,8 @@
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
 import { baseLength } from "../src/units.js";
-import type { SearchProblem } from "./problem.js";
+import type { Storm } from "../src/case/model.js";
+import { aimBand, type SearchProblem } from "./problem.js";
 import { designOutlet, designOutletFile, elevations, firstLevelFixed, variableCount, type Layout } from "./layout.js";
 import type { Evaluation, Evaluator } from "./evaluate.js";
 
@@ -44,8 +45,10 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
 
 /**
  * The staged start: level k+1 sits at the highest stage the k-th smallest storm reaches through
- * levels 1..k, so each storm is held mostly by the levels below its stage; the rim starts at the
- * stage the largest storm reaches through every level.
+ * levels 1..k, so each storm is held mostly by the levels below its stage. When those levels release
+ * too little for that storm, level k+1 is lowered until the storm's peak reaches the middle of its
+ * aim (a few routings by regula falsi: the peak only rises as a level is lowered). The rim is placed
+ * the same way for the largest storm.
  */
 export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator): number[] {
   const L = baseLength(p.case.units);
@@ -58,25 +61,62 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator): 
   const high = p.case.pond.top / L + 10 * (p.case.pond.top - p.case.pond.bottom) / L;
   const count = variableCount(p, l);
   const trial = () => Array.from({ length: count }, (_, i) => (i < vars.length ? vars[i] : high));
-  for (let level = fixed ? 1 : 0; level < l.levels.length; level++) {
-    // Route the storm this level must leave alone through the levels below it.
-    const storm = storms[Math.min(level - 1, storms.length - 1)];
+  const routed = (storm: Storm) => evaluator.routeStorms(designOutlet(p, designOutletFile(p, l, trial())), [storm])[0].result;
+
+  /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
+  const place = (index: number, storm: Storm | undefined, low: number) => {
     let stage = p.floor / L + p.step;
-    if (storm && level > 0) {
-      const outlet = designOutlet(p, designOutletFile(p, l, trial()));
-      stage = evaluator.routeStorms(outlet, [storm])[0].result.maxStage / L;
+    let peak = Infinity;
+    if (storm) {
+      vars[index] = high;
+      const r = routed(storm);
+      stage = r.maxStage / L;
+      peak = r.peakOutflow;
     }
+    let at = clamp(Math.max(stage, low), min[index], max[index]);
+    vars[index] = at;
+    if (storm?.target && peak < aimBand(p, storm.target)[0] && stage > low) {
+      const [aimLow, aimHigh] = aimBand(p, storm.target);
+      const goal = 0.5 * (aimLow + aimHigh);
+      let zLow = clamp(low, min[index], max[index]);
+      let zHigh = at;
+      vars[index] = zLow;
+      let fLow = routed(storm).peakOutflow - goal;
+      let fHigh = peak - goal;
+      if (fLow <= 0) at = zLow;
+      else {
+        for (let i = 0; i < 5; i++) {
+          const zt = zHigh - (fHigh * (zHigh - zLow)) / (fHigh - fLow);
+          vars[index] = zt;
+          const f = routed(storm).peakOutflow - goal;
+          at = zt;
+          if (Math.abs(f) < 0.01 * goal) break;
+          if (f > 0) {
+            zLow = zt;
+            fLow = f;
+          } else {
+            zHigh = zt;
+            fHigh = f;
+          }
+        }
+      }
+      vars[index] = at;
+    }
+    return at;
+  };
+
+  for (let level = fixed ? 1 : 0; level < l.levels.length; level++) {
+    const storm = level > 0 ? storms[Math.min(level - 1, storms.length - 1)] : undefined;
     const previous = level > 0 ? z(level - 1) : -Infinity;
     const index = vars.length;
-    vars.push(clamp(Math.max(stage, previous + p.step), min[index], max[index]));
+    vars.push(high);
+    place(index, storm, previous + p.step);
   }
   if (l.riser) {
-    const largest = storms[storms.length - 1];
-    const outlet = designOutlet(p, designOutletFile(p, l, trial()));
-    const stage = evaluator.routeStorms(outlet, [largest])[0].result.maxStage / L;
-    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height / L : p.step));
     const index = vars.length;
-    vars.push(clamp(Math.max(stage, ...tops), min[index], max[index]));
+    vars.push(high);
+    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height / L : p.step));
+    place(index, storms[storms.length - 1], Math.max(p.floor / L + p.step, ...tops));
   }
   return vars;
 }
@@ -121,6 +161,9 @@ export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator
   return best;
 }
 
+/** Objective beyond which a fitted layout is abandoned (a check about 20 % short or more). */
+const HOPELESS = 0.04;
+
 /** Fits one layout. */
 export function fitLayout(p: SearchProblem, l: Layout, evaluator: Evaluator, options: FitOptions): FitResult {
   const before = evaluator.evaluations;
@@ -135,6 +178,11 @@ export function fitLayout(p: SearchProblem, l: Layout, evaluator: Evaluator, opt
     const initial = s === 0 ? start : start.map((x, i) => clamp(x + (rng() - 0.5) * 0.3 * (max[i] - min[i]), min[i], max[i]));
     const fitted = levenbergFit(p, l, evaluator, initial, min, max, options.iterations);
     const snapped = evaluator.evaluate(l, fitted.map((x) => snap(p, x)));
+    // Far from every aim after a full fit: polishing and further starts would not rescue it.
+    if (snapped.objective > HOPELESS) {
+      designs.push(snapped);
+      break;
+    }
     const polished = polish(p, l, snapped, evaluator);
     const key = polished.vars.join(",");
     if (!seen.has(key)) {

@@ -5,17 +5,20 @@
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
 import type { Storm } from "../src/case/model.js";
 import { baseLength } from "../src/units.js";
-import { outletDischarge } from "../src/hydraulics/outlet.js";
+import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
 import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
 import { designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
 import type { Evaluator } from "./evaluate.js";
 import { stagedStart } from "./fit.js";
+import { outletCost } from "./cost.js";
 
 export interface ScoredLayout {
   layout: Layout;
   /** Sum of squared distances of each staged storm's ratio from its aim (0 = every storm in aim). */
   score: number;
+  /** Cost proxy of the layout (it does not depend on the elevations). */
+  cost: number;
 }
 
 export interface PruneRecord {
@@ -31,15 +34,32 @@ export interface LayoutPlan {
   pruned: PruneRecord[];
   /** First-level options that survived. */
   viableFirst: number;
+  /** The surviving first-level options themselves. */
+  firstOptions: PartOption[];
 }
 
-/** Distance of a peak from the aim band, relative to the target (0 inside). */
-function aimDistance(p: SearchProblem, storm: Storm, peak: number): number {
+/**
+ * Distance of a peak from the aim band, relative to the target (0 inside). While levels are still
+ * being added, releasing too little is partly fixable (the next level can sit lower and add flow),
+ * releasing too much is not (openings only add flow): `under` weighs the first.
+ */
+function aimDistance(p: SearchProblem, storm: Storm, peak: number, under = 1): number {
   const [low, high] = aimBand(p, storm.target!);
   if (peak > high) return (peak - high) / storm.target!;
-  if (peak < low) return (low - peak) / storm.target!;
+  if (peak < low) return (under * (low - peak)) / storm.target!;
   return 0;
 }
+
+/** How far a drawdown time (s, null when not drained) exceeds the case's limit, as a fraction of it. */
+function drawdownShortfall(p: SearchProblem, seconds: number | null): number {
+  const hours = p.case.criteria.drawdownHours;
+  if (hours === null) return seconds === null ? 1 : 0;
+  if (seconds === null) return 1;
+  return Math.max(0, seconds / 3600 / hours - 1);
+}
+
+/** Weight of under-release while a layout is being built level by level. */
+const FIXABLE_UNDER = 0.3;
 
 /** Whether a part fits the wall of the widest riser the case allows (or any wall without a riser). */
 function fitsSomeRiser(p: SearchProblem, part: PartOption): boolean {
@@ -100,16 +120,26 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
       const layout: Layout = { levels: [part], riser: null, barrel: stagingBarrel };
       const vars = stagedStart(p, layout, evaluator);
       const outlet = designOutlet(p, designOutletFile(p, layout, vars));
-      const peak = evaluator.routeStorms(outlet, [first])[0].result.peakOutflow;
+      const result = evaluator.routeStorms(outlet, [first])[0].result;
+      const peak = result.peakOutflow;
       if (!p.floorTaken && peak > first.target! * (1 + p.case.criteria.over)) {
         pruned.push({ part, storm: first, peak });
         continue;
       }
-      frontier.push({ levels: [part], score: aimDistance(p, first, peak) ** 2 });
+      // The lowest level drains the pond's last stretch alone: a slow one fails the drawdown rule.
+      frontier.push({ levels: [part], score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 });
     }
   }
   const viableFirst = frontier.length;
-  const keep = (list: Partial[]) => list.sort((a, b) => a.score - b.score || cost(a.levels) - cost(b.levels)).slice(0, beam);
+  const firstOptions = frontier.map((f) => f.levels[0]).filter((x): x is PartOption => x !== undefined);
+  // The best `beam` by score, and for variety the cheapest few whose score is still reasonable.
+  const keep = (list: Partial[]) => {
+    list.sort((a, b) => a.score - b.score || cost(a.levels) - cost(b.levels));
+    const kept = list.slice(0, beam);
+    const reasonable = Math.max(0.05, kept.length ? kept[kept.length - 1].score : 0);
+    const cheap = list.slice(beam).filter((x) => x.score <= reasonable).sort((a, b) => cost(a.levels) - cost(b.levels));
+    return [...kept, ...cheap.slice(0, Math.ceil(beam / 2))];
+  };
   for (let count = 1; count <= Math.max(1, maxLevels); count++) {
     if (frontier.length === 0) break;
     // Layouts with `count` levels: score them on every storm from the staged start.
@@ -124,7 +154,8 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
         const vars = stagedStart(p, layout, evaluator);
         const outlet = designOutlet(p, designOutletFile(p, layout, vars));
         const peak = evaluator.routeStorms(outlet, [storm])[0].result.peakOutflow;
-        next.push({ levels: layout.levels, score: partial.score + aimDistance(p, storm, peak) ** 2 });
+        const last = count + 1 === maxLevels;
+        next.push({ levels: layout.levels, score: partial.score + aimDistance(p, storm, peak, last ? 1 : FIXABLE_UNDER) ** 2 });
       }
     }
     frontier = next;
@@ -136,7 +167,7 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
         const layout: Layout = { levels, riser, barrel };
         const key = layoutKey(layout);
         if (results.has(key)) continue;
-        results.set(key, { layout, score: stagedScore(p, layout, evaluator) });
+        results.set(key, { layout, ...stagedScore(p, layout, evaluator) });
       }
     }
   }
@@ -146,15 +177,128 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
   }
 
   const layouts = [...results.values()].sort((a, b) => a.score - b.score);
-  return { layouts, pruned, viableFirst };
+  return { layouts, pruned, viableFirst, firstOptions };
 }
 
-/** Score of a full layout: every targeted storm's distance from its aim at the staged start. */
-function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): number {
+/**
+ * Random layouts from the catalogue (the first level from the options the bound left), kept when
+ * they cost less than `bar`, scored by the fit's objective at the staged start. Widens the search
+ * beyond the planned and neighbouring layouts; seeded, so runs repeat.
+ */
+export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Evaluator, rng: () => number, count: number, bar: number): ScoredLayout[] {
+  const out: ScoredLayout[] = [];
+  const maxLevels = Math.min(p.maxLevels, p.targeted.length);
+  if (maxLevels === 0 || plan.firstOptions.length === 0) return out;
+  const pick = <T>(list: T[]): T => list[Math.floor(rng() * list.length)];
+  const options = p.parts.filter((part) => fitsSomeRiser(p, part));
+  const barrels = barrelChoices(p);
+  for (let i = 0; i < count; i++) {
+    const n = 1 + Math.floor(rng() * maxLevels);
+    const levels = [p.floorTaken ? pick(options) : pick(plan.firstOptions)];
+    while (levels.length < n) levels.push(pick(options));
+    const barrel = pick(barrels);
+    const risers = riserChoices(p, levels, barrel);
+    if (risers.length === 0) continue;
+    const layout: Layout = { levels, riser: pick(risers), barrel };
+    if (layoutCost(p, layout) >= bar) continue;
+    out.push({ layout, ...stagedScore(p, layout, evaluator) });
+  }
+  return out;
+}
+
+/** Score of a full layout (the fit's own objective, every check, at the staged start) and its cost. */
+function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator) : [];
-  const outlet = designOutlet(p, designOutletFile(p, layout, vars));
-  const routed = evaluator.routeStorms(outlet, p.targeted);
-  let score = 0;
-  for (const { storm, result } of routed) score += aimDistance(p, storm, result.peakOutflow) ** 2;
-  return score;
+  const e = evaluator.evaluate(layout, vars);
+  return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
+}
+
+/** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
+export function layoutCost(p: SearchProblem, layout: Layout): number {
+  const L = baseLength(p.case.units);
+  const n = variableCount(p, layout);
+  const vars = Array.from({ length: n }, (_, i) => p.floor / L + (i + 1) * p.step);
+  return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs);
+}
+
+/** Free flow of a part with its invert or crest at 0 under a head (m3/s), with the case's coefficients. */
+function partFlowAt(p: SearchProblem, part: PartOption, head: number): number {
+  const outlet = designOutlet(p, designOutletFile(p, { levels: [part], riser: null, barrel: null }, [0]));
+  const e = outlet.elements[outlet.elements.length - 1];
+  const bottom = e.type === "weir" ? e.crest : e.invert;
+  return elementFlow(e, bottom + head, -Infinity);
+}
+
+/**
+ * Parts one catalogue step away: the next size down or up, one opening more or fewer, and for each
+ * other kind of part the one passing the nearest flow at a head of 1 ft (0.3 m).
+ */
+function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
+  const same = p.parts.filter((o) => o.kind === part.kind);
+  const out: PartOption[] = [];
+  const head = p.case.units === "US" ? 0.3048 : 0.3;
+  const flow = partFlowAt(p, part, head);
+  for (const kind of ["orifice", "rectangular", "v-notch"] as const) {
+    if (kind === part.kind) continue;
+    let nearest: PartOption | undefined;
+    let gap = Infinity;
+    for (const o of p.parts) {
+      if (o.kind !== kind) continue;
+      const d = Math.abs(Math.log(partFlowAt(p, o, head) / flow));
+      if (d < gap) {
+        gap = d;
+        nearest = o;
+      }
+    }
+    if (nearest) out.push(nearest);
+  }
+  if (part.kind === "orifice") {
+    const sizes = [...new Set(same.map((o) => o.sizeM))].sort((a, b) => a - b);
+    const at = sizes.indexOf(part.sizeM);
+    for (const size of [sizes[at - 1], sizes[at + 1]]) {
+      const o = same.find((x) => x.sizeM === size && x.count === part.count);
+      if (o) out.push(o);
+    }
+    for (const count of [part.count - 1, part.count + 1]) {
+      const o = same.find((x) => x.sizeM === part.sizeM && x.count === count);
+      if (o) out.push(o);
+    }
+  } else {
+    const key = (o: PartOption) => (o.kind === "v-notch" ? o.angle : o.sizeM);
+    const sorted = [...same].sort((a, b) => key(a) - key(b));
+    const at = sorted.findIndex((o) => o.key === part.key);
+    for (const o of [sorted[at - 1], sorted[at + 1]]) if (o) out.push(o);
+  }
+  return out;
+}
+
+/**
+ * Layouts one step from a good one: one level's part a catalogue step smaller or larger (or one
+ * opening fewer or more), one level dropped, the riser or barrel one size down or up. The search
+ * fits the cheaper of these after it has found compliant designs, to spend effort where they are.
+ */
+export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
+  const out: Layout[] = [];
+  layout.levels.forEach((part, i) => {
+    for (const other of partNeighbours(p, part)) {
+      const levels = [...layout.levels];
+      levels[i] = other;
+      out.push({ ...layout, levels });
+    }
+    if (layout.levels.length > 1) out.push({ ...layout, levels: layout.levels.filter((_, j) => j !== i) });
+  });
+  const step = <T extends { sizeM: number }>(list: T[], current: T | null) => {
+    if (!current) return [];
+    const at = list.findIndex((o) => o.sizeM === current.sizeM);
+    return [list[at - 1], list[at + 1]].filter((o): o is T => o !== undefined);
+  };
+  for (const riser of step(p.riserOptions, layout.riser)) {
+    if (riserChoices(p, layout.levels, layout.barrel).length === 0) continue;
+    const widest = Math.max(0, ...layout.levels.map((part) => part.width));
+    if (Math.PI * riser.sizeM >= widest && (!layout.barrel || riser.sizeM > layout.barrel.sizeM)) out.push({ ...layout, riser });
+  }
+  for (const barrel of step(p.barrelOptions, layout.barrel)) {
+    if (!layout.riser || layout.riser.sizeM > barrel.sizeM) out.push({ ...layout, barrel });
+  }
+  return out;
 }

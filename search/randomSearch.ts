@@ -7,7 +7,7 @@ import { Evaluator } from "./evaluate.js";
 import { variableBounds, snap } from "./fit.js";
 import { variableCount, type Layout } from "./layout.js";
 import { barrelChoices, riserChoices } from "./layouts.js";
-import { finalizeCandidate, type Candidate } from "./candidate.js";
+import { compareCandidates, finalizeCandidate, type Candidate } from "./candidate.js";
 
 export interface RandomSearchResult {
   best: Candidate | null;
@@ -43,7 +43,8 @@ export function randomSearch(p: SearchProblem, budget: number, seed: string): Ra
     const candidate = finalizeCandidate(p, layout, e.vars, e.file);
     if (!candidate.assessment.compliant) continue;
     if (first === null) first = (performance.now() - started) / 1000;
-    if (!best || candidate.cost < best.cost) best = candidate;
+    // The same preference as the optimiser's ranking: unflagged before flagged, then cost.
+    if (!best || compareCandidates(candidate, best) < 0) best = candidate;
   }
   return { best, routings: evaluator.routings, evaluations: evaluator.evaluations, seconds: (performance.now() - started) / 1000, secondsToFirstCompliant: first };
 }

@@ -4,7 +4,8 @@
 // the same ranking; a time limit is only a safety stop.
 import type { SearchProblem } from "./problem.js";
 import { Evaluator } from "./evaluate.js";
-import { planLayouts, type LayoutPlan } from "./layouts.js";
+import { layoutCost, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import seedrandom from "seedrandom";
 import { fitLayout } from "./fit.js";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
@@ -50,6 +51,8 @@ export interface SearchRun {
   candidates: Candidate[];
   layoutsPlanned: number;
   layoutsFitted: number;
+  /** Layouts not fitted because they cost at least as much as the top-th compliant candidate. */
+  layoutsSkipped: number;
   routings: number;
   evaluations: number;
   seconds: number;
@@ -64,6 +67,14 @@ export interface SearchRun {
 }
 
 const MAX_BEAM = 64;
+/** Beam from which the search widens by screened random layouts instead of a wider plan. */
+const SAMPLING_BEAM = 3;
+/** Random layouts screened per round. */
+const SAMPLE_BATCH = 40;
+/** A sampled layout is fitted when its objective at the staged start is at most this. */
+const PROMISING = 0.02;
+/** Rounds of sampling in a row without anything worth fitting before the search stops. */
+const MAX_SAMPLING_ROUNDS = 200;
 
 export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   const started = performance.now();
@@ -76,14 +87,15 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   let stoppedBecause = "";
   let fitted = 0;
   let planned = 0;
+
   let beam = options.beam;
   let plan = planLayouts(p, evaluator, beam);
   const firstPlan = plan;
   let bestCost: number | null = null;
 
-  const accept = (layout: Layout, vars: number[], file: Candidate["file"]) => {
+  const accept = (layout: Layout, vars: number[], file: Candidate["file"]): Candidate[] => {
     const key = JSON.stringify(file);
-    if (candidates.has(key)) return;
+    if (candidates.has(key)) return [];
     const candidate = finalizeCandidate(p, layout, vars, file);
     candidates.set(key, candidate);
     if (candidate.assessment.compliant) {
@@ -93,54 +105,121 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       }
       if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
     }
+    return [candidate];
   };
 
-  outer: while (true) {
-    const fresh = plan.layouts.filter((s) => !tried.has(layoutKey(s.layout)));
-    planned += fresh.length;
-    for (const { layout } of fresh) {
-      if (evaluator.routings >= options.budget) {
-        stoppedBecause = `the budget of ${options.budget} routings was used`;
-        break outer;
+  // Cost does not depend on elevations, so a layout that costs at least as much as the top-th
+  // compliant, unflagged candidate found so far cannot improve the ranking's head: it is skipped.
+  const costBar = () => {
+    const costs = [...candidates.values()]
+      .filter((c) => c.assessment.compliant && c.assessment.warnings.length === 0)
+      .map((c) => c.cost)
+      .sort((a, b) => a - b);
+    return costs.length >= options.top ? costs[options.top - 1] : Infinity;
+  };
+  let skipped = 0;
+  let samplingRounds = 0;
+  const rng = seedrandom(`${options.seed}|layouts`);
+  // One queue of layouts to fit: the plan's, and the neighbours of compliant candidates. Until a
+  // compliant design exists the most promising (lowest staged score) goes first; after that the
+  // cheapest, so effort goes where cheaper compliant designs may be.
+  type Entry = { layout: Layout; cost: number; score: number };
+  const queue: Entry[] = [];
+  const queued = new Set<string>();
+  const enqueue = (entries: Entry[]) => {
+    for (const e of entries) {
+      const key = layoutKey(e.layout);
+      if (tried.has(key) || queued.has(key)) continue;
+      queued.add(key);
+      queue.push(e);
+      planned++;
+    }
+  };
+  const take = (): Entry | undefined => {
+    if (queue.length === 0) return undefined;
+    let best = 0;
+    const byCost = firstCompliantAt !== null;
+    for (let i = 1; i < queue.length; i++) {
+      const a = queue[i];
+      const b = queue[best];
+      if (byCost ? a.cost < b.cost || (a.cost === b.cost && a.score < b.score) : a.score < b.score || (a.score === b.score && a.cost < b.cost)) best = i;
+    }
+    return queue.splice(best, 1)[0];
+  };
+  enqueue(plan.layouts);
+  while (true) {
+    const entry = take();
+    if (!entry) {
+      if (beam >= SAMPLING_BEAM && firstCompliantAt !== null) {
+        // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
+        if (evaluator.routings >= options.budget) {
+          stoppedBecause = `the budget of ${options.budget} routings was used`;
+          break;
+        }
+        const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, costBar());
+        enqueue(sampled.filter((s) => s.score <= PROMISING));
+        samplingRounds++;
+        if (samplingRounds > MAX_SAMPLING_ROUNDS) {
+          stoppedBecause = `${MAX_SAMPLING_ROUNDS} rounds of random layouts found nothing more to fit`;
+          break;
+        }
+        continue;
       }
-      if (options.timeLimit !== undefined && seconds() >= options.timeLimit) {
-        stoppedBecause = `the time limit of ${options.timeLimit} s was reached`;
-        break outer;
+      if (beam >= MAX_BEAM) {
+        stoppedBecause = `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
+        break;
       }
-      const key = layoutKey(layout);
+      beam *= 2;
+      plan = planLayouts(p, evaluator, beam);
+      const before = planned;
+      enqueue(plan.layouts);
+      if (planned === before) {
+        stoppedBecause = `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
+        break;
+      }
+      continue;
+    }
+    samplingRounds = 0;
+    const { layout, cost } = entry;
+    const key = layoutKey(layout);
+    if (cost >= costBar()) {
       tried.add(key);
-      let designs: number[][];
-      const previous = options.done?.get(key);
-      if (previous) designs = previous.designs;
-      else {
-        const result = fitLayout(p, layout, evaluator, { starts: options.starts, iterations: 12, seed: `${options.seed}|${key}`, firstCompliant: true });
-        designs = result.designs.slice(0, 2).map((d) => d.vars);
-        // A design that breaks a geometric rule (openings above the rim, levels out of order) is not proposed.
-        for (const d of result.designs.slice(0, 2)) if (d.violations === 0) accept(layout, d.vars, d.file);
-      }
-      if (previous) {
-        for (const vars of designs) accept(layout, vars, designOutletFile(p, layout, vars));
-      }
-      fitted++;
-      options.onLayout?.({ key, layout, designs }, {
-        layoutsFitted: fitted,
-        layoutsPlanned: planned,
-        routings: evaluator.routings,
-        compliant: [...candidates.values()].filter((c) => c.assessment.compliant).length,
-        bestCost,
-        seconds: seconds(),
-      });
+      skipped++;
+      continue;
     }
-    if (beam >= MAX_BEAM) {
-      stoppedBecause = `every layout within reach was fitted (beam of ${beam} options per level)`;
+    if (evaluator.routings >= options.budget) {
+      stoppedBecause = `the budget of ${options.budget} routings was used`;
       break;
     }
-    beam *= 2;
-    plan = planLayouts(p, evaluator, beam);
-    if (plan.layouts.every((s) => tried.has(layoutKey(s.layout)))) {
-      stoppedBecause = `every layout within reach was fitted (no new layout with a beam of ${beam} options per level)`;
+    if (options.timeLimit !== undefined && seconds() >= options.timeLimit) {
+      stoppedBecause = `the time limit of ${options.timeLimit} s was reached`;
       break;
     }
+    tried.add(key);
+    let designs: number[][];
+    const previous = options.done?.get(key);
+    const accepted: Candidate[] = [];
+    if (previous) {
+      designs = previous.designs;
+      for (const vars of designs) accepted.push(...accept(layout, vars, designOutletFile(p, layout, vars)));
+    } else {
+      const result = fitLayout(p, layout, evaluator, { starts: options.starts, iterations: 12, seed: `${options.seed}|${key}`, firstCompliant: true });
+      designs = result.designs.slice(0, 2).map((d) => d.vars);
+      // A design that breaks a geometric rule (openings above the rim, levels out of order) is not proposed.
+      for (const d of result.designs.slice(0, 2)) if (d.violations === 0) accepted.push(...accept(layout, d.vars, d.file));
+    }
+    if (accepted.some((c) => c.assessment.compliant && c.assessment.warnings.length === 0)) {
+      enqueue(neighbourLayouts(p, layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
+    }
+    fitted++;
+    options.onLayout?.({ key, layout, designs }, {
+      layoutsFitted: fitted,
+      layoutsPlanned: planned,
+      routings: evaluator.routings,
+      compliant: [...candidates.values()].filter((c) => c.assessment.compliant).length,
+      bestCost,
+      seconds: seconds(),
+    });
   }
 
   const ranked = [...candidates.values()].sort(compareCandidates);
@@ -154,6 +233,7 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
     candidates: ranked,
     layoutsPlanned: planned,
     layoutsFitted: fitted,
+    layoutsSkipped: skipped,
     routings: evaluator.routings,
     evaluations: evaluator.evaluations,
     seconds: seconds(),
