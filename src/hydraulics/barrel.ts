@@ -19,8 +19,9 @@
 import type { Barrel } from "../case/model.js";
 import { FOOT, GRAVITY } from "../units.js";
 import { entrance, type Entrance } from "./entrances.js";
-import { boxCriticalDepth, circularCriticalDepth, circularFlowArea } from "./criticalDepth.js";
+import { barrelCriticalDepth, circularFlowArea } from "./criticalDepth.js";
 import { brentRoot } from "./roots.js";
+import { barrelArea, barrelRise, barrelSlope, fullHydraulicRadius } from "./barrelSection.js";
 
 /** Largest x = Ku Q/(A D^0.5) of the unsubmerged forms, smallest of the submerged form (HDS-5 App. A). */
 export const UNSUBMERGED_LIMIT = 3.5;
@@ -32,25 +33,7 @@ export const FRICTION_CONSTANT_US = 29;
 /** Exponent of the hydraulic radius in the full-flow loss equation as HDS-5 prints it. */
 export const RADIUS_EXPONENT = 1.33;
 
-/** Barrel rise D (m). */
-export function barrelRise(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter : b.rise;
-}
-
-/** Full cross-section area A (m2). */
-export function barrelArea(b: Barrel): number {
-  return b.shape === "circular" ? (Math.PI * b.diameter * b.diameter) / 4 : b.span * b.rise;
-}
-
-/** Hydraulic radius of the full barrel (m). */
-export function fullHydraulicRadius(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter / 4 : (b.span * b.rise) / (2 * (b.span + b.rise));
-}
-
-/** Barrel slope S = (inlet invert - outlet invert) / length. */
-export function barrelSlope(b: Barrel): number {
-  return (b.inletInvert - b.outletInvert) / b.length;
-}
+export { barrelArea, barrelRise, barrelSlope, fullHydraulicRadius };
 
 /** x = Ku Q / (A D^0.5) in US units, the argument of HDS-5's inlet-control forms. */
 export function flowParameter(b: Barrel, flow: number): number {
@@ -58,10 +41,7 @@ export function flowParameter(b: Barrel, flow: number): number {
 }
 
 /** Critical depth (m) in the barrel, no more than its rise. */
-export function criticalDepth(b: Barrel, flow: number): number {
-  const dc = b.shape === "circular" ? circularCriticalDepth(flow, b.diameter) : boxCriticalDepth(flow, b.span);
-  return Math.min(dc, barrelRise(b));
-}
+export const criticalDepth = barrelCriticalDepth;
 
 /** Specific head at critical depth, Hc = dc + Vc^2/2g (m). */
 export function criticalHead(b: Barrel, flow: number, dc: number): number {
