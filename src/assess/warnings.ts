@@ -9,7 +9,7 @@ import { weirWidth } from "../hydraulics/weir.js";
 import { riserPerimeter } from "../hydraulics/riser.js";
 import { regulatorMaxHead } from "../hydraulics/regulator.js";
 import { elementBottom, openingsFlow, outletDetail } from "../hydraulics/outlet.js";
-import { barrelRise } from "../hydraulics/barrel.js";
+import { barrelRise, outletControlDoubt, type OutletDoubt } from "../hydraulics/barrel.js";
 
 export interface Warning {
   /** Which part: its path in the case file and a short description. */
@@ -33,10 +33,7 @@ export const ORIFICE_COEFFICIENTS = [0.4, 0.62] as const;
  * for 0.5 <= HW/D <= 3.0 (TxDOT Hydraulic Design Manual, ch. 8 sec. 3, eq 8-4); beyond it the
  * equations are extrapolated. */
 export const BARREL_MAX_HEADWATER_RATIO = 3.0;
-/** Below HW = 0.75 D HDS-5 advises against the approximate outlet-control method with
- * ho = max(TW, (dc + D)/2) and calls for a backwater calculation (HDS-5 2nd ed. ch. III). */
-export const BARREL_PART_FULL_RATIO = 0.75;
-/** Stages scanned below the highest routed stage when looking for the part-full approximation. */
+/** Stages scanned below the highest routed stage when looking for a doubtful outlet-control headwater. */
 const BARREL_SCAN_STAGES = 48;
 
 export function partLabel(e: Element, index: number, f: Formatter): string {
@@ -159,26 +156,41 @@ export function barrelWarnings(c: Case, outlet: Outlet, routing: CaseRouting, f:
       reason: `headwater reaches HW/D = ${steepest.ratio.toFixed(2)} at the peak of ${steepest.storm}, beyond the ${BARREL_MAX_HEADWATER_RATIO.toFixed(1)} the HDS-5 inlet-control charts cover; the equations are extrapolated`,
     });
   }
+  warnings.push(...outletControlNotes(c, outlet, routing, f, part));
+  return warnings;
+}
+
+/** What a doubtful outlet-control headwater means, in words (see `OutletDoubt` in barrel.ts). */
+const DOUBT_REASONS: Record<OutletDoubt, string> = {
+  "step limit": "the backwater profile that gives its outlet-control headwater stopped at its step limit short of the inlet, so the chamber level there is uncertain",
+  "adverse, part full":
+    "the barrel is adverse (its inlet below its outlet) and HDS-5's full-flow approximation applies by its headwater, yet a backwater profile shows the barrel part full over its whole length: the approximation's ho = (dc + D)/2 at the outlet overstates the headwater, so the chamber level there is likely too high",
+};
+
+/**
+ * Where the barrel holds the openings back under outlet control, its headwater comes from HDS-5's
+ * approximation (HW >= 0.75 D, or the barrel full over part of its length) or from a backwater
+ * profile of the part-full flow; neither is flagged. A note is raised only where that headwater is
+ * doubtful: a profile cut short by its step limit, or an adverse barrel where the approximation
+ * applies by its headwater while a profile shows the barrel part full throughout.
+ */
+function outletControlNotes(c: Case, outlet: Outlet, routing: CaseRouting, f: Formatter, part: string): Warning[] {
+  const b = outlet.barrel!;
   const top = Math.max(...routing.storms.map((s) => s.result.maxStage));
-  let lowest = Infinity;
-  let highest = -Infinity;
+  const found = new Map<OutletDoubt, { lowest: number; highest: number }>();
   for (let i = 1; i <= BARREL_SCAN_STAGES; i++) {
     const stage = c.pond.pool + ((top - c.pond.pool) * i) / BARREL_SCAN_STAGES;
     const d = outletDetail(outlet, c.tailwater, stage);
-    // The approximation limits the outflow where the chamber holds the openings back (down to no
-    // flow at all) while the barrel is in outlet control with a headwater below 0.75 D.
-    const held = d.barrel !== null && d.barrel < openingsFlow(outlet, stage, -Infinity) * (1 - 1e-9);
-    const belowPond = d.tailwater === null || d.tailwater < stage;
-    if (held && belowPond && d.barrelControl === "outlet" && d.barrelHeadwater !== null && d.barrelHeadwater < BARREL_PART_FULL_RATIO * rise) {
-      lowest = Math.min(lowest, stage);
-      highest = Math.max(highest, stage);
-    }
+    if (d.barrel === null || d.barrelControl !== "outlet") continue;
+    const held = d.barrel < openingsFlow(outlet, stage, -Infinity) * (1 - 1e-9);
+    if (!held || (d.tailwater !== null && d.tailwater >= stage)) continue;
+    const doubt = outletControlDoubt(b, d.barrel, d.tailwater ?? -Infinity);
+    if (doubt === null) continue;
+    const range = found.get(doubt) ?? { lowest: stage, highest: stage };
+    found.set(doubt, { lowest: Math.min(range.lowest, stage), highest: Math.max(range.highest, stage) });
   }
-  if (highest >= lowest) {
-    warnings.push({
-      part,
-      reason: `limits the outflow under outlet control with a headwater below 0.75 D (stages ${f.elevation(lowest)} to ${f.elevation(highest)}), where HDS-5's approximation ho = max(TW, (dc + D)/2) is weak and a backwater calculation is called for; the chamber level there is likely too high`,
-    });
-  }
-  return warnings;
+  return [...found].map(([doubt, { lowest, highest }]) => ({
+    part,
+    reason: `limits the outflow under outlet control at stages ${f.elevation(lowest)} to ${f.elevation(highest)}, where ${DOUBT_REASONS[doubt]}`,
+  }));
 }

@@ -10,6 +10,14 @@
 // Outlet control (full-flow energy equation, HDS-5 2nd ed. eqs 5, 7, 10):
 //   H = (1 + ke + 29 n^2 L / R^1.33) V^2/2g (US),  HW = H + ho - L S,  ho = max(TW, (dc + D)/2),
 //   TW and ho measured above the outlet invert; S = (inlet invert - outlet invert) / length.
+// HDS-5 finds this approximation adequate down to HW = 0.75 D and best when the barrel flows full
+// over part of its length; for lower headwaters it calls for a backwater calculation (2nd ed. ch.
+// III, partly full flow). So the formula is used exactly where its HW >= 0.75 D, or where the
+// backwater profile reaches the crown; below 0.6 D the outlet-control headwater is that of the
+// subcritical backwater profile from the outlet (backwater.ts), HW = inlet depth + (1 + ke) V^2/2g,
+// and between 0.6 D and 0.75 D a linear blend of the two in the formula's HW/D keeps HW continuous.
+// On a steep barrel whose supercritical flow is not drowned (the profile falls to critical depth
+// inside the barrel, or the tailwater is below it) outlet control does not govern.
 //
 // Units: K, M, c, Y and the 29 in the friction term are for US customary units. The conversion is
 // made here, at the boundary: x is computed from SI values and multiplied by 1/sqrt(0.3048) =
@@ -19,8 +27,10 @@
 import type { Barrel } from "../case/model.js";
 import { FOOT, GRAVITY } from "../units.js";
 import { entrance, type Entrance } from "./entrances.js";
-import { boxCriticalDepth, circularCriticalDepth, circularFlowArea } from "./criticalDepth.js";
+import { barrelCriticalDepth, circularFlowArea } from "./criticalDepth.js";
 import { brentRoot } from "./roots.js";
+import { barrelArea, barrelRise, barrelSlope, emptySection, fullHydraulicRadius, sectionAt } from "./barrelSection.js";
+import { backwaterProfile, type Profile } from "./backwater.js";
 
 /** Largest x = Ku Q/(A D^0.5) of the unsubmerged forms, smallest of the submerged form (HDS-5 App. A). */
 export const UNSUBMERGED_LIMIT = 3.5;
@@ -32,25 +42,7 @@ export const FRICTION_CONSTANT_US = 29;
 /** Exponent of the hydraulic radius in the full-flow loss equation as HDS-5 prints it. */
 export const RADIUS_EXPONENT = 1.33;
 
-/** Barrel rise D (m). */
-export function barrelRise(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter : b.rise;
-}
-
-/** Full cross-section area A (m2). */
-export function barrelArea(b: Barrel): number {
-  return b.shape === "circular" ? (Math.PI * b.diameter * b.diameter) / 4 : b.span * b.rise;
-}
-
-/** Hydraulic radius of the full barrel (m). */
-export function fullHydraulicRadius(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter / 4 : (b.span * b.rise) / (2 * (b.span + b.rise));
-}
-
-/** Barrel slope S = (inlet invert - outlet invert) / length. */
-export function barrelSlope(b: Barrel): number {
-  return (b.inletInvert - b.outletInvert) / b.length;
-}
+export { barrelArea, barrelRise, barrelSlope, fullHydraulicRadius };
 
 /** x = Ku Q / (A D^0.5) in US units, the argument of HDS-5's inlet-control forms. */
 export function flowParameter(b: Barrel, flow: number): number {
@@ -58,10 +50,7 @@ export function flowParameter(b: Barrel, flow: number): number {
 }
 
 /** Critical depth (m) in the barrel, no more than its rise. */
-export function criticalDepth(b: Barrel, flow: number): number {
-  const dc = b.shape === "circular" ? circularCriticalDepth(flow, b.diameter) : boxCriticalDepth(flow, b.span);
-  return Math.min(dc, barrelRise(b));
-}
+export const criticalDepth = barrelCriticalDepth;
 
 /** Specific head at critical depth, Hc = dc + Vc^2/2g (m). */
 export function criticalHead(b: Barrel, flow: number, dc: number): number {
@@ -118,22 +107,135 @@ export function outletControlLoss(b: Barrel, flow: number): number {
 }
 
 /**
- * Outlet-control headwater above the inlet invert (m): HW = H + ho - L S with
- * ho = max(TW - outlet invert, (dc + D)/2) (HDS-5 2nd ed. eq 10 and ch. III step 4). `tailwater`
- * is an elevation, -Infinity for a free outfall. Can be negative on a steep barrel (inlet control
- * then governs).
+ * HDS-5's approximate outlet-control headwater above the inlet invert (m): HW = H + ho - L S with
+ * ho = max(TW - outlet invert, (dc + D)/2) (HDS-5 2nd ed. eq 10 and ch. III step 4; the
+ * case-format contract's formula). `tailwater` is an elevation, -Infinity for a free outfall. Can
+ * be negative on a steep barrel (inlet control then governs).
  */
-export function outletControlHeadwater(b: Barrel, flow: number, tailwater: number, dc = criticalDepth(b, flow)): number {
+export function approximateOutletHeadwater(b: Barrel, flow: number, tailwater: number, dc = criticalDepth(b, flow)): number {
   const q = flow > 0 ? flow : 0;
   const ho = Math.max(tailwater - b.outletInvert, 0.5 * (dc + barrelRise(b)));
   return outletControlLoss(b, q) + ho - (b.inletInvert - b.outletInvert);
 }
 
-/** Headwater above the inlet invert (m) for a flow: the larger of inlet and outlet control, >= 0. */
+/**
+ * Where HDS-5's approximation holds. HDS-5 (2nd ed. 2001, ch. III, outlet control, partly full
+ * flow; references.md sec. 1.3) finds the approximation ho = max(TW, (dc + D)/2) best when the
+ * barrel flows full over at least part of its length, adequate down to a headwater of 0.75 D, and
+ * calls for a backwater calculation below that. So: HW/D >= 0.75 from the approximation, or a
+ * profile that reaches the crown, keeps the approximation exactly.
+ */
+export const APPROXIMATION_MIN_RATIO = 0.75;
+/**
+ * Below this HW/D of the approximation the backwater profile alone gives the outlet-control
+ * headwater; between it and 0.75 the two are blended linearly in that ratio, so that the headwater
+ * is continuous in the flow where the method changes. The width of the blend is this project's
+ * choice, not HDS-5's.
+ */
+export const PROFILE_ONLY_RATIO = 0.6;
+
+/** Below this x = Ku Q/(A D^0.5) (about 1e-12 cfs in a 24-in pipe) the flow is taken as still water:
+ * the profile's squares of the flow would underflow. */
+export const STILL_WATER_X = 1e-12;
+
+/**
+ * How the outlet-control headwater was found:
+ * - "approximation": HDS-5's formula, its headwater at or above 0.75 D;
+ * - "full over part": HDS-5's formula, because the profile fills the barrel to its crown;
+ * - "profile": the backwater profile, HW = inlet depth + (1 + ke) V^2/2g;
+ * - "blend": between the profile and the formula (approximate HW/D from 0.6 to 0.75);
+ * - "inlet": on a steep barrel the supercritical flow from the inlet is not drowned (the
+ *   subcritical profile falls to critical depth inside the barrel, or the tailwater is below
+ *   critical depth), so outlet control does not govern; the inlet-control headwater is reported.
+ */
+export type OutletMethod = "approximation" | "full over part" | "profile" | "blend" | "inlet";
+
+export interface OutletControl {
+  /** Outlet-control headwater above the inlet invert (m). */
+  headwater: number;
+  method: OutletMethod;
+  /** HDS-5's approximate headwater H + ho - L S (m), whether used or not. */
+  approximation: number;
+  /** The backwater profile, when one was computed. */
+  profile: Profile | null;
+}
+
+/** Headwater above the inlet invert (m) of the profile's inlet depth: y + (1 + ke) V^2/2g. */
+function profileHeadwater(b: Barrel, flow: number, depth: number): number {
+  const area = sectionAt(b, depth, inletSection).area;
+  const v = flow / area;
+  return depth + (1 + entrance(b.entrance).ke) * ((v * v) / (2 * GRAVITY));
+}
+const inletSection = emptySection();
+
+/**
+ * Outlet-control headwater above the inlet invert (m), by HDS-5's approximation where HDS-5 says
+ * it applies and by a backwater profile from the outlet where it does not (see `OutletMethod`).
+ * `tailwater` is an elevation, -Infinity for a free outfall.
+ */
+export function outletControl(b: Barrel, flow: number, tailwater: number, dc = criticalDepth(b, flow)): OutletControl {
+  const q = flow > 0 ? flow : 0;
+  const rise = barrelRise(b);
+  const approximation = approximateOutletHeadwater(b, q, tailwater, dc);
+  const ratio = approximation / rise;
+  if (ratio >= APPROXIMATION_MIN_RATIO) return { headwater: approximation, method: "approximation", approximation, profile: null };
+  let partFull: number;
+  let method: OutletMethod = "profile";
+  let profile: Profile | null = null;
+  if (flowParameter(b, q) < STILL_WATER_X) {
+    // Still water: the tailwater, or (adverse barrel) up to the outlet invert.
+    partFull = Math.max(tailwater, b.outletInvert) - b.inletInvert;
+  } else {
+    profile = backwaterProfile(b, q, tailwater - b.outletInvert);
+    if (profile.end === "crown") return { headwater: approximation, method: "full over part", approximation, profile };
+    if (profile.end === "critical") {
+      method = "inlet";
+      partFull = inletControlHeadwater(b, q, dc);
+    } else {
+      partFull = profileHeadwater(b, q, profile.depth);
+    }
+  }
+  if (ratio < PROFILE_ONLY_RATIO) return { headwater: partFull, method, approximation, profile };
+  const weight = (ratio - PROFILE_ONLY_RATIO) / (APPROXIMATION_MIN_RATIO - PROFILE_ONLY_RATIO);
+  return { headwater: partFull + weight * (approximation - partFull), method: "blend", approximation, profile };
+}
+
+/** Outlet-control headwater above the inlet invert (m) for a flow (see `outletControl`). */
+export function outletControlHeadwater(b: Barrel, flow: number, tailwater: number, dc = criticalDepth(b, flow)): number {
+  return outletControl(b, flow, tailwater, dc).headwater;
+}
+
+/**
+ * Why an outlet-control headwater is doubtful:
+ * - "step limit": the profile took the most steps allowed short of the inlet (its last depth is used);
+ * - "adverse, part full": an adverse barrel (inlet below outlet) where HDS-5's formula applies by
+ *   its headwater (>= 0.75 D, measured above the low inlet invert) while the backwater profile
+ *   shows the barrel part full over its whole length; the formula's ho = (dc + D)/2 at the outlet
+ *   then overstates the headwater (at small flows by up to D/2).
+ */
+export type OutletDoubt = "step limit" | "adverse, part full";
+
+/** Whether the outlet-control headwater at a flow is doubtful (see `OutletDoubt`), or null. */
+export function outletControlDoubt(b: Barrel, flow: number, tailwater: number): OutletDoubt | null {
+  const control = outletControl(b, flow, tailwater);
+  if (control.profile) return control.profile.limited ? "step limit" : null;
+  // HDS-5's 0.75 D presumes the headwater shows how full the barrel runs; on an adverse barrel the
+  // drop to the inlet alone can lift it past 0.75 D, so the profile is looked at there.
+  const adverse = barrelSlope(b) < 0 && flowParameter(b, flow) >= STILL_WATER_X && tailwater - b.outletInvert < barrelRise(b);
+  if (control.method !== "approximation" || !adverse) return null;
+  return backwaterProfile(b, flow, tailwater - b.outletInvert).end === "inlet" ? "adverse, part full" : null;
+}
+
+/**
+ * Headwater above the inlet invert (m) for a flow: the larger of inlet and outlet control, >= 0.
+ * The exact pointwise value; it may fall slightly where a steep barrel's drowned inlet gives way
+ * to a jump in the barrel (the drowned value carries the entrance loss, inlet control does not) or
+ * where a profile first reaches the crown. `barrelCurve` holds such dips level.
+ */
 export function barrelHeadwater(b: Barrel, flow: number, tailwater: number): number {
   const dc = criticalDepth(b, flow);
   const inlet = inletControlHeadwater(b, flow, dc);
-  const outlet = outletControlHeadwater(b, flow, tailwater, dc);
+  const outlet = outletControl(b, flow, tailwater, dc).headwater;
   return Math.max(inlet, outlet, 0);
 }
 
@@ -145,6 +247,8 @@ export interface BarrelState {
   /** The governing (larger) headwater, >= 0 (m). */
   headwater: number;
   control: "inlet" | "outlet";
+  /** How the outlet-control headwater was found, and the profile if one was computed. */
+  outlet: OutletControl;
   criticalDepth: number;
   /** x = Ku Q/(A D^0.5), US units. */
   flowParameter: number;
@@ -156,13 +260,14 @@ export interface BarrelState {
 export function barrelState(b: Barrel, flow: number, tailwater: number): BarrelState {
   const dc = criticalDepth(b, flow);
   const inlet = inletControlHeadwater(b, flow, dc);
-  const outlet = outletControlHeadwater(b, flow, tailwater, dc);
+  const outlet = outletControl(b, flow, tailwater, dc);
   return {
     flow,
     inletHeadwater: inlet,
-    outletHeadwater: outlet,
-    headwater: Math.max(inlet, outlet, 0),
-    control: inlet >= outlet ? "inlet" : "outlet",
+    outletHeadwater: outlet.headwater,
+    headwater: Math.max(inlet, outlet.headwater, 0),
+    control: inlet >= outlet.headwater ? "inlet" : "outlet",
+    outlet,
     criticalDepth: dc,
     flowParameter: flowParameter(b, flow),
     tailwaterDepth: tailwater - b.outletInvert,
@@ -170,11 +275,11 @@ export function barrelState(b: Barrel, flow: number, tailwater: number): BarrelS
 }
 
 /**
- * The barrel's flow (m3/s) for a headwater elevation in front of its inlet (the chamber level):
- * the inverse of `barrelHeadwater`. Zero while the headwater does not exceed the one at zero flow
- * (e.g. a tailwater above the inlet); monotone and finite for every input.
+ * The barrel's flow (m3/s) for a headwater elevation in front of its inlet, by root-finding on the
+ * exact `barrelHeadwater` (the reference the tabulated `barrelFlow` is checked against). Zero while
+ * the headwater does not exceed the one at zero flow (e.g. a tailwater above the inlet).
  */
-export function barrelFlow(b: Barrel, headwaterElevation: number, tailwater: number): number {
+export function exactBarrelFlow(b: Barrel, headwaterElevation: number, tailwater: number): number {
   const head = headwaterElevation - b.inletInvert;
   if (!(head > barrelHeadwater(b, 0, tailwater))) return 0;
   // A sharp orifice of the full area at this head passes less than the barrel's inlet control
@@ -187,4 +292,35 @@ export function barrelFlow(b: Barrel, headwaterElevation: number, tailwater: num
   }
   const f = (q: number) => barrelHeadwater(b, q, tailwater) - head;
   return brentRoot(f, 0, high, f(0), excess, 1e-12 * high);
+}
+
+/** The exact headwater at a flow, with a number naming the formula that gives it. */
+export interface BarrelPoint {
+  headwater: number;
+  /** Changes wherever the governing formula changes (a kink or a step of HW(Q) may lie between two
+   * flows with different regimes, none between two with the same). */
+  regime: number;
+}
+
+const METHOD_INDEX: Record<OutletMethod, number> = { approximation: 0, "full over part": 1, profile: 2, blend: 3, inlet: 4 };
+const KIND_INDEX: Record<Profile["kind"], number> = { M1: 1, M2: 2, S1: 3, H2: 4, A2: 5, uniform: 6, "full at outlet": 7, "supercritical at outlet": 8 };
+
+/** `barrelHeadwater` with its regime, for the tabulated curve (barrelCurve.ts). */
+export function barrelPoint(b: Barrel, flow: number, tailwater: number): BarrelPoint {
+  const q = flow > 0 ? flow : 0;
+  const dc = criticalDepth(b, q);
+  const inlet = inletControlHeadwater(b, q, dc);
+  const outlet = outletControl(b, q, tailwater, dc);
+  const headwater = Math.max(inlet, outlet.headwater, 0);
+  if (headwater === 0) return { headwater, regime: 0 };
+  if (inlet >= outlet.headwater) {
+    const x = flowParameter(b, q);
+    const rise = barrelRise(b);
+    const hcRatio = criticalHead(b, q, dc) / rise;
+    const floored = unsubmergedRatio(entrance(b.entrance), x, barrelSlope(b), hcRatio) < hcRatio;
+    return { headwater, regime: x <= UNSUBMERGED_LIMIT ? (floored ? 1 : 2) : x >= SUBMERGED_LIMIT ? 4 : 3 };
+  }
+  const tailwaterGoverns = tailwater - b.outletInvert >= 0.5 * (dc + barrelRise(b)) ? 1 : 0;
+  const kind = outlet.profile ? KIND_INDEX[outlet.profile.kind] : 0;
+  return { headwater, regime: 8 + tailwaterGoverns + 2 * (METHOD_INDEX[outlet.method] + 5 * kind) };
 }

@@ -2,6 +2,7 @@
 // condition of minimum specific energy (Chow 1959, Open-Channel Hydraulics, sec. 3-2; HDS-5 ch. III).
 // Solved, not read from a chart: closed form for a rectangle, Newton's method with a bisection
 // safeguard for a circle. SI units.
+import type { Barrel } from "../case/model.js";
 import { GRAVITY } from "../units.js";
 
 /** Critical depth of a rectangular section of width `span` (m): dc = (q^2/g)^(1/3), q = Q/span. */
@@ -12,7 +13,7 @@ export function boxCriticalDepth(flow: number, span: number): number {
 }
 
 /** theta - sin(theta) without cancellation at small angles (Taylor series below 0.01 rad). */
-function thetaMinusSine(theta: number): number {
+export function thetaMinusSine(theta: number): number {
   if (theta < 0.01) {
     const t2 = theta * theta;
     return theta * t2 * (1 / 6 - t2 * (1 / 120 - t2 / 5040));
@@ -64,7 +65,7 @@ export function circularCriticalDepth(flow: number, d: number): number {
 }
 
 /** Central angle of the water surface in a circle of diameter d flowing y deep (y = d sin^2(theta/4)). */
-function angleAtDepth(d: number, y: number): number {
+export function angleAtDepth(d: number, y: number): number {
   const ratio = Math.min(Math.max(y / d, 0), 1);
   return 4 * Math.asin(Math.sqrt(ratio));
 }
@@ -77,4 +78,10 @@ export function circularFlowArea(d: number, y: number): number {
 /** Top width of the water surface in a circular barrel of diameter d flowing y deep. */
 export function circularTopWidth(d: number, y: number): number {
   return d * Math.sin(0.5 * angleAtDepth(d, y));
+}
+
+/** Critical depth (m) of a flow in a barrel, no more than its rise. */
+export function barrelCriticalDepth(b: Barrel, flow: number): number {
+  if (b.shape === "circular") return Math.min(circularCriticalDepth(flow, b.diameter), b.diameter);
+  return Math.min(boxCriticalDepth(flow, b.span), b.rise);
 }

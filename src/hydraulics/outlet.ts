@@ -12,10 +12,11 @@ import { brentRoot } from "./roots.js";
 
 export { elementBottom, elementFlow, openingsFlow } from "./openings.js";
 
-/** Total outflow for a given tailwater level (-Infinity for a free outfall). */
-export function dischargeAtTailwater(outlet: Outlet, ws: number, tw: number): number {
+/** Total outflow for a given tailwater level (-Infinity for a free outfall); `exact`: the barrel
+ * by pointwise evaluation instead of its tabulated curve (for a tailwater that keeps changing). */
+export function dischargeAtTailwater(outlet: Outlet, ws: number, tw: number, exact = false): number {
   const spill = outlet.spillway ? spillwayFlow(outlet.spillway, ws, tw) : 0;
-  if (outlet.barrel) return chamberFlow(outlet, ws, tw) + spill;
+  if (outlet.barrel) return chamberFlow(outlet, ws, tw, exact) + spill;
   return openingsFlow(outlet, ws, tw) + spill;
 }
 
@@ -31,11 +32,11 @@ export function outletDischarge(outlet: Outlet, tail: Tailwater, ws: number): nu
  * on [0, discharge at the lowest tailwater] (each evaluation may be a chamber solve, so few matter).
  */
 function solveWithTailwaterRating(outlet: Outlet, tail: Tailwater, ws: number): number {
-  const high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0));
+  const high = dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, 0), true);
   if (!(high > 0)) return 0;
   // When even the largest possible outflow leaves the tailwater below every part, it does not matter.
   if (tailwaterLevel(tail, high) <= lowestTailwaterEffect(outlet)) return high;
-  const excess = (o: number) => dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, o)) - o;
+  const excess = (o: number) => dischargeAtTailwater(outlet, ws, tailwaterLevel(tail, o), true) - o;
   return brentRoot(excess, 0, high, high, excess(high), 1e-11 * high);
 }
 
@@ -87,7 +88,7 @@ export function outletDetail(outlet: Outlet, tail: Tailwater, ws: number): Outle
   let ds = twRaw;
   let chamber: ChamberSolution | null = null;
   if (outlet.barrel) {
-    chamber = chamberLevel(outlet, ws, twRaw);
+    chamber = chamberLevel(outlet, ws, twRaw, tail.kind === "rating");
     ds = chamber.level;
   }
   const elements = outlet.elements.map((e) => elementFlow(e, ws, ds));

@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import {
-  barrelFlow,
   barrelHeadwater,
   barrelState,
   criticalDepth,
+  exactBarrelFlow,
   criticalHead,
   flowParameter,
   inletControlHeadwater,
@@ -14,19 +14,14 @@ import {
   SUBMERGED_LIMIT,
   unsubmergedRatio,
   UNSUBMERGED_LIMIT,
-  barrelArea,
   barrelRise,
 } from "../../src/hydraulics/barrel.js";
+import { barrelCurve, barrelFlow, curveHeadwater } from "../../src/hydraulics/barrelCurve.js";
 import { ENTRANCE_TABLE, entrancesFor, type Entrance, type EntranceName } from "../../src/hydraulics/entrances.js";
 import { ENTRANCES } from "../../src/case/schema.js";
 import type { Barrel } from "../../src/case/model.js";
 import { FOOT } from "../../src/units.js";
-import { boxBarrel, CFS, circularBarrel } from "./barrelFixtures.js";
-
-/** Flow (m3/s) at which x = Ku Q/(A D^0.5) takes a value (US units). */
-function flowAt(b: Barrel, x: number): number {
-  return (x * barrelArea(b) * Math.sqrt(barrelRise(b))) / KU_SI;
-}
+import { barrelArbitrary, boxBarrel, CFS, circularBarrel, flowAt } from "./barrelFixtures.js";
 
 describe("HDS-5 inlet-control forms", () => {
   // FHWA HDS-5 (2nd ed., 2001) App. A, worked development of a dimensionless inlet-control curve
@@ -146,27 +141,13 @@ describe("entrance table", () => {
 });
 
 /** A random barrel of either shape with an entrance that fits it (SI). */
-const barrelArbitrary = fc
-  .record({
-    box: fc.boolean(),
-    rise: fc.double({ min: 0.2, max: 2.5, noNaN: true }),
-    aspect: fc.double({ min: 0.5, max: 3, noNaN: true }),
-    length: fc.double({ min: 5, max: 150, noNaN: true }),
-    slope: fc.double({ min: -0.02, max: 0.1, noNaN: true }),
-    n: fc.double({ min: 0.009, max: 0.03, noNaN: true }),
-    pick: fc.nat(),
-  })
-  .map(({ box, rise, aspect, length, slope, n, pick }): Barrel => {
-    const names = entrancesFor(box ? "box" : "circular");
-    const name = names[pick % names.length];
-    return box ? boxBarrel(rise * aspect, rise, name, slope, length, n) : circularBarrel(rise, name, slope, { length, manningN: n });
-  });
+const randomBarrel = barrelArbitrary({ min: -0.02, max: 0.1 }, { min: 5, max: 150 });
 
 describe("headwater and its inverse", () => {
-  it("headwater rises with flow and is finite for every barrel, flow and tailwater (property)", () => {
+  it("headwater is finite and >= 0, and the barrel's curve rises with flow, for every barrel, flow and tailwater (property)", () => {
     fc.assert(
       fc.property(
-        barrelArbitrary,
+        randomBarrel,
         fc.double({ min: 0, max: 12, noNaN: true }),
         fc.double({ min: 0, max: 12, noNaN: true }),
         fc.oneof(fc.constant(-Infinity), fc.double({ min: -2, max: 5, noNaN: true })),
@@ -177,7 +158,10 @@ describe("headwater and its inverse", () => {
           const h2 = barrelHeadwater(b, q2, tw);
           expect(Number.isFinite(h1) && Number.isFinite(h2)).toBe(true);
           expect(h1).toBeGreaterThanOrEqual(0);
-          expect(h2).toBeGreaterThanOrEqual(h1 - 1e-12);
+          // The exact headwater may dip where a drowned inlet gives way to a jump in the barrel
+          // (barrel.ts); the tabulated curve the chamber solve uses never falls.
+          const curve = barrelCurve(b, tw);
+          expect(curveHeadwater(curve, q2)).toBeGreaterThanOrEqual(curveHeadwater(curve, q1));
           expect(inletControlHeadwater(b, q2)).toBeGreaterThanOrEqual(inletControlHeadwater(b, q1) - 1e-12);
         },
       ),
@@ -185,19 +169,24 @@ describe("headwater and its inverse", () => {
     );
   });
 
-  it("flow from headwater inverts headwater from flow, and is monotone (property)", () => {
+  it("flow from headwater inverts headwater from flow, on the curve and pointwise, and is monotone (property)", () => {
     fc.assert(
       fc.property(
-        barrelArbitrary,
+        randomBarrel,
         fc.double({ min: 0.001, max: 10, noNaN: true }),
         fc.oneof(fc.constant(-Infinity), fc.double({ min: -2, max: 5, noNaN: true })),
         (b, x, tw) => {
           const q = flowAt(b, x);
-          const hw = b.inletInvert + barrelHeadwater(b, q, tw);
+          const hw = b.inletInvert + curveHeadwater(barrelCurve(b, tw), q);
           const back = barrelFlow(b, hw, tw);
-          expect(Math.abs(back - q)).toBeLessThanOrEqual(1e-7 * q);
+          // Equal flows, or (on a stretch the curve holds level) the same headwater.
+          expect(Math.abs(back - q) <= 1e-9 * q || Math.abs(curveHeadwater(barrelCurve(b, tw), back) - (hw - b.inletInvert)) <= 1e-12).toBe(true);
           expect(barrelFlow(b, hw + 0.01, tw)).toBeGreaterThan(back);
           expect(barrelFlow(b, hw - 0.01, tw)).toBeLessThanOrEqual(back);
+          // The exact inverse finds a flow with the exact headwater asked for.
+          const head = barrelHeadwater(b, q, tw);
+          const exact = exactBarrelFlow(b, b.inletInvert + head, tw);
+          expect(Math.abs(barrelHeadwater(b, exact, tw) - head)).toBeLessThanOrEqual(1e-9 * (1 + head));
         },
       ),
       { numRuns: 300 },

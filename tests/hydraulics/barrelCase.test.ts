@@ -5,13 +5,13 @@ import { join, resolve } from "node:path";
 import { spawnSync } from "node:child_process";
 import { parseCase } from "../../src/case/load.js";
 import { CaseError } from "../../src/case/errors.js";
-import type { Case } from "../../src/case/model.js";
+import type { Case, Outlet } from "../../src/case/model.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { assess } from "../../src/assess/assess.js";
 import { routeJson } from "../../src/report/json.js";
 import { routeReport } from "../../src/report/console.js";
 import { ratingJson, ratingRows } from "../../src/report/rating.js";
-import { outletDetail } from "../../src/hydraulics/outlet.js";
+import { outletDetail, outletDischarge } from "../../src/hydraulics/outlet.js";
 import { BARREL_MAX_HEADWATER_RATIO } from "../../src/assess/warnings.js";
 import { FOOT } from "../../src/units.js";
 
@@ -79,11 +79,26 @@ describe("barrel warnings", () => {
     expect(barrelWarnings(c).some((r) => r.startsWith("runs full under outlet control against a tailwater"))).toBe(true);
   });
 
-  it("the part-full outlet-control approximation where it limits the outflow below HW = 0.75 D", () => {
-    // A 24-in barrel with its inlet at 99.5 ft: (0 + D)/2 - L S = 0.5 ft puts the chamber at the
-    // low orifice's invert (100 ft) even at small flows.
-    const c = demoCase((json) => (json.outlet.barrel.diameter = "24 in"));
-    expect(barrelWarnings(c).some((r) => r.includes("below 0.75 D"))).toBe(true);
+  it("no barrel warning at low flows for the demo's 18-in barrel or a 24-in one at the demo's inverts", () => {
+    // HDS-5's approximation put these chambers (dc + D)/2 - L S above the inlet even at small flows
+    // (for 24 in: at the 6-in orifice's invert); the backwater profile shows a steep barrel whose
+    // small flows pass critical depth near the inlet (inlet control, a few inches deep).
+    expect(barrelWarnings(demoCase())).toEqual([
+      expect.stringContaining("HW/D = 3.63 at the peak of 100-yr"),
+    ]);
+    expect(barrelWarnings(demoCase((json) => (json.outlet.barrel.diameter = "24 in")))).toEqual([]);
+  });
+
+  it("a note where an adverse barrel's headwater comes from HDS-5's approximation although the profile shows it part full", () => {
+    // Inlet 0.5 ft below the outlet: the approximation's HW = D/2 + 0.5 ft = 0.83 D passes 0.75 D,
+    // so the contract's formula applies, yet the barrel runs part full throughout.
+    const c = demoCase((json) => {
+      json.outlet.barrel.inletInvert = 99.0;
+      json.outlet.barrel.outletInvert = 99.5;
+    });
+    const notes = barrelWarnings(c).filter((r) => r.includes("part full over its whole length"));
+    expect(notes).toHaveLength(1);
+    expect(notes[0]).toMatch(/^limits the outflow under outlet control at stages 100\.\d\d ft to \d+\.\d\d ft/);
   });
 
   it("none for a barrel set in a sump deep enough and large enough for the storms", () => {
@@ -133,6 +148,39 @@ describe("bad barrel input", () => {
       expect(run.stderr).not.toMatch(/\n\s+at /);
     } finally {
       rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe("low flows in the demo setting (the backwater fix)", () => {
+  // The demo pond (cases/demo): a 6-in orifice at the floor (100.0 ft), the barrel's inlet 99.5 ft,
+  // outlet 99.0 ft, 60 ft, n 0.013. At stages up to 100.5 ft the orifice passes under 0.5 cfs.
+  const withoutBarrel = (c: Case): Outlet => ({ ...c.outlet!, barrel: undefined });
+  for (const inches of [18, 24, 36]) {
+    it(`a ${inches}-in barrel leaves the 6-in orifice at the floor unthrottled below 100.5 ft: the rating equals the openings-only rating`, () => {
+      const c = demoCase((json) => (json.outlet.barrel.diameter = `${inches} in`));
+      for (let z = 100.0; z <= 100.5 + 1e-9; z += 0.01) {
+        const d = outletDetail(c.outlet!, c.tailwater, z * FOOT);
+        expect(d.total).toBe(outletDischarge(withoutBarrel(c), c.tailwater, z * FOOT));
+        expect(d.control).toMatch(/^(openings free|no flow)$/);
+        if (d.total > 0) expect(d.chamber!).toBeLessThan(100.0 * FOOT);
+      }
+    });
+  }
+
+  it("with a 24-in or a 36-in barrel the pond drains to the floor after every storm", () => {
+    for (const inches of [24, 36]) {
+      const c = demoCase((json) => (json.outlet.barrel.diameter = `${inches} in`));
+      const routing = routeCase(c, c.outlet!);
+      const assessment = assess(c, routing);
+      for (const { result } of routing.storms) expect(result.drawdownTime).not.toBeNull();
+      const drawdown = assessment.checks.filter((check) => check.name.endsWith("drawdown"));
+      expect(drawdown).toHaveLength(3);
+      for (const check of drawdown) expect(check.passed).toBe(true);
+      // Down to the floor: just above it the outlet still discharges what the orifice alone does.
+      const z = 100.01 * FOOT;
+      expect(outletDischarge(c.outlet!, c.tailwater, z)).toBeGreaterThan(0);
+      expect(outletDischarge(c.outlet!, c.tailwater, z)).toBe(outletDischarge(withoutBarrel(c), c.tailwater, z));
     }
   });
 });

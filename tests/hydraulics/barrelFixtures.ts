@@ -1,5 +1,8 @@
 // Invented barrels and outlets shared by the barrel and chamber tests (SI values).
+import fc from "fast-check";
 import type { Barrel, CircularOrifice, Outlet, RectangularWeir, Riser } from "../../src/case/model.js";
+import { approximateOutletHeadwater, barrelArea, barrelRise, KU_SI } from "../../src/hydraulics/barrel.js";
+import { entrancesFor } from "../../src/hydraulics/entrances.js";
 import { FOOT } from "../../src/units.js";
 
 export const CFS = FOOT ** 3;
@@ -55,4 +58,44 @@ export function demoOutlet(barrelDiameterInches: number | null): Outlet {
     };
   }
   return outlet;
+}
+
+/** Flow (m3/s) at which x = Ku Q/(A D^0.5) takes a value (US units). */
+export function flowAt(b: Barrel, x: number): number {
+  return (x * barrelArea(b) * Math.sqrt(barrelRise(b))) / KU_SI;
+}
+
+/** A random barrel of either shape with an entrance that fits it (SI), on slopes and lengths in the given ranges. */
+export function barrelArbitrary(slope: { min: number; max: number }, length: { min: number; max: number }): fc.Arbitrary<Barrel> {
+  return fc
+    .record({
+      box: fc.boolean(),
+      rise: fc.double({ min: 0.2, max: 2.5, noNaN: true }),
+      aspect: fc.double({ min: 0.5, max: 3, noNaN: true }),
+      length: fc.double({ ...length, noNaN: true }),
+      slope: fc.double({ ...slope, noNaN: true }),
+      n: fc.double({ min: 0.009, max: 0.03, noNaN: true }),
+      pick: fc.nat(),
+    })
+    .map(({ box, rise, aspect, length, slope, n, pick }): Barrel => {
+      const names = entrancesFor(box ? "box" : "circular");
+      const name = names[pick % names.length];
+      return box ? boxBarrel(rise * aspect, rise, name, slope, length, n) : circularBarrel(rise, name, slope, { length, manningN: n });
+    });
+}
+
+/** Flow at which HDS-5's approximate outlet-control HW/D reaches `ratio` (bisection; it rises with
+ * flow), or null when it is there already at zero flow. */
+export function flowAtApproximateRatio(b: Barrel, tw: number, ratio: number): number | null {
+  const rise = barrelRise(b);
+  if (approximateOutletHeadwater(b, 0, tw) / rise >= ratio) return null;
+  let low = 0;
+  let high = flowAt(b, 1e-3);
+  while (approximateOutletHeadwater(b, high, tw) / rise < ratio) high *= 2;
+  for (let i = 0; i < 200 && high - low > 1e-15 * high; i++) {
+    const mid = 0.5 * (low + high);
+    if (approximateOutletHeadwater(b, mid, tw) / rise < ratio) low = mid;
+    else high = mid;
+  }
+  return high;
 }
