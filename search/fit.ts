@@ -50,7 +50,7 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
  * aim (a few routings by regula falsi: the peak only rises as a level is lowered). The rim is placed
  * the same way for the largest storm.
  */
-export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator): number[] {
+export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, plain = false): number[] {
   const L = baseLength(p.case.units);
   const { min, max } = variableBounds(p, l);
   const storms = p.targeted;
@@ -61,7 +61,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator): 
   const high = p.case.pond.top / L + 10 * (p.case.pond.top - p.case.pond.bottom) / L;
   const count = variableCount(p, l);
   const trial = () => Array.from({ length: count }, (_, i) => (i < vars.length ? vars[i] : high));
-  const routed = (storm: Storm) => evaluator.routeStorms(designOutlet(p, designOutletFile(p, l, trial())), [storm])[0].result;
+  const routed = (storm: Storm) => evaluator.routeStorms(designOutlet(p, designOutletFile(p, l, trial(), plain)), [storm])[0].result;
 
   /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
   const place = (index: number, storm: Storm | undefined, low: number) => {

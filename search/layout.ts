@@ -71,8 +71,11 @@ export function elevations(p: SearchProblem, l: Layout, vars: readonly number[])
   return { levels, rim: l.riser ? vars[v] : null };
 }
 
-/** The outlet in case-file form, every coefficient written out. */
-export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly number[]): OutletFile {
+/**
+ * The outlet in case-file form, every coefficient written out. `plain` leaves the barrel out: the
+ * planner's quick scoring of options (the openings govern at the small storms it scores on).
+ */
+export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly number[], plain = false): OutletFile {
   const d = defaultCoefficients(p.case.units);
   const z = elevations(p, l, vars);
   const kept: ElementFile[] = p.keptElements.map((e) => ({ ...e, coefficient: e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d) } as ElementFile));
@@ -90,7 +93,7 @@ export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly num
   const file: OutletFile = { elements: [...kept.map(stripUndefined), ...designed] };
   if (p.keptRiser) file.riser = { ...p.keptRiser, coefficient: p.keptRiser.coefficient ?? d.riserWeir, orificeCoefficient: p.keptRiser.orificeCoefficient ?? d.riserOrifice };
   else if (l.riser) file.riser = { shape: "circular", diameter: l.riser.size, crest: z.rim!, coefficient: d.riserWeir, orificeCoefficient: d.riserOrifice };
-  if (p.barrel) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
+  if (p.barrel && !plain) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
   if (p.spillway) file.spillway = { ...p.spillway, coefficient: p.spillway.coefficient ?? d.spillway };
   return file;
 }

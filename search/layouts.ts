@@ -118,13 +118,17 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
     const first = storms[0];
     for (const part of options) {
       const layout: Layout = { levels: [part], riser: null, barrel: stagingBarrel };
-      const vars = stagedStart(p, layout, evaluator);
-      const outlet = designOutlet(p, designOutletFile(p, layout, vars));
+      const vars = stagedStart(p, layout, evaluator, true);
+      const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
       const result = evaluator.routeStorms(outlet, [first])[0].result;
-      const peak = result.peakOutflow;
+      let peak = result.peakOutflow;
       if (!p.floorTaken && peak > first.target! * (1 + p.case.criteria.over)) {
-        pruned.push({ part, storm: first, peak });
-        continue;
+        // The bound holds with the most restrictive barrel: confirm with it before pruning.
+        if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
+        if (peak > first.target! * (1 + p.case.criteria.over)) {
+          pruned.push({ part, storm: first, peak });
+          continue;
+        }
       }
       // The lowest level drains the pond's last stretch alone: a slow one fails the drawdown rule.
       frontier.push({ levels: [part], score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 });
@@ -151,8 +155,8 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
       const storm = storms[Math.min(count, storms.length - 1)];
       for (const part of options) {
         const layout: Layout = { levels: [...partial.levels, part], riser: null, barrel: stagingBarrel };
-        const vars = stagedStart(p, layout, evaluator);
-        const outlet = designOutlet(p, designOutletFile(p, layout, vars));
+        const vars = stagedStart(p, layout, evaluator, true);
+        const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
         const peak = evaluator.routeStorms(outlet, [storm])[0].result.peakOutflow;
         const last = count + 1 === maxLevels;
         next.push({ levels: layout.levels, score: partial.score + aimDistance(p, storm, peak, last ? 1 : FIXABLE_UNDER) ** 2 });

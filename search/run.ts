@@ -187,7 +187,8 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       skipped++;
       continue;
     }
-    if (evaluator.routings >= options.budget) {
+    // At least one layout is fitted whatever the budget, so that something can be reported.
+    if (evaluator.routings >= options.budget && fitted > 0) {
       stoppedBecause = `the budget of ${options.budget} routings was used`;
       break;
     }

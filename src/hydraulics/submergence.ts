@@ -4,5 +4,8 @@
 export function villemonte(freeFlow: number, head: number, downstreamHead: number, exponent: number): number {
   if (downstreamHead <= 0) return freeFlow;
   if (downstreamHead >= head) return 0;
-  return freeFlow * Math.pow(1 - Math.pow(downstreamHead / head, exponent), 0.385);
+  const r = downstreamHead / head;
+  // r^1.5 and r^2.5 by square roots: the rating's hot path (same values as Math.pow).
+  const rn = exponent === 1.5 ? r * Math.sqrt(r) : exponent === 2.5 ? r * r * Math.sqrt(r) : Math.pow(r, exponent);
+  return freeFlow * Math.pow(1 - rn, 0.385);
 }
