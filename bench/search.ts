@@ -17,6 +17,7 @@ export const searchSection: BenchSection = {
   run() {
     const rows = benchSearch(join(process.cwd(), "cases"), BENCH_BUDGET);
     printSearchBench(rows, BENCH_BUDGET);
+    searchMemory(join(process.cwd(), "cases", "small-compliant", "case.json"));
   },
 };
 
@@ -78,4 +79,19 @@ export function printSearchBench(rows: SearchBenchRow[], budget: number): void {
   const widths = header.map((h, i) => Math.max(h.length, ...lines.map((l) => l[i].length)));
   console.log(header.map((h, i) => h.padEnd(widths[i])).join("  "));
   for (const l of lines) console.log(l.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join("  "));
+}
+
+/** Heap in use after longer and longer searches: it should level off (candidates kept are bounded). */
+function searchMemory(file: string): void {
+  const gc = (globalThis as { gc?: () => void }).gc;
+  const heap = () => {
+    gc?.();
+    return process.memoryUsage().heapUsed / 1e6;
+  };
+  const loaded = loadCase(file);
+  console.log(`\nSearch memory (small-compliant; heap in use${gc ? " after a full collection" : ", no --expose-gc: includes garbage"})`);
+  for (const budget of [20000, 80000, 160000]) {
+    const run = runSearch(buildProblem(loaded.case, loaded.data), { seed: "memory", budget, top: 5, starts: 3, beam: 3 });
+    console.log(`  budget ${String(budget).padStart(6)} routings: ${run.layoutsFitted} layouts fitted, ${run.candidatesRouted} designs routed, ${run.candidates.length} kept; heap ${heap().toFixed(1)} MB`);
+  }
 }

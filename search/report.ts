@@ -47,7 +47,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       layoutsPlanned: run.layoutsPlanned,
       layoutsFitted: run.layoutsFitted,
       layoutsSkippedByCost: run.layoutsSkipped,
-      candidatesRouted: run.candidates.length,
+      candidatesRouted: run.candidatesRouted,
       routings: run.routings,
       evaluations: run.evaluations,
       seconds: run.seconds,
@@ -117,7 +117,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
   lines.push(
     "",
     `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}.`,
-    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidates.length} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
+    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
       `; seed "${run.seed}", budget ${run.budget} routings.`,
     "",

@@ -6,6 +6,7 @@ import type { SearchProblem } from "./problem.js";
 import { Evaluator } from "./evaluate.js";
 import { layoutCost, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
 import seedrandom from "seedrandom";
+import { createHash } from "node:crypto";
 import { fitLayout } from "./fit.js";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
@@ -53,6 +54,8 @@ export interface SearchRun {
   layoutsFitted: number;
   /** Layouts not fitted because they cost at least as much as the top-th compliant candidate. */
   layoutsSkipped: number;
+  /** Designs routed through the route path (the best of them are kept in `candidates`). */
+  candidatesRouted: number;
   routings: number;
   evaluations: number;
   seconds: number;
@@ -80,7 +83,13 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const evaluator = new Evaluator(p);
+  // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
+  // designs already routed are remembered by a short hash of their outlet.
   const candidates = new Map<string, Candidate>();
+  const seenDesigns = new Set<string>();
+  const keep = Math.max(4 * options.top, 40);
+  let routedCandidates = 0;
+  let compliantFound = 0;
   const tried = new Set<string>();
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
@@ -94,11 +103,19 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   let bestCost: number | null = null;
 
   const accept = (layout: Layout, vars: number[], file: Candidate["file"]): Candidate[] => {
-    const key = JSON.stringify(file);
-    if (candidates.has(key)) return [];
+    const key = createHash("sha1").update(JSON.stringify(file)).digest("base64");
+    if (seenDesigns.has(key)) return [];
+    seenDesigns.add(key);
+    routedCandidates++;
     const candidate = finalizeCandidate(p, layout, vars, file);
     candidates.set(key, candidate);
+    if (candidates.size > 2 * keep) {
+      const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, keep);
+      candidates.clear();
+      for (const [k, c] of best) candidates.set(k, c);
+    }
     if (candidate.assessment.compliant) {
+      compliantFound++;
       if (firstCompliantAt === null) {
         firstCompliantAt = seconds();
         firstCompliantRoutings = evaluator.routings;
@@ -217,7 +234,7 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       layoutsFitted: fitted,
       layoutsPlanned: planned,
       routings: evaluator.routings,
-      compliant: [...candidates.values()].filter((c) => c.assessment.compliant).length,
+      compliant: compliantFound,
       bestCost,
       seconds: seconds(),
     });
@@ -235,6 +252,7 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
     layoutsPlanned: planned,
     layoutsFitted: fitted,
     layoutsSkipped: skipped,
+    candidatesRouted: routedCandidates,
     routings: evaluator.routings,
     evaluations: evaluator.evaluations,
     seconds: seconds(),
