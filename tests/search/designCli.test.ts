@@ -14,9 +14,9 @@ function outfit(...args: string[]) {
 }
 
 describe("outfit design", () => {
-  it("writes results and candidates that route again to exactly the reported peaks", () => {
+  it.each(["cases/si-headwall/case.json", "cases/si-wet-barrel/case.json", "cases/demo/case.json"])("%s: writes results and candidates that route again to exactly the reported peaks", (caseFile) => {
     const dir = mkdtempSync(join(tmpdir(), "outfit-design-"));
-    const run = outfit("design", "cases/si-headwall/case.json", "--budget", "4000", "--top", "2", "--out", dir);
+    const run = outfit("design", caseFile, "--budget", "4000", "--top", "2", "--out", dir);
     expect(run.code).toBe(0);
     const results = JSON.parse(readFileSync(join(dir, "results.json"), "utf8"));
     expect(results.command).toBe("design");
