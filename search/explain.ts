@@ -43,7 +43,7 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
   if (!binding) return ["no checks apply"];
   const failing = c.assessment.checks.filter((check) => !check.passed);
   lines.push(`binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`);
-  lines.push(`why: ${bindingReason(p, binding)}`);
+  lines.push(`why: ${bindingReason(binding)}`);
   const names = variableNames(p, c.layout);
   const { min, max } = variableBounds(p, c.layout);
   const unit = p.case.units === "US" ? "ft" : "m";
@@ -74,7 +74,7 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
   return lines;
 }
 
-function bindingReason(p: SearchProblem, check: Check): string {
+function bindingReason(check: Check): string {
   switch (check.kind) {
     case "peak-upper":
       return `the ${check.storm} storm releases close to its allowable peak`;

@@ -18,7 +18,7 @@ function circleLogFactor(d: number, theta: number): number {
 }
 
 /** Its derivative in theta: (5/3) A'/A - (2/3) P'/P with A' = d^2 (1 - cos theta)/8, P' = d/2. */
-function circleLogFactorSlope(d: number, theta: number): number {
+function circleLogFactorSlope(theta: number): number {
   return (5 / 3) * ((1 - Math.cos(theta)) / thetaMinusSine(theta)) - (2 / 3) / theta;
 }
 
@@ -81,7 +81,7 @@ function circleNormalDepth(d: number, target: number): number {
     if (g === 0) break;
     if (g > 0) high = theta;
     else low = theta;
-    let next = theta - g / circleLogFactorSlope(d, theta);
+    let next = theta - g / circleLogFactorSlope(theta);
     if (!(next > low && next < high)) next = 0.5 * (low + high);
     const done = Math.abs(next - theta) <= 1e-14 * theta || high - low <= 1e-14 * theta;
     theta = next;

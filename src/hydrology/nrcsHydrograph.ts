@@ -1,7 +1,6 @@
 // Runoff hydrograph of one area by the NRCS method: cumulative rainfall -> cumulative runoff by the
 // curve number equation -> runoff increments per unit duration -> convolution with the unit hydrograph
 // (NEH Part 630 ch. 10 and ch. 16; TR-55).
-import type { Hydrograph } from "../case/model.js";
 import { depthAt, resolution, type MassCurve } from "./distributions.js";
 import { runoffDepth, type AbstractionRatio } from "./runoff.js";
 import { MIN_TC_NRCS } from "./timeOfConcentration.js";

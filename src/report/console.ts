@@ -90,7 +90,7 @@ export function warningsText(assessment: Assessment): string {
   return ["Warnings:", ...assessment.warnings.map((w) => `  - ${w.part}: ${w.reason}`)].join("\n");
 }
 
-export function verdictText(c: Case, assessment: Assessment): string {
+export function verdictText(assessment: Assessment): string {
   const b = assessment.binding;
   const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks";
   return `${assessment.compliant ? "Compliant" : "NOT compliant"}; ${binding}`;
@@ -110,7 +110,7 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     warningsText(assessment),
     ...(verbose.length ? ["", ...verbose] : []),
     "",
-    verdictText(c, assessment),
+    verdictText(assessment),
     "",
     `Caution: ${CAUTION}`,
   ];

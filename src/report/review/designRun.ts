@@ -3,7 +3,7 @@
 import { readFileSync, statSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { z } from "zod";
-import { CaseError, jsonPath, show } from "../../case/errors.js";
+import { CaseError, show } from "../../case/errors.js";
 import { fromIssue, loadCase } from "../../case/load.js";
 import type { Case } from "../../case/model.js";
 
