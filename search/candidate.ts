@@ -56,11 +56,15 @@ export function shortfall(c: Candidate): number {
   return c.assessment.checks.reduce((sum, check) => sum + Math.max(0, -check.slack), 0);
 }
 
+/** Ranking group: 0 compliant without warnings, 1 compliant with warnings, 2 not compliant. */
+export function rankGroup(c: Candidate): number {
+  return c.assessment.compliant ? (c.assessment.warnings.length === 0 ? 0 : 1) : 2;
+}
+
 /** Ranking: compliant without warnings, compliant with warnings, then the rest by shortfall; cost, then error. */
 export function compareCandidates(a: Candidate, b: Candidate): number {
-  const group = (c: Candidate) => (c.assessment.compliant ? (c.assessment.warnings.length === 0 ? 0 : 1) : 2);
-  const ga = group(a);
-  const gb = group(b);
+  const ga = rankGroup(a);
+  const gb = rankGroup(b);
   if (ga !== gb) return ga - gb;
   if (ga === 2) return shortfall(a) - shortfall(b) || a.cost - b.cost;
   return a.cost - b.cost || a.error - b.error;

@@ -9,7 +9,7 @@ import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
 import { fitLayout } from "./fit.js";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
-import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
+import { compareCandidates, finalizeCandidate, markPareto, rankGroup, type Candidate } from "./candidate.js";
 import { explainCandidate, explainInfeasible } from "./explain.js";
 
 export interface RunOptions {
@@ -78,6 +78,28 @@ const SAMPLE_BATCH = 40;
 const PROMISING = 0.02;
 /** Rounds of sampling in a row without anything worth fitting before the search stops. */
 const MAX_SAMPLING_ROUNDS = 200;
+
+/**
+ * The ranking with alternatives first: among the top, a candidate whose openings (parts, counts and
+ * sizes, bottom up) repeat a better one's is moved behind the distinct ones, so that the reported
+ * candidates are different designs rather than one design with another riser or a shifted crest.
+ */
+export function distinctFirst(sorted: Candidate[], top: number): Candidate[] {
+  const signature = (c: Candidate) => c.layout.levels.map((part) => part.key).join(" | ");
+  const seen = new Set<string>();
+  const distinct: Candidate[] = [];
+  const repeats: Candidate[] = [];
+  for (const c of sorted) {
+    const key = signature(c);
+    if (seen.has(key) || distinct.length >= top) repeats.push(c);
+    else {
+      seen.add(key);
+      distinct.push(c);
+    }
+  }
+  // A repeat never jumps ahead of a better-ranked group (compliant before not, unflagged before flagged).
+  return [...distinct, ...repeats].sort((a, b) => rankGroup(a) - rankGroup(b));
+}
 
 export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   const started = performance.now();
@@ -240,8 +262,9 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
     });
   }
 
-  const ranked = [...candidates.values()].sort(compareCandidates);
-  markPareto(ranked);
+  const sorted = [...candidates.values()].sort(compareCandidates);
+  markPareto(sorted);
+  const ranked = distinctFirst(sorted, options.top);
   const reported = ranked.slice(0, options.top);
   for (const c of reported) c.explanation = explainCandidate(p, c);
   const success = ranked.some((c) => c.assessment.compliant);
