@@ -212,7 +212,8 @@ export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Eva
 
 /** Score of a full layout (the fit's own objective, every check, at the staged start) and its cost. */
 function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
-  const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator) : [];
+  // Staged without the barrel (fast), judged with it.
+  const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator, true) : [];
   const e = evaluator.evaluate(layout, vars);
   return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
 }
