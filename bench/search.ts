@@ -70,7 +70,7 @@ export function printSearchBench(rows: SearchBenchRow[], budget: number): void {
   const f = (x: number | null, digits = 2) => (x === null ? "none" : x.toFixed(digits));
   console.log(`\nOptimiser (budget ${budget} routings per case; random search gets the same number of routings)`);
   console.log("Both keep the same preference: compliant without warnings first, then cost; \"flagged\" = the best compliant one found has a part outside its formula's range.");
-  const header = ["case", "first compliant", "routings to first", "routings/s", "search time", "best cost", "random: first", "random: best cost", "cost ratio random/search"];
+  const header = ["case", "first compliant", "routings to first", "routings/s", "search time", "best cost", "random: first", "random: best cost", "cost ratio random/search", "time to first, random/search"];
   const lines = rows.map((r) => [
     r.name,
     r.firstSeconds === null ? "none" : `${f(r.firstSeconds, 3)} s`,
@@ -81,6 +81,7 @@ export function printSearchBench(rows: SearchBenchRow[], budget: number): void {
     r.randomFirstSeconds === null ? "none" : `${f(r.randomFirstSeconds, 3)} s`,
     `${f(r.randomBestCost, 1)}${r.randomFlagged ? " flagged" : ""}`,
     r.bestCost === null ? "-" : r.randomBestCost === null ? "random found none" : r.randomFlagged && !r.bestFlagged ? "random: flagged only" : (r.randomBestCost / r.bestCost).toFixed(2),
+    r.firstSeconds === null ? "-" : r.randomFirstSeconds === null ? "random found none" : (r.randomFirstSeconds / r.firstSeconds).toFixed(2),
   ]);
   const widths = header.map((h, i) => Math.max(h.length, ...lines.map((l) => l[i].length)));
   console.log(header.map((h, i) => h.padEnd(widths[i])).join("  "));
