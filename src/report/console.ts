@@ -121,7 +121,9 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
 export function routingNotes(c: Case, routing: CaseRouting): string[] {
   const f: Formatter = formatter(c.units);
   return routing.storms.map(({ storm, result }) => {
-    const refined = result.refinedSteps > 0 ? `; ${result.refinedSteps} steps shortened where the outflow changes fast relative to storage` : "";
+    const refined =
+      (result.refinedSteps > 0 ? `; ${result.refinedSteps} steps shortened where the outflow changes fast relative to storage` : "") +
+      (result.redoneSteps > 0 ? `; ${result.redoneSteps} steps done again shorter after landing far past a crest` : "");
     return `${storm.name}: ${result.steps} steps of ${stepText(result.smallestStep)} to ${stepText(result.largestStep)} over ${(result.duration / 3600).toFixed(1)} h${refined}; mass balance error ${significant(100 * result.massBalanceError)} %; rating table ${routing.table.stage.length} stages to ${f.elevation(routing.table.stage[routing.table.stage.length - 1])}`;
   });
 }
