@@ -1,5 +1,5 @@
 // `outfit design`: load, search, print, and write results and candidate case files whole.
-import { appendFileSync, existsSync, mkdirSync, readFileSync } from "node:fs";
+import { appendFileSync, existsSync, mkdirSync, readFileSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
 import { writeFileAtomic } from "../src/io.js";
@@ -30,6 +30,9 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
   const top = Math.round(positiveNumber("--top", options.top) ?? 5);
   const seed = options.seed ?? "outfit";
   const budget = Math.round(positiveNumber("--budget", options.budget) ?? 20000);
+  if (options.out && existsSync(options.out) && !statSync(options.out).isDirectory()) {
+    throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
+  }
   const journalPath = options.out ? join(options.out, "journal.jsonl") : undefined;
   const signature = createHash("sha256").update(JSON.stringify({ json: loaded.json, seed, margin: problem.options.margin })).digest("hex").slice(0, 16);
   const done = new Map<string, JournalEntry>();

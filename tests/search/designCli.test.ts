@@ -78,6 +78,13 @@ describe("outfit design", () => {
     expect(help.stdout).toMatch(/Examples?:\n\s+outfit /);
   });
 
+  it("refuses --out naming a file (exit 2, nothing written)", () => {
+    const run = outfit("design", "cases/small-compliant/case.json", "--out", "package.json");
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/--out: found "package.json", expected a directory/);
+    expect(run.stdout).toBe("");
+  });
+
   it("refuses --resume with a journal of another case (exit 2, names the option)", () => {
     const dir = mkdtempSync(join(tmpdir(), "outfit-resume-"));
     expect(outfit("design", "cases/small-compliant/case.json", "--budget", "500", "--out", dir).code).toBe(0);
