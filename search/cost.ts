@@ -4,7 +4,7 @@ import type { Case, Outlet } from "../src/case/model.js";
 import { FOOT } from "../src/units.js";
 import { riserPerimeter } from "../src/hydraulics/riser.js";
 
-/** Default weights per foot (common practice relative effort, invented for ranking, not prices). */
+/** Default weights per foot: invented relative efforts for ranking alternatives, not prices. */
 export const DEFAULT_COSTS_PER_FOOT = {
   /** Each orifice opening cut and fitted with a trash rack. */
   opening: 1.0,

@@ -72,13 +72,19 @@ function perimeterOf(p: SearchProblem, r: NonNullable<SearchProblem["keptRiser"]
   return r.shape === "circular" ? Math.PI * L(r.diameter) : 2 * (L(r.length) + L(r.width));
 }
 
+/**
+ * A riser size takes a set of levels when every level's openings fit its perimeter side by side and
+ * it is wider than the barrel it sits on (common practice).
+ */
+function riserFits(levels: PartOption[], riser: SizeOption, barrel: SizeOption | null): boolean {
+  const widest = Math.max(0, ...levels.map((part) => part.width));
+  return Math.PI * riser.sizeM >= widest && (!barrel || riser.sizeM > barrel.sizeM);
+}
+
 /** Riser sizes for a set of levels: the smallest two whose perimeter takes every level's openings. */
 export function riserChoices(p: SearchProblem, levels: PartOption[], barrel: SizeOption | null): (SizeOption | null)[] {
   if (p.keptRiser || p.riserOptions.length === 0) return [null];
-  const widest = Math.max(0, ...levels.map((part) => part.width));
-  // Common practice: the riser is wider than the barrel it sits on.
-  const fitting = p.riserOptions.filter((r) => Math.PI * r.sizeM >= widest && (!barrel || r.sizeM > barrel.sizeM));
-  return fitting.slice(0, 2);
+  return p.riserOptions.filter((r) => riserFits(levels, r, barrel)).slice(0, 2);
 }
 
 /** Barrel sizes worth fitting: the smallest that can carry the largest target at the freeboard stage, and the next. */
@@ -298,9 +304,7 @@ export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
     return [list[at - 1], list[at + 1]].filter((o): o is T => o !== undefined);
   };
   for (const riser of step(p.riserOptions, layout.riser)) {
-    if (riserChoices(p, layout.levels, layout.barrel).length === 0) continue;
-    const widest = Math.max(0, ...layout.levels.map((part) => part.width));
-    if (Math.PI * riser.sizeM >= widest && (!layout.barrel || riser.sizeM > layout.barrel.sizeM)) out.push({ ...layout, riser });
+    if (riserFits(layout.levels, riser, layout.barrel)) out.push({ ...layout, riser });
   }
   for (const barrel of step(p.barrelOptions, layout.barrel)) {
     if (!layout.riser || layout.riser.sizeM > barrel.sizeM) out.push({ ...layout, barrel });
