@@ -10,11 +10,10 @@ import type { SearchProblem } from "./problem.js";
 import type { Layout } from "./layout.js";
 import { designOutlet } from "./layout.js";
 import { outletCost } from "./cost.js";
+import { changeList, type ChangeList } from "./changes.js";
 
-export interface Candidate {
-  layout: Layout;
-  /** Floating elevations (case units), on the elevation step. */
-  vars: number[];
+/** An outlet routed through the `route` path, assessed and costed (a candidate, or the existing outlet). */
+export interface RoutedOutlet {
   file: OutletFile;
   outlet: Outlet;
   routing: CaseRouting;
@@ -23,13 +22,36 @@ export interface Candidate {
   /** Largest |peak / target - 1| over the storms with targets. */
   error: number;
   description: string;
+}
+
+export interface Candidate extends RoutedOutlet {
+  layout: Layout;
+  /** Floating elevations (case units), on the elevation step. */
+  vars: number[];
+  /** Part by part against the existing outlet, when the case has one (value engineering). */
+  changes: ChangeList | null;
+  /** Rank by the change measure before cost (the fixes of an existing outlet, smallest first). */
+  rankByChange: boolean;
   /** On the non-dominated front of error against cost among compliant candidates. */
   pareto: boolean;
   explanation: string[];
 }
 
 export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number[], file: OutletFile): Candidate {
-  const outlet = designOutlet(p, file);
+  const routed = routeOutlet(p, file, designOutlet(p, file));
+  return {
+    ...routed,
+    layout,
+    vars,
+    changes: p.existing ? changeList(p, p.existing.outlet, routed.outlet) : null,
+    rankByChange: p.limits.rankBy === "change" && p.existing !== null,
+    pareto: false,
+    explanation: [],
+  };
+}
+
+/** Routes an outlet through the `route` path, assesses and costs it. */
+export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet): RoutedOutlet {
   const routing = routeCase(p.case, outlet);
   const assessment = assess(p.case, routing);
   let error = 0;
@@ -37,8 +59,6 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
     if (storm.target) error = Math.max(error, Math.abs(result.peakOutflow / storm.target - 1));
   }
   return {
-    layout,
-    vars,
     file,
     outlet,
     routing,
@@ -46,13 +66,11 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
     cost: outletCost(outlet, p.costs),
     error,
     description: describeOutlet(outlet, formatter(p.case.units)),
-    pareto: false,
-    explanation: [],
   };
 }
 
 /** How far a candidate is from compliance: the sum of its checks' negative slacks. */
-export function shortfall(c: Candidate): number {
+export function shortfall(c: RoutedOutlet): number {
   return c.assessment.checks.reduce((sum, check) => sum + Math.max(0, -check.slack), 0);
 }
 
@@ -61,12 +79,16 @@ export function rankGroup(c: Candidate): number {
   return c.assessment.compliant ? (c.assessment.warnings.length === 0 ? 0 : 1) : 2;
 }
 
-/** Ranking: compliant without warnings, compliant with warnings, then the rest by shortfall; cost, then error. */
+/**
+ * Ranking: compliant without warnings, compliant with warnings, then the rest by shortfall; cost, then
+ * error (or, ranking fixes of an existing outlet, the change measure first).
+ */
 export function compareCandidates(a: Candidate, b: Candidate): number {
   const ga = rankGroup(a);
   const gb = rankGroup(b);
   if (ga !== gb) return ga - gb;
   if (ga === 2) return shortfall(a) - shortfall(b) || a.cost - b.cost;
+  if (a.rankByChange && a.changes && b.changes) return a.changes.score - b.changes.score || a.cost - b.cost || a.error - b.error;
   return a.cost - b.cost || a.error - b.error;
 }
 

@@ -3,7 +3,7 @@ import { appendFileSync, existsSync, mkdirSync, readFileSync, statSync } from "n
 import { join } from "node:path";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
 import { writeFileAtomic } from "../src/io.js";
-import { buildProblem } from "./problem.js";
+import { buildProblem, type DesignLimits } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
@@ -20,13 +20,28 @@ export interface DesignCommandOptions {
   out?: string;
   resume?: boolean;
   progress?: boolean;
+  vary?: string;
+  keepRiser?: boolean;
+  keepBarrel?: boolean;
+  rank?: string;
+}
+
+/** The value-engineering options: what may change in the existing outlet, and the ranking. */
+export function designLimits(options: DesignCommandOptions): DesignLimits {
+  const vary = options.vary ?? "all";
+  if (vary !== "all" && vary !== "openings" && vary !== "elevations") throw new UsageError("--vary", vary, '"all", "openings" or "elevations"');
+  const rankBy = options.rank ?? "cost";
+  if (rankBy !== "cost" && rankBy !== "change") throw new UsageError("--rank", rankBy, '"cost" or "change"');
+  return { vary, keepRiser: options.keepRiser === true, keepBarrel: options.keepBarrel === true, rankBy };
 }
 
 export function designCommand(path: string, options: DesignCommandOptions): number {
   const loaded = load(path);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);
-  const problem = buildProblem(c, loaded.data, { margin: margin === undefined ? undefined : margin / 100 });
+  const limits = designLimits(options);
+  const problem = buildProblem(c, loaded.data, { margin: margin === undefined ? undefined : margin / 100 }, limits);
+  if (limits.rankBy === "change" && !problem.existing) throw new UsageError("--rank", "change", "a case with an existing outlet (openings or a riser) to measure changes against");
   const top = Math.round(positiveNumber("--top", options.top) ?? 5);
   const seed = options.seed ?? "outfit";
   const budget = Math.round(positiveNumber("--budget", options.budget) ?? 20000);
@@ -34,7 +49,7 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
     throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
   }
   const journalPath = options.out ? join(options.out, "journal.jsonl") : undefined;
-  const signature = createHash("sha256").update(JSON.stringify({ json: loaded.json, seed, margin: problem.options.margin })).digest("hex").slice(0, 16);
+  const signature = createHash("sha256").update(JSON.stringify({ json: loaded.json, seed, margin: problem.options.margin, ...(limits.vary !== "all" || limits.keepRiser || limits.keepBarrel || limits.rankBy !== "cost" ? { limits } : {}) })).digest("hex").slice(0, 16);
   const done = new Map<string, JournalEntry>();
   if (options.resume) {
     if (!journalPath) throw new UsageError("--resume", "without --out", "--out DIR naming the directory of the run to resume");

@@ -8,7 +8,9 @@ import { baseLength } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
 import { designOutlet, designOutletFile, variableNames, partWords } from "./layout.js";
-import { finalizeCandidate, type Candidate } from "./candidate.js";
+import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
+import type { ElementFile, OutletFile } from "../src/case/schema.js";
+import { describeElement } from "../src/report/describe.js";
 import { snap, variableBounds } from "./fit.js";
 import type { LayoutPlan } from "./layouts.js";
 
@@ -36,34 +38,92 @@ function change(p: SearchProblem, before: Check, after: Check): string {
   return `${after.value >= before.value ? "+" : ""}${((after.value - before.value) / L).toFixed(2)} ${p.case.units === "US" ? "ft" : "m"}`;
 }
 
+/** A floating elevation of an outlet (case units) and the outlet routed again with it moved. */
+interface Movable {
+  name: string;
+  value: number;
+  min: number;
+  max: number;
+  moved(value: number): RoutedOutlet;
+}
+
 /** Fills `explanation` of a candidate: binding check, and the single-step moves that relax it. */
 export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
+  const names = variableNames(p, c.layout);
+  const { min, max } = variableBounds(p, c.layout);
+  return explainMoves(p, c, c.vars.map((value, i) => ({
+    name: names[i],
+    value,
+    min: min[i],
+    max: max[i],
+    moved: (x) => {
+      const vars = [...c.vars];
+      vars[i] = x;
+      return finalizeCandidate(p, c.layout, vars, designOutletFile(p, c.layout, vars));
+    },
+  })));
+}
+
+/** The existing outlet's explanation: its binding check and the single-step moves of its parts that relax it. */
+export function explainExisting(p: SearchProblem, existing: RoutedOutlet): string[] {
+  const L = baseLength(p.case.units);
+  const f = formatter(p.case.units);
+  const file = existing.file;
+  const movables: Movable[] = [];
+  const routedWith = (changed: OutletFile) => routeOutlet(p, changed, designOutlet(p, changed));
+  (file.elements ?? []).forEach((e, i) => {
+    if (e.keep) return;
+    const value = p.converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements") / L;
+    movables.push({
+      name: describeElement(existing.outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
+      value,
+      min: p.floor / L,
+      max: p.ceiling / L,
+      moved: (x) => {
+        const elements = [...(file.elements ?? [])];
+        elements[i] = (e.type === "weir" ? { ...e, crest: x } : { ...e, invert: x }) as ElementFile;
+        return routedWith({ ...file, elements });
+      },
+    });
+  });
+  const riser = file.riser;
+  if (riser && !riser.keep) {
+    movables.push({
+      name: "riser rim",
+      value: p.converter.length(riser.crest, "outlet.riser.crest") / L,
+      min: p.floor / L + p.step,
+      max: p.case.pond.top / L,
+      moved: (x) => routedWith({ ...file, riser: { ...riser, crest: x } }),
+    });
+  }
+  return explainMoves(p, existing, movables);
+}
+
+function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): string[] {
   const lines: string[] = [];
   const binding = c.assessment.binding;
   if (!binding) return ["no checks apply"];
   const failing = c.assessment.checks.filter((check) => !check.passed);
   lines.push(`binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`);
   lines.push(`why: ${bindingReason(binding)}`);
-  const names = variableNames(p, c.layout);
-  const { min, max } = variableBounds(p, c.layout);
   const unit = p.case.units === "US" ? "ft" : "m";
   const moves: { text: string; gain: number; breaks: boolean }[] = [];
-  for (let i = 0; i < c.vars.length; i++) {
+  for (const m of movables) {
     for (const direction of [-1, 1]) {
-      const vars = [...c.vars];
-      vars[i] = snap(p, vars[i] + direction * p.step);
-      if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
-      const moved = finalizeCandidate(p, c.layout, vars, designOutletFile(p, c.layout, vars));
+      const to = snap(p, m.value + direction * p.step);
+      if (to < m.min - 1e-9 || to > m.max + 1e-9) continue;
+      const moved = m.moved(to);
       const after = moved.assessment.checks.find((check) => check.name === binding.name)!;
       const gain = after.slack - binding.slack;
       if (gain <= 1e-6) continue;
       const next = moved.assessment.binding!;
       const breaks = c.assessment.compliant && !moved.assessment.compliant;
       const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.name !== binding.name ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
+      const by = Number(Math.abs(to - m.value).toFixed(6));
       moves.push({
         gain,
         breaks,
-        text: `${direction > 0 ? "raise" : "lower"} ${names[i]} by ${p.step} ${unit} to ${formatter(p.case.units).elevation(vars[i] * baseLength(p.case.units))}: ${binding.name.replace(/ within .*| freeboard| spillway dry| drawdown| no overtopping/, "")} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
+        text: `${direction > 0 ? "raise" : "lower"} ${m.name} by ${by} ${unit} to ${formatter(p.case.units).elevation(to * baseLength(p.case.units))}: ${binding.name.replace(/ within .*| freeboard| spillway dry| drawdown| no overtopping/, "")} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
       });
     }
   }

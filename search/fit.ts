@@ -7,7 +7,7 @@ import seedrandom from "seedrandom";
 import { baseLength } from "../src/units.js";
 import type { Storm } from "../src/case/model.js";
 import { aimBand, type SearchProblem } from "./problem.js";
-import { designOutlet, designOutletFile, elevations, firstLevelFixed, variableCount, type Layout } from "./layout.js";
+import { designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
 import type { Evaluation, Evaluator } from "./evaluate.js";
 
 export interface FitOptions {
@@ -33,7 +33,7 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
   const max: number[] = [];
   const n = variableCount(p, l) - (l.riser ? 1 : 0);
   for (let i = 0; i < n; i++) {
-    min.push(p.floor / L + (p.floorTaken ? 0 : p.step));
+    min.push(p.floor / L + (p.lowestFloats ? 0 : p.step));
     max.push(p.ceiling / L);
   }
   if (l.riser) {
@@ -65,7 +65,8 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
 
   /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
   const place = (index: number, storm: Storm | undefined, low: number) => {
-    let stage = p.floor / L + p.step;
+    // A floating lowest level starts just above a kept element at the floor, or at a held pool.
+    let stage = p.poolHeldByTailwater ? p.case.pond.pool / L + (p.floorTaken ? p.step : 0) : p.floor / L + p.step;
     let peak = Infinity;
     if (storm) {
       vars[index] = high;
@@ -172,10 +173,13 @@ export function fitLayout(p: SearchProblem, l: Layout, evaluator: Evaluator, opt
   const { min, max } = variableBounds(p, l);
   const rng = seedrandom(options.seed);
   const start = stagedStart(p, l, evaluator);
+  // The existing layout also starts from its own elevations (value engineering: the smallest moves).
+  const own = p.existing && p.existing.vars.length === n && layoutKey(l) === layoutKey(p.existing.layout) ? [p.existing.vars.map((x, i) => clamp(x, min[i], max[i]))] : [];
+  const firsts = [...own, start];
   const designs: Evaluation[] = [];
   const seen = new Set<string>();
-  for (let s = 0; s < options.starts; s++) {
-    const initial = s === 0 ? start : start.map((x, i) => clamp(x + (rng() - 0.5) * 0.3 * (max[i] - min[i]), min[i], max[i]));
+  for (let s = 0; s < options.starts + own.length; s++) {
+    const initial = s < firsts.length ? firsts[s] : start.map((x, i) => clamp(x + (rng() - 0.5) * 0.3 * (max[i] - min[i]), min[i], max[i]));
     const fitted = levenbergFit(p, l, evaluator, initial, min, max, options.iterations);
     const snapped = evaluator.evaluate(l, fitted.map((x) => snap(p, x)));
     // Far from every aim after a full fit: polishing and further starts would not rescue it.

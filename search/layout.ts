@@ -22,9 +22,12 @@ export function layoutKey(l: Layout): string {
   return [...l.levels.map((p) => p.key), `riser ${l.riser ? String(l.riser.size) : "-"}`, `barrel ${l.barrel ? String(l.barrel.size) : "-"}`].join(" | ");
 }
 
-/** Whether the first designed level is fixed at the floor (a dry pond must drain through it). */
+/**
+ * Whether the first designed level is fixed at the floor or pool (a dry pond must drain through it,
+ * and a wet pond's pool is held by it unless a tailwater holds the pool).
+ */
 export function firstLevelFixed(p: SearchProblem, l: Layout): boolean {
-  return l.levels.length > 0 && !p.floorTaken;
+  return l.levels.length > 0 && !p.lowestFloats;
 }
 
 /** Number of floating elevations: the free levels, then the rim when the riser is designed. */
@@ -81,6 +84,7 @@ export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly num
   const kept: ElementFile[] = p.keptElements.map((e) => ({ ...e, coefficient: e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d) } as ElementFile));
   const designed: ElementFile[] = l.levels.map((part, i) => {
     const at = i === 0 && firstLevelFixed(p, l) ? floorValue(p) : z.levels[i];
+    if (part.template) return movedTemplate(part.template, at, d);
     switch (part.kind) {
       case "orifice":
         return { type: "orifice", shape: "circular", diameter: part.size!, count: part.count, invert: at, coefficient: d.orifice };
@@ -96,6 +100,12 @@ export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly num
   if (p.barrel && !plain) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
   if (p.spillway) file.spillway = { ...p.spillway, coefficient: p.spillway.coefficient ?? d.spillway };
   return file;
+}
+
+/** A part of the existing outlet at another elevation, its coefficient written out. */
+function movedTemplate(e: ElementFile, at: number | string, d: ReturnType<typeof defaultCoefficients>): ElementFile {
+  const coefficient = e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d);
+  return stripUndefined((e.type === "weir" ? { ...e, crest: at, coefficient } : { ...e, invert: at, coefficient }) as ElementFile);
 }
 
 function keptDefault(e: ElementFile, d: ReturnType<typeof defaultCoefficients>): number | undefined {

@@ -108,6 +108,10 @@ export function barrelCapacity(p: SearchProblem, size: SizeOption): number {
  * the catalogue allows (and no more than the storms to hold, plus the rim). Sorted best first.
  */
 export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number): LayoutPlan {
+  if (p.fixedLayout) {
+    const layout = p.fixedLayout;
+    return { layouts: [{ layout, ...existingScore(p, layout, evaluator) }], pruned: [], viableFirst: 1, firstOptions: layout.levels.slice(0, 1) };
+  }
   const storms = p.targeted;
   const barrels = barrelChoices(p);
   const stagingBarrel = barrels[0];
@@ -128,7 +132,7 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
       const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
       const result = evaluator.routeStorms(outlet, [first])[0].result;
       let peak = result.peakOutflow;
-      if (!p.floorTaken && peak > first.target! * (1 + p.case.criteria.over)) {
+      if (!p.lowestFloats && peak > first.target! * (1 + p.case.criteria.over)) {
         // The bound holds with the most restrictive barrel: confirm with it before pruning.
         if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
         if (peak > first.target! * (1 + p.case.criteria.over)) {
@@ -186,6 +190,17 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
     return levels.reduce((sum, part) => sum + part.count * (1 + part.sizeM), 0);
   }
 
+  // Value engineering: the existing layout (scored at its own elevations) and the layouts one step
+  // from it are planned too, so that the smallest fixes and savings are among the layouts fitted.
+  if (p.existing) {
+    const existing = p.existing.layout;
+    const key = layoutKey(existing);
+    if (!results.has(key)) results.set(key, { layout: existing, ...existingScore(p, existing, evaluator) });
+    for (const layout of neighbourLayouts(p, existing)) {
+      const k = layoutKey(layout);
+      if (!results.has(k)) results.set(k, { layout, ...stagedScore(p, layout, evaluator) });
+    }
+  }
   const layouts = [...results.values()].sort((a, b) => a.score - b.score);
   return { layouts, pruned, viableFirst, firstOptions };
 }
@@ -198,13 +213,13 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
 export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Evaluator, rng: () => number, count: number, bar: number): ScoredLayout[] {
   const out: ScoredLayout[] = [];
   const maxLevels = Math.min(p.maxLevels, p.targeted.length);
-  if (maxLevels === 0 || plan.firstOptions.length === 0) return out;
+  if (maxLevels === 0 || plan.firstOptions.length === 0 || p.fixedLayout) return out;
   const pick = <T>(list: T[]): T => list[Math.floor(rng() * list.length)];
   const options = p.parts.filter((part) => fitsSomeRiser(p, part));
   const barrels = barrelChoices(p);
   for (let i = 0; i < count; i++) {
     const n = 1 + Math.floor(rng() * maxLevels);
-    const levels = [p.floorTaken ? pick(options) : pick(plan.firstOptions)];
+    const levels = [p.lowestFloats ? pick(options) : pick(plan.firstOptions)];
     while (levels.length < n) levels.push(pick(options));
     const barrel = pick(barrels);
     const risers = riserChoices(p, levels, barrel);
@@ -214,6 +229,13 @@ export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Eva
     out.push({ layout, ...stagedScore(p, layout, evaluator) });
   }
   return out;
+}
+
+/** Score and cost of the existing layout at its own elevations. */
+function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
+  const vars = p.existing && p.existing.vars.length === variableCount(p, layout) ? p.existing.vars : stagedStart(p, layout, evaluator, true);
+  const e = evaluator.evaluate(layout, vars);
+  return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
 }
 
 /** Score of a full layout (the fit's own objective, every check, at the staged start) and its cost. */
@@ -290,6 +312,7 @@ function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
  */
 export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
   const out: Layout[] = [];
+  if (p.fixedLayout) return out;
   layout.levels.forEach((part, i) => {
     for (const other of partNeighbours(p, part)) {
       const levels = [...layout.levels];

@@ -1,7 +1,10 @@
 // What the search works on: the case, the catalogue's part options, the fixed parts, the elevation
 // limits, the stage grid shared by every candidate and the target aims.
-import type { Case, Storm } from "../src/case/model.js";
-import type { BarrelFile, CaseFile, ElementFile, Length, RiserFile, SpillwayFile } from "../src/case/schema.js";
+import type { Case, Outlet, Storm } from "../src/case/model.js";
+import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
+import type { Layout } from "./layout.js";
+import { normalizeOutlet } from "../src/case/normalize.js";
+import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { CaseError } from "../src/case/errors.js";
 import { Converter } from "../src/case/normalize.js";
 import { baseLength, parseLength } from "../src/units.js";
@@ -22,6 +25,8 @@ export interface PartOption {
   height: number;
   /** Wall width the part takes (m); a v-notch's at one foot of head. */
   width: number;
+  /** A part of the existing outlet outside the catalogue's form: written as this element, moved. */
+  template?: ElementFile;
 }
 
 export interface SizeOption {
@@ -34,6 +39,31 @@ export interface SearchOptions {
   margin: number;
 }
 
+/** What value engineering may change in the existing outlet, and how its alternatives are ranked. */
+export interface DesignLimits {
+  /**
+   * "all": everything the catalogue allows; "openings": only the orifices and weirs (the riser and
+   * barrel stay as they are); "elevations": every part keeps its size, only inverts, crests and the
+   * rim move.
+   */
+  vary: "all" | "openings" | "elevations";
+  keepRiser: boolean;
+  keepBarrel: boolean;
+  /** "cost": cheapest compliant first; "change": smallest change to the existing outlet first. */
+  rankBy: "cost" | "change";
+}
+
+export const DEFAULT_LIMITS: DesignLimits = { vary: "all", keepRiser: false, keepBarrel: false, rankBy: "cost" };
+
+/** The case's own outlet, the baseline of value engineering. */
+export interface ExistingOutlet {
+  file: OutletFile;
+  outlet: Outlet;
+  /** The existing outlet as a layout whose elevations the search may refit, with those elevations. */
+  layout: Layout;
+  vars: number[];
+}
+
 export interface SearchProblem {
   case: Case;
   file: CaseFile;
@@ -41,8 +71,15 @@ export interface SearchProblem {
   /** elevationStep in case units and in m. */
   step: number;
   stepM: number;
-  /** Lowest opening elevation: the permanent pool or the floor (m). */
+  /**
+   * Lowest opening elevation (m): the permanent pool, or the pond floor when a constant tailwater at
+   * or above the pool holds it (openings below the pool are then drowned, not a drain).
+   */
   floor: number;
+  /** A constant tailwater at or above the permanent pool holds the pool of this wet pond. */
+  poolHeldByTailwater: boolean;
+  /** The lowest designed opening may float (a kept element holds the floor, or the tailwater holds the pool). */
+  lowestFloats: boolean;
   /** Highest elevation of any designed invert or crest: top less freeboard (m). */
   ceiling: number;
   /** Storms with a target, by return period. */
@@ -61,12 +98,17 @@ export interface SearchProblem {
   spillway?: SpillwayFile;
   parts: PartOption[];
   maxLevels: number;
+  /** The case's outlet (value engineering), or null. */
+  existing: ExistingOutlet | null;
+  /** With `limits.vary` "elevations": the one layout the search fits. */
+  fixedLayout: Layout | null;
+  limits: DesignLimits;
   grid: StageGrid;
   costs: CostWeights;
   options: SearchOptions;
 }
 
-export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOptions> = {}): SearchProblem {
+export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOptions> = {}, limits: DesignLimits = DEFAULT_LIMITS): SearchProblem {
   const label = c.file ? c.file.split(/[\\/]/).pop()! : "case";
   if (!c.catalogue || !file.catalogue) {
     throw new CaseError([{ where: `${label}: catalogue`, found: "nothing (the field is missing)", expected: "a catalogue of parts the search may use (orifice, weir, riser, barrel sizes)" }]);
@@ -76,9 +118,18 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
   const converter = new Converter(c.units, label);
   const L = baseLength(c.units);
   const outlet = file.outlet ?? {};
-  const keptElements = (outlet.elements ?? []).filter((e) => e.keep);
+  // An outlet with openings or a riser is an existing design (the baseline of value engineering);
+  // one with only a barrel or spillway is site data.
+  const hasExisting = (outlet.elements?.length ?? 0) > 0 || outlet.riser !== undefined;
+  if (limits.vary !== "all" && !hasExisting) {
+    throw new CaseError([{ where: `${label}: outlet`, found: file.outlet ? "no elements and no riser" : "nothing (the field is missing)", expected: `an existing outlet whose ${limits.vary === "openings" ? "openings" : "elevations"} the search may change (--vary ${limits.vary})` }]);
+  }
+  // Parts of the existing outlet the catalogue's form cannot express (rectangular orifices,
+  // regulators) stay as they are, like kept parts.
+  const keptElements = (outlet.elements ?? []).filter((e) => e.keep || e.type === "regulator" || (e.type === "orifice" && e.shape === "rectangular"));
   const keptElevations = keptElements.map((e) => converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements"));
-  const floor = c.pond.pool;
+  const poolHeldByTailwater = c.pond.pool > c.pond.bottom && c.tailwater.kind === "elevation" && c.tailwater.elevation >= c.pond.pool - 1e-9;
+  const floor = poolHeldByTailwater ? c.pond.bottom : c.pond.pool;
   const ceiling = c.pond.top - c.criteria.freeboardDepth;
   const stepM = cat.elevationStep;
   const targeted = c.storms.filter((s) => s.target !== null).sort((a, b) => a.returnPeriod - b.returnPeriod);
@@ -107,12 +158,13 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     throw new CaseError([{ where: `${label}: catalogue`, found: "no orifice diameters or weir sizes", expected: "at least one orifice diameter or weir size" }]);
   }
 
-  const riserOptions = outlet.riser?.keep ? [] : sizes(catFile.riser?.diameters, c);
-  if (!outlet.riser?.keep && riserOptions.length === 0 && outlet.riser?.shape === "circular") {
-    riserOptions.push({ size: outlet.riser.diameter, sizeM: converter.length(outlet.riser.diameter, "outlet.riser.diameter") });
-  }
+  const riserHeld = limits.keepRiser || limits.vary === "openings";
+  const riserKept = outlet.riser?.keep === true || (riserHeld && outlet.riser !== undefined) || (limits.vary === "elevations" && outlet.riser?.shape === "box");
+  const existingRiser = outlet.riser?.shape === "circular" ? [{ size: outlet.riser.diameter, sizeM: converter.length(outlet.riser.diameter, "outlet.riser.diameter") }] : [];
+  let riserOptions = riserKept || riserHeld ? [] : limits.vary === "elevations" ? existingRiser : sizes(catFile.riser?.diameters, c);
+  if (!riserKept && !riserHeld && riserOptions.length === 0) riserOptions = existingRiser;
   const barrel = outlet.barrel;
-  const barrelKept = barrel?.keep === true || (barrel !== undefined && barrel.shape === "box");
+  const barrelKept = barrel?.keep === true || (barrel !== undefined && barrel.shape === "box") || limits.keepBarrel || limits.vary !== "all";
   let barrelOptions: SizeOption[] = [];
   if (barrel && !barrelKept) {
     barrelOptions = sizes(catFile.barrel?.diameters, c);
@@ -124,19 +176,21 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
   // A grid on the elevation lattice: inverts and crests snapped to the step fall on its nodes.
   const gridStep = Math.min(stepM / 2, depth / 200);
   const gridStepOnLattice = stepM / Math.ceil(stepM / gridStep);
-  return {
+  const problem: SearchProblem = {
     case: c,
     file,
     converter,
     step: stepM / L,
     stepM,
     floor,
+    poolHeldByTailwater,
+    lowestFloats: false,
     ceiling,
     targeted,
     keptElements,
     keptElevations,
     floorTaken: keptElevations.some((z) => Math.abs(z - floor) < 1e-9),
-    keptRiser: outlet.riser?.keep ? outlet.riser : undefined,
+    keptRiser: riserKept ? outlet.riser : undefined,
     riserOptions,
     barrel,
     barrelKept,
@@ -147,7 +201,60 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     grid: stageGrid(c.pond, [], gridStepOnLattice),
     costs: costWeights(c),
     options: { margin: options.margin ?? 0.02 },
+    existing: null,
+    fixedLayout: null,
+    limits,
   };
+  problem.lowestFloats = problem.floorTaken || poolHeldByTailwater;
+  if (file.outlet && hasExisting) {
+    problem.existing = existingOutlet(problem, file.outlet, label);
+    if (limits.vary === "elevations") {
+      problem.fixedLayout = problem.existing.layout;
+      problem.parts = problem.existing.layout.levels;
+    }
+  }
+  return problem;
+}
+
+/**
+ * The case's outlet as the search sees it: its designed parts (catalogue options where a part is
+ * one, else the part itself as a template) bottom up, its riser and barrel sizes, their elevations.
+ */
+function existingOutlet(p: SearchProblem, file: OutletFile, label: string): ExistingOutlet {
+  const converter = new Converter(p.case.units, label);
+  const outlet = normalizeOutlet(file, converter, "outlet");
+  const L = baseLength(p.case.units);
+  const d = defaultCoefficients(p.case.units);
+  const designed = (file.elements ?? []).filter((e) => !p.keptElements.includes(e));
+  const at = (e: ElementFile) => converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements");
+  designed.sort((a, b) => at(a) - at(b));
+  const levels = designed.map((e): PartOption => {
+    const sizeM = e.type === "orifice" && e.shape === "circular" ? converter.length(e.diameter, "outlet.elements") : e.type === "weir" && e.shape === "rectangular" ? converter.length(e.length, "outlet.elements") : 0;
+    const inCatalogue = p.parts.find((o) => {
+      if (e.type === "orifice" && e.shape === "circular") return o.kind === "orifice" && Math.abs(o.sizeM - sizeM) < 1e-9 && o.count === (e.count ?? 1) && (e.coefficient ?? d.orifice) === d.orifice;
+      if (e.type === "weir" && e.shape === "rectangular") return o.kind === "rectangular" && Math.abs(o.sizeM - sizeM) < 1e-9 && (e.endContractions ?? 0) === 2 && (e.coefficient ?? d.rectangularWeir) === d.rectangularWeir;
+      if (e.type === "weir" && e.shape === "v-notch") return o.kind === "v-notch" && o.angle === e.angle && (e.coefficient ?? d.vNotchWeir) === d.vNotchWeir;
+      return false;
+    });
+    if (inCatalogue) return inCatalogue;
+    const template = Object.fromEntries(Object.entries(e).filter(([k]) => k !== "keep")) as ElementFile;
+    if (e.type === "orifice" && e.shape === "circular") {
+      const count = e.count ?? 1;
+      return { key: `existing orifice ${count} x ${show(e.diameter)} Cd ${e.coefficient ?? d.orifice}`, kind: "orifice", count, size: e.diameter, sizeM, angle: 0, height: sizeM, width: count * sizeM, template };
+    }
+    if (e.type === "weir" && e.shape === "rectangular") {
+      return { key: `existing weir ${show(e.length)} n ${e.endContractions ?? 0} C ${e.coefficient ?? d.rectangularWeir}`, kind: "rectangular", count: 1, size: e.length, sizeM, angle: 0, height: 0, width: sizeM, template };
+    }
+    const angle = e.type === "weir" && e.shape === "v-notch" ? e.angle : 90;
+    return { key: `existing v-notch ${angle} C ${e.type === "weir" ? e.coefficient ?? d.vNotchWeir : ""}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle, height: 0, width: 2 * 0.3048 * Math.tan((angle * Math.PI) / 360), template };
+  });
+  const riser = !p.keptRiser && file.riser?.shape === "circular" ? { size: file.riser.diameter, sizeM: converter.length(file.riser.diameter, "outlet.riser.diameter") } : null;
+  const barrel = !p.barrelKept && file.barrel?.shape === "circular" ? { size: file.barrel.diameter, sizeM: converter.length(file.barrel.diameter, "outlet.barrel.diameter") } : null;
+  const layout: Layout = { levels, riser, barrel };
+  // The existing elevations of the variables: the levels that float, then the rim.
+  const vars = designed.map((e) => at(e) / L).filter((_, i) => i > 0 || p.lowestFloats);
+  if (riser && file.riser) vars.push(converter.length(file.riser.crest, "outlet.riser.crest") / L);
+  return { file, outlet, layout, vars };
 }
 
 function sizes(values: Length[] | undefined, c: Case): SizeOption[] {

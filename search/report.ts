@@ -3,20 +3,22 @@
 import { relative, resolve, dirname, isAbsolute } from "node:path";
 import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
-import type { Candidate } from "./candidate.js";
+import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
 import { plainTable, percent, checkValue } from "../src/report/console.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
+import { baselineVerdict, describeSaving, saving, type Baseline } from "./baseline.js";
+import { CHANGE_WEIGHTS } from "./changes.js";
 
 export function candidateCaseName(rank: number): string {
   return `candidate-${String(rank).padStart(2, "0")}.json`;
 }
 
-export function candidateJson(p: SearchProblem, c: Candidate, rank: number) {
+/** An outlet routed and explained (a candidate or the existing outlet) in the contract's JSON. */
+function routedJson(p: SearchProblem, c: RoutedOutlet, explanation: string[]) {
   const binding = c.assessment.binding;
   return {
-    rank,
     description: c.description,
     outlet: c.file,
     storms: c.routing.storms.map((s) => stormJson(p.case, s)),
@@ -25,10 +27,31 @@ export function candidateJson(p: SearchProblem, c: Candidate, rank: number) {
     compliant: c.assessment.compliant,
     cost: c.cost,
     error: c.error,
+    binding: binding ? { ...checkJson(p.case, binding), why: explanation[1]?.replace(/^why: /, "") ?? "" } : null,
+    explanation,
+  };
+}
+
+export function candidateJson(p: SearchProblem, c: Candidate, rank: number, baseline: Baseline | null = null) {
+  const saved = baseline ? saving(baseline, c) : null;
+  return {
+    rank,
+    ...routedJson(p, c, c.explanation),
     pareto: c.pareto,
-    binding: binding ? { ...checkJson(p.case, binding), why: c.explanation[1]?.replace(/^why: /, "") ?? "" } : null,
-    explanation: c.explanation,
     caseFile: candidateCaseName(rank),
+    ...(baseline && c.changes
+      ? { saving: { cost: saved!.cost, percent: saved!.fraction === null ? null : 100 * saved!.fraction }, changes: c.changes.changes, changeScore: c.changes.score }
+      : {}),
+  };
+}
+
+/** The existing outlet in the JSON: its outlet as given, results, checks, cost and binding check. */
+export function baselineJson(p: SearchProblem, b: Baseline, run: SearchRun) {
+  return {
+    ...routedJson(p, b, b.explanation),
+    verdict: baselineVerdict(b, run.candidates, run.stoppedBecause),
+    rankedBy: p.limits.rankBy,
+    limits: { vary: p.limits.vary, keepRiser: p.limits.keepRiser, keepBarrel: p.limits.keepBarrel },
   };
 }
 
@@ -57,7 +80,8 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       margin: p.options.margin,
     },
     infeasible: run.infeasible,
-    candidates: run.candidates.slice(0, top).map((c, i) => candidateJson(p, c, i + 1)),
+    ...(run.baseline ? { baseline: baselineJson(p, run.baseline, run) } : {}),
+    candidates: run.candidates.slice(0, top).map((c, i) => candidateJson(p, c, i + 1, run.baseline)),
   };
 }
 
@@ -81,15 +105,16 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;
   const table = plainTable(
-    ["#", "Outlet", ...stormNames.map((n) => `${n} out/target`), `Max stage (${freeboardStorm})`, "Freeboard left", "Cost", "Binding check", "Status"],
-    [true, false, ...stormNames.map(() => true), true, true, true, false, false],
+    ["#", "Outlet", ...stormNames.map((n) => `${n} out/target`), `Max stage (${freeboardStorm})`, "Freeboard left", "Cost", ...(run.baseline ? ["Saving"] : []), "Binding check", "Status"],
+    [true, false, ...stormNames.map(() => true), true, true, true, ...(run.baseline ? [true] : []), false, false],
   );
-  shown.forEach((c, i) => {
+  const baseline = run.baseline;
+  const row = (c: RoutedOutlet, label: string, pareto: boolean) => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
     const status = c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant";
     table.push([
-      String(i + 1),
+      label,
       wrap(c.description, 58),
       ...stormNames.map((n) => {
         const s = storms.get(n)!;
@@ -97,14 +122,36 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
       }),
       fb ? f.elevation(fb.result.maxStage) : "-",
       fb ? f.length(p.case.pond.top - fb.result.maxStage) : "-",
-      `${c.cost.toFixed(1)} units${c.pareto ? " *" : ""}`,
+      `${c.cost.toFixed(1)} units${pareto ? " *" : ""}`,
+      ...(baseline ? [label === "0" ? "-" : savingCell(saving(baseline, c))] : []),
       c.assessment.binding ? `${c.assessment.binding.name} (${percent(c.assessment.binding.slack)})` : "-",
       status,
     ]);
-  });
+  };
+  if (baseline) row(baseline, "0", false);
+  shown.forEach((c, i) => row(c, String(i + 1), c.pareto));
   lines.push(table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  if (baseline) {
+    lines.push(
+      `Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.`,
+      "",
+      `Existing outlet: ${baseline.description}`,
+    );
+    for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
+    for (const w of baseline.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
+    for (const line of baseline.explanation) lines.push(`  ${line}`);
+    lines.push(`  ${baselineVerdict(baseline, run.candidates, run.stoppedBecause)}`);
+    if (p.limits.rankBy === "change") {
+      lines.push(`  Ranked by the change measure, smallest first: ${CHANGE_WEIGHTS.addedOrRemoved} per part added or removed, ${CHANGE_WEIGHTS.resized} per part resized, ${CHANGE_WEIGHTS.moved} per part moved, plus ${CHANGE_WEIGHTS.distance} x the total move / pond depth.`);
+    }
+  }
   shown.forEach((c, i) => {
     lines.push("", `Candidate ${i + 1}: ${c.description}`);
+    if (baseline && c.changes) {
+      lines.push(`  against the existing outlet: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`);
+      if (c.changes.changes.length === 0) lines.push("  change: none (the existing outlet itself)");
+      for (const change of c.changes.changes) lines.push(`  change: ${change.text}`);
+    }
     for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
     for (const w of c.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
     for (const line of c.explanation) lines.push(`  ${line}`);
@@ -124,6 +171,11 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
     `Caution: ${CAUTION}`,
   );
   return lines.join("\n");
+}
+
+/** "2.4 units (12.0 %)", negative when the alternative costs more. */
+function savingCell(s: ReturnType<typeof saving>): string {
+  return `${s.cost.toFixed(1)} units${s.fraction === null ? "" : ` (${(100 * s.fraction).toFixed(1)} %)`}`;
 }
 
 function wrap(text: string, width: number): string {

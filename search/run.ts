@@ -11,6 +11,7 @@ import { fitLayout } from "./fit.js";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { compareCandidates, finalizeCandidate, markPareto, rankGroup, type Candidate } from "./candidate.js";
 import { explainCandidate, explainInfeasible } from "./explain.js";
+import { assessBaseline, type Baseline } from "./baseline.js";
 
 export interface RunOptions {
   seed: string;
@@ -67,6 +68,8 @@ export interface SearchRun {
   plan: LayoutPlan;
   /** When nothing is compliant: why, in engineering terms. */
   infeasible: string[];
+  /** The case's own outlet routed and assessed (value engineering), or null. */
+  baseline: Baseline | null;
 }
 
 const MAX_BEAM = 64;
@@ -105,6 +108,7 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const evaluator = new Evaluator(p);
+  const baseline = assessBaseline(p);
   // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
   // designs already routed are remembered by a short hash of their outlet.
   const candidates = new Map<string, Candidate>();
@@ -154,6 +158,8 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       .filter((c) => c.assessment.compliant && c.assessment.warnings.length === 0)
       .map((c) => c.cost)
       .sort((a, b) => a - b);
+    // Ranked by change, a costlier layout may still be a smaller change: nothing is bounded out.
+    if (p.limits.rankBy === "change") return Infinity;
     return costs.length >= options.top ? costs[options.top - 1] : Infinity;
   };
   let skipped = 0;
@@ -174,10 +180,15 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       planned++;
     }
   };
+  const existingKey = p.existing ? layoutKey(p.existing.layout) : null;
   const take = (): Entry | undefined => {
     if (queue.length === 0) return undefined;
+    // Value engineering: the existing layout goes first (refitting its elevations is the smallest fix).
+    const own = existingKey === null ? -1 : queue.findIndex((e) => layoutKey(e.layout) === existingKey);
+    if (own >= 0) return queue.splice(own, 1)[0];
     let best = 0;
-    const byCost = firstCompliantAt !== null;
+    // Ranked by change, the most promising layouts (the plan holds the existing one's neighbours) go first throughout.
+    const byCost = firstCompliantAt !== null && p.limits.rankBy !== "change";
     for (let i = 1; i < queue.length; i++) {
       const a = queue[i];
       const b = queue[best];
@@ -189,6 +200,10 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
   while (true) {
     const entry = take();
     if (!entry) {
+      if (p.fixedLayout) {
+        stoppedBecause = "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
+        break;
+      }
       if (beam >= SAMPLING_BEAM && firstCompliantAt !== null) {
         // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
         if (evaluator.routings >= options.budget) {
@@ -286,5 +301,6 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
     beam,
     plan: firstPlan,
     infeasible: success ? [] : explainInfeasible(p, firstPlan, reported),
+    baseline,
   };
 }

@@ -103,15 +103,24 @@ program
   .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
   .option("--resume", "with --out: skip the layouts the directory's journal already holds")
   .option("--progress", "show progress on the terminal")
+  .option("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all")
+  .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
+  .option("--keep-barrel", "keep the existing barrel as it is")
+  .option("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost")
   .addHelpText(
     "after",
     `
+With an outlet in the case, design first routes and assesses it as row 0 (the baseline) and gives
+each alternative its saving (cost proxy) and part-by-part changes against it.
+
 Examples:
   outfit design cases/demo/case.json
   outfit design cases/demo/case.json --top 3 --out out/demo
   outfit route out/demo/candidate-01.json          # re-route a proposal
   outfit design cases/demo/case.json --budget 200000 --out out/night --progress
-  outfit design cases/demo/case.json --budget 400000 --out out/night --resume`,
+  outfit design cases/demo/case.json --budget 400000 --out out/night --resume
+  outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first
+  outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
 

@@ -20,6 +20,12 @@ function inflow(peak: number, timeToPeak: number): [number, number][] {
   return points;
 }
 
+/** The case with the outlet reduced to its site data (barrel, spillway), parsed. */
+function withoutDesign(json: { outlet: object }) {
+  const { elements: _elements, riser: _riser, ...site } = json.outlet as { elements?: unknown; riser?: unknown };
+  return parseCase({ ...json, outlet: site });
+}
+
 const plantedCase = {
   name: "Planted outlet, invented dry pond",
   units: "US",
@@ -62,7 +68,11 @@ describe("the search recovers a planted outlet", () => {
     const plantedAssessment = assess(loaded.case, routeCase(loaded.case, loaded.case.outlet!));
     expect(plantedAssessment.compliant).toBe(true);
 
-    const problem = buildProblem(loaded.case, loaded.data);
+    // The search starts from the site alone: the planted openings and riser are not given to it
+    // (an outlet in the case would be its baseline, and the search would start from the answer).
+    const search = withoutDesign(json);
+    const problem = buildProblem(search.case, search.data);
+    expect(problem.existing).toBeNull();
     const run = runSearch(problem, { seed: "planted", budget: 12000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
@@ -120,7 +130,9 @@ describe("the search recovers a planted outlet", () => {
     routing.storms.forEach((s, i) => (json.storms[i].target = Number((s.result.peakOutflow * 1.05).toPrecision(4))));
     const loaded = parseCase(json);
     expect(assess(loaded.case, routeCase(loaded.case, loaded.case.outlet!)).compliant).toBe(true);
-    const run = runSearch(buildProblem(loaded.case, loaded.data), { seed: "wet", budget: 5000, top: 3, starts: 3, beam: 3 });
+    // Only the site data (barrel and spillway) go to the search, not the planted openings and riser.
+    const search = withoutDesign(json);
+    const run = runSearch(buildProblem(search.case, search.data), { seed: "wet", budget: 5000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
     expect(best.assessment.compliant).toBe(true);
