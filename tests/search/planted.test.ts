@@ -8,23 +8,7 @@ import { assess } from "../../src/assess/assess.js";
 import { buildProblem } from "../../search/problem.js";
 import { runSearch } from "../../search/run.js";
 import { FOOT } from "../../src/units.js";
-
-/** An invented gamma-shaped inflow hydrograph (NRCS-like shape, m = 3.7) at 5-minute points. */
-function inflow(peak: number, timeToPeak: number): [number, number][] {
-  const points: [number, number][] = [];
-  for (let t = 0; t <= timeToPeak * 6; t += 5) {
-    const x = t / timeToPeak;
-    points.push([t, t === 0 ? 0 : Number((peak * x ** 3.7 * Math.exp(3.7 * (1 - x))).toFixed(3))]);
-  }
-  points[points.length - 1][1] = 0;
-  return points;
-}
-
-/** The case with the outlet reduced to its site data (barrel, spillway), parsed. */
-function withoutDesign(json: { outlet: object }) {
-  const { elements: _elements, riser: _riser, ...site } = json.outlet as { elements?: unknown; riser?: unknown };
-  return parseCase({ ...json, outlet: site });
-}
+import { gammaInflow as inflow, siteOnly } from "./helpers.js";
 
 const plantedCase = {
   name: "Planted outlet, invented dry pond",
@@ -70,7 +54,7 @@ describe("the search recovers a planted outlet", () => {
 
     // The search starts from the site alone: the planted openings and riser are not given to it
     // (an outlet in the case would be its baseline, and the search would start from the answer).
-    const search = withoutDesign(json);
+    const search = siteOnly(json);
     const problem = buildProblem(search.case, search.data);
     expect(problem.existing).toBeNull();
     const run = runSearch(problem, { seed: "planted", budget: 12000, top: 3, starts: 3, beam: 3 });
@@ -131,7 +115,7 @@ describe("the search recovers a planted outlet", () => {
     const loaded = parseCase(json);
     expect(assess(loaded.case, routeCase(loaded.case, loaded.case.outlet!)).compliant).toBe(true);
     // Only the site data (barrel and spillway) go to the search, not the planted openings and riser.
-    const search = withoutDesign(json);
+    const search = siteOnly(json);
     const run = runSearch(buildProblem(search.case, search.data), { seed: "wet", budget: 5000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
