@@ -20,3 +20,32 @@ export function siteOnly(json: { outlet: object }) {
   const { elements: _elements, riser: _riser, ...site } = json.outlet as { elements?: unknown; riser?: unknown };
   return parseCase({ ...json, outlet: site });
 }
+
+/** An invented dry pond with a planted three-level outlet under a riser (targets left to each test). */
+export const plantedDryCase = {
+  name: "Planted outlet, invented dry pond",
+  units: "US",
+  pond: { bottom: 50, top: 56, storage: { prismoid: { length: 150, width: 75, sideSlope: 3 } } },
+  storms: [
+    { name: "2-yr", returnPeriod: 2, inflow: { series: gammaInflow(14, 45) } },
+    { name: "10-yr", returnPeriod: 10, inflow: { series: gammaInflow(26, 45) } },
+    { name: "100-yr", returnPeriod: 100, inflow: { series: gammaInflow(44, 45) } },
+  ],
+  criteria: { tolerance: { over: 0, under: 0.1 }, freeboard: { depth: "1 ft" } },
+  outlet: {
+    elements: [
+      { type: "orifice", shape: "circular", diameter: "6 in", count: 1, invert: 50 },
+      { type: "orifice", shape: "circular", diameter: "8 in", count: 2, invert: 51.6 },
+      { type: "weir", shape: "rectangular", length: 2, crest: 53.2, endContractions: 2 },
+    ],
+    riser: { shape: "circular", diameter: 4, crest: 54.3 },
+    spillway: { crest: 55, length: 10, sideSlope: 3 },
+  },
+  catalogue: {
+    orifice: { diameters: ["3 in", "4 in", "6 in", "8 in", "10 in", "12 in"], maxCount: 3 },
+    weir: { shapes: ["rectangular"], lengths: [1, 2, 3, 4] },
+    riser: { diameters: [3, 4, 5] },
+    maxStages: 3,
+    elevationStep: 0.05,
+  },
+};
