@@ -92,6 +92,14 @@ describe("design with an existing outlet (value engineering)", () => {
     expect(summary).toMatch(/against the existing outlet: (saves|costs) [\d.]+ units/);
     expect(summary).toMatch(/  change: (resized|moved|added|removed): /);
     expect(JSON.parse(readFileSync(join(dir, "results.json"), "utf8")).baseline.cost).toBe(baseline.cost);
+    // The review report of the run (Markdown: no browser needed) shows row 0 and the savings.
+    const report = outfit("report", dir, "--format", "md", "--out", join(dir, "report.md"));
+    expect(report.code).toBe(0);
+    const md = readFileSync(join(dir, "report.md"), "utf8");
+    expect(md).toMatch(/\*\*Against the existing outlet \(row 0/);
+    expect(md).toMatch(/\| 0 \(existing\) \| 1 x 4 in orifice at 310\.00 ft; 2 x 8 in orifices at 311\.00 ft;.*\| 126\.1 % \|/);
+    expect(md).toContain(`Against the existing outlet: saving ${Number(results.candidates[0].saving.cost.toFixed(2))} cost units`);
+    expect(md).toContain(results.candidates[0].changes[0].text.replace(/>/g, "&gt;"));
   });
 
   it("on a compliant existing outlet finds a cheaper compliant one and says what it saves", () => {

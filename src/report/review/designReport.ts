@@ -72,11 +72,50 @@ function comparisonTable(c: Case, routed: readonly RoutedCandidate[]): TableBloc
   };
 }
 
+/** "2.40 cost units (12.0 %)"; negative when the alternative costs more. */
+function savingText(saving: { cost: number; percent: number | null }): string {
+  return `${trimNumber(saving.cost, 2)} cost units${saving.percent === null ? "" : ` (${saving.percent.toFixed(1)} %)`}`;
+}
+
+/**
+ * Value engineering: the existing outlet as row 0 (as the design run routed and assessed it) and
+ * each alternative's saving against it, then the existing outlet's explanation and the run's verdict.
+ */
+function baselineBlocks(run: DesignRun, routed: readonly RoutedCandidate[]): Block[] {
+  const b = run.results.baseline;
+  if (!b) return [];
+  const targeted = b.storms.filter((s) => s.target !== null);
+  const binding = (k: { binding: { name: string; slack: number } | null }) => (k.binding ? `${k.binding.name} (slack ${percent(k.binding.slack)})` : "none");
+  const yes = (compliant: boolean): Cell => ({ text: compliant ? "yes" : "no", tone: compliant ? "pass" : "fail" });
+  const table: TableBlock = {
+    kind: "table",
+    caption: "Against the existing outlet (row 0: the case's outlet as given; saving: its cost proxy less the alternative's)",
+    head: ["Row", "Description", ...targeted.map((s) => `${s.name} out / target`), "Cost", "Saving", "Changes", "Binding check", "Compliant"],
+    numeric: [true, false, ...targeted.map(() => true), true, true, true, false, false],
+    rows: [
+      ["0 (existing)", b.description, ...targeted.map((s) => percent(s.peakOutflow / s.target!)), `${trimNumber(b.cost, 2)} cost units`, "-", "-", binding(b), yes(b.compliant)],
+      ...routed.map((r) => {
+        const k = r.candidate.reported;
+        const ratios = targeted.map((s) => {
+          const own = k.storms.find((x) => x.name === s.name);
+          return own ? percent(own.peakOutflow / s.target!) : "-";
+        });
+        return [`#${k.rank}`, k.description, ...ratios, k.cost === null || k.cost === undefined ? "not given" : `${trimNumber(k.cost, 2)} cost units`, k.saving ? savingText(k.saving) : "not given", k.changes ? String(k.changes.length) : "not given", binding(k), yes(k.compliant)];
+      }),
+    ],
+  };
+  return [table, { kind: "text", text: `Existing outlet: ${b.description}` }, { kind: "list", items: [...b.explanation, b.verdict] }];
+}
+
 function explanationBlocks(c: Case, r: RoutedCandidate): Block[] {
   const blocks: Block[] = [];
   const reported = r.candidate.reported;
   blocks.push({ kind: "text", text: `Candidate ${reported.rank}: ${reported.description}` });
   blocks.push(reported.explanation.length ? { kind: "list", items: reported.explanation } : { kind: "text", text: "The design run gave no explanation." });
+  if (reported.saving && reported.changes) {
+    blocks.push({ kind: "text", text: `Against the existing outlet: saving ${savingText(reported.saving)}; ${reported.changes.length ? "changes:" : "no change (the existing outlet itself)."}` });
+    if (reported.changes.length) blocks.push({ kind: "list", items: reported.changes.map((change) => change.text) });
+  }
   const differences = disagreements(c, r);
   if (differences.length) {
     blocks.push({ kind: "note", tone: "warning", text: `Routed again from ${reported.caseFile}, this candidate does not match the design run's results: ${differences.join("; ")}.` });
@@ -102,6 +141,7 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[])
   };
   const compared = section("candidates", "Candidates compared", [
     comparisonTable(c, routed),
+    ...baselineBlocks(run, routed),
     figures.figure("candidates", "Candidates compared", "Total rating of each candidate against stage; hatched: each storm's target band; open markers: each candidate's routed peak outflow at its maximum stage, named by storm.",
       (id) => candidatesChart(id, c, routed.map((r) => ({ rank: r.candidate.reported.rank, outlet: r.outlet, storms: r.routing.storms })))),
   ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));

@@ -13,6 +13,8 @@ const stormSchema = z.looseObject({
   maxStage: z.number(),
 });
 
+const changeSchema = z.looseObject({ kind: z.string(), text: z.string() });
+
 const candidateSchema = z.looseObject({
   rank: z.number().int().positive(),
   description: z.string(),
@@ -22,6 +24,20 @@ const candidateSchema = z.looseObject({
   explanation: z.array(z.string()),
   storms: z.array(stormSchema),
   caseFile: z.string().min(1),
+  /** Value engineering: against the existing outlet (the run's baseline). */
+  saving: z.looseObject({ cost: z.number(), percent: z.number().nullable() }).optional(),
+  changes: z.array(changeSchema).optional(),
+});
+
+/** The existing outlet of a value-engineering run, as the run routed and assessed it. */
+const baselineSchema = z.looseObject({
+  description: z.string(),
+  compliant: z.boolean(),
+  cost: z.number(),
+  binding: z.looseObject({ name: z.string(), slack: z.number() }).nullable(),
+  explanation: z.array(z.string()),
+  storms: z.array(stormSchema.extend({ target: z.number().nullable() })),
+  verdict: z.string(),
 });
 
 export const designResultsSchema = z.looseObject({
@@ -37,6 +53,7 @@ export const designResultsSchema = z.looseObject({
     seconds: z.number(),
     seed: z.union([z.number(), z.string()]),
   }),
+  baseline: baselineSchema.optional(),
   candidates: z.array(candidateSchema).min(1),
 });
 
