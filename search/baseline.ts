@@ -34,7 +34,7 @@ export function saving(baseline: RoutedOutlet, c: RoutedOutlet): Saving {
 export function baselineVerdict(baseline: Baseline, candidates: readonly Candidate[], stoppedBecause: string): string {
   const compliant = candidates.filter((c) => c.assessment.compliant);
   if (!baseline.assessment.compliant) {
-    if (compliant.length === 0) return "The existing outlet is not compliant, and no compliant fix was found in the catalogue.";
+    if (compliant.length === 0) return `The existing outlet is not compliant, and the search found no compliant fix in the catalogue (it stopped because ${stoppedBecause}).`;
     const smallest = [...compliant].sort((a, b) => (a.changes?.score ?? 0) - (b.changes?.score ?? 0) || a.cost - b.cost)[0];
     return `The existing outlet is not compliant; ${compliant.length} compliant fix${compliant.length > 1 ? "es were" : " was"} found, the smallest change with ${smallest.changes?.changes.length ?? 0} part change${smallest.changes?.changes.length === 1 ? "" : "s"} (${describeSaving(saving(baseline, smallest))}).`;
   }

@@ -71,8 +71,9 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
   const file = existing.file;
   const movables: Movable[] = [];
   const routedWith = (changed: OutletFile) => routeOutlet(p, changed, designOutlet(p, changed));
+  // Parts that stay as they are (kept, or held by the limits) are not moved.
   (file.elements ?? []).forEach((e, i) => {
-    if (e.keep) return;
+    if (p.keptElements.includes(e)) return;
     const value = p.converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements") / L;
     movables.push({
       name: describeElement(existing.outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
@@ -87,7 +88,7 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
     });
   });
   const riser = file.riser;
-  if (riser && !riser.keep) {
+  if (riser && !p.keptRiser) {
     movables.push({
       name: "riser rim",
       value: p.converter.length(riser.crest, "outlet.riser.crest") / L,
