@@ -193,13 +193,14 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
 
   // Value engineering: the existing layout (scored at its own elevations) and the layouts one step
   // from it are planned too, so that the smallest fixes and savings are among the layouts fitted.
+  // Proposals keep to the catalogue's most control levels, even where the existing outlet has more.
   if (p.existing) {
     const existing = p.existing.layout;
     const key = layoutKey(existing);
-    if (!results.has(key)) results.set(key, { layout: existing, ...existingScore(p, existing, evaluator) });
+    if (!results.has(key) && existing.levels.length <= p.maxLevels) results.set(key, { layout: existing, ...existingScore(p, existing, evaluator) });
     for (const layout of neighbourLayouts(p, existing)) {
       const k = layoutKey(layout);
-      if (!results.has(k)) results.set(k, { layout, ...stagedScore(p, layout, evaluator) });
+      if (!results.has(k) && layout.levels.length <= p.maxLevels) results.set(k, { layout, ...stagedScore(p, layout, evaluator) });
     }
   }
   const layouts = [...results.values()].sort((a, b) => a.score - b.score);

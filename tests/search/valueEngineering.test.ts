@@ -159,6 +159,16 @@ describe("design with an existing outlet (value engineering)", () => {
     }
   });
 
+  it("keeps proposals to the catalogue's most control levels when the existing outlet has more", () => {
+    const loaded = overbuiltCase();
+    const json = { ...loaded.json as typeof plantedDryCase, catalogue: { ...plantedDryCase.catalogue, maxStages: 2 } };
+    const { run } = search(parseCase(json), 1500);
+    // The existing outlet has three levels; it stays the baseline, but no alternative has more than two.
+    expect(new Set(run.baseline!.outlet.elements.map((e) => (e.type === "weir" ? e.crest : e.invert))).size).toBe(3);
+    expect(run.candidates.length).toBeGreaterThan(0);
+    for (const c of run.candidates) expect(new Set(c.outlet.elements.map((e) => (e.type === "weir" ? e.crest : e.invert))).size).toBeLessThanOrEqual(2);
+  });
+
   it("--rank change puts the smallest change to a failing outlet first among the compliant fixes", () => {
     const { run } = search(loadCase("cases/wet-value/case.json"), 3000, { rankBy: "change" });
     // The reported head of the ranking (top 5; further down, repeats of a reported design's openings follow).
