@@ -180,10 +180,10 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       planned++;
     }
   };
-  const existingKey = p.existing ? layoutKey(p.existing.layout) : null;
+  const existingKey = p.existing && p.limits.rankBy === "change" ? layoutKey(p.existing.layout) : null;
   const take = (): Entry | undefined => {
     if (queue.length === 0) return undefined;
-    // Value engineering: the existing layout goes first (refitting its elevations is the smallest fix).
+    // Ranked by change, the existing layout goes first (refitting its elevations is the smallest fix).
     const own = existingKey === null ? -1 : queue.findIndex((e) => layoutKey(e.layout) === existingKey);
     if (own >= 0) return queue.splice(own, 1)[0];
     let best = 0;
