@@ -153,7 +153,7 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
   }
   if (cat.weirShapes.includes("v-notch")) {
     for (const angle of cat.weirAngles) {
-      parts.push({ key: `v-notch ${angle}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle, height: 0, width: 2 * 0.3048 * Math.tan((angle * Math.PI) / 360) });
+      parts.push({ key: `v-notch ${angle}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle, height: 0, width: notchWidth(angle) });
     }
   }
   if (parts.length === 0 && keptElements.length === 0) {
@@ -247,8 +247,9 @@ function existingOutlet(p: SearchProblem, file: OutletFile, label: string): Exis
     if (e.type === "weir" && e.shape === "rectangular") {
       return { key: `existing weir ${show(e.length)} n ${e.endContractions ?? 0} C ${e.coefficient ?? d.rectangularWeir}`, kind: "rectangular", count: 1, size: e.length, sizeM, angle: 0, height: 0, width: sizeM, template };
     }
-    const angle = e.type === "weir" && e.shape === "v-notch" ? e.angle : 90;
-    return { key: `existing v-notch ${angle} C ${e.type === "weir" ? e.coefficient ?? d.vNotchWeir : ""}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle, height: 0, width: 2 * 0.3048 * Math.tan((angle * Math.PI) / 360), template };
+    // What is left is a v-notch (rectangular orifices and regulators are among the kept elements).
+    const notch = e as Extract<ElementFile, { shape: "v-notch" }>;
+    return { key: `existing v-notch ${notch.angle} C ${notch.coefficient ?? d.vNotchWeir}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle: notch.angle, height: 0, width: notchWidth(notch.angle), template };
   });
   const riser = !p.keptRiser && file.riser?.shape === "circular" ? { size: file.riser.diameter, sizeM: converter.length(file.riser.diameter, "outlet.riser.diameter") } : null;
   const barrel = !p.barrelKept && file.barrel?.shape === "circular" ? { size: file.barrel.diameter, sizeM: converter.length(file.barrel.diameter, "outlet.barrel.diameter") } : null;
@@ -257,6 +258,11 @@ function existingOutlet(p: SearchProblem, file: OutletFile, label: string): Exis
   const vars = designed.map((e) => at(e) / L).filter((_, i) => i > 0 || p.lowestFloats);
   if (riser && file.riser) vars.push(converter.length(file.riser.crest, "outlet.riser.crest") / L);
   return { file, outlet, layout, vars };
+}
+
+/** Wall width a v-notch takes at one foot of head (m). */
+function notchWidth(angle: number): number {
+  return 2 * 0.3048 * Math.tan((angle * Math.PI) / 360);
 }
 
 function sizes(values: Length[] | undefined, c: Case): SizeOption[] {

@@ -159,6 +159,18 @@ describe("design with an existing outlet (value engineering)", () => {
     }
   });
 
+  it("keeps an existing part the catalogue does not list at its own size, moving only its elevation", () => {
+    const json = JSON.parse(readFileSync("cases/wet-value/case.json", "utf8"));
+    json.outlet.elements[1] = { type: "orifice", shape: "circular", diameter: "7 in", count: 2, invert: 311, coefficient: 0.6 };
+    const { p, run } = search(parseCase(json), 1500, { vary: "elevations" });
+    expect(p.existing!.layout.levels[0].template).toBeDefined();
+    expect(run.candidates.length).toBeGreaterThan(0);
+    for (const c of run.candidates) {
+      expect(c.file.elements![1]).toMatchObject({ type: "orifice", shape: "circular", diameter: "7 in", count: 2, coefficient: 0.6 });
+      for (const change of c.changes!.changes) expect(change.kind).toBe("moved");
+    }
+  });
+
   it("keeps proposals to the catalogue's most control levels when the existing outlet has more", () => {
     const loaded = overbuiltCase();
     const json = { ...loaded.json as typeof plantedDryCase, catalogue: { ...plantedDryCase.catalogue, maxStages: 2 } };
