@@ -1,10 +1,13 @@
 // The case as outfit computes with it: every quantity in SI (m, m2, m3, m3/s, s).
 import type { UnitSystem } from "../units.js";
+import type { UndergroundSystem } from "../storage/underground.js";
 
 export type Storage =
   | { kind: "prismoid"; length: number; width: number; sideSlope: number }
   | { kind: "stageArea"; elevations: number[]; areas: number[] }
-  | { kind: "stageStorage"; elevations: number[]; volumes: number[] };
+  | { kind: "stageStorage"; elevations: number[]; volumes: number[] }
+  /** Pipes or chambers, optionally in a stone bed (underground storage). */
+  | ({ kind: "underground" } & UndergroundSystem);
 
 export interface Pond {
   bottom: number;

@@ -9,6 +9,7 @@ import { baseArea, baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, 
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "../hydrology/fromCase.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
+import { normalizeUnderground } from "./underground.js";
 
 export interface NormalizeContext {
   file: string;
@@ -86,6 +87,8 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
       width: cv.length(s.prismoid.width, "pond.storage.prismoid.width"),
       sideSlope: s.prismoid.sideSlope,
     };
+  } else if (s.pipeGallery || s.chambers) {
+    storage = normalizeUnderground(s, cv, bottom, top);
   } else {
     const rows = (s.stageArea ?? s.stageStorage)!;
     const kind = s.stageArea ? "stageArea" : "stageStorage";
