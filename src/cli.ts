@@ -6,6 +6,7 @@ import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
+import { volumeCommand } from "./commands/volume.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -42,6 +43,7 @@ Examples:
   outfit route cases/demo/case.json       # route and check the case's own outlet
   outfit rate cases/demo/case.json        # the outlet's stage-discharge table
   outfit report cases/demo/case.json      # a review report (HTML)
+  outfit volume cases/demo/case.json      # storage each storm needs, by several methods
   outfit <command> --help                 # every option of a command, with examples
 
 Caution: ${CAUTION}
@@ -139,6 +141,31 @@ Examples:
 Exit codes: 0 done, 2 bad input.`,
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
+
+program
+  .command("volume")
+  .description("estimate the storage each storm needs before any outlet exists (TR-55 ch. 6, hydrograph difference, modified rational), with the stage it reaches in the pond")
+  .argument("<case>", "case file (JSON)")
+  .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
+  .option("--json", "print the results as JSON instead of a table")
+  .option("--out <file>", "write the output to a file instead of the terminal")
+  .addHelpText(
+    "after",
+    `
+For every storm with a target: the TR-55 ch. 6 estimate (Figure 6-1, storm types I/IA or II/III), the
+volume of the inflow above a release rising linearly to the target at the inflow's peak, the same with
+the release at the target throughout, and for rational-method storms the modified rational
+critical-duration volume; each with the stage it reaches in the case's pond and whether that stays at
+or below the freeboard level (top of embankment less the freeboard depth).
+
+Examples:
+  outfit volume cases/demo/case.json --type II
+  outfit volume cases/demo-rainfall/case.json --json
+  outfit volume cases/demo/case.json --type II --out volume.txt
+
+Exit codes: 0 done, 2 bad input.`,
+  )
+  .action((file: string, options) => run(() => volumeCommand(file, options)));
 
 program
   .command("report")
