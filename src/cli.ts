@@ -7,6 +7,7 @@ import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
 import { volumeCommand } from "./commands/volume.js";
+import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -44,6 +45,7 @@ Examples:
   outfit rate cases/demo/case.json        # the outlet's stage-discharge table
   outfit report cases/demo/case.json      # a review report (HTML)
   outfit volume cases/demo/case.json      # storage each storm needs, by several methods
+  outfit pond cases/site-only/case.json   # a pond sized from the site limits
   outfit <command> --help                 # every option of a command, with examples
 
 Caution: ${CAUTION}
@@ -166,6 +168,32 @@ Examples:
 Exit codes: 0 done, 2 bad input.`,
   )
   .action((file: string, options) => run(() => volumeCommand(file, options)));
+
+program
+  .command("pond")
+  .description("size a pond from the case's site limits to hold the largest storage estimate of any storm")
+  .argument("<case>", "case file (JSON) with a site section (its pond may be left out)")
+  .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
+  .option("--json", "print the results as JSON instead of a table")
+  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--write <file>", "also write the case file with the sized pond in it (inflow files are not copied)")
+  .addHelpText(
+    "after",
+    `
+The required storage is the largest estimate of \`outfit volume\` over every storm and method. The pond
+is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or the site's stage-area
+shape scaled in plan, as deep as site.maxDepth, the smallest on the size step (site.step) that holds
+the required storage between its permanent pool and the freeboard level, within maxTopLength,
+maxTopWidth and maxTopArea. Prints the required and provided storage, the footprint and the excavation.
+
+Examples:
+  outfit pond cases/site-only/case.json
+  outfit pond cases/site-only/case.json --json
+  outfit pond cases/site-only/case.json --write sized.json && outfit volume sized.json
+
+Exit codes: 0 a pond fits, 1 no pond within the limits holds the storage, 2 bad input.`,
+  )
+  .action((file: string, options) => run(() => pondCommand(file, options)));
 
 program
   .command("report")

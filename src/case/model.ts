@@ -1,6 +1,8 @@
 // The case as outfit computes with it: every quantity in SI (m, m2, m3, m3/s, s).
 import type { UnitSystem } from "../units.js";
 import type { UndergroundSystem } from "../storage/underground.js";
+import type { Site } from "../storage/sizing.js";
+import type { SiteSizing } from "./site.js";
 
 export type Storage =
   | { kind: "prismoid"; length: number; width: number; sideSlope: number }
@@ -155,7 +157,12 @@ export interface Case {
   units: UnitSystem;
   /** Absolute path of the case file ("" when built in memory). */
   file: string;
+  /** The pond given, or (no pond in the file) the pond sized from `site`. */
   pond: Pond;
+  /** Site limits, when the file gives them. */
+  site?: Site;
+  /** How the pond was sized from the site, when the file gives no pond. */
+  sizing?: SiteSizing;
   tailwater: Tailwater;
   storms: Storm[];
   criteria: Criteria;

@@ -424,12 +424,30 @@ export const catalogueSchema = z.object({
   elevationStep: positiveLength.optional(),
 });
 
+/** Site limits from which outfit sizes a pond (the pond field may then be left out). */
+export const siteSchema = z.object({
+  floor: lengthSchema,
+  maxDepth: positiveLength,
+  sideSlope: nonNegative.optional(),
+  lengthToWidth: positive.optional(),
+  maxTopLength: positiveLength.optional(),
+  maxTopWidth: positiveLength.optional(),
+  maxTopArea: positiveArea.optional(),
+  permanentPool: z
+    .object({ depth: positiveLength.optional(), volume: positive.optional() })
+    .superRefine(exactlyOne(["depth", "volume"], "permanent pool"))
+    .optional(),
+  shape: z.object({ stageArea: table("depth", "area", { yNonNegative: true }) }).optional(),
+  step: positive.optional(),
+});
+
 export const costsSchema = z.record(z.string(), nonNegative, { error: "an object of cost weights (numbers)" });
 
 export const caseSchema = z.object({
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
-  pond: pondSchema,
+  pond: pondSchema.optional(),
+  site: siteSchema.optional(),
   tailwater: tailwaterSchema.optional(),
   storms: z.array(stormSchema, { error: "a list of storms" }).min(1, { message: "at least one storm" }),
   criteria: criteriaSchema.optional(),
@@ -450,6 +468,7 @@ export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type Length = z.infer<typeof lengthSchema>;
 export type StorageFile = z.infer<typeof storageSchema>;
 export type StoneFile = z.infer<typeof stoneSchema>;
+export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;

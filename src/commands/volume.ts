@@ -10,6 +10,7 @@ import { tr55Group, type Tr55Group } from "../storage/estimate.js";
 import { estimateStorm, type StormEstimate } from "../storage/stormEstimates.js";
 import { volumeJson, volumeText } from "../report/volume.js";
 import { emit, load, UsageError } from "./common.js";
+import { baseLength } from "../units.js";
 
 export interface VolumeCommandOptions {
   type?: string;
@@ -36,10 +37,15 @@ export function caseEstimates(path: string, c: Case, type: Tr55Group | null): St
   });
 }
 
+/** Where a pond sized from the site comes from. */
+function sizedPondNote(c: Case): string {
+  return `none given; sized from the site limits for the ${c.sizing!.storm} storm's largest estimate (see outfit pond), bottom ${(c.pond.bottom / baseLength(c.units)).toFixed(2)}, top ${(c.pond.top / baseLength(c.units)).toFixed(2)} ${c.units === "US" ? "ft" : "m"}`;
+}
+
 export function volumeCommand(path: string, options: VolumeCommandOptions): number {
   const type = typeOption(options.type);
   const { case: c } = load(path);
   const estimates = caseEstimates(path, c, type);
-  emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, null), options.out);
+  emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null), options.out);
   return 0;
 }

@@ -56,12 +56,12 @@ export function freeboardLevel(c: Case): number {
   return c.pond.top - c.criteria.freeboardDepth;
 }
 
-export function estimateStorm(c: Case, storm: Storm, inputs: StormEstimateInputs): StormEstimate {
+/** The estimates' volumes, before any pond: `stage` and `fits` are null. */
+export function stormVolumes(storm: Storm, inputs: StormEstimateInputs): StormEstimate {
   const facts = hydrographFacts(storm.inflow);
   const methods: MethodEstimate[] = [];
   const place = (method: EstimateMethod, volume: number | null, note: string | null): void => {
-    const stage = volume === null ? null : stageAtVolume(c.pond, volume);
-    methods.push({ method, volume, stage, fits: stage === null ? null : stage <= freeboardLevel(c) + 1e-9, note });
+    methods.push({ method, volume, stage: null, fits: null, note });
   };
   const target = storm.target;
   if (target === null) {
@@ -88,6 +88,24 @@ export function estimateStorm(c: Case, storm: Storm, inputs: StormEstimateInputs
     largest: volumes.length ? Math.max(...volumes) : null,
     criticalDuration: inputs.rational ? inputs.rational.critical.duration : null,
   };
+}
+
+/** The estimates with the stage each reaches in the case's pond and whether it fits below the freeboard level. */
+export function estimateStorm(c: Case, storm: Storm, inputs: StormEstimateInputs): StormEstimate {
+  const e = stormVolumes(storm, inputs);
+  for (const m of e.methods) {
+    if (m.volume === null) continue;
+    m.stage = stageAtVolume(c.pond, m.volume);
+    m.fits = m.stage <= freeboardLevel(c) + 1e-9;
+  }
+  return e;
+}
+
+/** The largest volume of any method and storm, with where it comes from; null when no storm has a target. */
+export function governingVolume(estimates: readonly StormEstimate[]): { volume: number; storm: string; method: EstimateMethod } | null {
+  let best: { volume: number; storm: string; method: EstimateMethod } | null = null;
+  for (const e of estimates) for (const m of e.methods) if (m.volume !== null && (best === null || m.volume > best.volume)) best = { volume: m.volume, storm: e.storm.name, method: m.method };
+  return best;
 }
 
 /** Storage (m3) the pond holds between its permanent pool and the freeboard level. */
