@@ -107,6 +107,7 @@ program
   .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
   .option("--resume", "with --out: skip the layouts the directory's journal already holds")
   .option("--progress", "show progress on the terminal")
+  .option("--size-pond", "also size the pond within the case's site limits: the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)")
   .addHelpText(
     "after",
     `
@@ -115,7 +116,9 @@ Examples:
   outfit design cases/demo/case.json --top 3 --out out/demo
   outfit route out/demo/candidate-01.json          # re-route a proposal
   outfit design cases/demo/case.json --budget 200000 --out out/night --progress
-  outfit design cases/demo/case.json --budget 400000 --out out/night --resume`,
+  outfit design cases/demo/case.json --budget 400000 --out out/night --resume
+  outfit design cases/site-only/case.json --size-pond --budget 3000 --out out/site
+  outfit route out/site/pond-and-outlet.json       # route the proposed pond and outlet`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
 
