@@ -4,7 +4,8 @@
 // of the size above, routed again, or a new search), so the pond is the smallest compliant one found.
 import { parseCase, type LoadedCase } from "../src/case/load.js";
 import { CaseError } from "../src/case/errors.js";
-import { pondOfSize, type SizedPond } from "../src/storage/sizing.js";
+import { pondOfSize, sizePond, type SizedPond } from "../src/storage/sizing.js";
+import { governingVolume, stormVolumes } from "../src/storage/stormEstimates.js";
 import { pondFile } from "../src/report/pondFile.js";
 import { buildProblem, type SearchProblem } from "./problem.js";
 import { runSearch, type RunOptions, type SearchRun } from "./run.js";
@@ -81,7 +82,7 @@ export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefin
     return search(steps);
   };
 
-  let steps = Math.max(1, c.sizing?.pond?.steps ?? c.sizing?.largest?.steps ?? 1);
+  let steps = Math.max(1, c.sizing?.steps ?? seedSteps(loaded));
   let stoppedBecause = "";
   // Grow from the estimate until a compliant outlet exists (10 % or one step at a time).
   let current = search(steps);
@@ -112,4 +113,13 @@ export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefin
   }
   stoppedBecause = smaller ? "one step smaller no compliant outlet was found" : steps === 1 ? "the smallest size step is compliant" : `${MAX_TRIALS} sizes tried`;
   return { trials: order, chosen: current, smaller, stoppedBecause };
+}
+
+/** A first size when the file gives a pond as well as a site: the hydrograph-difference estimates. */
+function seedSteps(loaded: LoadedCase): number {
+  const c = loaded.case;
+  const governing = governingVolume(c.storms.map((s) => stormVolumes(s, { group: null, rational: null })));
+  if (!governing || !c.site) return 1;
+  const s = sizePond(c.site, c.criteria.freeboardDepth, governing.volume);
+  return (s.pond ?? s.largest)?.steps ?? 1;
 }

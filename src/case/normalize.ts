@@ -11,7 +11,7 @@ import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
 import { normalizeUnderground } from "./underground.js";
-import { normalizeSite, siteSizing, sitePond, type SiteSizing } from "./site.js";
+import { normalizeSite, siteSizing, sitePond, sizingSummary, type SiteSizing } from "./site.js";
 
 export { Converter } from "./converter.js";
 
@@ -48,7 +48,7 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     file: context.file,
     pond: pond!,
     site,
-    sizing,
+    sizing: sizing ? sizingSummary(sizing) : undefined,
     tailwater: normalizeTailwater(file, cv),
     storms,
     criteria,

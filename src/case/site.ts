@@ -1,14 +1,14 @@
 // The case file's `site` section in SI, and the pond sized from it when the file gives no pond.
 import type { CaseFile } from "./schema.js";
-import type { Criteria, Pond, Storm } from "./model.js";
-import type { Converter } from "./normalize.js";
+import type { Criteria, Pond, Site, SiteSizingSummary, Storm } from "./model.js";
+import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { baseLength, baseVolume, FOOT, parseArea } from "../units.js";
-import type { Site, Sizing } from "../storage/sizing.js";
+import type { Sizing } from "../storage/sizing.js";
 import { sizePond } from "../storage/sizing.js";
 import { governingVolume, stormVolumes, type EstimateMethod } from "../storage/stormEstimates.js";
 import { tr55Group } from "../storage/estimate.js";
-import type { StormHydrology } from "../hydrology/fromCase.js";
+import type { StormHydrology } from "./hydrology.js";
 
 /** Side slopes 3 H : 1 V and a floor twice as long as wide when not given (common practice). */
 const DEFAULT_SIDE_SLOPE = 3;
@@ -72,4 +72,9 @@ export function siteSizing(site: Site, storms: readonly Storm[], hydrology: read
 /** The pond a site-sized case routes: the smallest that holds the estimate, else the largest the site allows. */
 export function sitePond(sizing: SiteSizing): Pond | null {
   return (sizing.pond ?? sizing.largest)?.pond ?? null;
+}
+
+/** What the case keeps of a sizing. */
+export function sizingSummary(sizing: SiteSizing): SiteSizingSummary {
+  return { required: sizing.required, storm: sizing.storm, method: sizing.method, steps: (sizing.pond ?? sizing.largest)?.steps ?? 0, withinLimits: sizing.pond !== null };
 }

@@ -2,16 +2,9 @@
 // and the plan area of water inside one unit there. The area is linear between rows, so the volume of
 // a row interval is exactly its average-end area times its height (to a partial height, with the
 // interpolated area). Above the last row the unit is closed: it holds no more.
+import type { Chambers } from "../case/model.js";
 
-export interface Chambers {
-  count: number;
-  /** Elevation of the chambers' base (m). */
-  base: number;
-  /** Heights above the base (m), strictly increasing, the first 0. */
-  heights: number[];
-  /** Plan area of water inside one unit at each height (m2). */
-  areas: number[];
-}
+export type { Chambers };
 
 /** Water held in all units (m3) at a stage. */
 export function chambersVolume(c: Chambers, stage: number): number {

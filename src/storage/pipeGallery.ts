@@ -3,19 +3,10 @@
 // so the volume of one pipe is the integral of the segment area over its length:
 //   level pipe:  V = L A(z - invert)
 //   slope S > 0: V = (G(z - invert) - G(z - invert - S L)) / S, G the depth integral of the area.
-import { segmentArea, segmentAreaIntegral, segmentWidth } from "./circularSegment.js";
+import type { PipeGallery } from "../case/model.js";
 
-export interface PipeGallery {
-  /** Inside diameter (m). */
-  diameter: number;
-  /** Length of each pipe (m). */
-  length: number;
-  count: number;
-  /** Fall per unit length (m/m), 0 for level pipes. */
-  slope: number;
-  /** Invert at the low end (m). */
-  invert: number;
-}
+export type { PipeGallery };
+import { segmentArea, segmentAreaIntegral, segmentWidth } from "./circularSegment.js";
 
 /** Below this slope a pipe is treated as level (the sloped formula loses digits). */
 const LEVEL = 1e-9;

@@ -6,28 +6,11 @@
 // The depth is the site's largest depth (floor to top of embankment): for a given storage the deepest
 // pond has the smallest footprint. A permanent pool is a depth, or a volume whose depth is solved at
 // each size.
-import type { Pond, Storage } from "../case/model.js";
+import type { Pond, Site, Storage } from "../case/model.js";
+
+export type { Site };
 import { storageCurve } from "./curve.js";
 import { stageAtVolume } from "./stageAtVolume.js";
-
-export interface Site {
-  /** Pond floor elevation (m). */
-  floor: number;
-  /** Largest depth, floor to top of embankment (m). */
-  maxDepth: number;
-  /** Prismoid: side slopes (H:V) and floor length-to-width ratio. */
-  sideSlope: number;
-  lengthToWidth: number;
-  /** Largest plan dimensions and area at the top of embankment (m, m2); null when not limited. */
-  maxTopLength: number | null;
-  maxTopWidth: number | null;
-  maxTopArea: number | null;
-  pool: { depth: number } | { volume: number } | null;
-  /** A stage-area shape (depth above the floor, m; area, m2) to scale instead of a prismoid. */
-  shape: { depths: number[]; areas: number[] } | null;
-  /** Size step: floor width (m) for a prismoid, scale factor for a shape. */
-  step: number;
-}
 
 export interface SizedPond {
   /** Floor width (m) or scale factor. */

@@ -4,17 +4,9 @@
 //   V_stone(z) = n (L W (z - bottom) - V_inner,full(z)),  V = V_inner(z) + V_stone(z)
 // where V_inner,full is the space the units take below z, counted full (their walls are not modelled:
 // the inside section stands for the outside one).
+import type { StoneBed } from "../case/model.js";
 
-export interface StoneBed {
-  /** Void ratio of the stone (0 < n < 1), as porosity: voids over total volume. */
-  voidRatio: number;
-  /** Elevations of the bed's base and top (m). */
-  bottom: number;
-  top: number;
-  /** Plan dimensions of the bed (m). */
-  length: number;
-  width: number;
-}
+export type { StoneBed };
 
 /**
  * Water (m3) in the voids of the stone at a stage, given the space the units take below that stage

@@ -2,16 +2,13 @@
 // measured from the lowest point of the system; above the system's top (the bed's top, or the highest
 // crown or chamber top without stone) storage grows with the system's footprint (vertical walls, as the
 // case format has it above a table), so a stage above pond.top still has a volume to route with.
-import { galleryArea, galleryBreaks, galleryTop, galleryVolume, type PipeGallery } from "./pipeGallery.js";
-import { chambersArea, chambersBreaks, chambersTop, chambersVolume, type Chambers } from "./chambers.js";
-import { stoneArea, stoneVolume, type StoneBed } from "./stoneEnvelope.js";
+import type { UndergroundSystem, UndergroundUnits } from "../case/model.js";
+import { galleryArea, galleryBreaks, galleryTop, galleryVolume } from "./pipeGallery.js";
+import { chambersArea, chambersBreaks, chambersTop, chambersVolume } from "./chambers.js";
+import { stoneArea, stoneVolume } from "./stoneEnvelope.js";
 
-export type UndergroundUnits = { kind: "pipeGallery"; gallery: PipeGallery } | { kind: "chambers"; chambers: Chambers };
+export type { UndergroundSystem, UndergroundUnits };
 
-export interface UndergroundSystem {
-  units: UndergroundUnits;
-  stone: StoneBed | null;
-}
 
 function unitsVolume(u: UndergroundUnits, stage: number): number {
   return u.kind === "pipeGallery" ? galleryVolume(u.gallery, stage) : chambersVolume(u.chambers, stage);
