@@ -14,6 +14,32 @@ import { circularOpeningIntegral, SHORT_RULE, SHORT_RULE_COVER } from "./orifice
 
 const SQRT_2G = Math.sqrt(2 * GRAVITY);
 
+/** Columns kept per stage grid (each a Float64Array of the grid's length), least recently used dropped. */
+export const FREE_COLUMNS_KEPT = 256;
+const freeColumns = new WeakMap<Float64Array, Map<string, Float64Array>>();
+
+/**
+ * The free flow of one part (an element, or the riser's rim) at every stage of a grid, kept by the
+ * part's values and the grid: candidates of a search that share a level share its column. A pure
+ * function's memo: the values are those computed on a miss.
+ */
+function freeColumn(stages: Float64Array, key: string, flowAt: (ws: number) => number): Float64Array {
+  let columns = freeColumns.get(stages);
+  if (!columns) {
+    columns = new Map();
+    freeColumns.set(stages, columns);
+  }
+  let column = columns.get(key);
+  if (column) columns.delete(key);
+  else {
+    column = new Float64Array(stages.length);
+    for (let i = 0; i < stages.length; i++) column[i] = flowAt(stages[i]);
+  }
+  columns.set(key, column);
+  if (columns.size > FREE_COLUMNS_KEPT) columns.delete(columns.keys().next().value as string);
+  return column;
+}
+
 export class OpeningsSweep {
   /** Free flow of each element at the present stage, then the rim's. */
   private readonly free: Float64Array;
@@ -39,22 +65,42 @@ export class OpeningsSweep {
     this.rimCrest = outlet.riser ? outlet.riser.crest : Infinity;
   }
 
-  /** Sets the pond stage; returns the openings' free flow there (no downstream level). */
-  setStage(ws: number): number {
-    this.ws = ws;
+  /** Free flow of element i (or the rim, i = elements.length) at a stage. */
+  private freeFlow(i: number, ws: number): number {
     const elements = this.outlet.elements;
+    if (i === elements.length) return this.outlet.riser ? rimDischarge(this.outlet.riser, ws, -Infinity) : 0;
+    const e = elements[i];
+    if (this.circleFactor[i] > 0 && e.type === "orifice" && e.shape === "circular") return ws > e.invert ? this.circleFactor[i] * wettedCircleTabulated(e.diameter, ws - e.invert) : 0;
+    return elementFlow(e, ws, -Infinity);
+  }
+
+  private columns: Float64Array[] = [];
+  private stages: Float64Array | null = null;
+
+  /** Takes every part's free flow over a stage grid from the columns kept for it (see `freeColumn`). */
+  useGrid(stages: Float64Array): void {
+    const elements = this.outlet.elements;
+    this.columns = [];
+    for (let i = 0; i <= elements.length; i++) {
+      const part = i < elements.length ? elements[i] : (this.outlet.riser ?? null);
+      const how = i < elements.length && this.circleFactor[i] > 0 ? "table" : "direct";
+      this.columns.push(freeColumn(stages, `${how} ${JSON.stringify(part)}`, (ws) => this.freeFlow(i, ws)));
+    }
+    this.stages = stages;
+  }
+
+  /** Sets the pond stage to stage `index` of the grid given to `useGrid`. */
+  setGridStage(index: number): number {
+    this.ws = (this.stages as Float64Array)[index];
+    const columns = this.columns;
     let total = 0;
-    for (let i = 0; i < elements.length; i++) {
-      const e = elements[i];
-      const factor = this.circleFactor[i];
-      const q = factor > 0 && e.type === "orifice" && e.shape === "circular" ? (ws > e.invert ? factor * wettedCircleTabulated(e.diameter, ws - e.invert) : 0) : elementFlow(e, ws, -Infinity);
+    for (let i = 0; i < columns.length; i++) {
+      const q = columns[i][index];
       this.free[i] = q;
       total += q;
     }
-    const rim = this.outlet.riser ? rimDischarge(this.outlet.riser, ws, -Infinity) : 0;
-    this.free[elements.length] = rim;
-    this.freeTotal = total + rim;
-    return this.freeTotal;
+    this.freeTotal = total;
+    return total;
   }
 
   /** Flow in through the openings and the rim at the present stage for a downstream level. */

@@ -8,7 +8,7 @@ import type { Outlet, Tailwater } from "../case/model.js";
 import { dischargeAtTailwater, outletDischarge } from "./outlet.js";
 import { lowestOpening } from "./openings.js";
 import { OpeningsSweep } from "./openingsSweep.js";
-import { ChamberSweep, SWEEP_TOLERANCE } from "./chamberSweep.js";
+import { ChamberSweep, extrapolate, sweepTolerance } from "./chamberSweep.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { warmRoot, type WarmStart } from "./roots.js";
@@ -27,16 +27,17 @@ export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array
   const tw = tailwaterLevel(tail, 0);
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
+  openings.useGrid(stages);
   const chamber = outlet.barrel ? new ChamberSweep(openings, tw) : null;
   for (let i = 0; i < n; i++) {
     const ws = stages[i];
     const spill = spillway ? spillwayFlow(spillway, ws, tw) : 0;
-    out[i] = (chamber ? chamber.flow(ws) : openingsWithTailwater(openings, ws, tw)) + spill;
+    out[i] = (chamber ? chamber.flow(ws, i) : openingsWithTailwater(openings, i, tw)) + spill;
   }
 }
 
-function openingsWithTailwater(openings: OpeningsSweep, ws: number, tw: number): number {
-  const free = openings.setStage(ws);
+function openingsWithTailwater(openings: OpeningsSweep, index: number, tw: number): number {
+  const free = openings.setGridStage(index);
   return tw === -Infinity || !(free > 0) ? free : openings.flow(tw);
 }
 
@@ -48,31 +49,32 @@ function openingsWithTailwater(openings: OpeningsSweep, ws: number, tw: number):
 function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array): void {
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
+  openings.useGrid(stages);
   let lowestEffect = lowestOpening(outlet);
   if (spillway) lowestEffect = Math.min(lowestEffect, spillway.crest);
   if (outlet.barrel) lowestEffect = Math.min(lowestEffect, outlet.barrel.outletInvert);
-  const tw0 = tailwaterLevel(tail, 0);
   let ws = NaN;
   const discharge = outlet.barrel
     ? (tw: number) => dischargeAtTailwater(outlet, ws, tw, true)
     : (tw: number) => openings.flow(tw) + (spillway ? spillwayFlow(spillway, ws, tw) : 0);
   const excess = (o: number) => discharge(tailwaterLevel(tail, o)) - o;
   const state: WarmStart = { root: NaN, slope: NaN };
-  let earlier = NaN;
+  let felt = false;
   for (let i = 0; i < stages.length; i++) {
     ws = stages[i];
-    if (!outlet.barrel) openings.setStage(ws);
-    const high = discharge(tw0);
+    // The free flow (no tailwater, no chamber) bounds the outflow from above: f(free) <= 0.
+    const high = openings.setGridStage(i) + (spillway ? spillwayFlow(spillway, ws, -Infinity) : 0);
     let o: number;
     if (!(high > 0)) o = 0;
-    else if (tailwaterLevel(tail, high) <= lowestEffect) o = high;
+    else if (tailwaterLevel(tail, high) <= lowestEffect && !outlet.barrel) o = high;
     else {
+      // Once the tailwater is felt, f(high) is evaluated only if the root search needs it.
       const previous = state.root;
       const low = previous > 0 && previous < high ? previous : 0;
-      const guess = i >= 2 && earlier >= 0 ? previous + ((previous - earlier) * (ws - stages[i - 1])) / (stages[i - 1] - stages[i - 2]) : previous;
-      o = warmRoot(excess, low, high, excess(high), guess, state, SWEEP_TOLERANCE * high);
+      const guess = i >= 3 ? extrapolate(ws, stages[i - 1], previous, stages[i - 2], out[i - 2], stages[i - 3], out[i - 3]) : previous;
+      o = warmRoot(excess, low, high, felt ? NaN : excess(high), guess, state, sweepTolerance(guess, high));
+      felt = o < high;
     }
-    earlier = state.root;
     state.root = o;
     out[i] = o;
   }

@@ -79,7 +79,8 @@ export interface WarmStart {
 
 /**
  * The root of a falling f in [low, high] (f(low) >= 0 >= f(high) = fHigh), started from `guess`
- * (e.g. the previous stage's root extrapolated) with the previous stage's slope: a Newton step on
+ * (e.g. the previous stage's root extrapolated) with the previous stage's slope (fHigh may be NaN:
+ * not yet evaluated, then f(high) is only evaluated when needed): a Newton step on
  * that slope, then secant steps, each kept inside the bracket the evaluations have narrowed (a step
  * that leaves it bisects instead). Accepted when a step is within `tolerance` of the root's
  * estimate; after six steps, Brent's method on the bracket. On a smooth rating the guess is close
@@ -92,7 +93,8 @@ export function warmRoot(f: (x: number) => number, low: number, high: number, fH
   let fb = fHigh;
   let x = guess > low && guess < high ? guess : 0.5 * (low + high);
   let fx = f(x);
-  let slope = state.slope < 0 ? state.slope : (fHigh - fx) / (high - x) || -1;
+  if (!(state.slope < 0) && Number.isNaN(fb)) fb = f(b);
+  let slope = state.slope < 0 ? state.slope : (fb - fx) / (b - x) || -1;
   for (let step = 0; step < 6; step++) {
     if (fx === 0) return x;
     if (fx > 0) {
@@ -115,6 +117,10 @@ export function warmRoot(f: (x: number) => number, low: number, high: number, fH
     fx = fNext;
   }
   state.slope = slope;
+  if (Number.isNaN(fb)) {
+    fb = f(b);
+    if (fb >= 0) return b;
+  }
   if (Number.isNaN(fa)) {
     fa = f(a);
     if (fa <= 0) return a;
