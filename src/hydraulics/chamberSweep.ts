@@ -12,7 +12,7 @@ import type { OpeningsSweep } from "./openingsSweep.js";
 import { warmRoot, type WarmStart } from "./roots.js";
 
 /** Relative tolerance of the sweep's chamber flow (the direct solve's is CHAMBER_TOLERANCE). */
-export const SWEEP_TOLERANCE = 1e-7;
+export const SWEEP_TOLERANCE = 1e-6;
 
 export class ChamberSweep {
   private readonly barrel: Barrel;
