@@ -19,11 +19,11 @@ export const FREE_COLUMNS_KEPT = 256;
 const freeColumns = new WeakMap<Float64Array, Map<string, Float64Array>>();
 
 /**
- * The free flow of one part (an element, or the riser's rim) at every stage of a grid, kept by the
- * part's values and the grid: candidates of a search that share a level share its column. A pure
- * function's memo: the values are those computed on a miss.
+ * The flow of one part at every stage of a grid (an element's or the rim's free flow, the spillway's
+ * at a fixed tailwater), kept by the part's values and the grid: candidates of a search that share
+ * a level share its column. A pure function's memo: the values are those computed on a miss.
  */
-function freeColumn(stages: Float64Array, key: string, flowAt: (ws: number) => number): Float64Array {
+export function freeColumn(stages: Float64Array, key: string, flowAt: (ws: number) => number): Float64Array {
   let columns = freeColumns.get(stages);
   if (!columns) {
     columns = new Map();

@@ -7,7 +7,7 @@
 import type { Outlet, Tailwater } from "../case/model.js";
 import { dischargeAtTailwater, outletDischarge } from "./outlet.js";
 import { lowestOpening } from "./openings.js";
-import { OpeningsSweep } from "./openingsSweep.js";
+import { freeColumn, OpeningsSweep } from "./openingsSweep.js";
 import { ChamberSweep, extrapolate, sweepTolerance } from "./chamberSweep.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
@@ -29,10 +29,9 @@ export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array
   const openings = new OpeningsSweep(outlet, true);
   openings.useGrid(stages);
   const chamber = outlet.barrel ? new ChamberSweep(openings, tw) : null;
+  const spill = spillway ? freeColumn(stages, `spillway ${tw} ${JSON.stringify(spillway)}`, (ws) => spillwayFlow(spillway, ws, tw)) : null;
   for (let i = 0; i < n; i++) {
-    const ws = stages[i];
-    const spill = spillway ? spillwayFlow(spillway, ws, tw) : 0;
-    out[i] = (chamber ? chamber.flow(ws, i) : openingsWithTailwater(openings, i, tw)) + spill;
+    out[i] = (chamber ? chamber.flow(stages[i], i) : openingsWithTailwater(openings, i, tw)) + (spill ? spill[i] : 0);
   }
 }
 
