@@ -55,17 +55,18 @@ export class ChamberSweep {
   private solve(ws: number, index: number): number {
     const openings = this.openings;
     const free = openings.setGridStage(index);
-    if (!(free > 0)) return 0;
-    const inlet = this.barrel.inletInvert;
-    const curve = this.curve;
-    const freeLevel = inlet + curveHeadwater(curve, free);
-    if (freeLevel <= this.lowest) return free;
-    // Once the barrel throttles, it stays throttled as the stage rises (the root search evaluates
-    // g(free) only if it must).
+    // Once the barrel throttles, it mostly stays throttled as the stage rises: then the root search
+    // evaluates g(free) only if it must (and returns the free flow if g(free) >= 0 after all).
     const throttled = this.state.root < this.previousFree;
     this.previousFree = free;
-    const freeExcess = freeLevel >= ws ? -free : throttled ? NaN : openings.flow(freeLevel) - free;
-    if (freeExcess >= 0) return free;
+    if (!(free > 0)) return 0;
+    let freeExcess = NaN;
+    if (!throttled) {
+      const freeLevel = this.barrel.inletInvert + curveHeadwater(this.curve, free);
+      if (freeLevel <= this.lowest) return free;
+      freeExcess = freeLevel >= ws ? -free : openings.flow(freeLevel) - free;
+      if (freeExcess >= 0) return free;
+    }
     // The bracket: nothing is throttled below the flow that lifts the chamber to the lowest opening
     // (as in chamber.ts), nor below the previous stage's flow; g(free) < 0 above.
     let low = Math.min(this.unthrottled, free);
