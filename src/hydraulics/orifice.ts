@@ -36,7 +36,7 @@ export function rectangularOpeningIntegral(width: number, height: number, invert
   if (submergedTop > invert) total += width * (submergedTop - invert) * Math.sqrt(ws - ds);
   const a = Math.max(invert, ds);
   const b = Math.min(top, ws);
-  if (b > a) total += width * (2 / 3) * (Math.pow(ws - a, 1.5) - Math.pow(ws - b, 1.5));
+  if (b > a) total += width * (2 / 3) * ((ws - a) * Math.sqrt(ws - a) - (ws - b) * Math.sqrt(ws - b));
   return total;
 }
 
