@@ -52,7 +52,7 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
 
 /** Routes an outlet through the `route` path, assesses and costs it. */
 export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet): RoutedOutlet {
-  const routing = routeCase(p.case, outlet);
+  const routing = routeCase(p.case, outlet, { direct: p.options.referencePath });
   const assessment = assess(p.case, routing);
   let error = 0;
   for (const { storm, result } of routing.storms) {

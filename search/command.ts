@@ -7,6 +7,7 @@ import { buildProblem, type DesignLimits } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
+import { pondDesignCommand } from "./pondCommand.js";
 
 export interface DesignCommandOptions {
   seed?: string;
@@ -20,6 +21,7 @@ export interface DesignCommandOptions {
   out?: string;
   resume?: boolean;
   progress?: boolean;
+  sizePond?: boolean;
   vary?: string;
   keepRiser?: boolean;
   keepBarrel?: boolean;
@@ -36,6 +38,7 @@ export function designLimits(options: DesignCommandOptions): DesignLimits {
 }
 
 export function designCommand(path: string, options: DesignCommandOptions): number {
+  if (options.sizePond) return pondDesignCommand(path, options);
   const loaded = load(path);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);
