@@ -4,8 +4,9 @@ import { cpus } from "node:os";
 import type { BenchSection } from "./section.js";
 import { routingSection } from "./routing.js";
 import { searchSection } from "./search.js";
+import { workersSection } from "./workers.js";
 
-const sections: BenchSection[] = [routingSection, searchSection];
+const sections: BenchSection[] = [routingSection, searchSection, workersSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

@@ -25,6 +25,8 @@ export interface Candidate {
   description: string;
   /** On the non-dominated front of error against cost among compliant candidates. */
   pareto: boolean;
+  /** Rank (from 1) of the better candidate whose openings this one repeats, or null. */
+  variantOf: number | null;
   explanation: string[];
 }
 
@@ -47,6 +49,7 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
     error,
     description: describeOutlet(outlet, formatter(p.case.units)),
     pareto: false,
+    variantOf: null,
     explanation: [],
   };
 }

@@ -26,6 +26,7 @@ export function candidateJson(p: SearchProblem, c: Candidate, rank: number) {
     cost: c.cost,
     error: c.error,
     pareto: c.pareto,
+    variantOf: c.variantOf,
     binding: binding ? { ...checkJson(p.case, binding), why: c.explanation[1]?.replace(/^why: /, "") ?? "" } : null,
     explanation: c.explanation,
     caseFile: candidateCaseName(rank),
@@ -43,6 +44,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
     search: {
       success: run.success,
       stoppedBecause: run.stoppedBecause,
+      interrupted: run.interrupted,
       layouts: run.layoutsFitted,
       layoutsPlanned: run.layoutsPlanned,
       layoutsFitted: run.layoutsFitted,
@@ -53,7 +55,12 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       seconds: run.seconds,
       secondsToFirstCompliant: run.secondsToFirstCompliant,
       seed: run.seed,
-      budget: run.budget,
+      budget: run.budget === Infinity ? null : run.budget,
+      timeBudget: run.timeBudget,
+      workers: run.workers,
+      shard: run.shard ? `${run.shard.index}/${run.shard.count}` : null,
+      layoutsFromJournal: run.layoutsFromJournal,
+      layoutsOtherShards: run.layoutsOtherShards,
       margin: p.options.margin,
     },
     infeasible: run.infeasible,
@@ -87,7 +94,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
   shown.forEach((c, i) => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
-    const status = c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant";
+    const status = (c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant") + (c.variantOf !== null ? `, variant of #${c.variantOf}` : "");
     table.push([
       String(i + 1),
       wrap(c.description, 58),
@@ -102,9 +109,12 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
       status,
     ]);
   });
-  lines.push(table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  if (shown.length > 0) {
+    const heading = run.success ? [] : ["No compliant design was found; the closest candidates, with the checks they fail:", ""];
+    lines.push(...heading, table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  } else lines.push("No candidate kept every geometric rule; nothing to show.");
   shown.forEach((c, i) => {
-    lines.push("", `Candidate ${i + 1}: ${c.description}`);
+    lines.push("", `Candidate ${i + 1}: ${c.description}${c.variantOf !== null ? ` (a variant of candidate ${c.variantOf}: the same openings)` : ""}`);
     for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
     for (const w of c.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
     for (const line of c.explanation) lines.push(`  ${line}`);
@@ -114,12 +124,13 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
     for (const reason of run.infeasible) lines.push(`  - ${reason}`);
   }
   const rate = run.seconds > 0 ? Math.round(run.routings / run.seconds) : run.routings;
+  const budget = run.timeBudget !== null ? `time budget ${run.timeBudget} s` : `budget ${run.budget} routings`;
   lines.push(
     "",
-    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}.`,
-    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
+    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`,
+    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than the ranking's head${run.shard ? `, ${run.layoutsOtherShards} left to the other shards` : ""}), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
-      `; seed "${run.seed}", budget ${run.budget} routings.`,
+      `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`,
     "",
     `Caution: ${CAUTION}`,
   );

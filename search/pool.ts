@@ -1,0 +1,110 @@
+// Fits a round of layouts, in this thread or spread over worker threads. Either way the outcomes come
+// back in the order of the round's layouts, so what enters the ranking does not depend on the number
+// of workers or on which finished first.
+import { Worker } from "node:worker_threads";
+import type { Layout } from "./layout.js";
+import type { SearchProblem } from "./problem.js";
+import { fitJob, layoutIndex, type FitOutcome, type FitSettings } from "./fitJob.js";
+
+/** Where a worker finds the case, to build the very problem the main thread has. */
+export interface ProblemSource {
+  /** Case file path (as loaded by the command). */
+  path?: string;
+  /** Or the case's JSON itself (inflow series inline). */
+  json?: unknown;
+  margin?: number;
+}
+
+export interface FitJobRequest {
+  key: string;
+  layout: Layout;
+}
+
+export interface LayoutFitter {
+  readonly workers: number;
+  /**
+   * Fits the jobs; `onDone` hears each outcome as soon as it is ready (for the journal), in any
+   * order. Stops handing out jobs once `stop()` is true; the outcomes of jobs not fitted are null.
+   */
+  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]>;
+  close(): Promise<void>;
+}
+
+/** Fits in this thread, yielding to the event loop between layouts (so a signal is heard). */
+export class InlineFitter implements LayoutFitter {
+  readonly workers = 1;
+  constructor(private readonly problem: SearchProblem, private readonly settings: FitSettings) {}
+
+  async fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
+    const out: (FitOutcome | null)[] = jobs.map(() => null);
+    for (let i = 0; i < jobs.length; i++) {
+      await new Promise((resolve) => setImmediate(resolve));
+      if (stop()) break;
+      out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, this.settings);
+      onDone(i, out[i]!);
+    }
+    return out;
+  }
+
+  async close(): Promise<void> {}
+}
+
+/** Fits on `count` worker threads, each holding its own copy of the problem. */
+export class WorkerFitter implements LayoutFitter {
+  private readonly pool: Worker[];
+  constructor(private readonly problem: SearchProblem, source: ProblemSource, settings: FitSettings, readonly workers: number) {
+    const script = new URL("./fitWorker.js", import.meta.url);
+    this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: { source, settings } }));
+  }
+
+  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
+    const out: (FitOutcome | null)[] = jobs.map(() => null);
+    let next = 0;
+    let busy = 0;
+    return new Promise((resolve, reject) => {
+      let failed = false;
+      const give = (worker: Worker) => {
+        if (failed) return;
+        if (next >= jobs.length || stop()) {
+          if (busy === 0) finish();
+          return;
+        }
+        const id = next++;
+        busy++;
+        const onMessage = (message: { id: number; outcome?: FitOutcome; error?: string }) => {
+          worker.off("message", onMessage);
+          worker.off("error", onError);
+          busy--;
+          if (message.error !== undefined) return fail(new Error(message.error));
+          out[message.id] = message.outcome!;
+          onDone(message.id, message.outcome!);
+          give(worker);
+        };
+        const onError = (error: Error) => {
+          worker.off("message", onMessage);
+          fail(error);
+        };
+        worker.on("message", onMessage);
+        worker.on("error", onError);
+        worker.postMessage({ id, key: jobs[id].key, layout: layoutIndex(this.problem, jobs[id].layout) });
+      };
+      let finished = false;
+      const finish = () => {
+        if (!finished) {
+          finished = true;
+          resolve(out);
+        }
+      };
+      const fail = (error: Error) => {
+        failed = true;
+        reject(error);
+      };
+      if (jobs.length === 0) return finish();
+      for (const worker of this.pool) give(worker);
+    });
+  }
+
+  async close(): Promise<void> {
+    await Promise.all(this.pool.map((w) => w.terminate()));
+  }
+}
