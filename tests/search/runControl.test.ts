@@ -172,3 +172,30 @@ describe("design runs: determinism, interruption and recovery", () => {
     }
   });
 });
+
+describe("time budgets", () => {
+  it("a time budget is spent: the run goes on widening until the time is used", () => {
+    const r = outfit("design", CASE, "--budget", "4s", "--workers", "1", "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const search = JSON.parse(r.stdout).search;
+    expect(search.timeBudget).toBe(4);
+    expect(search.budget).toBeNull();
+    expect(search.stoppedBecause).toBe("the time budget of 4 s was used");
+    expect(search.seconds).toBeGreaterThanOrEqual(4);
+  });
+
+  it("stops early only on a catalogue it has exhausted, and says so", () => {
+    const json = JSON.parse(readFileSync(CASE, "utf8"));
+    json.name = "Tiny catalogue (invented)";
+    json.catalogue = { orifice: { diameters: ["2 in", "3 in", "4 in"], maxCount: 1 }, riser: { diameters: [3] }, maxStages: 2, elevationStep: 0.05 };
+    const file = join(dir("tiny"), "case.json");
+    writeFileSync(file, JSON.stringify(json));
+    const r = outfit("design", file, "--budget", "10m", "--workers", "1", "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const search = JSON.parse(r.stdout).search;
+    expect(search.stoppedBecause).toMatch(/^the catalogue is exhausted: all \d+ layouts it allows were fitted or bounded out by cost$/);
+    expect(search.seconds).toBeLessThan(600);
+    const total = Number(/all (\d+) layouts/.exec(search.stoppedBecause)![1]);
+    expect(search.layoutsFitted + search.layoutsSkippedByCost).toBeGreaterThanOrEqual(total);
+  });
+});
