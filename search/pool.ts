@@ -59,6 +59,10 @@ export class WorkerFitter implements LayoutFitter {
 
   fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
     const out: (FitOutcome | null)[] = jobs.map(() => null);
+    // Handed out longest first (more elevations to fit, longer fit), so the round ends sooner; the
+    // outcomes are placed by job number, so the order of handing out changes nothing else.
+    const size = (j: FitJobRequest) => j.layout.levels.length + (j.layout.riser ? 1 : 0);
+    const order = jobs.map((_, i) => i).sort((a, b) => size(jobs[b]) - size(jobs[a]) || a - b);
     let next = 0;
     let busy = 0;
     return new Promise((resolve, reject) => {
@@ -69,7 +73,7 @@ export class WorkerFitter implements LayoutFitter {
           if (busy === 0) finish();
           return;
         }
-        const id = next++;
+        const id = order[next++];
         busy++;
         const onMessage = (message: { id: number; outcome?: FitOutcome; error?: string }) => {
           worker.off("message", onMessage);

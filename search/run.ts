@@ -162,13 +162,26 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   const firstPlan = plan;
   let bestCost: number | null = null;
 
-  const accept = (layout: Layout, vars: number[]): Candidate | null => {
+  // Designs routed again while the round's other layouts are still being fitted (a pure function of
+  // the design, so computing it early changes nothing but the time); taken when the round is merged.
+  const early = new Map<string, Candidate>();
+  const designKey = (layout: Layout, vars: number[]) => {
     const file = designOutletFile(p, layout, vars);
-    const key = createHash("sha1").update(JSON.stringify(file)).digest("base64");
+    return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
+  };
+  const prepare = (layout: Layout, designs: number[][]) => {
+    for (const vars of designs) {
+      const { file, key } = designKey(layout, vars);
+      if (!seenDesigns.has(key) && !early.has(key)) early.set(key, finalizeCandidate(p, layout, vars, file));
+    }
+  };
+  const accept = (layout: Layout, vars: number[]): Candidate | null => {
+    const { file, key } = designKey(layout, vars);
     if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = finalizeCandidate(p, layout, vars, file);
+    const candidate = early.get(key) ?? finalizeCandidate(p, layout, vars, file);
+    early.delete(key);
     candidates.set(key, candidate);
     if (candidates.size > 2 * KEPT) {
       const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
@@ -315,7 +328,10 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const jobs = round.filter((e) => !options.done?.has(e.key));
     const outcomes = await fitter.fit(
       jobs.map((e) => ({ key: e.key, layout: e.layout })),
-      (i, outcome) => options.onLayout?.({ key: jobs[i].key, ...outcome }),
+      (i, outcome) => {
+        options.onLayout?.({ key: jobs[i].key, ...outcome });
+        if (fitter.workers > 1) prepare(jobs[i].layout, outcome.designs);
+      },
       () => options.interrupt?.() != null,
     );
     const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
@@ -335,6 +351,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       }
       if (clean) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
+    early.clear();
     options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
