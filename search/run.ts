@@ -344,12 +344,13 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       fitted++;
       fitRoutings += outcome.routings;
       fitEvaluations += outcome.evaluations;
-      let clean = false;
+      // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
+      let expand = false;
       for (const vars of outcome.designs) {
         const c = accept(entry.layout, vars);
-        if (c && c.assessment.compliant && c.assessment.warnings.length === 0) clean = true;
+        if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
       }
-      if (clean) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
+      if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
     early.clear();
     options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });

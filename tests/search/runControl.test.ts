@@ -112,18 +112,18 @@ describe("design runs: determinism, interruption and recovery", () => {
     for (const line of again.slice(1, -1)) expect(() => JSON.parse(line)).not.toThrow();
   });
 
-  it("stops on SIGINT with exit code 3, writing results.json and summary.txt of the partial run", async () => {
-    const out = dir("sigint");
-    const stopped = await interrupt(["design", CASE, "--budget", "400000", "--workers", "1", "--out", out], out, 4, "SIGINT");
+  it.each(["SIGINT", "SIGTERM"] as const)("stops on %s with exit code 3, writing results.json and summary.txt of the partial run", async (signal) => {
+    const out = dir("signal");
+    const stopped = await interrupt(["design", CASE, "--budget", "400000", "--workers", "2", "--out", out], out, 4, signal);
     expect(stopped.code).toBe(3);
     const results = JSON.parse(readFileSync(join(out, "results.json"), "utf8"));
     expect(results.search.interrupted).toBe(true);
-    expect(results.search.stoppedBecause).toBe("it was interrupted by SIGINT");
+    expect(results.search.stoppedBecause).toBe(`it was interrupted by ${signal}`);
     expect(results.search.layoutsFitted).toBeGreaterThanOrEqual(4);
     expect(results.search.routings).toBeLessThan(400000);
     expect(results.search.layoutsFitted).toBe(journalKeys(out).length);
     const summary = readFileSync(join(out, "summary.txt"), "utf8");
-    expect(summary).toMatch(/stopped because it was interrupted by SIGINT \(a partial run: --resume goes on from its journal\)/);
+    expect(summary).toContain(`stopped because it was interrupted by ${signal} (a partial run: --resume goes on from its journal)`);
     expect(summary).toMatch(/Caution:/);
   });
 
