@@ -81,8 +81,9 @@ export class WorkerFitter implements LayoutFitter {
           busy--;
           if (message.error !== undefined) return fail(new Error(message.error));
           out[message.id] = message.outcome!;
-          onDone(message.id, message.outcome!);
+          // The worker gets its next job before the outcome is handled here.
           give(worker);
+          onDone(message.id, message.outcome!);
         };
         const onError = (error: Error) => {
           worker.off("message", onMessage);

@@ -12,6 +12,7 @@ import { Evaluator } from "./evaluate.js";
 import { closestLayouts, layoutCost, layoutSpace, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
+import { availableParallelism } from "node:os";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { explainCandidate, explainInfeasible } from "./explain.js";
@@ -169,6 +170,9 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const file = designOutletFile(p, layout, vars);
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
   };
+  // Only where a core is left for this thread besides the workers (measured: on 2 cores with 2
+  // workers the overlap slowed the fits more than it saved).
+  const overlap = fitter.workers > 1 && fitter.workers < availableParallelism();
   const prepare = (layout: Layout, designs: number[][]) => {
     for (const vars of designs) {
       const { file, key } = designKey(layout, vars);
@@ -330,7 +334,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       jobs.map((e) => ({ key: e.key, layout: e.layout })),
       (i, outcome) => {
         options.onLayout?.({ key: jobs[i].key, ...outcome });
-        if (fitter.workers > 1) prepare(jobs[i].layout, outcome.designs);
+        if (overlap) prepare(jobs[i].layout, outcome.designs);
       },
       () => options.interrupt?.() != null,
     );
