@@ -10,9 +10,10 @@ const { source, settings } = workerData as { source: ProblemSource; settings: Fi
 const loaded = source.path !== undefined ? loadCase(source.path) : parseCase(source.json);
 const problem = buildProblem(loaded.case, loaded.data, { margin: source.margin });
 
-parentPort!.on("message", (job: { id: number; key: string; layout: LayoutIndex }) => {
+parentPort!.on("message", (job: { id: number; key: string; starts?: number; layout: LayoutIndex }) => {
   try {
-    parentPort!.postMessage({ id: job.id, outcome: fitJob(problem, layoutAt(problem, job.layout), job.key, settings) });
+    const outcome = fitJob(problem, layoutAt(problem, job.layout), job.key, { ...settings, starts: job.starts ?? settings.starts });
+    parentPort!.postMessage({ id: job.id, outcome });
   } catch (error) {
     parentPort!.postMessage({ id: job.id, error: error instanceof Error ? error.message : String(error) });
   }

@@ -18,6 +18,8 @@ export interface ProblemSource {
 export interface FitJobRequest {
   key: string;
   layout: Layout;
+  /** Starts of this fit, when not the run's. */
+  starts?: number;
 }
 
 export interface LayoutFitter {
@@ -40,7 +42,7 @@ export class InlineFitter implements LayoutFitter {
     for (let i = 0; i < jobs.length; i++) {
       await new Promise((resolve) => setImmediate(resolve));
       if (stop()) break;
-      out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, this.settings);
+      out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, { ...this.settings, starts: jobs[i].starts ?? this.settings.starts });
       onDone(i, out[i]!);
     }
     return out;
@@ -91,7 +93,7 @@ export class WorkerFitter implements LayoutFitter {
         };
         worker.on("message", onMessage);
         worker.on("error", onError);
-        worker.postMessage({ id, key: jobs[id].key, layout: layoutIndex(this.problem, jobs[id].layout) });
+        worker.postMessage({ id, key: jobs[id].key, starts: jobs[id].starts, layout: layoutIndex(this.problem, jobs[id].layout) });
       };
       let finished = false;
       const finish = () => {

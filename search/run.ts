@@ -111,6 +111,8 @@ const PROMISING = 0.02;
 const MAX_SAMPLING_ROUNDS = 200;
 /** Largest layout space enumerated whole, so that a time budget can prove it exhausted. */
 const ENUMERABLE = 5000;
+/** A time budget fits a layout found wanting again with 3, then 9 times the starts, no more. */
+const MAX_STARTS_FACTOR = 9;
 
 /**
  * Marks near-duplicates: a candidate whose openings (parts, counts and sizes, bottom up) repeat a
@@ -179,6 +181,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (!seenDesigns.has(key) && !early.has(key)) early.set(key, finalizeCandidate(p, layout, vars, file));
     }
   };
+  const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
   const accept = (layout: Layout, vars: number[]): Candidate | null => {
     const { file, key } = designKey(layout, vars);
     if (seenDesigns.has(key)) return null;
@@ -219,12 +222,16 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   // One queue of layouts to fit: the plan's, and the neighbours of compliant candidates. Until a
   // compliant design exists the most promising (lowest staged score) goes first; after that the
   // cheapest, so effort goes where cheaper compliant designs may be.
-  type Entry = { layout: Layout; cost: number; score: number };
+  // `starts`: a fit again with more starts (a time budget's widening), journalled under its own key.
+  type Entry = { layout: Layout; cost: number; score: number; starts?: number };
+  const entryKey = (e: Entry) => layoutKey(e.layout) + (e.starts ? ` | starts ${e.starts}` : "");
+  // With a time budget: layouts fitted without a compliant design, to fit again with more starts.
+  const missed: Entry[] = [];
   const queue: Entry[] = [];
   const queued = new Set<string>();
   const enqueue = (entries: Entry[]) => {
     for (const e of entries) {
-      const key = layoutKey(e.layout);
+      const key = entryKey(e);
       if (tried.has(key) || queued.has(key)) continue;
       queued.add(key);
       queue.push(e);
@@ -271,22 +278,29 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (closest()) return null;
       return `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
     }
-    // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
     const bar = costBar();
-    const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, bar);
-    const before = planned;
-    enqueue(sampled.filter((s) => s.score <= promising));
-    samplingRounds = planned > before ? 0 : samplingRounds + 1;
-    if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
+    // A time budget on a space small enough to list goes through the list instead of sampling it.
+    if (timed && space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
+    // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
+    if (!(timed && space)) {
+      const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, bar);
+      const before = planned;
+      enqueue(sampled.filter((s) => s.score <= promising));
+      samplingRounds = planned > before ? 0 : samplingRounds + 1;
+      if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
+    }
     if (!timed) return `${MAX_SAMPLING_ROUNDS} rounds of random layouts found nothing more to fit`;
-    // A time budget is spent: fit every layout of a small space, or screen with a looser threshold.
+    // A time budget is spent: fit every layout of a small space, fit again with more starts the
+    // cheapest layouts whose fit found nothing compliant, and screen with a looser threshold.
     samplingRounds = 0;
-    if (space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
-    if (space !== null) {
-      const left = space.filter((l) => !tried.has(layoutKey(l)));
-      if (left.length === 0) return `the catalogue is exhausted: all ${space.length} layouts it allows were fitted or bounded out by cost`;
-      enqueue(left.map((l) => ({ layout: l, cost: layoutCost(p, l), score: Infinity })));
-      return null;
+    const left = space ? space.filter((l) => !tried.has(layoutKey(l))) : [];
+    enqueue(left.map((l) => ({ layout: l, cost: layoutCost(p, l), score: Infinity })));
+    const again = missed.filter((e) => e.cost < bar && (e.starts ?? options.starts) < MAX_STARTS_FACTOR * options.starts);
+    again.sort((a, b) => a.cost - b.cost).splice(ROUND);
+    for (const e of again) missed.splice(missed.indexOf(e), 1);
+    enqueue(again.map((e) => ({ ...e, starts: (e.starts ?? options.starts) * 3 })));
+    if (space && left.length === 0 && again.length === 0) {
+      return `the catalogue is exhausted: all ${space.length} layouts it allows were fitted (those found wanting again with up to ${MAX_STARTS_FACTOR} times the starts) or bounded out by cost`;
     }
     promising *= 4;
     return null;
@@ -315,7 +329,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     while (round.length < ROUND) {
       const entry = take();
       if (!entry) break;
-      const key = layoutKey(entry.layout);
+      const key = entryKey(entry);
       tried.add(key);
       if (entry.cost >= bar) skipped++;
       else if (options.shard && !inShard(key, options.shard)) otherShards++;
@@ -331,7 +345,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     }
     const jobs = round.filter((e) => !options.done?.has(e.key));
     const outcomes = await fitter.fit(
-      jobs.map((e) => ({ key: e.key, layout: e.layout })),
+      jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
       (i, outcome) => {
         options.onLayout?.({ key: jobs[i].key, ...outcome });
         if (overlap) prepare(jobs[i].layout, outcome.designs);
@@ -354,6 +368,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         const c = accept(entry.layout, vars);
         if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
       }
+      if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
       if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
     early.clear();
