@@ -17,6 +17,7 @@ import { InlineFitter, WorkerFitter, type LayoutFitter } from "./pool.js";
 export const EXIT_INTERRUPTED = 3;
 /** Exit code of `--check` when no compliant design was found. */
 export const EXIT_NOT_COMPLIANT = 1;
+import { pondDesignCommand } from "./pondCommand.js";
 
 export interface DesignCommandOptions {
   seed?: string;
@@ -36,6 +37,7 @@ export interface DesignCommandOptions {
   check?: boolean;
   /** `outfit gather`: output directories of shards whose journals are replayed. */
   gather?: string[];
+  sizePond?: boolean;
 }
 
 /** `--budget`: a number of routings, or a time such as 90s, 20m or 8h (seconds). */
@@ -74,6 +76,7 @@ function removeStale(dir: string, keep: number): string[] {
 }
 
 export async function designCommand(path: string, options: DesignCommandOptions): Promise<number> {
+  if (options.sizePond) return pondDesignCommand(path, options);
   const loaded = load(path);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);
