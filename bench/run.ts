@@ -5,8 +5,9 @@ import type { BenchSection } from "./section.js";
 import { routingSection } from "./routing.js";
 import { searchSection } from "./search.js";
 import { speedSection } from "./speed.js";
+import { workersSection } from "./workers.js";
 
-const sections: BenchSection[] = [routingSection, speedSection, searchSection];
+const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

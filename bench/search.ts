@@ -14,10 +14,10 @@ const BENCH_BUDGET = 20000;
 
 export const searchSection: BenchSection = {
   name: "search",
-  run() {
-    const rows = benchSearch(join(process.cwd(), "cases"), BENCH_BUDGET);
+  async run() {
+    const rows = await benchSearch(join(process.cwd(), "cases"), BENCH_BUDGET);
     printSearchBench(rows, BENCH_BUDGET);
-    searchMemory(join(process.cwd(), "cases", "si-headwall", "case.json"));
+    await searchMemory(join(process.cwd(), "cases", "si-headwall", "case.json"));
   },
 };
 
@@ -37,7 +37,7 @@ export interface SearchBenchRow {
   randomSeconds: number;
 }
 
-export function benchSearch(casesDir: string, budget: number): SearchBenchRow[] {
+export async function benchSearch(casesDir: string, budget: number): Promise<SearchBenchRow[]> {
   const rows: SearchBenchRow[] = [];
   for (const name of readdirSync(casesDir).sort()) {
     const file = join(casesDir, name, "case.json");
@@ -45,7 +45,7 @@ export function benchSearch(casesDir: string, budget: number): SearchBenchRow[] 
     const loaded = loadCase(file);
     if (!loaded.data.catalogue) continue;
     const problem = buildProblem(loaded.case, loaded.data);
-    const run = runSearch(problem, { seed: "bench", budget, top: 1, starts: 3, beam: 3 });
+    const run = await runSearch(problem, { seed: "bench", budget, top: 1, starts: 3, beam: 3 });
     const best = run.candidates.find((c) => c.assessment.compliant) ?? null;
     const random = randomSearch(problem, run.routings, "bench");
     rows.push({
@@ -89,7 +89,7 @@ export function printSearchBench(rows: SearchBenchRow[], budget: number): void {
 }
 
 /** Heap in use after longer and longer searches: it should level off (candidates kept are bounded). */
-function searchMemory(file: string): void {
+async function searchMemory(file: string): Promise<void> {
   const gc = (globalThis as { gc?: () => void }).gc;
   const heap = () => {
     gc?.();
@@ -98,7 +98,7 @@ function searchMemory(file: string): void {
   const loaded = loadCase(file);
   console.log(`\nSearch memory (si-headwall; heap in use${gc ? " after a full collection" : ", no --expose-gc: includes garbage"})`);
   for (const budget of [20000, 80000, 160000]) {
-    const run = runSearch(buildProblem(loaded.case, loaded.data), { seed: "memory", budget, top: 5, starts: 3, beam: 3 });
+    const run = await runSearch(buildProblem(loaded.case, loaded.data), { seed: "memory", budget, top: 5, starts: 3, beam: 3 });
     console.log(`  budget ${String(budget).padStart(6)} routings: ${run.layoutsFitted} layouts fitted, ${run.candidatesRouted} designs routed, ${run.candidates.length} kept; heap ${heap().toFixed(1)} MB`);
   }
 }

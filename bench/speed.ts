@@ -28,17 +28,18 @@ interface Figures {
 
 /** One search; routings per second of this process's processor time (on a loaded machine the wall
  * clock also counts other work's turns), the time to the first compliant design by the wall clock. */
-function search(c: Case, file: CaseFile, direct: boolean): Figures {
+async function search(c: Case, file: CaseFile, direct: boolean): Promise<Figures> {
   const cpu = process.cpuUsage();
   const processorSeconds = () => {
     const used = process.cpuUsage(cpu);
     return (used.user + used.system) / 1e6;
   };
   let firstProcessorSeconds: number | null = null;
-  const onLayout = (_entry: unknown, progress: { compliant: number }) => {
+  // Heard after each round of layouts (the search's progress), so the figure is to the end of the round.
+  const onProgress = (progress: { compliant: number }) => {
     if (firstProcessorSeconds === null && progress.compliant > 0) firstProcessorSeconds = processorSeconds();
   };
-  const run = runSearch(buildProblem(c, file, { referencePath: direct }), { seed: "bench", budget: SPEED_BUDGET, top: 1, starts: 3, beam: 3, onLayout });
+  const run = await runSearch(buildProblem(c, file, { referencePath: direct }), { seed: "bench", budget: SPEED_BUDGET, top: 1, starts: 3, beam: 3, onProgress });
   const seconds = processorSeconds();
   return { perSecond: run.routings / seconds, firstSeconds: run.secondsToFirstCompliant, firstProcessorSeconds, firstRoutings: run.routingsToFirstCompliant };
 }
@@ -61,7 +62,7 @@ function withoutBarrel(c: Case, file: CaseFile): { c: Case; file: CaseFile } {
   return { c: { ...c, outlet, tailwater: { kind: "free" } }, file: plainFile };
 }
 
-function run(): void {
+async function run(): Promise<void> {
   const casesDir = join(process.cwd(), "cases");
   const rows: string[][] = [];
   for (const name of readdirSync(casesDir).sort()) {
@@ -72,8 +73,8 @@ function run(): void {
     const before: Figures[] = [];
     const after: Figures[] = [];
     for (let r = 0; r < REPEATS; r++) {
-      before.push(search(loaded.case, loaded.data, true));
-      after.push(search(loaded.case, loaded.data, false));
+      before.push(await search(loaded.case, loaded.data, true));
+      after.push(await search(loaded.case, loaded.data, false));
     }
     const b = fastest(before);
     const a = fastest(after);
@@ -81,7 +82,9 @@ function run(): void {
     let plain = "";
     if (special) {
       const bare = withoutBarrel(loaded.case, loaded.data);
-      const p = fastest(Array.from({ length: REPEATS }, () => search(bare.c, bare.file, false)));
+      const repeats: Figures[] = [];
+      for (let r = 0; r < REPEATS; r++) repeats.push(await search(bare.c, bare.file, false));
+      const p = fastest(repeats);
       plain = `${Math.round(p.perSecond)} (after/plain ${(a.perSecond / p.perSecond).toFixed(2)})`;
     }
     const first = (f: Figures) => (f.firstSeconds === null ? "none" : `${f.firstSeconds.toFixed(3)} s (${f.firstProcessorSeconds?.toFixed(3)} s) / ${f.firstRoutings}`);

@@ -34,6 +34,8 @@ export interface Candidate extends RoutedOutlet {
   rankByChange: boolean;
   /** On the non-dominated front of error against cost among compliant candidates. */
   pareto: boolean;
+  /** Rank (from 1) of the better candidate whose openings this one repeats, or null. */
+  variantOf: number | null;
   explanation: string[];
 }
 
@@ -46,6 +48,7 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
     changes: p.existing ? changeList(p, p.existing.outlet, routed.outlet) : null,
     rankByChange: p.limits.rankBy === "change" && p.existing !== null,
     pareto: false,
+    variantOf: null,
     explanation: [],
   };
 }

@@ -240,6 +240,49 @@ function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): 
   return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
 }
 
+/**
+ * When the bound prunes every plan: the layouts nearest to passing, one level each, from the pruned
+ * options that released least at the smallest storm, so the closest candidates can be shown.
+ */
+export function closestLayouts(p: SearchProblem, plan: LayoutPlan, count: number): Layout[] {
+  const barrel = barrelChoices(p)[0];
+  const out: Layout[] = [];
+  for (const record of [...plan.pruned].sort((a, b) => a.peak - b.peak)) {
+    const riser = riserChoices(p, [record.part], barrel)[0];
+    if (riser === undefined) continue;
+    out.push({ levels: [record.part], riser, barrel });
+    if (out.length >= count) break;
+  }
+  return out;
+}
+
+/**
+ * Every layout of the space `sampleLayouts` draws from, or null when it holds more than `limit`
+ * (then it is too large to list, and only sampled).
+ */
+export function layoutSpace(p: SearchProblem, plan: LayoutPlan, limit: number): Layout[] | null {
+  const out: Layout[] = [];
+  const maxLevels = Math.min(p.maxLevels, p.targeted.length);
+  if (maxLevels === 0 || plan.firstOptions.length === 0) return out;
+  const options = p.parts.filter((part) => fitsSomeRiser(p, part));
+  const barrels = barrelChoices(p);
+  const grow = (levels: PartOption[]): boolean => {
+    if (levels.length > 0) {
+      for (const barrel of barrels) {
+        for (const riser of riserChoices(p, levels, barrel)) {
+          out.push({ levels, riser, barrel });
+          if (out.length > limit) return false;
+        }
+      }
+    }
+    if (levels.length === maxLevels) return true;
+    const next = levels.length === 0 && !p.floorTaken ? plan.firstOptions : options;
+    for (const part of next) if (!grow([...levels, part])) return false;
+    return true;
+  };
+  return grow([]) ? out : null;
+}
+
 /** Score of a full layout (the fit's own objective, every check, at the staged start) and its cost. */
 function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   // Staged without the barrel (fast), judged with it.

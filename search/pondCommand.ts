@@ -10,7 +10,7 @@ import type { DesignCommandOptions } from "./command.js";
 /** File name of the proposal in --out. */
 export const POND_DESIGN_CASE = "pond-and-outlet.json";
 
-export function pondDesignCommand(path: string, options: DesignCommandOptions): number {
+export async function pondDesignCommand(path: string, options: DesignCommandOptions): Promise<number> {
   if (options.resume) throw new UsageError("--resume", "with --size-pond", "--resume only for an outlet search (without --size-pond)");
   const loaded = load(path);
   const c = loaded.case;
@@ -18,7 +18,7 @@ export function pondDesignCommand(path: string, options: DesignCommandOptions): 
     throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
   }
   const margin = positiveNumber("--margin", options.margin);
-  const design = designPondAndOutlet(loaded, margin === undefined ? undefined : margin / 100, {
+  const design = await designPondAndOutlet(loaded, margin === undefined ? undefined : margin / 100, {
     seed: options.seed ?? "outfit",
     budget: Math.round(positiveNumber("--budget", options.budget) ?? 20000),
     timeLimit: positiveNumber("--time", options.time),

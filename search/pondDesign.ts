@@ -42,7 +42,7 @@ export interface PondDesign {
 /** Most sizes tried by one run (each a search). */
 const MAX_TRIALS = 40;
 
-export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefined, run: Omit<RunOptions, "done" | "onLayout">): PondDesign {
+export async function designPondAndOutlet(loaded: LoadedCase, margin: number | undefined, run: Omit<RunOptions, "done" | "onLayout">): Promise<PondDesign> {
   const c = loaded.case;
   const label = c.file ? c.file.split(/[\\/]/).pop()! : "case";
   if (!c.site) {
@@ -66,16 +66,16 @@ export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefin
     return t;
   };
   const total = (t: { sized: SizedPond }, best: Candidate | null) => (best ? best.cost + pondCost(t.sized, weights) : null);
-  const search = (steps: number): SizeTrial => {
+  const search = async (steps: number): Promise<SizeTrial> => {
     const known = trials.get(steps);
     if (known) return known;
     const at = caseAt(steps);
-    const result = runSearch(at.problem, run);
+    const result = await runSearch(at.problem, run);
     const best = result.candidates.find((k) => k.assessment.compliant) ?? null;
     return record({ steps, ...at, run: result, best, totalCost: total(at, best), how: "search" });
   };
   /** The design of a larger size routed on this size; a new search when it fails here. */
-  const trim = (steps: number, from: Candidate): SizeTrial => {
+  const trim = async (steps: number, from: Candidate): Promise<SizeTrial> => {
     const at = caseAt(steps);
     const again = finalizeCandidate(at.problem, from.layout, from.vars, from.file);
     if (again.assessment.compliant) return record({ steps, ...at, run: null, best: again, totalCost: total(at, again), how: "routed again" });
@@ -85,7 +85,7 @@ export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefin
   let steps = Math.max(1, c.sizing?.steps ?? seedSteps(loaded));
   let stoppedBecause = "";
   // Grow from the estimate until a compliant outlet exists (10 % or one step at a time).
-  let current = search(steps);
+  let current = await search(steps);
   while (!current.best) {
     const next = Math.max(steps + 1, Math.ceil(steps * 1.1));
     if (pondOfSize(site, c.criteria.freeboardDepth, next).exceeds !== null) {
@@ -97,13 +97,13 @@ export function designPondAndOutlet(loaded: LoadedCase, margin: number | undefin
       break;
     }
     steps = next;
-    current = search(steps);
+    current = await search(steps);
   }
   if (!current.best) return { trials: order, chosen: null, smaller: null, stoppedBecause };
   // Trim while a compliant outlet remains one step smaller.
   let smaller: SizeTrial | null = null;
   while (steps > 1 && order.length < MAX_TRIALS) {
-    const below = trials.get(steps - 1) ?? trim(steps - 1, current.best!);
+    const below = trials.get(steps - 1) ?? (await trim(steps - 1, current.best!));
     if (!below.best) {
       smaller = below;
       break;

@@ -38,6 +38,7 @@ export function candidateJson(p: SearchProblem, c: Candidate, rank: number, base
     rank,
     ...routedJson(p, c, c.explanation),
     pareto: c.pareto,
+    variantOf: c.variantOf,
     caseFile: candidateCaseName(rank),
     ...(baseline && c.changes
       ? { saving: { cost: saved!.cost, percent: saved!.fraction === null ? null : 100 * saved!.fraction }, changes: c.changes.changes, changeScore: c.changes.score }
@@ -66,6 +67,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
     search: {
       success: run.success,
       stoppedBecause: run.stoppedBecause,
+      interrupted: run.interrupted,
       layouts: run.layoutsFitted,
       layoutsPlanned: run.layoutsPlanned,
       layoutsFitted: run.layoutsFitted,
@@ -76,7 +78,12 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       seconds: run.seconds,
       secondsToFirstCompliant: run.secondsToFirstCompliant,
       seed: run.seed,
-      budget: run.budget,
+      budget: run.budget === Infinity ? null : run.budget,
+      timeBudget: run.timeBudget,
+      workers: run.workers,
+      shard: run.shard ? `${run.shard.index}/${run.shard.count}` : null,
+      layoutsFromJournal: run.layoutsFromJournal,
+      layoutsOtherShards: run.layoutsOtherShards,
       margin: p.options.margin,
     },
     infeasible: run.infeasible,
@@ -112,7 +119,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
   const row = (c: RoutedOutlet, label: string, pareto: boolean) => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
-    const status = c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant";
+    const status = (c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant") + ("variantOf" in c && c.variantOf !== null ? `, variant of #${c.variantOf}` : "");
     table.push([
       label,
       wrap(c.description, 58),
@@ -130,7 +137,11 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
   };
   if (baseline) row(baseline, "0", false);
   shown.forEach((c, i) => row(c, String(i + 1), c.pareto));
-  lines.push(table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  if (shown.length > 0 || baseline) {
+    const heading = run.success ? [] : ["No compliant design was found; the closest candidates, with the checks they fail:", ""];
+    lines.push(...heading, table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  }
+  if (shown.length === 0) lines.push("No candidate kept every geometric rule; nothing to show.");
   if (baseline) {
     lines.push(
       `Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.`,
@@ -146,7 +157,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
     }
   }
   shown.forEach((c, i) => {
-    lines.push("", `Candidate ${i + 1}: ${c.description}`);
+    lines.push("", `Candidate ${i + 1}: ${c.description}${c.variantOf !== null ? ` (a variant of candidate ${c.variantOf}: the same openings)` : ""}`);
     if (baseline && c.changes) {
       lines.push(`  against the existing outlet: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`);
       if (c.changes.changes.length === 0) lines.push("  change: none (the existing outlet itself)");
@@ -161,12 +172,13 @@ export function designText(p: SearchProblem, run: SearchRun, top: number): strin
     for (const reason of run.infeasible) lines.push(`  - ${reason}`);
   }
   const rate = run.seconds > 0 ? Math.round(run.routings / run.seconds) : run.routings;
+  const budget = run.timeBudget !== null ? `time budget ${run.timeBudget} s` : `budget ${run.budget} routings`;
   lines.push(
     "",
-    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}.`,
-    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
+    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`,
+    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than the ranking's head${run.shard ? `, ${run.layoutsOtherShards} left to the other shards` : ""}), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
-      `; seed "${run.seed}", budget ${run.budget} routings.`,
+      `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`,
     "",
     `Caution: ${CAUTION}`,
   );

@@ -1,41 +1,56 @@
-// The search run: plans layouts, fits them one by one within a budget of routings, routes every
-// result again through the `route` path, ranks and explains. Like an optimiser's result object it
-// says whether it succeeded, why it stopped and how much work it did. The same seed and budget give
-// the same ranking; a time limit is only a safety stop.
+// The search run: plans layouts, fits them in rounds within a budget, routes every result again
+// through the `route` path, ranks and explains. Like an optimiser's result object it says whether it
+// succeeded, why it stopped and how much work it did.
+//
+// Determinism: layouts are fitted in rounds of ROUND layouts chosen from the queue before the round
+// starts; each layout's fit depends only on the layout and the seed (search/fitJob.ts) and its
+// routings are counted per layout; the round's outcomes enter the ranking and the queue in the
+// round's order. So the same seed and routing budget give the same ranking whatever the number of
+// workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
 import type { SearchProblem } from "./problem.js";
 import { Evaluator } from "./evaluate.js";
-import { layoutCost, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import { closestLayouts, layoutCost, layoutSpace, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
-import { fitLayout } from "./fit.js";
+import { availableParallelism } from "node:os";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
-import { compareCandidates, finalizeCandidate, markPareto, rankGroup, type Candidate } from "./candidate.js";
+import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { explainCandidate, explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
+import { InlineFitter, type LayoutFitter } from "./pool.js";
+import type { FitOutcome } from "./fitJob.js";
 
 export interface RunOptions {
   seed: string;
-  /** Most routings (one storm through one rating) the run may spend. */
+  /** Most routings (one storm through one rating) the run may spend (Infinity with a time budget). */
   budget: number;
+  /** A time budget in seconds: spent, widening the search while time remains (not reproducible). */
+  timeBudget?: number;
   /** Safety stop in seconds (breaks reproducibility when it triggers). */
   timeLimit?: number;
-  /** Candidates explained and reported. */
+  /** Candidates explained (the ranking itself does not depend on it). */
   top: number;
   /** Seeded starts of the fit per layout. */
   starts: number;
   /** Options kept per level when planning layouts; doubled each round while budget remains. */
   beam: number;
-  /** Layouts already fitted (from a journal): skipped, their designs given back. */
+  /** Layouts already fitted (from journals): not fitted again, their outcomes replayed. */
   done?: Map<string, JournalEntry>;
-  /** Called after each layout is fitted (journal, progress). */
-  onLayout?: (entry: JournalEntry, progress: Progress) => void;
+  /** Called as soon as a layout is fitted (the journal), in any order. */
+  onLayout?: (entry: JournalEntry) => void;
+  /** Called after each round (progress). */
+  onProgress?: (progress: Progress) => void;
+  /** Fits the rounds' layouts (default: in this thread). */
+  fitter?: LayoutFitter;
+  /** Fit only this share of the layouts (shard `index` of `count`, from 1). */
+  shard?: { index: number; count: number };
+  /** Asked between layouts: a reason to stop now (e.g. a signal), or null. */
+  interrupt?: () => string | null;
 }
 
-export interface JournalEntry {
+/** One fitted layout as the journal keeps it. */
+export interface JournalEntry extends FitOutcome {
   key: string;
-  layout: Layout;
-  /** The fitted designs' variables (case units). */
-  designs: number[][];
 }
 
 export interface Progress {
@@ -50,11 +65,18 @@ export interface Progress {
 export interface SearchRun {
   success: boolean;
   stoppedBecause: string;
+  /** Stopped by `interrupt` before the budget was spent. */
+  interrupted: boolean;
+  /** The ranking (best first), at most KEPT candidates. */
   candidates: Candidate[];
   layoutsPlanned: number;
   layoutsFitted: number;
-  /** Layouts not fitted because they cost at least as much as the top-th compliant candidate. */
+  /** Of the fitted layouts, those whose fit came from a journal. */
+  layoutsFromJournal: number;
+  /** Layouts not fitted because they cost at least as much as the BAR_RANK-th compliant candidate. */
   layoutsSkipped: number;
+  /** Layouts left to the other shards. */
+  layoutsOtherShards: number;
   /** Designs routed through the route path (the best of them are kept in `candidates`). */
   candidatesRouted: number;
   routings: number;
@@ -64,7 +86,10 @@ export interface SearchRun {
   routingsToFirstCompliant: number | null;
   seed: string;
   budget: number;
+  timeBudget: number | null;
   beam: number;
+  workers: number;
+  shard: { index: number; count: number } | null;
   plan: LayoutPlan;
   /** When nothing is compliant: why, in engineering terms. */
   infeasible: string[];
@@ -72,6 +97,12 @@ export interface SearchRun {
   baseline: Baseline | null;
 }
 
+/** Layouts per round: chosen before the round, merged in this order after it. */
+export const ROUND = 8;
+/** Candidates kept in the ranking. */
+export const KEPT = 40;
+/** A layout costing at least as much as this many compliant, unflagged candidates is skipped. */
+export const BAR_RANK = 5;
 const MAX_BEAM = 64;
 /** Beam from which the search widens by screened random layouts instead of a wider plan. */
 const SAMPLING_BEAM = 3;
@@ -79,64 +110,92 @@ const SAMPLING_BEAM = 3;
 const SAMPLE_BATCH = 40;
 /** A sampled layout is fitted when its objective at the staged start is at most this. */
 const PROMISING = 0.02;
-/** Rounds of sampling in a row without anything worth fitting before the search stops. */
+/** Rounds of sampling in a row without anything worth fitting before the search stops (or widens). */
 const MAX_SAMPLING_ROUNDS = 200;
+/** Largest layout space enumerated whole, so that a time budget can prove it exhausted. */
+const ENUMERABLE = 5000;
+/** A time budget fits a layout found wanting again with 3, then 9 times the starts, no more. */
+const MAX_STARTS_FACTOR = 9;
 
 /**
- * The ranking with alternatives first: among the top, a candidate whose openings (parts, counts and
- * sizes, bottom up) repeat a better one's is moved behind the distinct ones, so that the reported
- * candidates are different designs rather than one design with another riser or a shifted crest.
+ * Marks near-duplicates: a candidate whose openings (parts, counts and sizes, bottom up) repeat a
+ * better-ranked one's is a variant of that row (another riser or barrel, or shifted elevations). The
+ * order is not changed.
  */
-export function distinctFirst(sorted: Candidate[], top: number): Candidate[] {
-  const signature = (c: Candidate) => c.layout.levels.map((part) => part.key).join(" | ");
-  const seen = new Set<string>();
-  const distinct: Candidate[] = [];
-  const repeats: Candidate[] = [];
-  for (const c of sorted) {
-    const key = signature(c);
-    if (seen.has(key) || distinct.length >= top) repeats.push(c);
-    else {
-      seen.add(key);
-      distinct.push(c);
-    }
-  }
-  // A repeat never jumps ahead of a better-ranked group (compliant before not, unflagged before flagged).
-  return [...distinct, ...repeats].sort((a, b) => rankGroup(a) - rankGroup(b));
+export function markVariants(ranked: Candidate[]): void {
+  const first = new Map<string, number>();
+  ranked.forEach((c, i) => {
+    const signature = c.layout.levels.map((part) => part.key).join(" | ");
+    const at = first.get(signature);
+    c.variantOf = at === undefined ? null : at + 1;
+    if (at === undefined) first.set(signature, i);
+  });
 }
 
-export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
+/** Whether shard `index` of `count` fits this layout: a fixed share by the hash of its key. */
+export function inShard(key: string, shard: { index: number; count: number }): boolean {
+  return createHash("sha1").update(key).digest().readUInt32BE(0) % shard.count === shard.index - 1;
+}
+
+export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const evaluator = new Evaluator(p);
   const baseline = assessBaseline(p);
+  const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
   // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
   // designs already routed are remembered by a short hash of their outlet.
   const candidates = new Map<string, Candidate>();
   const seenDesigns = new Set<string>();
-  const keep = Math.max(4 * options.top, 40);
   let routedCandidates = 0;
   let compliantFound = 0;
   const tried = new Set<string>();
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
   let stoppedBecause = "";
+  let interrupted = false;
   let fitted = 0;
+  let fromJournal = 0;
   let planned = 0;
+  let otherShards = 0;
+  // Routings of the fits (per layout, wherever they ran) plus those of planning in this thread.
+  let fitRoutings = 0;
+  let fitEvaluations = 0;
+  const routings = () => evaluator.routings + fitRoutings;
+  const timed = options.timeBudget !== undefined;
 
   let beam = options.beam;
   let plan = planLayouts(p, evaluator, beam);
   const firstPlan = plan;
   let bestCost: number | null = null;
 
-  const accept = (layout: Layout, vars: number[], file: Candidate["file"]): Candidate[] => {
-    const key = createHash("sha1").update(JSON.stringify(file)).digest("base64");
-    if (seenDesigns.has(key)) return [];
+  // Designs routed again while the round's other layouts are still being fitted (a pure function of
+  // the design, so computing it early changes nothing but the time); taken when the round is merged.
+  const early = new Map<string, Candidate>();
+  const designKey = (layout: Layout, vars: number[]) => {
+    const file = designOutletFile(p, layout, vars);
+    return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
+  };
+  // Only where a core is left for this thread besides the workers (measured: on 2 cores with 2
+  // workers the overlap slowed the fits more than it saved).
+  const overlap = fitter.workers > 1 && fitter.workers < availableParallelism();
+  const prepare = (layout: Layout, designs: number[][]) => {
+    for (const vars of designs) {
+      const { file, key } = designKey(layout, vars);
+      if (!seenDesigns.has(key) && !early.has(key)) early.set(key, finalizeCandidate(p, layout, vars, file));
+    }
+  };
+  const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
+  const accept = (layout: Layout, vars: number[]): Candidate | null => {
+    const { file, key } = designKey(layout, vars);
+    if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = finalizeCandidate(p, layout, vars, file);
+    const candidate = early.get(key) ?? finalizeCandidate(p, layout, vars, file);
+    early.delete(key);
     candidates.set(key, candidate);
-    if (candidates.size > 2 * keep) {
-      const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, keep);
+    if (candidates.size > 2 * KEPT) {
+      const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
       candidates.clear();
       for (const [k, c] of best) candidates.set(k, c);
     }
@@ -144,14 +203,14 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       compliantFound++;
       if (firstCompliantAt === null) {
         firstCompliantAt = seconds();
-        firstCompliantRoutings = evaluator.routings;
+        firstCompliantRoutings = routings();
       }
       if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
     }
-    return [candidate];
+    return candidate;
   };
 
-  // Cost does not depend on elevations, so a layout that costs at least as much as the top-th
+  // Cost does not depend on elevations, so a layout that costs at least as much as the BAR_RANK-th
   // compliant, unflagged candidate found so far cannot improve the ranking's head: it is skipped.
   const costBar = () => {
     const costs = [...candidates.values()]
@@ -160,20 +219,25 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
       .sort((a, b) => a - b);
     // Ranked by change, a costlier layout may still be a smaller change: nothing is bounded out.
     if (p.limits.rankBy === "change") return Infinity;
-    return costs.length >= options.top ? costs[options.top - 1] : Infinity;
+    return costs.length >= BAR_RANK ? costs[BAR_RANK - 1] : Infinity;
   };
   let skipped = 0;
   let samplingRounds = 0;
+  let promising = PROMISING;
   const rng = seedrandom(`${options.seed}|layouts`);
   // One queue of layouts to fit: the plan's, and the neighbours of compliant candidates. Until a
   // compliant design exists the most promising (lowest staged score) goes first; after that the
   // cheapest, so effort goes where cheaper compliant designs may be.
-  type Entry = { layout: Layout; cost: number; score: number };
+  // `starts`: a fit again with more starts (a time budget's widening), journalled under its own key.
+  type Entry = { layout: Layout; cost: number; score: number; starts?: number };
+  const entryKey = (e: Entry) => layoutKey(e.layout) + (e.starts ? ` | starts ${e.starts}` : "");
+  // With a time budget: layouts fitted without a compliant design, to fit again with more starts.
+  const missed: Entry[] = [];
   const queue: Entry[] = [];
   const queued = new Set<string>();
   const enqueue = (entries: Entry[]) => {
     for (const e of entries) {
-      const key = layoutKey(e.layout);
+      const key = entryKey(e);
       if (tried.has(key) || queued.has(key)) continue;
       queued.add(key);
       queue.push(e);
@@ -196,111 +260,162 @@ export function runSearch(p: SearchProblem, options: RunOptions): SearchRun {
     }
     return queue.splice(best, 1)[0];
   };
-  enqueue(plan.layouts);
-  while (true) {
-    const entry = take();
-    if (!entry) {
-      if (p.fixedLayout) {
-        stoppedBecause = "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
-        break;
-      }
-      if (beam >= SAMPLING_BEAM && firstCompliantAt !== null) {
-        // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
-        if (evaluator.routings >= options.budget) {
-          stoppedBecause = `the budget of ${options.budget} routings was used`;
-          break;
-        }
-        const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, costBar());
-        enqueue(sampled.filter((s) => s.score <= PROMISING));
-        samplingRounds++;
-        if (samplingRounds > MAX_SAMPLING_ROUNDS) {
-          stoppedBecause = `${MAX_SAMPLING_ROUNDS} rounds of random layouts found nothing more to fit`;
-          break;
-        }
-        continue;
-      }
-      if (beam >= MAX_BEAM) {
-        stoppedBecause = `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
-        break;
-      }
+  const spent = () => (timed ? seconds() >= options.timeBudget! : routings() >= options.budget);
+  const budgetWords = () => (timed ? `the time budget of ${options.timeBudget} s was used` : `the budget of ${options.budget} routings was used`);
+  // The whole layout space when it is small enough to list: a time budget can then prove it exhausted.
+  let space: Layout[] | null | undefined;
+  let closestTried = false;
+  /** Nothing passed the bound: queue the nearest misses once, so the closest candidates can be shown. */
+  const closest = (): boolean => {
+    if (candidates.size > 0 || closestTried) return false;
+    closestTried = true;
+    const before = planned;
+    enqueue(closestLayouts(p, firstPlan, ROUND).map((l) => ({ layout: l, cost: layoutCost(p, l), score: 0 })));
+    return planned > before;
+  };
+
+  /** Widens the search when the queue is dry; returns a reason to stop, or null to go on. */
+  const widen = (): string | null => {
+    if (p.fixedLayout) return "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
+    if (spent()) return budgetWords();
+    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || firstCompliantAt === null)) {
       beam *= 2;
       plan = planLayouts(p, evaluator, beam);
       const before = planned;
       enqueue(plan.layouts);
-      if (planned === before) {
-        stoppedBecause = `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
-        break;
-      }
-      continue;
+      if (planned > before || timed || closest()) return null;
+      return `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
     }
+    if (!timed && beam >= MAX_BEAM && firstCompliantAt === null) {
+      if (closest()) return null;
+      return `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
+    }
+    const bar = costBar();
+    // A time budget on a space small enough to list goes through the list instead of sampling it.
+    if (timed && space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
+    // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
+    if (!(timed && space)) {
+      const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, bar);
+      const before = planned;
+      enqueue(sampled.filter((s) => s.score <= promising));
+      samplingRounds = planned > before ? 0 : samplingRounds + 1;
+      if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
+    }
+    if (!timed) return `${MAX_SAMPLING_ROUNDS} rounds of random layouts found nothing more to fit`;
+    // A time budget is spent: fit every layout of a small space, fit again with more starts the
+    // cheapest layouts whose fit found nothing compliant, and screen with a looser threshold.
     samplingRounds = 0;
-    const { layout, cost } = entry;
-    const key = layoutKey(layout);
-    if (cost >= costBar()) {
-      tried.add(key);
-      skipped++;
-      continue;
+    const left = space ? space.filter((l) => !tried.has(layoutKey(l))) : [];
+    enqueue(left.map((l) => ({ layout: l, cost: layoutCost(p, l), score: Infinity })));
+    const again = missed.filter((e) => e.cost < bar && (e.starts ?? options.starts) < MAX_STARTS_FACTOR * options.starts);
+    again.sort((a, b) => a.cost - b.cost).splice(ROUND);
+    for (const e of again) missed.splice(missed.indexOf(e), 1);
+    enqueue(again.map((e) => ({ ...e, starts: (e.starts ?? options.starts) * 3 })));
+    if (space && left.length === 0 && again.length === 0) {
+      return `the catalogue is exhausted: all ${space.length} layouts it allows were fitted (those found wanting again with up to ${MAX_STARTS_FACTOR} times the starts) or bounded out by cost`;
+    }
+    promising *= 4;
+    return null;
+  };
+
+  enqueue(plan.layouts);
+  while (true) {
+    const reason = options.interrupt?.();
+    if (reason) {
+      stoppedBecause = reason;
+      interrupted = true;
+      break;
     }
     // At least one layout is fitted whatever the budget, so that something can be reported.
-    if (evaluator.routings >= options.budget && fitted > 0) {
-      stoppedBecause = `the budget of ${options.budget} routings was used`;
+    if (fitted > 0 && spent()) {
+      stoppedBecause = budgetWords();
       break;
     }
     if (options.timeLimit !== undefined && seconds() >= options.timeLimit) {
       stoppedBecause = `the time limit of ${options.timeLimit} s was reached`;
       break;
     }
-    tried.add(key);
-    let designs: number[][];
-    const previous = options.done?.get(key);
-    const accepted: Candidate[] = [];
-    if (previous) {
-      designs = previous.designs;
-      for (const vars of designs) accepted.push(...accept(layout, vars, designOutletFile(p, layout, vars)));
-    } else {
-      const result = fitLayout(p, layout, evaluator, { starts: options.starts, iterations: 12, seed: `${options.seed}|${key}`, firstCompliant: true });
-      designs = result.designs.slice(0, 2).map((d) => d.vars);
-      // A design that breaks a geometric rule (openings above the rim, levels out of order) is not proposed.
-      for (const d of result.designs.slice(0, 2)) if (d.violations === 0) accepted.push(...accept(layout, d.vars, d.file));
+    // The round: chosen before any of it is fitted, against the cost bar as it stands.
+    const bar = costBar();
+    const round: (Entry & { key: string })[] = [];
+    while (round.length < ROUND) {
+      const entry = take();
+      if (!entry) break;
+      const key = entryKey(entry);
+      tried.add(key);
+      if (entry.cost >= bar) skipped++;
+      else if (options.shard && !inShard(key, options.shard)) otherShards++;
+      else round.push({ ...entry, key });
     }
-    if (accepted.some((c) => c.assessment.compliant && c.assessment.warnings.length === 0)) {
-      enqueue(neighbourLayouts(p, layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
+    if (round.length === 0) {
+      const stop = widen();
+      if (stop) {
+        stoppedBecause = stop;
+        break;
+      }
+      continue;
     }
-    fitted++;
-    options.onLayout?.({ key, layout, designs }, {
-      layoutsFitted: fitted,
-      layoutsPlanned: planned,
-      routings: evaluator.routings,
-      compliant: compliantFound,
-      bestCost,
-      seconds: seconds(),
-    });
+    const jobs = round.filter((e) => !options.done?.has(e.key));
+    const outcomes = await fitter.fit(
+      jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
+      (i, outcome) => {
+        options.onLayout?.({ key: jobs[i].key, ...outcome });
+        if (overlap) prepare(jobs[i].layout, outcome.designs);
+      },
+      () => options.interrupt?.() != null,
+    );
+    const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
+    for (const entry of round) {
+      const previous = options.done?.get(entry.key);
+      const outcome = previous ?? byKey.get(entry.key);
+      // Abandoned when the run was interrupted: a resumed run fits it.
+      if (!outcome) continue;
+      if (previous) fromJournal++;
+      fitted++;
+      fitRoutings += outcome.routings;
+      fitEvaluations += outcome.evaluations;
+      // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
+      let expand = false;
+      for (const vars of outcome.designs) {
+        const c = accept(entry.layout, vars);
+        if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
+      }
+      if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
+      if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
+    }
+    early.clear();
+    options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
-  const sorted = [...candidates.values()].sort(compareCandidates);
-  markPareto(sorted);
-  const ranked = distinctFirst(sorted, options.top);
-  const reported = ranked.slice(0, options.top);
-  for (const c of reported) c.explanation = explainCandidate(p, c);
+  const ranked = [...candidates.values()].sort(compareCandidates).slice(0, KEPT);
+  markPareto(ranked);
+  markVariants(ranked);
+  for (const c of ranked.slice(0, options.top)) c.explanation = explainCandidate(p, c);
   const success = ranked.some((c) => c.assessment.compliant);
   return {
     success,
     stoppedBecause,
+    interrupted,
     candidates: ranked,
     layoutsPlanned: planned,
     layoutsFitted: fitted,
+    layoutsFromJournal: fromJournal,
     layoutsSkipped: skipped,
+    layoutsOtherShards: otherShards,
     candidatesRouted: routedCandidates,
-    routings: evaluator.routings,
-    evaluations: evaluator.evaluations,
+    routings: routings(),
+    evaluations: evaluator.evaluations + fitEvaluations,
     seconds: seconds(),
     secondsToFirstCompliant: firstCompliantAt,
     routingsToFirstCompliant: firstCompliantRoutings,
     seed: options.seed,
     budget: options.budget,
+    timeBudget: options.timeBudget ?? null,
     beam,
+    workers: fitter.workers,
+    shard: options.shard ?? null,
     plan: firstPlan,
-    infeasible: success ? [] : explainInfeasible(p, firstPlan, reported),
+    infeasible: success ? [] : explainInfeasible(p, firstPlan, ranked.slice(0, options.top)),
     baseline,
   };
 }

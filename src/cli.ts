@@ -15,9 +15,9 @@ import { CAUTION } from "./report/caution.js";
 const version = (JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version: string }).version;
 
 /** Runs a command and turns user errors into a message and exit code 2, never a stack trace. */
-function run(action: () => number): void {
+async function run(action: () => number | Promise<number>): Promise<void> {
   try {
-    process.exitCode = action();
+    process.exitCode = await action();
   } catch (error) {
     if (isUserError(error)) {
       process.stderr.write(`outfit: error:\n${error.message.split("\n").map((line) => `  ${line}`).join("\n")}\n`);
@@ -92,26 +92,40 @@ Examples:
   )
   .action((file: string, options) => run(() => rateCommand(file, options)));
 
-program
-  .command("design")
-  .description("propose, rank and explain outlets built from the case's catalogue that meet every storm's target and rule")
-  .argument("<case>", "case file (JSON) with a catalogue")
-  .option("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit")
-  .option("--budget <routings>", "most storm routings the search may spend", "20000")
-  .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible)")
-  .option("--top <n>", "candidates to report, explain and write", "5")
-  .option("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2")
-  .option("--starts <n>", "seeded starts of the elevation fit per layout", "3")
-  .option("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3")
-  .option("--json", "print the results as JSON (each candidate's outlet in case-file form)")
-  .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
-  .option("--resume", "with --out: skip the layouts the directory's journal already holds")
-  .option("--progress", "show progress on the terminal")
-  .option("--size-pond", "also size the pond within the case's site limits: the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)")
-  .option("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all")
-  .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
-  .option("--keep-barrel", "keep the existing barrel as it is")
-  .option("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost")
+/** The search's options, shared by `design` and `gather` (a gather must repeat the shards' values). */
+function searchOptions(command: Command, extra: (command: Command) => Command): Command {
+  command
+    .option("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit")
+    .option("--budget <routings|time>", "storm routings the search may spend (e.g. 20000), or a time it spends widening the search (90s, 20m, 8h)", "20000")
+    .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible)")
+    .option("--top <n>", "candidates to report, explain and write (the ranking does not depend on it; at most 40)", "5")
+    .option("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2")
+    .option("--starts <n>", "seeded starts of the elevation fit per layout", "3")
+    .option("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3")
+    .option("--json", "print the results as JSON (each candidate's outlet in case-file form)")
+    .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
+    .option("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all")
+    .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
+    .option("--keep-barrel", "keep the existing barrel as it is")
+    .option("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost");
+  return extra(command)
+    .option("--workers <n>", "worker threads fitting layouts (default: all cores; the ranking does not depend on it)")
+    .option("--quiet", "no progress and no notes on stderr")
+    .option("--check", "exit with code 1 when no compliant design is found");
+}
+
+searchOptions(
+  program
+    .command("design")
+    .description("propose, rank and explain outlets built from the case's catalogue that meet every storm's target and rule")
+    .argument("<case>", "case file (JSON) with a catalogue"),
+  (command) =>
+    command
+      .option("--resume", "with --out: replay the layouts the directory's journal holds and go on")
+      .option("--shard <k/n>", "with --out: fit only shard k of n of the layouts (combine the shards with outfit gather)")
+      .option("--progress", "show progress on stderr (the default; --quiet turns it off)")
+      .option("--size-pond", "also size the pond within the case's site limits: the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)"),
+)
   .addHelpText(
     "after",
     `
@@ -122,14 +136,39 @@ Examples:
   outfit design cases/demo/case.json
   outfit design cases/demo/case.json --top 3 --out out/demo
   outfit route out/demo/candidate-01.json          # re-route a proposal
-  outfit design cases/demo/case.json --budget 200000 --out out/night --progress
+  outfit design cases/demo/case.json --budget 8h --out out/night
   outfit design cases/demo/case.json --budget 400000 --out out/night --resume
+  outfit design cases/demo/case.json --budget 90000 --shard 2/3 --out out/shard-2
   outfit design cases/site-only/case.json --size-pond --budget 3000 --out out/site
   outfit route out/site/pond-and-outlet.json       # route the proposed pond and outlet
   outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first
-  outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim`,
+  outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim
+
+Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input,
+3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on).`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
+
+searchOptions(
+  program
+    .command("gather")
+    .description("combine the output directories of `design --shard k/n` runs into the ranking one run with the same seed and total budget gives")
+    .argument("<case>", "case file (JSON) the shards were run on")
+    .argument("<shards...>", "the shards' output directories (each holds journal.jsonl); give the shards' options and total --budget"),
+  (command) => command,
+)
+  .addHelpText(
+    "after",
+    `
+The shards' journals are replayed into the single run's schedule; a layout no shard reached is fitted
+here (the summary says how many came from the journals).
+
+Examples:
+  outfit gather cases/demo/case.json out/shard-1 out/shard-2 out/shard-3 --budget 90000 --out out/all
+
+Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input, 3 interrupted.`,
+  )
+  .action((file: string, shards: string[], options) => run(() => designCommand(file, { ...options, gather: shards })));
 
 program
   .command("hydrograph")
@@ -234,7 +273,7 @@ Exit codes: 0 written, 2 bad input (nothing is written).`,
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
 
 try {
-  program.parse();
+  await program.parseAsync();
 } catch (error) {
   if (error instanceof CommanderError) {
     // Help and version end with code 0; every usage error with 2.

@@ -46,19 +46,20 @@ describe("outfit design", () => {
     expect(results.infeasible.join(" ")).toMatch(/smaller opening or a flow regulator, or add storage/);
   });
 
-  it("resumes from its journal: a second run skips the fitted layouts, keeps their designs and goes further", () => {
+  it("resumes from its journal with a larger budget: the fitted layouts are replayed, their designs kept, and it goes further", () => {
     const dir = mkdtempSync(join(tmpdir(), "outfit-resume-"));
     const first = outfit("design", "cases/small-compliant/case.json", "--budget", "2500", "--out", dir, "--json");
     expect(first.code).toBe(0);
     const journalLines = readFileSync(join(dir, "journal.jsonl"), "utf8").trim().split("\n").length;
     expect(journalLines).toBeGreaterThan(1);
-    const second = outfit("design", "cases/small-compliant/case.json", "--budget", "2500", "--out", dir, "--resume", "--json");
+    const second = outfit("design", "cases/small-compliant/case.json", "--budget", "5000", "--out", dir, "--resume", "--json");
     expect(second.code).toBe(0);
     const a = JSON.parse(first.stdout);
     const b = JSON.parse(second.stdout);
     // The first run's designs come back from the journal, so the best can only stay or improve.
     expect(b.candidates[0].cost).toBeLessThanOrEqual(a.candidates[0].cost);
-    // The resumed run spent its budget on layouts the first did not reach.
+    // Every layout of the first run came from the journal; the larger budget reached further.
+    expect(b.search.layoutsFromJournal).toBe(a.search.layoutsFitted);
     expect(b.search.layoutsFitted).toBeGreaterThan(a.search.layoutsFitted);
   });
 

@@ -11,7 +11,7 @@ import { FOOT } from "../../src/units.js";
 import { gammaInflow as inflow, plantedDryCase as plantedCase, siteOnly } from "./helpers.js";
 
 describe("the search recovers a planted outlet", () => {
-  it("finds a compliant design when targets sit 4 % above the planted peaks (dry pond, three levels and a riser)", () => {
+  it("finds a compliant design when targets sit 4 % above the planted peaks (dry pond, three levels and a riser)", async () => {
     const planted = parseCase(plantedCase).case;
     const routing = routeCase(planted, planted.outlet!);
     const factor = 1.04;
@@ -29,7 +29,7 @@ describe("the search recovers a planted outlet", () => {
     const search = siteOnly(json);
     const problem = buildProblem(search.case, search.data);
     expect(problem.existing).toBeNull();
-    const run = runSearch(problem, { seed: "planted", budget: 12000, top: 3, starts: 3, beam: 3 });
+    const run = await runSearch(problem, { seed: "planted", budget: 12000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
     expect(best.assessment.compliant).toBe(true);
@@ -45,7 +45,7 @@ describe("the search recovers a planted outlet", () => {
     }
   });
 
-  it("finds a compliant design for a wet pond drained through a barrel (SI), targets 5 % above the planted peaks", () => {
+  it("finds a compliant design for a wet pond drained through a barrel (SI), targets 5 % above the planted peaks", async () => {
     const wet = {
       name: "Planted outlet, invented wet pond with a barrel",
       units: "SI",
@@ -88,7 +88,7 @@ describe("the search recovers a planted outlet", () => {
     expect(assess(loaded.case, routeCase(loaded.case, loaded.case.outlet!)).compliant).toBe(true);
     // Only the site data (barrel and spillway) go to the search, not the planted openings and riser.
     const search = siteOnly(json);
-    const run = runSearch(buildProblem(search.case, search.data), { seed: "wet", budget: 5000, top: 3, starts: 3, beam: 3 });
+    const run = await runSearch(buildProblem(search.case, search.data), { seed: "wet", budget: 5000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
     expect(best.assessment.compliant).toBe(true);
@@ -101,14 +101,14 @@ describe("the search recovers a planted outlet", () => {
     for (const s of best.routing.storms) expect(Math.abs(s.result.massBalanceError)).toBeLessThan(1e-4);
   });
 
-  it("is reproducible: the same seed and budget give the same ranking", () => {
+  it("is reproducible: the same seed and budget give the same ranking", async () => {
     const json = structuredClone(plantedCase) as typeof plantedCase & { storms: { target?: number }[] };
     [6.2, 12.5, 30].forEach((t, i) => (json.storms[i].target = t));
-    const rank = () => {
+    const rank = async () => {
       const loaded = parseCase(json);
-      const run = runSearch(buildProblem(loaded.case, loaded.data), { seed: "same", budget: 3000, top: 5, starts: 2, beam: 2 });
+      const run = await runSearch(buildProblem(loaded.case, loaded.data), { seed: "same", budget: 3000, top: 5, starts: 2, beam: 2 });
       return run.candidates.slice(0, 5).map((c) => JSON.stringify(c.file));
     };
-    expect(rank()).toEqual(rank());
+    expect(await rank()).toEqual(await rank());
   });
 });

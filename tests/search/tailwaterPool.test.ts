@@ -55,7 +55,7 @@ describe("a wet pond whose pool a constant tailwater holds", () => {
     expect(outletDischarge(c.outlet!, c.tailwater, POOL)).toBe(0);
   });
 
-  it("recovers the planted outlet's lowest opening below the pool as a compliant design", () => {
+  it("recovers the planted outlet's lowest opening below the pool as a compliant design", async () => {
     const json = withTargets(heldCase(POOL));
     const full = parseCase(json);
     expect(assess(full.case, routeCase(full.case, full.case.outlet!)).compliant).toBe(true);
@@ -63,7 +63,7 @@ describe("a wet pond whose pool a constant tailwater holds", () => {
     const problem = buildProblem(site.case, site.data);
     expect(problem.poolHeldByTailwater).toBe(true);
     expect(problem.floor).toBe(20.0);
-    const run = runSearch(problem, { seed: "held", budget: 4000, top: 3, starts: 3, beam: 3 });
+    const run = await runSearch(problem, { seed: "held", budget: 4000, top: 3, starts: 3, beam: 3 });
     expect(run.success).toBe(true);
     const best = run.candidates[0];
     expect(best.assessment.compliant).toBe(true);
@@ -76,14 +76,14 @@ describe("a wet pond whose pool a constant tailwater holds", () => {
     routeCase(site.case, best.outlet).storms.forEach((s, i) => expect(s.result.peakOutflow).toBe(best.routing.storms[i].result.peakOutflow));
   });
 
-  it("keeps the lowest opening at the pool when the tailwater stands below it (the opening holds the pool)", () => {
+  it("keeps the lowest opening at the pool when the tailwater stands below it (the opening holds the pool)", async () => {
     // The same pond with the lake 1 cm below the pool: the pool is held by the lowest opening alone.
     const json = withTargets(heldCase(POOL - 0.01));
     const site = siteOnly(json);
     const problem = buildProblem(site.case, site.data);
     expect(problem.poolHeldByTailwater).toBe(false);
     expect(problem.floor).toBe(POOL);
-    const run = runSearch(problem, { seed: "held", budget: 4000, top: 3, starts: 3, beam: 3 });
+    const run = await runSearch(problem, { seed: "held", budget: 4000, top: 3, starts: 3, beam: 3 });
     expect(run.candidates.length).toBeGreaterThan(0);
     for (const c of run.candidates) expect(Math.min(...c.outlet.elements.map((e) => (e.type === "weir" ? e.crest : e.invert)))).toBeCloseTo(POOL, 9);
     // On this pond no catalogue orifice at the pool meets the narrow 2-yr band: the drowned opening

@@ -44,9 +44,9 @@ function minimalCase() {
   return parseCase(json);
 }
 
-function search(loaded: ReturnType<typeof parseCase>, budget: number, limits: Partial<DesignLimits> = {}) {
+async function search(loaded: ReturnType<typeof parseCase>, budget: number, limits: Partial<DesignLimits> = {}) {
   const p = buildProblem(loaded.case, loaded.data, {}, { ...DEFAULT_LIMITS, ...limits });
-  return { p, run: runSearch(p, { seed: "value", budget, top: 5, starts: 3, beam: 3 }) };
+  return { p, run: await runSearch(p, { seed: "value", budget, top: 5, starts: 3, beam: 3 }) };
 }
 
 describe("design with an existing outlet (value engineering)", () => {
@@ -102,8 +102,8 @@ describe("design with an existing outlet (value engineering)", () => {
     expect(md).toContain(results.candidates[0].changes[0].text.replace(/>/g, "&gt;"));
   });
 
-  it("on a compliant existing outlet finds a cheaper compliant one and says what it saves", () => {
-    const { run } = search(overbuiltCase(), 8000);
+  it("on a compliant existing outlet finds a cheaper compliant one and says what it saves", async () => {
+    const { run } = await search(overbuiltCase(), 8000);
     const baseline = run.baseline!;
     expect(baseline.assessment.compliant).toBe(true);
     // 6 in: 1 + 4 x 0.5 = 3; 2 x 8 in: 2 x (1 + 4 x 8/12) = 7.333; 2 ft weir: 1.5 + 0.5 x 2 = 2.5;
@@ -123,8 +123,8 @@ describe("design with an existing outlet (value engineering)", () => {
     }
   });
 
-  it("on a compliant existing outlet with nothing cheaper in the catalogue says so", () => {
-    const { run } = search(minimalCase(), 1500);
+  it("on a compliant existing outlet with nothing cheaper in the catalogue says so", async () => {
+    const { run } = await search(minimalCase(), 1500);
     const baseline = run.baseline!;
     expect(baseline.assessment.compliant).toBe(true);
     // By hand: a 4 in orifice 1 + 4 x 4/12 = 2.333 and its level 0.5; any one-level outlet from this
@@ -134,16 +134,16 @@ describe("design with an existing outlet (value engineering)", () => {
     expect(baselineVerdict(baseline, run.candidates, run.stoppedBecause)).toMatch(/^The existing outlet is compliant, and the catalogue holds no compliant outlet cheaper than it \(cost 2\.8 units\)/);
   });
 
-  it("--vary elevations only moves parts; --vary openings and --keep-riser keep the riser; --keep-barrel keeps the barrel", () => {
+  it("--vary elevations only moves parts; --vary openings and --keep-riser keep the riser; --keep-barrel keeps the barrel", async () => {
     const wet = loadCase("cases/wet-value/case.json");
-    const onlyMoves = search(wet, 2000, { vary: "elevations" }).run;
+    const onlyMoves = (await search(wet, 2000, { vary: "elevations" })).run;
     expect(onlyMoves.stoppedBecause).toMatch(/one layout the limits allow/);
     for (const c of onlyMoves.candidates) for (const change of c.changes!.changes) expect(change.kind).toBe("moved");
     expect(onlyMoves.candidates.some((c) => c.assessment.compliant)).toBe(true);
 
     const riser = wet.data.outlet!.riser!;
     for (const limits of [{ vary: "openings" as const }, { keepRiser: true }]) {
-      const { run } = search(wet, 1500, limits);
+      const { run } = await search(wet, 1500, limits);
       for (const c of run.candidates) {
         expect(c.file.riser).toMatchObject({ shape: riser.shape, crest: riser.crest });
         expect(c.changes!.changes.some((change) => /riser/.test(change.part))).toBe(false);
@@ -151,7 +151,7 @@ describe("design with an existing outlet (value engineering)", () => {
     }
 
     const barrelCase = loadCase("cases/si-wet-barrel/case.json");
-    const { run } = search(barrelCase, 1500, { keepBarrel: true });
+    const { run } = await search(barrelCase, 1500, { keepBarrel: true });
     expect(run.candidates.length).toBeGreaterThan(0);
     for (const c of run.candidates) {
       expect(c.file.barrel).toMatchObject(barrelCase.data.outlet!.barrel!);
@@ -159,10 +159,10 @@ describe("design with an existing outlet (value engineering)", () => {
     }
   });
 
-  it("keeps an existing part the catalogue does not list at its own size, moving only its elevation", () => {
+  it("keeps an existing part the catalogue does not list at its own size, moving only its elevation", async () => {
     const json = JSON.parse(readFileSync("cases/wet-value/case.json", "utf8"));
     json.outlet.elements[1] = { type: "orifice", shape: "circular", diameter: "7 in", count: 2, invert: 311, coefficient: 0.6 };
-    const { p, run } = search(parseCase(json), 1500, { vary: "elevations" });
+    const { p, run } = await search(parseCase(json), 1500, { vary: "elevations" });
     expect(p.existing!.layout.levels[0].template).toBeDefined();
     expect(run.candidates.length).toBeGreaterThan(0);
     for (const c of run.candidates) {
@@ -171,18 +171,18 @@ describe("design with an existing outlet (value engineering)", () => {
     }
   });
 
-  it("keeps proposals to the catalogue's most control levels when the existing outlet has more", () => {
+  it("keeps proposals to the catalogue's most control levels when the existing outlet has more", async () => {
     const loaded = overbuiltCase();
     const json = { ...loaded.json as typeof plantedDryCase, catalogue: { ...plantedDryCase.catalogue, maxStages: 2 } };
-    const { run } = search(parseCase(json), 1500);
+    const { run } = await search(parseCase(json), 1500);
     // The existing outlet has three levels; it stays the baseline, but no alternative has more than two.
     expect(new Set(run.baseline!.outlet.elements.map((e) => (e.type === "weir" ? e.crest : e.invert))).size).toBe(3);
     expect(run.candidates.length).toBeGreaterThan(0);
     for (const c of run.candidates) expect(new Set(c.outlet.elements.map((e) => (e.type === "weir" ? e.crest : e.invert))).size).toBeLessThanOrEqual(2);
   });
 
-  it("--rank change puts the smallest change to a failing outlet first among the compliant fixes", () => {
-    const { run } = search(loadCase("cases/wet-value/case.json"), 3000, { rankBy: "change" });
+  it("--rank change puts the smallest change to a failing outlet first among the compliant fixes", async () => {
+    const { run } = await search(loadCase("cases/wet-value/case.json"), 3000, { rankBy: "change" });
     // The reported head of the ranking (top 5; further down, repeats of a reported design's openings follow).
     const compliant = run.candidates.slice(0, 5).filter((c) => c.assessment.compliant && c.assessment.warnings.length === 0);
     expect(compliant.length).toBeGreaterThan(1);

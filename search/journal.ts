@@ -1,0 +1,98 @@
+// The design run's journal (journal.jsonl): a header line naming the run, then one line per fitted
+// layout, appended as soon as it is fitted. Reading it never fails on damage: a torn or corrupt line
+// (a run killed mid-write) is reported and skipped, and that layout is simply fitted again.
+import { appendFileSync, closeSync, existsSync, fstatSync, openSync, readFileSync, readSync } from "node:fs";
+import { writeFileAtomic } from "../src/io.js";
+import { UsageError } from "../src/commands/common.js";
+import type { JournalEntry } from "./run.js";
+
+const VERSION = 2;
+
+export interface JournalRead {
+  entries: Map<string, JournalEntry>;
+  warnings: string[];
+}
+
+function isEntry(value: unknown, signature: string): value is JournalEntry & { signature: string } {
+  if (typeof value !== "object" || value === null) return false;
+  const v = value as Record<string, unknown>;
+  const count = (x: unknown) => typeof x === "number" && Number.isInteger(x) && x >= 0;
+  return (
+    v.signature === signature &&
+    typeof v.key === "string" &&
+    count(v.routings) &&
+    count(v.evaluations) &&
+    Array.isArray(v.designs) &&
+    v.designs.every((d) => Array.isArray(d) && d.every((x) => typeof x === "number" && Number.isFinite(x)))
+  );
+}
+
+/**
+ * Reads a journal of the run named by `signature`. A readable header of another run is a usage error
+ * (`option` names the option that pointed here); every damaged line is a warning.
+ */
+export function readJournal(path: string, signature: string, option: string): JournalRead {
+  const entries = new Map<string, JournalEntry>();
+  const warnings: string[] = [];
+  const lines = readFileSync(path, "utf8").split("\n");
+  lines.forEach((line, i) => {
+    if (line.trim() === "") return;
+    let value: unknown;
+    try {
+      value = JSON.parse(line);
+    } catch {
+      warnings.push(`${path}: line ${i + 1} is torn or corrupt (not JSON); skipped${i === 0 ? " (the header)" : ", that layout is fitted again"}`);
+      return;
+    }
+    const v = value as Record<string, unknown> | null;
+    if (i === 0 && v !== null && typeof v === "object" && "journal" in v) {
+      if (v.version !== VERSION || v.signature !== signature) {
+        throw new UsageError(option, path, "a journal of a run of the same case, seed, margin and starts (the case or the options have changed, or it was written by another version)");
+      }
+      return;
+    }
+    if (v !== null && typeof v === "object" && typeof v.signature === "string" && v.signature !== signature) {
+      throw new UsageError(option, path, "a journal of a run of the same case, seed, margin and starts (the case or the options have changed)");
+    }
+    if (!isEntry(value, signature)) {
+      warnings.push(`${path}: line ${i + 1} is not a journal entry of this run; skipped${i === 0 ? " (the header)" : ", that layout is fitted again"}`);
+      return;
+    }
+    const { key, designs, routings, evaluations } = value;
+    entries.set(key, { key, designs, routings, evaluations });
+  });
+  return { entries, warnings };
+}
+
+/** A journal open for appending: written whole first (header and the given entries), then one line per layout. */
+export class Journal {
+  constructor(private readonly path: string, private readonly signature: string, entries: Iterable<JournalEntry>) {
+    const lines = [JSON.stringify({ journal: "outfit design", version: VERSION, signature })];
+    for (const e of entries) lines.push(this.line(e));
+    writeFileAtomic(path, lines.join("\n") + "\n");
+  }
+
+  private line(e: JournalEntry): string {
+    return JSON.stringify({ signature: this.signature, key: e.key, designs: e.designs, routings: e.routings, evaluations: e.evaluations });
+  }
+
+  append(e: JournalEntry): void {
+    // Each entry on its own line, even if something left the file without its last newline.
+    const content = readLastByte(this.path) === "\n" ? "" : "\n";
+    appendFileSync(this.path, content + this.line(e) + "\n");
+  }
+}
+
+function readLastByte(path: string): string {
+  if (!existsSync(path)) return "\n";
+  const fd = openSync(path, "r");
+  try {
+    const size = fstatSync(fd).size;
+    if (size === 0) return "\n";
+    const byte = Buffer.alloc(1);
+    readSync(fd, byte, 0, 1, size - 1);
+    return byte.toString("latin1");
+  } finally {
+    closeSync(fd);
+  }
+}

@@ -1,0 +1,201 @@
+// The design run's infrastructure through the built CLI: the ranking is the same whatever the number
+// of workers, shards or --top; a killed run resumes to exactly the uninterrupted ranking without
+// losing or repeating a fitted layout; a damaged journal is reported and skipped; SIGINT writes the
+// partial results and exits 3; stale candidate files go; --check exits 1 on an infeasible case.
+import { afterEach, describe, expect, it } from "vitest";
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+
+const cli = join(process.cwd(), "dist/src/cli.js");
+const CASE = "cases/small-compliant/case.json";
+
+function outfit(...args: string[]) {
+  const r = spawnSync(process.execPath, [cli, ...args], { encoding: "utf8", timeout: 120_000 });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+const dir = (name: string) => mkdtempSync(join(tmpdir(), `outfit-${name}-`));
+const ranking = (results: { candidates: { outlet: unknown; cost: number }[] }) => results.candidates.map((c) => JSON.stringify(c.outlet) + " " + c.cost);
+const journalKeys = (out: string) =>
+  readFileSync(join(out, "journal.jsonl"), "utf8")
+    .split("\n")
+    .slice(1)
+    .filter((l) => l.trim() !== "")
+    .map((l) => (JSON.parse(l) as { key: string }).key);
+
+const children: ChildProcess[] = [];
+afterEach(() => {
+  for (const child of children) if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
+  children.length = 0;
+});
+
+/** Starts a run, waits until its journal holds `lines` entries, sends `signal`, and waits for the end. */
+async function interrupt(args: string[], out: string, lines: number, signal: NodeJS.Signals) {
+  const child = spawn(process.execPath, [cli, ...args], { stdio: ["ignore", "pipe", "pipe"] });
+  children.push(child);
+  let stdout = "";
+  let stderr = "";
+  child.stdout!.on("data", (d) => (stdout += d));
+  child.stderr!.on("data", (d) => (stderr += d));
+  const ended = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) => child.on("exit", (code, sig) => resolve({ code, signal: sig })));
+  const file = join(out, "journal.jsonl");
+  while (child.exitCode === null) {
+    if (existsSync(file) && readFileSync(file, "utf8").split("\n").length - 2 >= lines) break;
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  child.kill(signal);
+  return { ...(await ended), stdout, stderr };
+}
+
+describe("design runs: determinism, interruption and recovery", () => {
+  const BUDGET = "6000";
+  let reference: ReturnType<typeof ranking> | undefined;
+  const uninterrupted = () => {
+    if (!reference) {
+      const r = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--json", "--quiet");
+      expect(r.code).toBe(0);
+      reference = ranking(JSON.parse(r.stdout));
+    }
+    return reference;
+  };
+
+  it("gives the same ranking on 1 and on 2 workers, and whatever --top", () => {
+    const two = outfit("design", CASE, "--budget", BUDGET, "--workers", "2", "--json", "--quiet");
+    expect(two.code).toBe(0);
+    const results = JSON.parse(two.stdout);
+    expect(results.search.workers).toBe(2);
+    expect(ranking(results)).toEqual(uninterrupted());
+    const one = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--top", "1", "--json", "--quiet");
+    expect(ranking(JSON.parse(one.stdout))).toEqual(uninterrupted().slice(0, 1));
+  });
+
+  it("resumes a SIGKILLed run: no fitted layout lost or repeated, the ranking of the uninterrupted run", async () => {
+    const out = dir("kill");
+    const killed = await interrupt(["design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out], out, 6, "SIGKILL");
+    expect(killed.signal).toBe("SIGKILL");
+    expect(existsSync(join(out, "results.json"))).toBe(false);
+    const before = journalKeys(out);
+    expect(before.length).toBeGreaterThanOrEqual(6);
+    const resumed = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out, "--resume", "--json");
+    expect(resumed.code).toBe(0);
+    const results = JSON.parse(resumed.stdout);
+    expect(results.search.layoutsFromJournal).toBe(before.length);
+    const after = journalKeys(out);
+    expect(new Set(after).size).toBe(after.length);
+    for (const key of before) expect(after).toContain(key);
+    expect(after.length).toBe(results.search.layoutsFitted);
+    expect(ranking(results)).toEqual(uninterrupted());
+  });
+
+  it("warns about a torn last line and a torn header, skips them and resumes to the same ranking", () => {
+    const out = dir("torn");
+    expect(outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out).code).toBe(0);
+    const file = join(out, "journal.jsonl");
+    const lines = readFileSync(file, "utf8").split("\n").filter((l) => l !== "");
+    // The header cut in half, the last entry cut short without its newline.
+    lines[0] = lines[0].slice(0, 20);
+    const last = lines.pop()!;
+    writeFileSync(file, lines.join("\n") + "\n" + last.slice(0, last.length / 2));
+    const resumed = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out, "--resume", "--json");
+    expect(resumed.code).toBe(0);
+    expect(resumed.stderr).toMatch(/warning: .*line 1 is torn or corrupt .*\(the header\)/);
+    expect(resumed.stderr).toMatch(new RegExp(`warning: .*line ${lines.length + 1} is torn or corrupt .*fitted again`));
+    expect(resumed.stderr).not.toMatch(/internal error/);
+    const results = JSON.parse(resumed.stdout);
+    expect(results.search.layoutsFromJournal).toBe(lines.length - 1);
+    expect(ranking(results)).toEqual(uninterrupted());
+    // The journal is whole again: a header and one entry per line.
+    const again = readFileSync(file, "utf8").split("\n");
+    expect(JSON.parse(again[0]).journal).toBe("outfit design");
+    for (const line of again.slice(1, -1)) expect(() => JSON.parse(line)).not.toThrow();
+  });
+
+  it.each(["SIGINT", "SIGTERM"] as const)("stops on %s with exit code 3, writing results.json and summary.txt of the partial run", async (signal) => {
+    const out = dir("signal");
+    const stopped = await interrupt(["design", CASE, "--budget", "400000", "--workers", "2", "--out", out], out, 4, signal);
+    expect(stopped.code).toBe(3);
+    const results = JSON.parse(readFileSync(join(out, "results.json"), "utf8"));
+    expect(results.search.interrupted).toBe(true);
+    expect(results.search.stoppedBecause).toBe(`it was interrupted by ${signal}`);
+    expect(results.search.layoutsFitted).toBeGreaterThanOrEqual(4);
+    expect(results.search.routings).toBeLessThan(400000);
+    expect(results.search.layoutsFitted).toBe(journalKeys(out).length);
+    const summary = readFileSync(join(out, "summary.txt"), "utf8");
+    expect(summary).toContain(`stopped because it was interrupted by ${signal} (a partial run: --resume goes on from its journal)`);
+    expect(summary).toMatch(/Caution:/);
+  });
+
+  it("3 shards gathered give exactly the ranking of one run with the same seed and budget", () => {
+    const shards = [1, 2, 3].map((k) => {
+      const out = dir(`shard-${k}`);
+      const r = outfit("design", CASE, "--budget", BUDGET, "--shard", `${k}/3`, "--workers", "1", "--quiet", "--out", out, "--json");
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout).search.shard).toBe(`${k}/3`);
+      return out;
+    });
+    const keys = shards.map(journalKeys);
+    // The shards' shares do not overlap.
+    expect(new Set(keys.flat()).size).toBe(keys.flat().length);
+    const gathered = outfit("gather", CASE, ...shards, "--budget", BUDGET, "--workers", "1", "--quiet", "--json");
+    expect(gathered.code).toBe(0);
+    const results = JSON.parse(gathered.stdout);
+    expect(results.search.layoutsFromJournal).toBeGreaterThan(0);
+    expect(ranking(results)).toEqual(uninterrupted());
+  });
+
+  it("removes the candidate files of an earlier run in the same --out directory", () => {
+    const out = dir("stale");
+    expect(outfit("design", CASE, "--budget", "1500", "--top", "3", "--quiet", "--out", out).code).toBe(0);
+    expect(readdirSync(out).filter((f) => f.startsWith("candidate-")).length).toBe(3);
+    const second = outfit("design", CASE, "--budget", "1500", "--top", "1", "--out", out);
+    expect(second.code).toBe(0);
+    expect(readdirSync(out).filter((f) => f.startsWith("candidate-")).sort()).toEqual(["candidate-01.json"]);
+    expect(second.stderr).toMatch(/removed candidate-01\.json, candidate-02\.json, candidate-03\.json|removed .*candidate-03\.json/);
+  });
+
+  it("--check exits 1 when nothing is compliant; the closest candidates are shown with their failing checks", () => {
+    const r = outfit("design", "cases/infeasible/case.json", "--budget", "2000", "--check", "--quiet");
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/No compliant design was found; the closest candidates, with the checks they fail:/);
+    expect(r.stdout).toMatch(/^  fails: /m);
+    const ok = outfit("design", CASE, "--budget", "1500", "--check", "--quiet");
+    expect(ok.code).toBe(0);
+  });
+
+  it("refuses a bad budget, shard or worker count (exit 2, names the option)", () => {
+    for (const [option, value] of [["--budget", "ten"], ["--budget", "5x"], ["--shard", "4/3"], ["--workers", "0"]]) {
+      const r = outfit("design", CASE, option, value, "--out", dir("bad"));
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(new RegExp(`${option}: found "${value}"`));
+    }
+  });
+});
+
+describe("time budgets", () => {
+  it("a time budget is spent: the run goes on widening until the time is used", () => {
+    const r = outfit("design", CASE, "--budget", "4s", "--workers", "1", "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const search = JSON.parse(r.stdout).search;
+    expect(search.timeBudget).toBe(4);
+    expect(search.budget).toBeNull();
+    expect(search.stoppedBecause).toBe("the time budget of 4 s was used");
+    expect(search.seconds).toBeGreaterThanOrEqual(4);
+  });
+
+  it("stops early only on a catalogue it has exhausted, and says so", () => {
+    const json = JSON.parse(readFileSync(CASE, "utf8"));
+    json.name = "Tiny catalogue (invented)";
+    json.catalogue = { orifice: { diameters: ["2 in", "3 in", "4 in"], maxCount: 1 }, riser: { diameters: [3] }, maxStages: 2, elevationStep: 0.05 };
+    const file = join(dir("tiny"), "case.json");
+    writeFileSync(file, JSON.stringify(json));
+    const r = outfit("design", file, "--budget", "10m", "--workers", "1", "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const search = JSON.parse(r.stdout).search;
+    expect(search.stoppedBecause).toMatch(/^the catalogue is exhausted: all \d+ layouts it allows were fitted \(those found wanting again with up to 9 times the starts\) or bounded out by cost$/);
+    expect(search.seconds).toBeLessThan(600);
+    const total = Number(/all (\d+) layouts/.exec(search.stoppedBecause)![1]);
+    expect(search.layoutsFitted + search.layoutsSkippedByCost).toBeGreaterThanOrEqual(total);
+  });
+});
