@@ -20,23 +20,45 @@ export interface FitOutcome {
   evaluations: number;
 }
 
-/** A layout as positions in the problem's option lists (-1: none), so it crosses to a worker intact. */
+/**
+ * A layout as positions in the problem's option lists, so it crosses to a worker intact: -1 is none;
+ * a part, riser or barrel of the existing outlet that no option list holds (value engineering) is
+ * -2 - its position in the existing layout. Both threads build the same problem, so positions agree.
+ */
 export interface LayoutIndex {
   levels: number[];
   riser: number;
   barrel: number;
 }
 
+function position<T>(list: readonly T[], existing: readonly (T | null)[], item: T | null): number {
+  if (item === null) return -1;
+  const at = list.indexOf(item);
+  if (at >= 0) return at;
+  const own = existing.indexOf(item);
+  if (own < 0) throw new Error("a layout part is in neither the problem's options nor the existing outlet");
+  return -2 - own;
+}
+
+function item<T>(list: readonly T[], existing: readonly (T | null)[], index: number): T | null {
+  return index === -1 ? null : index >= 0 ? list[index] : existing[-2 - index];
+}
+
 export function layoutIndex(p: SearchProblem, l: Layout): LayoutIndex {
-  const at = <T>(list: T[], item: T | null) => (item === null ? -1 : list.indexOf(item));
-  return { levels: l.levels.map((part) => p.parts.indexOf(part)), riser: at(p.riserOptions, l.riser), barrel: at(p.barrelOptions, l.barrel) };
+  const own = p.existing?.layout;
+  return {
+    levels: l.levels.map((part) => position(p.parts, own?.levels ?? [], part)),
+    riser: position(p.riserOptions, own ? [own.riser] : [], l.riser),
+    barrel: position(p.barrelOptions, own ? [own.barrel] : [], l.barrel),
+  };
 }
 
 export function layoutAt(p: SearchProblem, index: LayoutIndex): Layout {
+  const own = p.existing?.layout;
   return {
-    levels: index.levels.map((i) => p.parts[i]),
-    riser: index.riser < 0 ? null : p.riserOptions[index.riser],
-    barrel: index.barrel < 0 ? null : p.barrelOptions[index.barrel],
+    levels: index.levels.map((i) => item(p.parts, own?.levels ?? [], i)!),
+    riser: item(p.riserOptions, own ? [own.riser] : [], index.riser),
+    barrel: item(p.barrelOptions, own ? [own.barrel] : [], index.barrel),
   };
 }
 
