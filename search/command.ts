@@ -1,8 +1,8 @@
 // `outfit design`: load, search, print, and write results and candidate case files whole.
-import { appendFileSync, existsSync, mkdirSync, readFileSync, statSync } from "node:fs";
+import { existsSync, readFileSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { writeFileAtomic } from "../src/io.js";
+import { appendLine, makeDirectory, writeFileAtomic } from "../src/io.js";
 import { buildProblem } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
@@ -41,7 +41,7 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
     if (existsSync(journalPath)) readJournal(journalPath, signature, done);
   }
   if (journalPath) {
-    mkdirSync(options.out!, { recursive: true });
+    makeDirectory(options.out!);
     if (!options.resume || !existsSync(journalPath)) writeFileAtomic(journalPath, JSON.stringify({ signature }) + "\n");
   }
   const run = runSearch(problem, {
@@ -54,7 +54,7 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
     done,
     onLayout: (entry, progress) => {
       // Finished work is kept: each fitted layout is appended to the journal as soon as it is done.
-      if (journalPath) appendFileSync(journalPath, JSON.stringify(entry) + "\n");
+      if (journalPath) appendLine(journalPath, JSON.stringify(entry));
       if (options.progress) {
         process.stderr.write(
           `\routfit: ${progress.layoutsFitted} layouts fitted, ${progress.routings} routings, ${progress.compliant} compliant, best cost ${progress.bestCost === null ? "-" : progress.bestCost.toFixed(1)}, ${progress.seconds.toFixed(1)} s   `,
@@ -81,7 +81,15 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
 function readJournal(path: string, signature: string, done: Map<string, JournalEntry>): void {
   const lines = readFileSync(path, "utf8").split("\n").filter((l) => l.trim() !== "");
   if (lines.length === 0) return;
-  const header = JSON.parse(lines[0]) as { signature?: string };
+  let header: { signature?: unknown } | null = null;
+  try {
+    header = JSON.parse(lines[0]) as { signature?: unknown } | null;
+  } catch {
+    // A torn header: the run that wrote it was cut short while writing it.
+  }
+  if (typeof header !== "object" || header === null || typeof header.signature !== "string") {
+    throw new UsageError("--resume", path, "a journal whose first line is its header {\"signature\": ...} (this one is cut short or not a journal; remove it to start afresh)");
+  }
   if (header.signature !== signature) {
     throw new UsageError("--resume", path, "a journal of a run of the same case, seed and margin (the case or the options have changed)");
   }
