@@ -2,7 +2,7 @@
 import { existsSync, readFileSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { appendLine, makeDirectory, writeFileAtomic } from "../src/io.js";
+import { appendLine, makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
 import { buildProblem } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
@@ -74,7 +74,7 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
     writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
   }
   emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
-  if (options.out) process.stderr.write(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
+  if (options.out) printErr(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
   return 0;
 }
 

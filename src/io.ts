@@ -60,3 +60,20 @@ function isDirectory(path: string): boolean {
 function unwritable(path: string, found: string, expected = "a path where a file can be written"): CaseError {
   return new CaseError([{ where: path, found, expected }]);
 }
+
+/** Text with control characters (ANSI escapes, carriage returns, bells...) from user input shown
+ * escaped (`\u001b`), so a case or storm name cannot drive the terminal; newlines and tabs stay. */
+export function terminalSafe(text: string): string {
+  // eslint-disable-next-line no-control-regex
+  return text.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u2028\u2029]/g, (ch) => `\\u${ch.charCodeAt(0).toString(16).padStart(4, "0")}`);
+}
+
+/** Writes to standard output, control characters escaped. */
+export function printOut(text: string): void {
+  process.stdout.write(terminalSafe(text));
+}
+
+/** Writes to standard error, control characters escaped. */
+export function printErr(text: string): void {
+  process.stderr.write(terminalSafe(text));
+}

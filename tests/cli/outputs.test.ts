@@ -1,7 +1,7 @@
 // Output paths a user can get wrong are user errors (exit 2, the path named, nothing written),
 // never internal errors (issue 11): a directory as --out, a path through a file, a special file
 // system where Node's recursive mkdir never returns, and a design journal whose header is torn.
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
@@ -43,5 +43,24 @@ describe("--out paths that cannot be written", () => {
     expect(r.stderr).toContain("--resume: found");
     expect(r.stderr).toContain("a journal whose first line is its header");
     expect(looksLikeStackTrace(r.stderr)).toBe(false);
+  });
+});
+
+describe("terminal safety: control characters in user text are printed escaped", () => {
+  it("an ANSI escape in the case and storm names reaches stdout and stderr as \\u001b", () => {
+    const json = JSON.parse(readFileSync("tests/case/valid-base.json", "utf8"));
+    json.name = "Pond \u001b[31mred\u001b[0m \u0007";
+    json.storms[0].name = "2-yr\u001b]0;title\u0007";
+    json["\u001b[2Jnote"] = 1;
+    const file = join(dir, "escapes.json");
+    writeFileSync(file, JSON.stringify(json));
+    for (const args of [["route", file], ["route", file, "--json"], ["rate", file]]) {
+      const r = outfit(...args);
+      expect(r.status, args.join(" ")).toBe(0);
+      expect(r.stdout + r.stderr).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
+    }
+    const r = outfit("route", file);
+    expect(r.stdout).toContain("Pond \\u001b[31mred\\u001b[0m \\u0007");
+    expect(r.stderr).toContain("\\u001b[2Jnote: field not in the case format");
   });
 });
