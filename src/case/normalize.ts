@@ -3,12 +3,15 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
 import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "./model.js";
-import { CaseError, describeIoError, show, type Problem } from "./errors.js";
+import { CaseError, describeIoError, show } from "./errors.js";
+import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";
-import { baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseFlow, parseLength, parsePondArea, type UnitSystem } from "../units.js";
+import { baseLength, baseVolume, baseWeirCoefficient, FOOT, parsePondArea } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
-import { caseHydrology, type StormHydrology } from "../hydrology/fromCase.js";
+import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
+
+export { Converter } from "./converter.js";
 
 export interface NormalizeContext {
   file: string;
@@ -16,39 +19,6 @@ export interface NormalizeContext {
   directory: string;
   /** Notes on how inputs were read (a CSV's separator and units), for the user. */
   notes?: string[];
-}
-
-/** Converts case-file values to SI and collects problems that involve several fields. */
-export class Converter {
-  readonly problems: Problem[] = [];
-  constructor(
-    readonly units: UnitSystem,
-    readonly label: string,
-  ) {}
-
-  length(value: Length, path: string): number {
-    return this.quantity(parseLength, value, path);
-  }
-  /** A flow ("6.5 cfs", "184 L/s", or a bare number in cfs / m3/s), m3/s. */
-  flowOf(value: number | string, path: string): number {
-    return this.quantity(parseFlow, value, path);
-  }
-  /** Any quantity by its parser (units.ts); a problem and NaN when it does not parse. */
-  quantity(parse: (value: number | string, system: UnitSystem) => number | { error: string }, value: number | string, path: string): number {
-    const parsed = parse(value, this.units);
-    if (typeof parsed === "number") return parsed;
-    this.problem(path, show(value), parsed.error);
-    return NaN;
-  }
-  optionalLength(value: Length | undefined, path: string, fallback: number): number {
-    return value === undefined ? fallback : this.length(value, path);
-  }
-  problem(path: string, found: string, expected: string): void {
-    this.problems.push({ where: `${this.label}: ${path}`, found, expected });
-  }
-  get flow(): number {
-    return baseFlow(this.units);
-  }
 }
 
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {

@@ -4,7 +4,8 @@ import type { Case } from "../case/model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
-import { formatter, significant, type Formatter } from "../format.js";
+import { formatter, quantityText, significant, type Formatter } from "../format.js";
+import { ruleOf } from "../assess/rules/registry.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { withinBand } from "./json.js";
 import { CAUTION } from "./caution.js";
@@ -60,17 +61,7 @@ export function stormTable(c: Case, routing: CaseRouting): string {
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
-  const f = formatter(c.units);
-  if (value === null) return "not drained";
-  switch (check.kind) {
-    case "peak-upper":
-    case "peak-lower":
-      return f.flow(value);
-    case "drawdown":
-      return `${value.toFixed(1)} h`;
-    default:
-      return f.elevation(value);
-  }
+  return quantityText(formatter(c.units), ruleOf(check).quantity, value);
 }
 
 export function checksTable(c: Case, checks: readonly Check[]): string {
@@ -82,7 +73,7 @@ export function checksTable(c: Case, checks: readonly Check[]): string {
 }
 
 function limitWord(check: Check): string {
-  return check.kind === "peak-lower" ? ">=" : "<=";
+  return ruleOf(check).comparison === "at least" ? ">=" : "<=";
 }
 
 export function warningsText(assessment: Assessment): string {

@@ -90,6 +90,22 @@ function mutate(json: Json, rng: () => number): Json {
   return copy;
 }
 
+/** Keys that hold numbers in the unmutated bases' outputs: where a null would be a lost number. */
+const NUMERIC_KEYS = new Set<string>();
+function collectNumericKeys(value: Json): void {
+  if (Array.isArray(value)) value.forEach(collectNumericKeys);
+  else if (value && typeof value === "object") {
+    for (const [k, v] of Object.entries(value)) {
+      if (typeof v === "number") NUMERIC_KEYS.add(k);
+      collectNumericKeys(v);
+    }
+  }
+}
+for (const base of BASES) {
+  const loaded = parseCase(base.json, { file: base.file });
+  collectNumericKeys(JSON.parse(routeOutput(loaded.case, "base", { json: true }).text));
+}
+
 /** Keys whose null means "none" in the contract (no target, no ratio without one, never drained). */
 const NULLABLE = new Set(["target", "ratio", "withinTolerance", "drawdownHours", "limit", "slack", "value", "cost", "bestCost", "part", "storm", "binding"]);
 
@@ -100,7 +116,7 @@ function badJson(value: Json, path: string, into: string[]): string[] {
   else if (value && typeof value === "object") {
     const record = value as Record<string, Json>;
     for (const [k, v] of Object.entries(record)) {
-      if (v === null && !NULLABLE.has(k)) into.push(`${path}.${k}: null`);
+      if (v === null && NUMERIC_KEYS.has(k) && !NULLABLE.has(k)) into.push(`${path}.${k}: null`);
       else badJson(v, `${path}.${k}`, into);
     }
     if ("ratio" in record && record.ratio === null && record.target !== null) into.push(`${path}.ratio: null with a target of ${String(record.target)}`);
