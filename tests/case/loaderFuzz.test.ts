@@ -26,9 +26,25 @@ interface Base {
 const BASES: Base[] = [
   { name: "valid-base", file: "tests/case/valid-base.json", weight: 6 },
   { name: "small-compliant", file: "cases/small-compliant/case.json", weight: 2 },
-  { name: "demo-rainfall", file: "cases/demo-rainfall/case.json", weight: 1 },
   { name: "demo (CSV inflows)", file: "cases/demo/case.json", weight: 1 },
-].map((b) => ({ ...b, file: resolve(b.file), json: JSON.parse(readFileSync(b.file, "utf8")) }));
+].map((b) => ({ ...b, file: resolve(b.file), json: JSON.parse(readFileSync(b.file, "utf8")) as unknown }));
+// A small hydrology base (cheaper to derive than the bundled 24-hour demo): a 3-hour hyetograph
+// (NRCS), an IDF curve (rational) and sub-areas, on the valid base's pond.
+const hydrologyBase = structuredClone(BASES[0].json) as Record<string, any>;
+hydrologyBase.hydrology = {
+  twoYearRainfall: "3.1 in",
+  pre: { area: "6 ac", curveNumber: 65, runoffCoefficient: 0.3, tc: 30 },
+  post: {
+    parts: [{ name: "roofs", area: "2.5 ac", curveNumber: 98, runoffCoefficient: 0.9 }, { area: 3.5, curveNumber: 70, runoffCoefficient: 0.3 }],
+    flowPath: [{ type: "sheet", length: 90, slope: 0.02, manningN: 0.15 }, { type: "shallow", length: 300, slope: 0.01, surface: "paved" }],
+  },
+  idf: { "10-yr": { table: [[10, "5.2 in/h"], [30, 3.1], [60, 2.0], [180, 0.9]] } },
+};
+hydrologyBase.storms = [
+  { name: "2-yr", returnPeriod: 2, rainfall: { hyetograph: [[0, 0], [60, "0.4 in"], [90, 1.6], [180, 2.2]] } },
+  { name: "10-yr", returnPeriod: 10, rainfall: { idf: "10-yr" } },
+];
+BASES.push({ name: "hydrology", file: BASES[0].file, json: hydrologyBase, weight: 1 });
 
 const STRANGE_VALUES: unknown[] = [
   0, -1, 1, 0.5, -0.0, 1e308, -1e308, 5e-324, 1e-300, 1e15, 123456789, 2 ** 53, 3.7,
