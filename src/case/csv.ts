@@ -86,7 +86,7 @@ export function parseInflowCsv(text: string, fileLabel: string): CsvSeries | Pro
   for (let i = headerLine + 1; i < lines.length; i++) {
     const line = lines[i];
     if (line.trim() === "") continue;
-    const where = `${fileLabel}:${i + 1}`;
+    const where = `${fileLabel}:${i + 1}`; // (cheap: a rope, flattened only when reported)
     if (times.length >= MAX_ROWS) return { where, found: `more than ${MAX_ROWS} data rows`, expected: `an inflow of at most ${MAX_ROWS} rows (resample it coarser)` };
     const cells = splitCells(line, separator);
     while (cells.length > header.length && cells[cells.length - 1] === "") cells.pop();
@@ -94,7 +94,7 @@ export function parseInflowCsv(text: string, fileLabel: string): CsvSeries | Pro
     if (cells.length > header.length) {
       return { where, found: `${cells.length} cells (${show(line)})`, expected: `a row of ${header.length} cells like the header (separator ${SEPARATOR_NAMES[separator]}${decimalComma ? ", decimal comma" : ""})` };
     }
-    const clockTime = parseClock(cells[0]);
+    const clockTime = cells[0].includes(":") ? parseClock(cells[0]) : null;
     if (clockTime !== null) clock = true;
     const time = clockTime ?? mapNumber(parseCell(cells[0], decimalComma), (t) => t * timeScale);
     const flow = parseCell(cells[1], decimalComma);
@@ -119,6 +119,7 @@ export function parseInflowCsv(text: string, fileLabel: string): CsvSeries | Pro
 
 /** Splits a line at the separator, honouring double quotes ("0,26" stays one cell). */
 function splitCells(line: string, separator: string): string[] {
+  if (!line.includes('"')) return line.split(separator).map((cell) => cell.trim());
   const cells: string[] = [];
   let cell = "";
   let quoted = false;
