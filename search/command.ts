@@ -7,6 +7,7 @@ import { buildProblem } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
+import { pondDesignCommand } from "./pondCommand.js";
 
 export interface DesignCommandOptions {
   seed?: string;
@@ -20,9 +21,11 @@ export interface DesignCommandOptions {
   out?: string;
   resume?: boolean;
   progress?: boolean;
+  sizePond?: boolean;
 }
 
 export function designCommand(path: string, options: DesignCommandOptions): number {
+  if (options.sizePond) return pondDesignCommand(path, options);
   const loaded = load(path);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);

@@ -46,7 +46,7 @@ type Quantity = number | string;
 const positive = finite.refine((v) => v > 0, { message: "a number greater than zero" });
 const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
 
-/** Rows [x, y] strictly increasing in x, non-decreasing (and optionally >= 0) in y; x or y may be a
+/** Rows [x, y] strictly increasing in x, non-decreasing (unless `yAnyOrder`; optionally >= 0) in y; x or y may be a
  * quantity with units (`xUnits`, `yUnits`: a flow "184 L/s", an area "0.56 ac"). Two rows are
  * compared here when their cells carry the same unit; `normalize.ts` compares the SI values of
  * rows in different units, which need the case's base units. */
@@ -55,7 +55,7 @@ function table<X extends z.ZodType<Quantity>, Y extends z.ZodType<Quantity>>(
   yName: string,
   xCell: X,
   yCell: Y,
-  options: { yNonNegative?: boolean; minRows?: number; xUnits?: Readonly<Record<string, number>>; yUnits?: Readonly<Record<string, number>> } = {},
+  options: { yNonNegative?: boolean; minRows?: number; yAnyOrder?: boolean; xUnits?: Readonly<Record<string, number>>; yUnits?: Readonly<Record<string, number>> } = {},
 ) {
   const minRows = options.minRows ?? 2;
   const row = z.tuple([xCell, yCell], { error: `a pair [${xName}, ${yName}]` });
@@ -74,7 +74,7 @@ function table<X extends z.ZodType<Quantity>, Y extends z.ZodType<Quantity>>(
       if (sameUnit(x, px) && !(quantityNumber(x, options.xUnits) > quantityNumber(px, options.xUnits))) {
         ctx.addIssue({ code: "custom", path: [i, 0], message: `${xName} strictly increasing (row before has ${px})`, input: x });
       }
-      if (sameUnit(y, py) && quantityNumber(y, options.yUnits) < quantityNumber(py, options.yUnits)) {
+      if (!options.yAnyOrder && sameUnit(y, py) && quantityNumber(y, options.yUnits) < quantityNumber(py, options.yUnits)) {
         ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} not decreasing (row before has ${py})`, input: y });
       }
     }
@@ -101,6 +101,36 @@ function exactlyOne<T extends Record<string, unknown>>(keys: string[], what: str
   };
 }
 
+const unitCount = z.number({ error: "a whole number of 1 or more" }).int({ message: "a whole number of 1 or more" }).min(1, { message: "a whole number of 1 or more" });
+const voidRatio = finite.refine((v) => v > 0 && v < 1, { message: "a void ratio (porosity) greater than 0 and less than 1, e.g. 0.4" });
+
+/** A rectangular stone bed around pipes or chambers; `bottom` and `top` default to the pond's. */
+export const stoneSchema = z.object({
+  voidRatio,
+  length: positiveLength,
+  width: positiveLength,
+  bottom: lengthSchema.optional(),
+  top: lengthSchema.optional(),
+});
+
+/** Parallel pipes: inside diameter, length and count; `invert` (low end) defaults to pond.bottom. */
+export const pipeGallerySchema = z.object({
+  diameter: positiveLength,
+  length: positiveLength,
+  count: unitCount,
+  slope: nonNegative.refine((v) => v < 1, { message: "a slope in ft/ft or m/m of 0 or more and less than 1" }).optional(),
+  invert: lengthSchema.optional(),
+  stone: stoneSchema.optional(),
+});
+
+/** Identical chambers from one unit's [height above its base, plan area of water inside] rows. */
+export const chambersSchema = z.object({
+  count: unitCount,
+  stageArea: table("height", "area", finite, finite, { yNonNegative: true, yAnyOrder: true }),
+  base: lengthSchema.optional(),
+  stone: stoneSchema.optional(),
+});
+
 export const storageSchema = z
   .object({
     prismoid: z
@@ -108,8 +138,10 @@ export const storageSchema = z
       .optional(),
     stageArea: table("elevation", "area", finite, pondAreaSchema, { yNonNegative: true, yUnits: AREA_UNITS }).optional(),
     stageStorage: table("elevation", "volume", finite, finite, { yNonNegative: true }).optional(),
+    pipeGallery: pipeGallerySchema.optional(),
+    chambers: chambersSchema.optional(),
   })
-  .superRefine(exactlyOne(["prismoid", "stageArea", "stageStorage"], "storage"));
+  .superRefine(exactlyOne(["prismoid", "stageArea", "stageStorage", "pipeGallery", "chambers"], "storage"));
 
 export const pondSchema = z.object({
   bottom: lengthSchema,
@@ -411,6 +443,24 @@ export const catalogueSchema = z.object({
   elevationStep: positiveLength.optional(),
 });
 
+/** Site limits from which outfit sizes a pond (the pond field may then be left out). */
+export const siteSchema = z.object({
+  floor: lengthSchema,
+  maxDepth: positiveLength,
+  sideSlope: nonNegative.optional(),
+  lengthToWidth: positive.optional(),
+  maxTopLength: positiveLength.optional(),
+  maxTopWidth: positiveLength.optional(),
+  maxTopArea: positiveArea.optional(),
+  permanentPool: z
+    .object({ depth: positiveLength.optional(), volume: positive.optional() })
+    .superRefine(exactlyOne(["depth", "volume"], "permanent pool"))
+    .optional(),
+  shape: z.object({ stageArea: table("depth", "area", finite, finite, { yNonNegative: true }) }).optional(),
+  step: positive.optional(),
+});
+
+
 /** The cost proxy's weights (search/cost.ts holds their defaults and meaning); each optional. */
 export const COST_WEIGHT_NAMES = ["opening", "orificeDiameter", "weir", "weirLength", "level", "riser", "riserPerimeter", "barrel"] as const;
 export const costsSchema = z.object(
@@ -423,7 +473,8 @@ export const caseSchema = z.object({
   $schema: z.string({ error: "the address of a JSON Schema (text)" }).optional(),
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
-  pond: pondSchema,
+  pond: pondSchema.optional(),
+  site: siteSchema.optional(),
   tailwater: tailwaterSchema.optional(),
   storms: z.array(stormSchema, { error: "a list of storms" }).min(1, { message: "at least one storm" }),
   criteria: criteriaSchema.optional(),
@@ -442,6 +493,9 @@ export type SpillwayFile = z.infer<typeof spillwaySchema>;
 export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type Length = z.infer<typeof lengthSchema>;
+export type StorageFile = z.infer<typeof storageSchema>;
+export type StoneFile = z.infer<typeof stoneSchema>;
+export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;

@@ -1,7 +1,7 @@
 // The outlet's rating on a stage grid, with the pond's storage at the same stages: the table that
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../case/model.js";
-import { storageCurve } from "../storage/curve.js";
+import { storageBreaks, storageCurve } from "../storage/curve.js";
 import { outletDischarge } from "../hydraulics/outlet.js";
 import { openingHeight } from "../hydraulics/orifice.js";
 
@@ -55,8 +55,7 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
   const tolerance = h * 1e-6;
   const inside = (z: number) => z > pond.bottom + tolerance && z < points[n] - tolerance;
   for (const b of breaks) if (inside(b)) points.push(b);
-  const s = pond.storage;
-  if (s.kind !== "prismoid") for (const z of s.elevations) if (inside(z)) points.push(z);
+  for (const z of storageBreaks(pond)) if (inside(z)) points.push(z);
   const gradedSpan = (h * GRADING_RATIO) / (GRADING_RATIO - 1);
   for (const b of onsets) {
     if (!(b > pond.bottom - tolerance && b < points[n])) continue;
