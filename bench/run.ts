@@ -4,9 +4,10 @@ import { cpus } from "node:os";
 import type { BenchSection } from "./section.js";
 import { routingSection } from "./routing.js";
 import { searchSection } from "./search.js";
+import { speedSection } from "./speed.js";
 import { inputsSection } from "./inputs.js";
 
-const sections: BenchSection[] = [routingSection, searchSection, inputsSection];
+const sections: BenchSection[] = [routingSection, speedSection, searchSection, inputsSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

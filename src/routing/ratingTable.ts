@@ -2,7 +2,7 @@
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../case/model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
-import { outletDischarge } from "../hydraulics/outlet.js";
+import { rateOutlet } from "../hydraulics/outletRating.js";
 import { openingHeight } from "../hydraulics/orifice.js";
 
 export interface RatingTable {
@@ -101,6 +101,9 @@ export interface RatingOptions {
   step?: number;
   /** A precomputed grid (the search reuses one grid for every candidate). */
   grid?: StageGrid;
+  /** Every stage by the direct evaluation (`outletDischarge`) instead of the sweep with its tables
+   * and warm starts (outletRating.ts): the reference for tests and the bench's "before". */
+  direct?: boolean;
 }
 
 /** Rates an outlet on the pond's stage grid. */
@@ -108,9 +111,10 @@ export function buildRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, op
   const grid = options.grid ?? stageGrid(pond, ratingBreaks(pond, outlet), options.step, ratingOnsets(outlet, tail));
   const n = grid.stage.length;
   const outflow = new Float64Array(n);
+  rateOutlet(outlet, tail, grid.stage, outflow, options.direct === true);
   let held = 0;
   for (let i = 0; i < n; i++) {
-    const q = outletDischarge(outlet, tail, grid.stage[i]);
+    const q = outflow[i];
     if (i > 0 && q < outflow[i - 1]) {
       if (outflow[i - 1] - q > 1e-9 * (1 + outflow[i - 1])) held++;
       outflow[i] = outflow[i - 1];
