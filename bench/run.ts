@@ -6,8 +6,9 @@ import { routingSection } from "./routing.js";
 import { searchSection } from "./search.js";
 import { speedSection } from "./speed.js";
 import { workersSection } from "./workers.js";
+import { inputsSection } from "./inputs.js";
 
-const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection];
+const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection, inputsSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

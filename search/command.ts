@@ -1,10 +1,10 @@
 // `outfit design` and `outfit gather`: load, search (on worker threads, in rounds, journalled), print,
 // and write results and candidate case files whole. Signals stop the run gracefully.
-import { existsSync, mkdirSync, readdirSync, rmSync, statSync } from "node:fs";
+import { existsSync, readdirSync, rmSync, statSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { availableParallelism } from "node:os";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { writeFileAtomic } from "../src/io.js";
+import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
 import { buildProblem, type DesignLimits } from "./problem.js";
 import { KEPT, runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
@@ -111,7 +111,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const journalPath = options.out ? join(options.out, "journal.jsonl") : undefined;
   const signature = createHash("sha256").update(JSON.stringify({ json: loaded.json, seed, margin: problem.options.margin, starts, ...(limits.vary !== "all" || limits.keepRiser || limits.keepBarrel || limits.rankBy !== "cost" ? { limits } : {}) })).digest("hex").slice(0, 16);
   const done = new Map<string, JournalEntry>();
-  const warn = (text: string) => process.stderr.write(`outfit: warning: ${text}\n`);
+  const warn = (text: string) => printErr(`outfit: warning: ${text}\n`);
   const sources: [string, string][] = [];
   if (options.resume && journalPath && existsSync(journalPath)) sources.push([journalPath, "--resume"]);
   for (const dir of options.gather ?? []) {
@@ -126,7 +126,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   }
   let journal: Journal | undefined;
   if (options.out && journalPath) {
-    mkdirSync(options.out, { recursive: true });
+    makeDirectory(options.out);
     if (!options.resume) {
       const removed = removeStale(options.out, 0);
       if (removed.length > 0) warn(`removed ${removed.join(", ")} of an earlier run in ${options.out}`);
@@ -182,7 +182,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
     writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
   }
   emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
-  if (options.out && !options.quiet) process.stderr.write(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
+  if (options.out && !options.quiet) printErr(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
   if (run.interrupted) return EXIT_INTERRUPTED;
   return options.check && !run.success ? EXIT_NOT_COMPLIANT : 0;
 }

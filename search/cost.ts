@@ -1,5 +1,6 @@
 // The cost proxy: a relative measure of what an outlet takes to build (not money). Each weight may be
 // overridden in the case's `costs`, in the case's length unit (per ft for US, per m for SI).
+import { own } from "../src/own.js";
 import type { Case, Outlet } from "../src/case/model.js";
 import { FOOT } from "../src/units.js";
 import { riserPerimeter } from "../src/hydraulics/riser.js";
@@ -26,6 +27,7 @@ export const DEFAULT_COSTS_PER_FOOT = {
 
 export type CostWeights = typeof DEFAULT_COSTS_PER_FOOT;
 export const COST_KEYS = Object.keys(DEFAULT_COSTS_PER_FOOT) as (keyof CostWeights)[];
+// The case file's schema lists the same names (COST_WEIGHT_NAMES); a test holds them equal.
 
 /** Weights in SI (per m, per m2), from the defaults and the case's overrides. */
 export function costWeights(c: Case): CostWeights {
@@ -35,7 +37,7 @@ export function costWeights(c: Case): CostWeights {
     opening: 0, orificeDiameter: 1, weir: 0, weirLength: 1, level: 0, riser: 0, riserPerimeter: 1, barrel: 2,
   };
   for (const key of COST_KEYS) {
-    const given = c.costs[key];
+    const given = own(c.costs, key);
     // Defaults are per foot; a case's own weights are per its length unit.
     weights[key] = given !== undefined ? given / Math.pow(perUnit, lengthPower[key]) : weights[key] / Math.pow(FOOT, lengthPower[key]);
   }

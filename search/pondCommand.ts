@@ -1,8 +1,8 @@
 // `outfit design --size-pond`: pond and outlet designed together, written whole.
-import { existsSync, mkdirSync, statSync } from "node:fs";
+import { existsSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { writeFileAtomic } from "../src/io.js";
+import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
 import { designPondAndOutlet } from "./pondDesign.js";
 import { pondDesignCase, pondDesignJson, pondDesignText } from "./pondReport.js";
 import type { DesignCommandOptions } from "./command.js";
@@ -29,11 +29,11 @@ export async function pondDesignCommand(path: string, options: DesignCommandOpti
   const json = pondDesignJson(c, design);
   const text = pondDesignText(c, design);
   if (options.out) {
-    mkdirSync(options.out, { recursive: true });
+    makeDirectory(options.out);
     if (design.chosen) writeFileAtomic(join(options.out, POND_DESIGN_CASE), JSON.stringify(pondDesignCase(design, options.out), null, 2) + "\n");
     writeFileAtomic(join(options.out, "results.json"), JSON.stringify(json, null, 2) + "\n");
     writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
-    process.stderr.write(`outfit: wrote ${options.out}/results.json, summary.txt${design.chosen ? ` and ${POND_DESIGN_CASE}` : ""}\n`);
+    printErr(`outfit: wrote ${options.out}/results.json, summary.txt${design.chosen ? ` and ${POND_DESIGN_CASE}` : ""}\n`);
   }
   emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
   return 0;

@@ -1,11 +1,13 @@
 #!/usr/bin/env node
 // Command-line wiring only: parse, call, print, exit code.
+import { printErr } from "./io.js";
 import { readFileSync } from "node:fs";
 import { Command, CommanderError } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
+import { schemaCommand } from "./commands/schema.js";
 import { volumeCommand } from "./commands/volume.js";
 import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
@@ -20,12 +22,12 @@ async function run(action: () => number | Promise<number>): Promise<void> {
     process.exitCode = await action();
   } catch (error) {
     if (isUserError(error)) {
-      process.stderr.write(`outfit: error:\n${error.message.split("\n").map((line) => `  ${line}`).join("\n")}\n`);
+      printErr(`outfit: error:\n${error.message.split("\n").map((line) => `  ${line}`).join("\n")}\n`);
       process.exitCode = 2;
     } else {
       const message = error instanceof Error ? error.message : String(error);
-      process.stderr.write(`outfit: internal error: ${message}\n`);
-      if (process.env.OUTFIT_DEBUG && error instanceof Error) process.stderr.write(`${error.stack}\n`);
+      printErr(`outfit: internal error: ${message}\n`);
+      if (process.env.OUTFIT_DEBUG && error instanceof Error) printErr(`${error.stack}\n`);
       process.exitCode = 1;
     }
   }
@@ -271,6 +273,22 @@ Examples:
 Exit codes: 0 written, 2 bad input (nothing is written).`,
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
+
+program
+  .command("schema")
+  .description("print the case file's JSON Schema (generated from outfit's own schema), for editor completion")
+  .option("--out <file>", "write the schema to a file instead of the terminal")
+  .addHelpText(
+    "after",
+    `
+Name the written file in a case's "$schema" field and an editor that reads JSON Schemas completes
+and checks the case's fields as you type:
+
+Examples:
+  outfit schema --out case.schema.json
+  { "$schema": "./case.schema.json", "name": "...", ... }`,
+  )
+  .action((options: { out?: string }) => run(() => schemaCommand(options)));
 
 try {
   await program.parseAsync();

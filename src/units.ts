@@ -1,6 +1,8 @@
 // Units at the edges: a case is written in US (ft, ft3, cfs, min) or SI (m, m3, m3/s, min);
 // everything inside outfit is SI (m, m2, m3, m3/s, s).
 
+import { own } from "./own.js";
+
 export type UnitSystem = "US" | "SI";
 
 /** Metres per foot (exact, international foot). */
@@ -13,7 +15,12 @@ export const SECONDS_PER_HOUR = 3600;
 /** Metres per length unit accepted in case files. */
 export const LENGTH_UNITS: Readonly<Record<string, number>> = {
   ft: FOOT,
+  foot: FOOT,
+  feet: FOOT,
   in: FOOT / 12,
+  inch: FOOT / 12,
+  inches: FOOT / 12,
+  '"': FOOT / 12,
   m: 1,
   mm: 0.001,
   cm: 0.01,
@@ -29,6 +36,16 @@ export const AREA_UNITS: Readonly<Record<string, number>> = {
   m2: 1,
 };
 
+/** Cubic metres per second per flow unit (US gallon 3.785411784 L, exact). */
+export const FLOW_UNITS: Readonly<Record<string, number>> = {
+  cfs: FOOT ** 3,
+  "ft3/s": FOOT ** 3,
+  "m3/s": 1,
+  cms: 1,
+  "l/s": 0.001,
+  gpm: 3.785411784e-3 / 60,
+};
+
 /** Metres per second per rainfall-intensity unit. */
 export const INTENSITY_UNITS: Readonly<Record<string, number>> = {
   "in/h": FOOT / 12 / SECONDS_PER_HOUR,
@@ -37,31 +54,75 @@ export const INTENSITY_UNITS: Readonly<Record<string, number>> = {
   "mm/hr": 0.001 / SECONDS_PER_HOUR,
 };
 
-/** A number, optionally followed by a unit such as "in", "km2" or "mm/h". */
-export const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*)?\s*$/;
+/** Largest magnitude of any number in a case file (and smallest non-zero one): beyond these a value
+ * is a typo or an overflow ("1e999"), and products of such values overflow to Infinity or to 0. */
+export const NUMBER_LIMIT = 1e12;
+export const NUMBER_FLOOR = 1e-12;
+
+/** A finite number inside the limits above (zero allowed). */
+export function isUsableNumber(value: number): boolean {
+  return Number.isFinite(value) && Math.abs(value) <= NUMBER_LIMIT && (value === 0 || Math.abs(value) >= NUMBER_FLOOR);
+}
+/** What `isUsableNumber` accepts, in words. */
+export const USABLE_NUMBER = "a finite number (0, or of magnitude from 1e-12 to 1e12)";
+
+/** The one parser of numeric text: a decimal number ("12", "-0.5", "3e2") that is usable, else null. */
+export function parseNumber(text: string): number | null {
+  if (!/^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/.test(text)) return null;
+  const value = Number(text);
+  // "1e-999" reads as 0: an underflow, not a zero.
+  if (value === 0 && /[1-9]/.test(text.replace(/[eE].*$/, ""))) return null;
+  return isUsableNumber(value) ? value : null;
+}
+
+/** A number, optionally followed by a unit such as "in", "km2", "mm/h", "L/s" or the inch mark ("6\""). */
+const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*|")?\s*$/;
+
+/** A quantity's number and unit text as written, or why it is not one; `units` lists the known units. */
+export function splitQuantity(text: string, units: Readonly<Record<string, number>>): { number: number; factor: number | null } | { error: string } {
+  const match = QUANTITY_PATTERN.exec(text);
+  if (!match) return { error: "not a number with an optional unit" };
+  const number = parseNumber(match[1]);
+  if (number === null) return { error: USABLE_NUMBER };
+  if (match[2] === undefined) return { number, factor: null };
+  const factor = own(units, match[2].toLowerCase());
+  if (factor === undefined) return { error: `a unit among ${Object.keys(units).join(", ")} ("${match[2]}" is not one)` };
+  return { number, factor };
+}
 
 /** Parses a number with an optional unit from `units`; a bare number is in `base` (SI per bare unit). */
-function parseQuantity(
+export function parseQuantity(
   value: number | string,
   units: Readonly<Record<string, number>>,
   base: number,
   what: string,
   examples: string,
 ): number | { error: string } {
-  if (typeof value === "number") return value * base;
-  const match = QUANTITY_PATTERN.exec(value);
-  if (!match) return { error: `${what}: a number, or a number and a unit such as ${examples}` };
-  const unit = match[2];
-  const number = Number(match[1]);
-  if (unit === undefined) return number * base;
-  const factor = units[unit.toLowerCase()];
-  if (factor === undefined) return { error: `${what} unit among ${Object.keys(units).join(", ")}` };
-  return number * factor;
+  if (typeof value === "number") {
+    return isUsableNumber(value) ? value * base : { error: `${what}: ${USABLE_NUMBER}` };
+  }
+  const parts = splitQuantity(value, units);
+  if ("error" in parts) {
+    if (parts.error.startsWith("a unit")) return { error: `${what} unit among ${Object.keys(units).join(", ")}` };
+    return { error: `${what}: a number, or a number and a unit such as ${examples}; the number ${USABLE_NUMBER}` };
+  }
+  const si = parts.number * (parts.factor ?? base);
+  return Number.isFinite(si) ? si : { error: `${what}: ${USABLE_NUMBER}` };
 }
 
 /** Parses "6 in", "0.5 ft", "150 mm" or a bare number in the base unit; returns metres or an error text. */
 export function parseLength(value: number | string, system: UnitSystem): number | { error: string } {
   return parseQuantity(value, LENGTH_UNITS, baseLength(system), "a length", '"6 in" or "150 mm"');
+}
+
+/** Parses a flow ("6.5 cfs", "184 L/s", "0.18 m3/s"; a bare number is cfs (US) or m3/s (SI)); returns m3/s. */
+export function parseFlow(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, FLOW_UNITS, baseFlow(system), "a flow", '"6.5 cfs" or "184 L/s"');
+}
+
+/** Parses a pond surface area ("0.56 ac", "2300 m2"; a bare number is ft2 (US) or m2 (SI)); returns m2. */
+export function parsePondArea(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, AREA_UNITS, baseArea(system), "an area", '"0.56 ac" or "2300 m2"');
 }
 
 /** Parses a watershed area ("12 ac", "4.9 ha"; a bare number is acres (US) or hectares (SI)); returns m2. */

@@ -3,6 +3,7 @@ import type { Case } from "../case/model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import { bindingCheck, evaluateChecks, type Check } from "./checks.js";
 import { outletWarnings, type Warning } from "./warnings.js";
+import { implausibleInputWarnings } from "./plausibility.js";
 
 export interface Assessment {
   checks: Check[];
@@ -15,7 +16,7 @@ export function assess(c: Case, routing: CaseRouting): Assessment {
   const checks = evaluateChecks(c, routing.outlet, routing.storms);
   return {
     checks,
-    warnings: outletWarnings(c, routing.outlet, routing),
+    warnings: [...outletWarnings(c, routing.outlet, routing), ...implausibleInputWarnings(c, routing.outlet, routing)],
     compliant: checks.every((check) => check.passed),
     binding: bindingCheck(checks),
   };

@@ -1,7 +1,7 @@
 // Case-file values to SI, collecting the problems found on the way with their JSON paths.
 import type { Length } from "./schema.js";
 import { show, type Problem } from "./errors.js";
-import { baseFlow, parseLength, type UnitSystem } from "../units.js";
+import { baseFlow, parseFlow, parseLength, type UnitSystem } from "../units.js";
 
 /** Converts case-file values to SI and collects problems that involve several fields. */
 export class Converter {
@@ -12,7 +12,15 @@ export class Converter {
   ) {}
 
   length(value: Length, path: string): number {
-    const parsed = parseLength(value, this.units);
+    return this.quantity(parseLength, value, path);
+  }
+  /** A flow ("6.5 cfs", "184 L/s", or a bare number in cfs / m3/s), m3/s. */
+  flowOf(value: number | string, path: string): number {
+    return this.quantity(parseFlow, value, path);
+  }
+  /** Any quantity by its parser (units.ts); a problem and NaN when it does not parse. */
+  quantity(parse: (value: number | string, system: UnitSystem) => number | { error: string }, value: number | string, path: string): number {
+    const parsed = parse(value, this.units);
     if (typeof parsed === "number") return parsed;
     this.problem(path, show(value), parsed.error);
     return NaN;

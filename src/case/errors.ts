@@ -44,6 +44,12 @@ export function describeIoError(error: unknown): string {
   const code = (error as { code?: string }).code;
   if (code === "ENOENT") return "no such file";
   if (code === "EISDIR") return "a directory";
-  if (code === "EACCES") return "a file that cannot be read (permission denied)";
+  if (code === "EACCES" || code === "EPERM") return "a path without permission (permission denied)";
+  if (code === "ENOTDIR") return "a path through a file (a part of it is not a directory)";
+  if (code === "EROFS") return "a read-only file system";
+  if (code === "ENAMETOOLONG") return "a name too long";
+  if (code === "ENOSPC") return "a full disk";
+  if (code === "EEXIST") return "a file where a directory is needed";
+  if (code === "EINVAL") return "a path the system cannot use";
   return error instanceof Error ? error.message : String(error);
 }

@@ -4,7 +4,8 @@
 import type { CaseFile, CatchmentFile, HydrologyFile, RainfallFile } from "./schema.js";
 import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
-import { FOOT, parseArea, parseDepth, parseIntensity, type UnitSystem } from "../units.js";
+import { emptyRecord, own } from "../own.js";
+import { FOOT, parseArea, parseDepth, parseIntensity } from "../units.js";
 import { distributionMassCurve, type DistributionType, type MassCurve } from "../hydrology/distributions.js";
 import { compositeCurveNumber, weightedMean, type AbstractionRatio } from "../hydrology/runoff.js";
 import { MAX_SHEET_LENGTH, tcFromLag, travelTime, watershedLag, type FlowSegment } from "../hydrology/timeOfConcentration.js";
@@ -64,12 +65,12 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
     ratio: (h.initialAbstractionRatio ?? 0.2) as AbstractionRatio,
     peakRateFactor: h.peakRateFactor ?? STANDARD_PEAK_RATE_FACTOR,
   };
-  const twoYearRainfall = h.twoYearRainfall === undefined ? null : quantity(cv, parseDepth, h.twoYearRainfall, "hydrology.twoYearRainfall");
+  const twoYearRainfall = h.twoYearRainfall === undefined ? null : cv.quantity(parseDepth, h.twoYearRainfall, "hydrology.twoYearRainfall");
   const catchments: Record<AreaName, Catchment | null> = {
     pre: h.pre ? catchment(h.pre, `hydrology.pre`, cv, twoYearRainfall) : null,
     post: h.post ? catchment(h.post, `hydrology.post`, cv, twoYearRainfall) : null,
   };
-  const curves: Record<string, IdfCurve> = {};
+  const curves: Record<string, IdfCurve> = emptyRecord();
   for (const [name, idf] of Object.entries(h.idf ?? {})) curves[name] = idfCurve(idf, `hydrology.idf.${name}`, cv);
   const result: CaseHydrology = { nrcs, catchments, storms: file.storms.map(() => null) };
   if (cv.problems.length > before) return result;
@@ -103,7 +104,7 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
       if (rainfall.kind === "idf") checkIdfRange(rainfall, c, name, cv);
     }
     if (cv.problems.length > start) return;
-    const explicitTarget = storm.target === undefined ? null : storm.target * cv.flow;
+    const explicitTarget = storm.target === undefined ? null : cv.flowOf(storm.target, `${path}.target`);
     result.storms[index] =
       rainfall.kind === "idf" ? rationalStorm(rainfall, catchments, explicitTarget) : nrcsStorm(rainfall, catchments, nrcs);
   });
@@ -149,7 +150,7 @@ function catchment(c: CatchmentFile, path: string, cv: Converter, twoYearRainfal
   let curveNumber: number | null;
   let runoffCoefficient: number | null;
   if (c.parts) {
-    const parts = c.parts.map((p, i) => ({ ...p, area: quantity(cv, parseArea, p.area, `${path}.parts[${i}].area`) }));
+    const parts = c.parts.map((p, i) => ({ ...p, area: cv.quantity(parseArea, p.area, `${path}.parts[${i}].area`) }));
     area = parts.reduce((sum, p) => sum + p.area, 0);
     const consistent = (key: "curveNumber" | "runoffCoefficient", what: string): boolean => {
       const given = parts.filter((p) => p[key] !== undefined).length;
@@ -166,7 +167,7 @@ function catchment(c: CatchmentFile, path: string, cv: Converter, twoYearRainfal
       ? weightedMean(parts.map((p) => [p.area, p.runoffCoefficient!] as const))
       : null;
   } else {
-    area = quantity(cv, parseArea, c.area!, `${path}.area`);
+    area = cv.quantity(parseArea, c.area!, `${path}.area`);
     curveNumber = c.curveNumber ?? null;
     runoffCoefficient = c.runoffCoefficient ?? null;
   }
@@ -210,11 +211,11 @@ function flowSegment(s: NonNullable<CatchmentFile["flowPath"]>[number], path: st
 function idfCurve(idf: NonNullable<HydrologyFile["idf"]>[string], path: string, cv: Converter): IdfCurve {
   if (idf.formula) {
     const { a, b, c } = idf.formula;
-    return { kind: "formula", a: quantity(cv, parseIntensity, a, `${path}.formula.a`), b, c };
+    return { kind: "formula", a: cv.quantity(parseIntensity, a, `${path}.formula.a`), b, c };
   }
   const rows = idf.table!;
   const durations = rows.map((r) => r[0] * 60);
-  const intensities = rows.map((r, i) => quantity(cv, parseIntensity, r[1], `${path}.table[${i}][1]`));
+  const intensities = rows.map((r, i) => cv.quantity(parseIntensity, r[1], `${path}.table[${i}][1]`));
   for (let i = 1; i < rows.length; i++) {
     if (!(durations[i] > durations[i - 1])) {
       cv.problem(`${path}.table[${i}][0]`, show(rows[i][0]), `a duration longer than the row before (${rows[i - 1][0]} min)`);
@@ -228,13 +229,13 @@ function idfCurve(idf: NonNullable<HydrologyFile["idf"]>[string], path: string, 
 
 function stormRainfall(r: RainfallFile, path: string, cv: Converter, curves: Record<string, IdfCurve>): StormRainfall | null {
   if (r.distribution) {
-    const depth = quantity(cv, parseDepth, r.depth!, `${path}.depth`);
+    const depth = cv.quantity(parseDepth, r.depth!, `${path}.depth`);
     return { kind: "distribution", distribution: r.distribution, depth, curve: distributionMassCurve(r.distribution, depth) };
   }
   if (r.hyetograph) {
     const points = r.hyetograph;
     const times = points.map((p) => p[0] * 60);
-    const depths = points.map((p, i) => quantity(cv, parseDepth, p[1], `${path}.hyetograph[${i}][1]`));
+    const depths = points.map((p, i) => cv.quantity(parseDepth, p[1], `${path}.hyetograph[${i}][1]`));
     if (times[0] < 0) cv.problem(`${path}.hyetograph[0][0]`, show(points[0][0]), "a time of zero or more (minutes from the start of the storm)");
     if (depths[0] !== 0) cv.problem(`${path}.hyetograph[0][1]`, show(points[0][1]), "a cumulative depth of 0 at the first point");
     for (let i = 1; i < points.length; i++) {
@@ -245,7 +246,7 @@ function stormRainfall(r: RainfallFile, path: string, cv: Converter, curves: Rec
     if (!(total > 0)) cv.problem(`${path}.hyetograph`, "no rainfall", "cumulative depths that reach above zero");
     return { kind: "hyetograph", depth: total, curve: { times, depths } };
   }
-  const curve = curves[r.idf!];
+  const curve = own(curves, r.idf!);
   if (!curve) {
     const names = Object.keys(curves);
     cv.problem(`${path}.idf`, show(r.idf), names.length ? `the name of a curve in hydrology.idf (${names.join(", ")})` : "the name of a curve in hydrology.idf (there is none)");
@@ -255,9 +256,3 @@ function stormRainfall(r: RainfallFile, path: string, cv: Converter, curves: Rec
 }
 
 /** Parses a value with one of the units' parsers, reporting a problem at `path` when it fails. */
-function quantity(cv: Converter, parse: (value: number | string, system: UnitSystem) => number | { error: string }, value: number | string, path: string): number {
-  const parsed = parse(value, cv.units);
-  if (typeof parsed === "number") return parsed;
-  cv.problem(path, show(value), parsed.error);
-  return NaN;
-}

@@ -49,11 +49,19 @@ export interface ParseOptions {
 export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase {
   const file = options.file ?? "";
   const label = options.label ?? (file ? basename(file) : "case");
+  const unknown = unknownFields(caseSchema, json);
+  // A misspelled known field would silently drop what it says (a drawdown limit, a freeboard): an error.
+  const misspelled: Problem[] = unknown
+    .filter((u) => u.near !== null)
+    .map((u) => ({ where: `${label}: ${u.path}`, found: `the field ${show(u.key)}`, expected: `a field of the case format (did you mean ${u.near}?)` }));
   const result = caseSchema.safeParse(json, { reportInput: true });
-  if (!result.success) throw new CaseError(result.error.issues.slice(0, 12).map((issue) => fromIssue(issue, label)));
-  const notices = unknownFields(caseSchema, json).map((p) => `${label}: ${p}: field not in the case format, ignored`);
+  if (!result.success) throw new CaseError([...misspelled, ...result.error.issues.map((issue) => fromIssue(issue, label))].slice(0, 12));
+  if (misspelled.length > 0) throw new CaseError(misspelled);
+  const notices = unknown.map((u) => `${label}: ${u.path}: field not in the case format, ignored`);
   const data: CaseFile = result.data;
-  return { case: normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd() }), data, json, notices };
+  const notes: string[] = [];
+  const c = normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd(), notes });
+  return { case: c, data, json, notices: [...notices, ...notes] };
 }
 
 /** A zod issue as a problem naming the path, the value found and what was expected. */

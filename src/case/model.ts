@@ -235,5 +235,5 @@ export interface Case {
   outlet?: Outlet;
   catalogue?: Catalogue;
   /** Cost weights given in the case (the search documents the defaults). */
-  costs: Record<string, number>;
+  costs: Partial<Record<string, number>>;
 }

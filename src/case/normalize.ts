@@ -5,8 +5,8 @@ import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
 import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "./model.js";
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
-import { parseInflowCsv } from "./csv.js";
-import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT } from "../units.js";
+import { MAX_ROWS, parseInflowCsv } from "./csv.js";
+import { baseLength, baseVolume, baseWeirCoefficient, FOOT, parsePondArea } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
@@ -19,6 +19,8 @@ export interface NormalizeContext {
   file: string;
   label: string;
   directory: string;
+  /** Notes on how inputs were read (a CSV's separator and units), for the user. */
+  notes?: string[];
 }
 
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
@@ -85,7 +87,10 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
     const rows = (s.stageArea ?? s.stageStorage)!;
     const kind = s.stageArea ? "stageArea" : "stageStorage";
     const elevations = rows.map((r) => r[0] * L);
-    const values = rows.map((r) => r[1] * (s.stageArea ? baseArea(file.units) : baseVolume(file.units)));
+    const values = s.stageArea
+      ? s.stageArea.map((r, i) => cv.quantity(parsePondArea, r[1], `pond.storage.stageArea[${i}][1]`))
+      : s.stageStorage!.map((r) => r[1] * baseVolume(file.units));
+    if (s.stageArea) increasing(values, false, "area", (i) => ({ path: `pond.storage.stageArea[${i}][1]`, found: s.stageArea![i][1] }), cv);
     if (elevations[0] > bottom + 1e-9) {
       cv.problem(`pond.storage.${kind}[0][0]`, show(rows[0][0]), `a first elevation at or below pond.bottom (${show(p.bottom)})`);
     }
@@ -109,7 +114,7 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
   const rows = t.rating!;
   return {
     kind: "rating",
-    flows: rows.map((r) => r[0] * cv.flow),
+    flows: increasing(rows.map((r, i) => cv.flowOf(r[0], `tailwater.rating[${i}][0]`)), true, "flow", (i) => ({ path: `tailwater.rating[${i}][0]`, found: rows[i][0] }), cv),
     elevations: rows.map((r) => r[1] * baseLength(file.units)),
   };
 }
@@ -121,15 +126,16 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
   let flows: number[] = [];
   if (storm.inflow?.series) {
     const series = storm.inflow.series;
-    series.forEach(([t, q], i) => {
-      if (q < 0) cv.problem(`${path}.inflow.series[${i}][1]`, show(q), "a flow of zero or more");
+    const seriesFlows = series.map(([, q], i) => cv.flowOf(q, `${path}.inflow.series[${i}][1]`));
+    series.forEach(([t], i) => {
+      if (seriesFlows[i] < 0) cv.problem(`${path}.inflow.series[${i}][1]`, show(series[i][1]), "a flow of zero or more");
       if (i > 0 && !(t > series[i - 1][0])) {
         cv.problem(`${path}.inflow.series[${i}][0]`, show(t), `a time later than the point before (${series[i - 1][0]} min)`);
       }
     });
     if (series.length < 2) cv.problem(`${path}.inflow.series`, `${series.length} points`, "at least two [minutes, flow] points");
     minutes = series.map((p) => p[0]);
-    flows = series.map((p) => p[1]);
+    flows = seriesFlows.map((q) => q / cv.flow);
   } else if (storm.inflow) {
     const name = storm.inflow.file!;
     const full = resolve(context.directory, name);
@@ -144,17 +150,19 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
       if ("where" in parsed) cv.problems.push(parsed);
       else {
         minutes = parsed.times;
-        flows = parsed.flows;
+        flows = parsed.flowFactor === null ? parsed.flows : parsed.flows.map((q) => (q * parsed.flowFactor!) / cv.flow);
+        context.notes?.push(`${name}: read with ${parsed.reading}`);
       }
     }
   }
+  checkInflowSpan(minutes, `${path}.inflow`, cv);
   const inflow: Hydrograph = storm.inflow || !derived?.post
     ? { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) }
     : derived.post.hydrograph;
   return {
     name: storm.name,
     returnPeriod: storm.returnPeriod,
-    target: storm.target === undefined ? (derived?.pre?.peak ?? null) : storm.target * cv.flow,
+    target: storm.target === undefined ? (derived?.pre?.peak ?? null) : cv.flowOf(storm.target, `${path}.target`),
     inflow,
   };
 }
@@ -274,7 +282,7 @@ function normalizeElement(e: ElementFile, cv: Converter, path: string): Element 
     type: "regulator",
     invert: cv.length(e.invert, `${path}.invert`),
     heads: e.rating.map((r) => r[0] * L),
-    flows: e.rating.map((r) => r[1] * cv.flow),
+    flows: increasing(e.rating.map((r, i) => cv.flowOf(r[1], `${path}.rating[${i}][1]`)), false, "flow", (i) => ({ path: `${path}.rating[${i}][1]`, found: e.rating[i][1] }), cv),
     keep,
   };
 }
@@ -294,4 +302,32 @@ function normalizeCatalogue(file: CaseFile, cv: Converter): Catalogue {
     maxStages: c.maxStages ?? 3,
     elevationStep: cv.optionalLength(c.elevationStep, "catalogue.elevationStep", file.units === "US" ? 0.05 * FOOT : 0.01),
   };
+}
+
+/** Checks SI values of a table column (rows may carry different units) for order; returns them. */
+function increasing(values: number[], strictly: boolean, name: string, at: (i: number) => { path: string; found: unknown }, cv: Converter): number[] {
+  for (let i = 1; i < values.length; i++) {
+    // Rounding of unit factors aside (0.1 ac and 4356 ft2 are the same area).
+    const bad = strictly ? !(values[i] > values[i - 1]) : values[i] < values[i - 1] - 1e-12 * Math.abs(values[i - 1]);
+    if (bad && !Number.isNaN(values[i]) && !Number.isNaN(values[i - 1])) {
+      const { path, found } = at(i);
+      if (!cv.problems.some((p) => p.where === `${cv.label}: ${path}`)) {
+        cv.problem(path, show(found), `${name} ${strictly ? "strictly increasing" : "not decreasing"} (row before has ${show(at(i - 1).found)})`);
+      }
+    }
+  }
+  return values;
+}
+
+/** Longest inflow a storm may span: routing goes on until 10 days after the last point, and a
+ * span beyond this is a typo in the times (or the unit of the time column), not a design storm. */
+export const MAX_INFLOW_DAYS = 30;
+
+function checkInflowSpan(minutes: number[], path: string, cv: Converter): void {
+  if (minutes.length > MAX_ROWS) cv.problem(path, `${minutes.length} points`, `at most ${MAX_ROWS} points`);
+  if (minutes.length < 2) return;
+  const span = minutes[minutes.length - 1] - minutes[0];
+  if (span > MAX_INFLOW_DAYS * 1440) {
+    cv.problem(path, `times from ${show(minutes[0])} to ${show(minutes[minutes.length - 1])} minutes (${show(Number((span / 1440).toPrecision(3)))} days)`, `an inflow spanning at most ${MAX_INFLOW_DAYS} days (${MAX_INFLOW_DAYS * 1440} minutes); times are minutes unless a CSV header names hours or seconds`);
+  }
 }

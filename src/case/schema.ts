@@ -2,62 +2,89 @@
 // Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
 import { ENTRANCES } from "../hydraulics/entrances.js";
 import { z } from "zod";
-import { AREA_UNITS, INTENSITY_UNITS, LENGTH_UNITS, QUANTITY_PATTERN } from "../units.js";
+import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, isUsableNumber, splitQuantity, USABLE_NUMBER } from "../units.js";
 
 const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "6 in"`;
 
-const finite = z.number({ error: "a finite number" }).refine(Number.isFinite, { message: "a finite number" });
+const finite = z.number({ error: USABLE_NUMBER }).refine(isUsableNumber, { message: USABLE_NUMBER });
 
 /** A number, or a string of a number and one of `units`; `expected` says what in messages. */
 function quantitySchema(units: Readonly<Record<string, number>>, expected: string, noun: string) {
   return z.union([finite, z.string()], { error: expected }).superRefine((value, ctx) => {
     if (typeof value === "number") return;
-    const match = QUANTITY_PATTERN.exec(value);
-    if (!match) ctx.addIssue({ code: "custom", message: expected, input: value });
-    else if (match[2] !== undefined && units[match[2].toLowerCase()] === undefined) {
-      const known = Object.keys(units).join(", ");
-      ctx.addIssue({ code: "custom", message: `a ${noun} unit among ${known} ("${match[2]}" is not one), such as ${expected.slice(expected.lastIndexOf("such as ") + 8)}`, input: value });
+    const parts = splitQuantity(value, units);
+    if ("error" in parts) {
+      const example = expected.slice(expected.lastIndexOf("such as ") + 8);
+      const message = parts.error.startsWith("a unit") ? `a ${noun} ${parts.error.slice(2)}, such as ${example}` : `${expected}; the number ${USABLE_NUMBER}`;
+      ctx.addIssue({ code: "custom", message, input: value });
     }
   });
 }
+/** The number of a valid quantity (its sign is all the checks below need). */
+function quantityNumber(value: number | string, units: Readonly<Record<string, number>> | undefined): number {
+  if (typeof value === "number") return value;
+  if (!units) return NaN;
+  const parts = splitQuantity(value, units);
+  return "error" in parts ? NaN : parts.number;
+}
 /** The same, greater than zero. */
-function positiveQuantity(schema: ReturnType<typeof quantitySchema>, what: string) {
+function positiveQuantity(schema: ReturnType<typeof quantitySchema>, units: Readonly<Record<string, number>>, what: string) {
   return schema.superRefine((value, ctx) => {
-    const n = typeof value === "number" ? value : parseFloat(String(value));
-    if (!(n > 0)) ctx.addIssue({ code: "custom", message: `${what} greater than zero`, input: value });
+    const n = quantityNumber(value, units);
+    if (!Number.isNaN(n) && !(n > 0)) ctx.addIssue({ code: "custom", message: `${what} greater than zero`, input: value });
   });
 }
 
 /** A length: a bare number in the case's base unit or a string with a unit ("6 in", "150 mm"). */
 export const lengthSchema = quantitySchema(LENGTH_UNITS, LENGTH_EXPECTED, "length");
-const positiveLength = positiveQuantity(lengthSchema, "a length");
+const positiveLength = positiveQuantity(lengthSchema, LENGTH_UNITS, "a length");
+/** A flow: a bare number in cfs (US) or m3/s (SI), or "6.5 cfs", "184 L/s", "0.18 m3/s". */
+export const flowSchema = quantitySchema(FLOW_UNITS, `a flow: a number, or a number and a unit (${Object.keys(FLOW_UNITS).join(", ")}) such as "6.5 cfs"`, "flow");
+/** A pond surface area: a bare number in ft2 (US) or m2 (SI), or "0.56 ac", "0.2 ha", "2300 m2". */
+export const pondAreaSchema = quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "0.56 ac"`, "area");
+type Quantity = number | string;
 const positive = finite.refine((v) => v > 0, { message: "a number greater than zero" });
 const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
-const pair = z.tuple([finite, finite], { error: "a pair of numbers [x, y]" });
 
-/** Rows [x, y] strictly increasing in x, non-decreasing (unless `yAnyOrder`; optionally >= 0) in y. */
-function table(xName: string, yName: string, options: { yNonNegative?: boolean; minRows?: number; yAnyOrder?: boolean } = {}) {
+/** Rows [x, y] strictly increasing in x, non-decreasing (unless `yAnyOrder`; optionally >= 0) in y; x or y may be a
+ * quantity with units (`xUnits`, `yUnits`: a flow "184 L/s", an area "0.56 ac"). Two rows are
+ * compared here when their cells carry the same unit; `normalize.ts` compares the SI values of
+ * rows in different units, which need the case's base units. */
+function table<X extends z.ZodType<Quantity>, Y extends z.ZodType<Quantity>>(
+  xName: string,
+  yName: string,
+  xCell: X,
+  yCell: Y,
+  options: { yNonNegative?: boolean; minRows?: number; yAnyOrder?: boolean; xUnits?: Readonly<Record<string, number>>; yUnits?: Readonly<Record<string, number>> } = {},
+) {
   const minRows = options.minRows ?? 2;
-  return z.array(pair, { error: `a table of [${xName}, ${yName}] rows` }).superRefine((rows, ctx) => {
+  const row = z.tuple([xCell, yCell], { error: `a pair [${xName}, ${yName}]` });
+  return z.array(row, { error: `a table of [${xName}, ${yName}] rows` }).superRefine((rows, ctx) => {
     if (rows.length < minRows) {
       ctx.addIssue({ code: "custom", message: `at least ${minRows} rows of [${xName}, ${yName}]`, input: rows.length });
       return;
     }
     for (let i = 0; i < rows.length; i++) {
-      const [x, y] = rows[i];
-      if (options.yNonNegative && y < 0) {
+      const [x, y] = rows[i] as [Quantity, Quantity];
+      if (options.yNonNegative && quantityNumber(y, options.yUnits) < 0) {
         ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} of zero or more`, input: y });
       }
       if (i === 0) continue;
-      const [px, py] = rows[i - 1];
-      if (!(x > px)) {
+      const [px, py] = rows[i - 1] as [Quantity, Quantity];
+      if (sameUnit(x, px) && !(quantityNumber(x, options.xUnits) > quantityNumber(px, options.xUnits))) {
         ctx.addIssue({ code: "custom", path: [i, 0], message: `${xName} strictly increasing (row before has ${px})`, input: x });
       }
-      if (y < py && !options.yAnyOrder) {
+      if (!options.yAnyOrder && sameUnit(y, py) && quantityNumber(y, options.yUnits) < quantityNumber(py, options.yUnits)) {
         ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} not decreasing (row before has ${py})`, input: y });
       }
     }
   });
+}
+
+/** Whether two cells are both bare numbers or carry the same unit text. */
+function sameUnit(a: Quantity, b: Quantity): boolean {
+  const unit = (v: Quantity) => (typeof v === "number" ? "" : v.replace(/^[\s\d.eE+-]*/, "").trim().toLowerCase());
+  return unit(a) === unit(b);
 }
 
 /** Exactly one of the listed keys must be present. */
@@ -99,7 +126,7 @@ export const pipeGallerySchema = z.object({
 /** Identical chambers from one unit's [height above its base, plan area of water inside] rows. */
 export const chambersSchema = z.object({
   count: unitCount,
-  stageArea: table("height", "area", { yNonNegative: true, yAnyOrder: true }),
+  stageArea: table("height", "area", finite, finite, { yNonNegative: true, yAnyOrder: true }),
   base: lengthSchema.optional(),
   stone: stoneSchema.optional(),
 });
@@ -109,8 +136,8 @@ export const storageSchema = z
     prismoid: z
       .object({ length: positiveLength, width: positiveLength, sideSlope: nonNegative })
       .optional(),
-    stageArea: table("elevation", "area", { yNonNegative: true }).optional(),
-    stageStorage: table("elevation", "volume", { yNonNegative: true }).optional(),
+    stageArea: table("elevation", "area", finite, pondAreaSchema, { yNonNegative: true, yUnits: AREA_UNITS }).optional(),
+    stageStorage: table("elevation", "volume", finite, finite, { yNonNegative: true }).optional(),
     pipeGallery: pipeGallerySchema.optional(),
     chambers: chambersSchema.optional(),
   })
@@ -127,14 +154,14 @@ export const tailwaterSchema = z
   .object({
     free: z.literal(true, { error: "true" }).optional(),
     elevation: lengthSchema.optional(),
-    rating: table("flow", "elevation", { yNonNegative: false }).optional(),
+    rating: table("flow", "elevation", flowSchema, finite, { yNonNegative: false, xUnits: FLOW_UNITS }).optional(),
   })
   .superRefine(exactlyOne(["free", "elevation", "rating"], "tailwater"));
 
 export const inflowSchema = z
   .object({
     file: z.string({ error: "a file name (CSV relative to the case file)" }).min(1).optional(),
-    series: z.array(pair, { error: "a list of [minutes, flow] pairs" }).optional(),
+    series: z.array(z.tuple([finite, flowSchema], { error: "a pair [minutes, flow]" }), { error: "a list of [minutes, flow] pairs" }).optional(),
   })
   .superRefine(exactlyOne(["file", "series"], "inflow"));
 
@@ -143,14 +170,16 @@ export const inflowSchema = z
 /** A watershed area: a bare number in acres (US) or hectares (SI), or "12 ac", "4.9 ha", "0.3 km2". */
 const positiveArea = positiveQuantity(
   quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "12 ac"`, "area"),
+  AREA_UNITS,
   "an area",
 );
 /** A rainfall depth: a bare number in inches (US) or millimetres (SI), or "3.2 in", "81 mm". */
 export const depthSchema = quantitySchema(LENGTH_UNITS, `a depth: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "3.2 in"`, "depth");
-const positiveDepth = positiveQuantity(depthSchema, "a depth");
+const positiveDepth = positiveQuantity(depthSchema, LENGTH_UNITS, "a depth");
 /** A rainfall intensity: a bare number in in/h (US) or mm/h (SI), or "2.5 in/h", "60 mm/h". */
 const positiveIntensity = positiveQuantity(
   quantitySchema(INTENSITY_UNITS, `an intensity: a number, or a number and a unit (${Object.keys(INTENSITY_UNITS).join(", ")}) such as "2.5 in/h"`, "intensity"),
+  INTENSITY_UNITS,
   "an intensity",
 );
 const slope = finite.refine((v) => v > 0 && v <= 1, { message: "a slope in ft/ft or m/m greater than 0 and at most 1 (0.02 for 2 %)" });
@@ -259,7 +288,7 @@ export const stormSchema = z
   .object({
     name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
     returnPeriod: positive,
-    target: nonNegative.optional(),
+    target: positiveQuantity(flowSchema, FLOW_UNITS, "an allowable peak outflow").optional(),
     inflow: inflowSchema.optional(),
     rainfall: rainfallSchema.optional(),
   })
@@ -323,7 +352,7 @@ const vNotchWeirSchema = z.object({
 const regulatorSchema = z.object({
   type: z.literal("regulator"),
   invert: lengthSchema,
-  rating: table("head", "flow", { yNonNegative: true }),
+  rating: table("head", "flow", finite, flowSchema, { yNonNegative: true, yUnits: FLOW_UNITS }),
   keep,
 });
 
@@ -427,13 +456,21 @@ export const siteSchema = z.object({
     .object({ depth: positiveLength.optional(), volume: positive.optional() })
     .superRefine(exactlyOne(["depth", "volume"], "permanent pool"))
     .optional(),
-  shape: z.object({ stageArea: table("depth", "area", { yNonNegative: true }) }).optional(),
+  shape: z.object({ stageArea: table("depth", "area", finite, finite, { yNonNegative: true }) }).optional(),
   step: positive.optional(),
 });
 
-export const costsSchema = z.record(z.string(), nonNegative, { error: "an object of cost weights (numbers)" });
+
+/** The cost proxy's weights (search/cost.ts holds their defaults and meaning); each optional. */
+export const COST_WEIGHT_NAMES = ["opening", "orificeDiameter", "weir", "weirLength", "level", "riser", "riserPerimeter", "barrel"] as const;
+export const costsSchema = z.object(
+  Object.fromEntries(COST_WEIGHT_NAMES.map((name) => [name, nonNegative.optional()])) as Record<(typeof COST_WEIGHT_NAMES)[number], z.ZodOptional<typeof nonNegative>>,
+  { error: "an object of cost weights (numbers)" },
+);
 
 export const caseSchema = z.object({
+  /** The JSON Schema the file names for editor completion (`outfit schema`); not used otherwise. */
+  $schema: z.string({ error: "the address of a JSON Schema (text)" }).optional(),
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
   pond: pondSchema.optional(),

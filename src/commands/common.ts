@@ -1,7 +1,7 @@
 // Shared pieces of the commands: loading a case with its notices, option parsing, output.
 import { loadCase, type LoadedCase } from "../case/load.js";
 import { CaseError } from "../case/errors.js";
-import { writeFileAtomic } from "../io.js";
+import { printErr, printOut, terminalSafe, writeFileAtomic } from "../io.js";
 import { parseLength, type UnitSystem } from "../units.js";
 
 /** A bad command-line value: reported like a case error (exit 2). */
@@ -14,9 +14,9 @@ export class UsageError extends Error {
 
 export function load(path: string): LoadedCase {
   const loaded = loadCase(path);
-  for (const notice of loaded.notices) process.stderr.write(`outfit: note: ${notice}\n`);
+  for (const notice of loaded.notices) printErr(`outfit: note: ${notice}\n`);
   if (loaded.case.sizing) {
-    process.stderr.write(`outfit: note: no pond given: using the pond sized from the site limits for the ${loaded.case.sizing.storm} storm's largest storage estimate (outfit pond shows it; design --size-pond sizes pond and outlet together)\n`);
+    printErr(`outfit: note: no pond given: using the pond sized from the site limits for the ${loaded.case.sizing.storm} storm's largest storage estimate (outfit pond shows it; design --size-pond sizes pond and outlet together)\n`);
   }
   return loaded;
 }
@@ -40,9 +40,9 @@ export function positiveLength(option: string, text: string | undefined, units: 
 /** Prints to stdout, or writes a file whole when --out is given. */
 export function emit(text: string, out: string | undefined): void {
   if (out) {
-    writeFileAtomic(out, text.endsWith("\n") ? text : text + "\n");
-    process.stderr.write(`outfit: wrote ${out}\n`);
-  } else process.stdout.write(text.endsWith("\n") ? text : text + "\n");
+    writeFileAtomic(out, terminalSafe(text.endsWith("\n") ? text : text + "\n"));
+    printErr(`outfit: wrote ${out}\n`);
+  } else printOut(text.endsWith("\n") ? text : text + "\n");
 }
 
 export function isUserError(error: unknown): error is CaseError | UsageError {

@@ -5,7 +5,7 @@ import { existsSync } from "node:fs";
 import { CaseError } from "../case/errors.js";
 import { routeCase } from "../routing/routeCase.js";
 import { assess } from "../assess/assess.js";
-import { writeFileAtomic } from "../io.js";
+import { printErr, writeFileAtomic } from "../io.js";
 import { caseReport } from "../report/review/caseReport.js";
 import { designReport, type RoutedCandidate } from "../report/review/designReport.js";
 import { isDirectory, loadDesignRun } from "../report/review/designRun.js";
@@ -44,7 +44,7 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
   let doc: ReportDocument;
   if (directory) {
     const run = loadDesignRun(input);
-    for (const notice of run.notices) process.stderr.write(`outfit: note: ${notice}\n`);
+    for (const notice of run.notices) printErr(`outfit: note: ${notice}\n`);
     const routed: RoutedCandidate[] = run.candidates
       .map((candidate) => {
         const c = candidate.case;
@@ -67,10 +67,10 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
     const md = renderMarkdown(doc, stem, options.version);
     for (const figure of md.figures) writeFileAtomic(join(dirname(out), figure.file), figure.svg);
     writeFileAtomic(out, md.text);
-    process.stderr.write(`outfit: wrote ${out} and ${md.figures.length} SVG figures beside it\n`);
+    printErr(`outfit: wrote ${out} and ${md.figures.length} SVG figures beside it\n`);
   } else {
     writeFileAtomic(out, renderHtml(doc, options.version));
-    process.stderr.write(`outfit: wrote ${out}\n`);
+    printErr(`outfit: wrote ${out}\n`);
   }
   return 0;
 }

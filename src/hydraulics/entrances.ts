@@ -6,6 +6,8 @@
 //   row except the mitered corrugated metal pipe (+0.7), 3rd ed. Table A.1.
 // - ke: HDS-5 2nd ed. Table 12 / 3rd ed. Table C.2 (entrance loss coefficients, outlet control, full
 //   or partly full entrance).
+import { own } from "../own.js";
+
 /** The entrance names the case format accepts (case-format contract). */
 export const ENTRANCES = [
   "concrete-square-headwall",
@@ -85,7 +87,7 @@ export const ENTRANCE_TABLE: Readonly<Record<EntranceName, Entrance>> = {
 
 /** The entrance row of a barrel; the schema admits only the names of the table. */
 export function entrance(name: string): Entrance {
-  const row = (ENTRANCE_TABLE as Record<string, Entrance | undefined>)[name];
+  const row = own(ENTRANCE_TABLE as Record<string, Entrance>, name);
   if (!row) throw new Error(`unknown barrel entrance "${name}"`);
   return row;
 }

@@ -16,7 +16,7 @@ const cases: [string, string, string, string][] = [
   ["unsorted-table.json", "unsorted-table.json: pond.storage.stageStorage[2][0]", "found 101", "expected elevation strictly increasing (row before has 102)"],
   ["non-monotone-table.json", "non-monotone-table.json: pond.storage.stageStorage[2][1]", "found 3500", "expected volume not decreasing (row before has 4000)"],
   ["negative-flow.json", "negative-flow.json: storms[1].inflow.series[3][1]", "found -2.5", "expected a flow of zero or more"],
-  ["unknown-unit.json", "unknown-unit.json: outlet.elements[0].diameter", 'found "6 inches"', 'expected a length unit among ft, in, m, mm, cm ("inches" is not one)'],
+  ["unknown-unit.json", "unknown-unit.json: outlet.elements[0].diameter", 'found "6 cubits"', 'expected a length unit among ft, foot, feet, in, inch, inches, ", m, mm, cm ("cubits" is not one)'],
   ["repeated-storm-names.json", "repeated-storm-names.json: storms[1].name", 'found "2-yr"', "expected a storm name not used by another storm"],
   ["top-below-bottom.json", "top-below-bottom.json: pond.top", "found 98.5", "expected an elevation above pond.bottom (100)"],
   ["missing-csv-file.json", "missing-csv-file.json: storms[0].inflow.file", 'found "no-such-inflow.csv": no such file', "expected a readable CSV inflow file"],

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { nrcsHydrograph, unitDuration } from "../../src/hydrology/nrcsHydrograph.js";
+import { nrcsHydrograph, PEAK_CONVERGENCE, unitDuration } from "../../src/hydrology/nrcsHydrograph.js";
 import { distributionMassCurve, DISTRIBUTIONS } from "../../src/hydrology/distributions.js";
 import { runoffDepth } from "../../src/hydrology/runoff.js";
 
@@ -64,5 +64,32 @@ describe("NRCS runoff hydrograph", () => {
     const h = nrcsHydrograph(SQUARE_MILE, 80, HOUR, distributionMassCurve("II", 5 * IN));
     expect(h.timeOfPeak).toBeGreaterThan(12 * HOUR);
     expect(h.timeOfPeak).toBeLessThan(12 * HOUR + 1.5 * 0.6 * HOUR);
+  });
+});
+
+// Issue 11: the peak of a convolved NRCS hydrograph depends on the unit duration (the automatic
+// 12-minute step understated a 250 ac, CN 75, Tc 1.53 h area's peak by 7.5 % against 1 minute).
+// The step is now halved until the peak changes by at most PEAK_CONVERGENCE (0.5 %); the converged
+// peak must match a 5-second computation within that tolerance. Areas as in the issue (invented),
+// Type II 24-hour storms of 5.1 and 7 in.
+describe("NRCS peaks converge in the unit duration", () => {
+  const AC = 43560 * 0.3048 ** 2;
+  it.each([
+    [250, 75, 1.53],
+    [640, 80, 2],
+    [40, 70, 0.5],
+  ] as const)("%i ac, CN %i, Tc %f h", (acres, cn, tcHours) => {
+    for (const p of [5.1, 7]) {
+      const rain = distributionMassCurve("II", p * IN);
+      const converged = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain);
+      const fine = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain, undefined, 5);
+      const first = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain, undefined, unitDuration(tcHours * HOUR, 900));
+      expect(Math.abs(converged.peak / fine.peak - 1)).toBeLessThanOrEqual(PEAK_CONVERGENCE);
+      // The refinement did something: the first step alone is off by more than the tolerance.
+      expect(Math.abs(first.peak / fine.peak - 1)).toBeGreaterThan(PEAK_CONVERGENCE);
+      expect(converged.unitDuration!).toBeLessThan(first.unitDuration!);
+      // The volume stays the runoff depth over the area (TR-55 eq 2-3) at the refined step.
+      expect(Math.abs(converged.volume / (acres * AC * runoffDepth(p * IN, cn)) - 1)).toBeLessThan(0.005);
+    }
   });
 });

@@ -31,6 +31,6 @@ describe("hydrology quantities with units", () => {
   it("leave lengths as they were", () => {
     expect(parseLength("6 in", "SI")).toBeCloseTo(0.1524, 12);
     expect(parseLength(2, "US")).toBeCloseTo(0.6096, 12);
-    expect(parseLength("6 furlongs", "US")).toEqual({ error: "a length unit among ft, in, m, mm, cm" });
+    expect(parseLength("6 furlongs", "US")).toEqual({ error: 'a length unit among ft, foot, feet, in, inch, inches, ", m, mm, cm' });
   });
 });
