@@ -7,6 +7,7 @@ import { buildProblem } from "./problem.js";
 import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
+import { layoutFor } from "../src/report/terminal.js";
 
 export interface DesignCommandOptions {
   seed?: string;
@@ -20,6 +21,7 @@ export interface DesignCommandOptions {
   out?: string;
   resume?: boolean;
   progress?: boolean;
+  wide?: boolean;
 }
 
 export function designCommand(path: string, options: DesignCommandOptions): number {
@@ -73,7 +75,7 @@ export function designCommand(path: string, options: DesignCommandOptions): numb
     writeFileAtomic(join(options.out, "results.json"), JSON.stringify(json, null, 2) + "\n");
     writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
   }
-  emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
+  emit(options.json ? JSON.stringify(json, null, 2) : designText(problem, run, top, layoutFor({ wide: options.wide })), undefined);
   if (options.out) process.stderr.write(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
   return 0;
 }

@@ -5,7 +5,8 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { plainTable, percent, checkValue } from "../src/report/console.js";
+import { percent, checkValue } from "../src/report/console.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
 
@@ -74,59 +75,66 @@ export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, out
   return copy;
 }
 
-export function designText(p: SearchProblem, run: SearchRun, top: number): string {
+export function designText(p: SearchProblem, run: SearchRun, top: number, layout: Layout = PLAIN): string {
   const f = formatter(p.case.units);
-  const lines: string[] = [`outfit design: ${p.case.name} (${p.case.units} units)`, ""];
+  const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
+  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ""];
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;
-  const table = plainTable(
-    ["#", "Outlet", ...stormNames.map((n) => `${n} out/target`), `Max stage (${freeboardStorm})`, "Freeboard left", "Cost", "Binding check", "Status"],
-    [true, false, ...stormNames.map(() => true), true, true, true, false, false],
-  );
-  shown.forEach((c, i) => {
+  const columns: Column[] = [
+    { head: "#", align: "right" },
+    { head: "Outlet", narrow: "detail" },
+    ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right" })),
+    { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
+    { head: `Freeboard\nleft (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
+    { head: "Cost\n(units)", align: "right" },
+    { head: "Binding check", narrow: "detail" },
+    { head: "Status" },
+  ];
+  const rows: Row[] = shown.map((c, i) => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
     const status = c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant";
-    table.push([
+    return [
       String(i + 1),
-      wrap(c.description, 58),
+      wrapParts(c.description, 58),
       ...stormNames.map((n) => {
         const s = storms.get(n)!;
-        return percent(s.result.peakOutflow / s.storm.target!);
+        return (100 * s.result.peakOutflow / s.storm.target!).toFixed(1);
       }),
-      fb ? f.elevation(fb.result.maxStage) : "-",
-      fb ? f.length(p.case.pond.top - fb.result.maxStage) : "-",
-      `${c.cost.toFixed(1)} units${c.pareto ? " *" : ""}`,
+      fb ? f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3) : "-",
+      fb ? f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2) : "-",
+      `${c.cost.toFixed(1)}${c.pareto ? " *" : ""}`,
       c.assessment.binding ? `${c.assessment.binding.name} (${percent(c.assessment.binding.slack)})` : "-",
-      status,
-    ]);
+      { text: status, tone: c.assessment.compliant ? "pass" : "fail" },
+    ];
   });
-  lines.push(table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  lines.push(renderTable(layout, columns, rows).text, "", w("* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.", 2));
   shown.forEach((c, i) => {
-    lines.push("", `Candidate ${i + 1}: ${c.description}`);
-    for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
-    for (const w of c.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
-    for (const line of c.explanation) lines.push(`  ${line}`);
+    lines.push("", w(`Candidate ${i + 1}: ${c.description}`));
+    for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
+    for (const warning of c.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
+    for (const line of c.explanation) lines.push(w(`  ${line}`));
   });
   if (!run.success) {
-    lines.push("", "No compliant design was found. Why:");
-    for (const reason of run.infeasible) lines.push(`  - ${reason}`);
+    lines.push("", w("No compliant design was found. Why:"));
+    for (const reason of run.infeasible) lines.push(w(`  - ${reason}`));
   }
   const rate = run.seconds > 0 ? Math.round(run.routings / run.seconds) : run.routings;
   lines.push(
     "",
-    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}.`,
-    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
+    w(`Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}.`, 8),
+    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsSkipped} skipped: they cost more than the ranking's head), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
-      `; seed "${run.seed}", budget ${run.budget} routings.`,
+      `; seed "${run.seed}", budget ${run.budget} routings.`, 8),
     "",
-    `Caution: ${CAUTION}`,
+    w(`Caution: ${CAUTION}`, 2),
   );
   return lines.join("\n");
 }
 
-function wrap(text: string, width: number): string {
+function wrapParts(text: string, width: number): string {
   const parts = text.split("; ");
   const lines: string[] = [];
   let line = "";

@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Command-line wiring only: parse, call, print, exit code.
 import { readFileSync } from "node:fs";
-import { Command, CommanderError } from "commander";
+import { Command, CommanderError, Option } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
@@ -24,10 +24,20 @@ function run(action: () => number): void {
       const message = error instanceof Error ? error.message : String(error);
       process.stderr.write(`outfit: internal error: ${message}\n`);
       if (process.env.OUTFIT_DEBUG && error instanceof Error) process.stderr.write(`${error.stack}\n`);
-      process.exitCode = 1;
+      process.exitCode = 3;
     }
   }
 }
+
+/** Exit codes, the same in every command (route adds 1 for --check). */
+const EXIT_CODES = "0 done; 2 bad input or a bad option (nothing is written); 3 internal error (a bug; OUTFIT_DEBUG=1 shows its stack)";
+
+/** An option whose default the help prints as the number (or word) itself, not as a quoted string. */
+function withDefault(flags: string, description: string, value: string): Option {
+  return new Option(flags, description).default(value, value);
+}
+
+const WIDE = "keep every table whole whatever the terminal's width (the full form that piped output gets)";
 
 const program = new Command();
 program
@@ -55,19 +65,26 @@ program
   .description("route every storm of a case through its outlet and check the criteria")
   .argument("<case>", "case file (JSON)")
   .option("--json", "print the results as JSON (the case-format contract's fields)")
-  .option("--step <minutes>", "fixed routing time step in minutes (default: chosen and refined automatically)")
+  .option("--step <minutes>", "fixed routing time step in minutes (default: automatic: each step changes the inflow by at most 1 % of its peak and spans at most 0.15 of the local dS/dO)")
   .option("-v, --verbose", "also say how the time step was chosen and refined for each storm")
-  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--out <file>", "write the tables (or the JSON) to this file instead of the terminal")
+  .option("--csv-dir <dir>", "also write each storm's routed series (time, inflow, outflow, stage, storage, each part's flow) as <storm>.csv in this directory")
+  .option("--series", "with --json: include each storm's routed series")
+  .option("--wide", WIDE)
   .option("--check", "exit with code 1 when the outlet is not compliant")
   .addHelpText(
     "after",
     `
+Tables fit the terminal's width (COLUMNS, else the terminal); piped output keeps the full layout.
+Colour only on a terminal, never when NO_COLOR is set.
+
 Examples:
   outfit route cases/demo/case.json
   outfit route cases/demo/case.json --json --out results/route.json
+  outfit route cases/demo/case.json --csv-dir results/series
   outfit route cases/demo/case.json --step 1 --verbose
 
-Exit codes: 0 done, 1 not compliant (with --check), 2 bad input.`,
+Exit codes: 0 done; 1 not compliant (only with --check); ${EXIT_CODES.slice(8)}.`,
   )
   .action((file: string, options) => run(() => routeCommand(file, options)));
 
@@ -75,16 +92,22 @@ program
   .command("rate")
   .description("print the outlet's stage-discharge table, part by part, with storage and the governing control")
   .argument("<case>", "case file (JSON)")
-  .option("--step <length>", 'stage interval of the table, e.g. 0.25 or "0.1 m" (default: about 24 rows)')
-  .option("--csv", "print CSV instead of a table")
+  .option("--stage-step <length>", 'stage interval of the table (a length, not a time), e.g. 0.25 or "0.1 m" (default: the pond\'s depth / 24 rounded to 1, 2, 2.5 or 5 x 10^n: 0.25 ft for a 6 ft deep pond)')
+  .option("--csv", "print CSV instead of a table (every part's flow)")
   .option("--json", "print JSON instead of a table")
-  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--out <file>", "write the output to this file instead of the terminal")
+  .option("--wide", WIDE)
   .addHelpText(
     "after",
     `
+Narrow terminals get the parts grouped (openings, rim, spillway, total, the limiting part); --wide or
+--csv adds each opening's flow, the barrel's, the chamber level and the barrel's HW/D.
+
 Examples:
   outfit rate cases/demo/case.json
-  outfit rate cases/demo/case.json --step 0.5 --csv --out rating.csv`,
+  outfit rate cases/demo/case.json --stage-step 0.5 --csv --out rating.csv
+
+Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => rateCommand(file, options)));
 
@@ -92,15 +115,16 @@ program
   .command("design")
   .description("propose, rank and explain outlets built from the case's catalogue that meet every storm's target and rule")
   .argument("<case>", "case file (JSON) with a catalogue")
-  .option("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit")
-  .option("--budget <routings>", "most storm routings the search may spend", "20000")
-  .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible)")
-  .option("--top <n>", "candidates to report, explain and write", "5")
-  .option("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2")
-  .option("--starts <n>", "seeded starts of the elevation fit per layout", "3")
-  .option("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3")
+  .addOption(withDefault("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit"))
+  .addOption(withDefault("--budget <routings>", "most storm routings the search may spend", "20000"))
+  .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible; default: none)")
+  .addOption(withDefault("--top <n>", "candidates to report, explain and write", "5"))
+  .addOption(withDefault("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2"))
+  .addOption(withDefault("--starts <n>", "seeded starts of the elevation fit per layout", "3"))
+  .addOption(withDefault("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3"))
   .option("--json", "print the results as JSON (each candidate's outlet in case-file form)")
-  .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
+  .option("--out <dir>", "a directory (unlike route's and rate's --out file): results.json, summary.txt, a journal and one ready-to-route case file per candidate")
+  .option("--wide", WIDE)
   .option("--resume", "with --out: skip the layouts the directory's journal already holds")
   .option("--progress", "show progress on the terminal")
   .addHelpText(
@@ -111,7 +135,9 @@ Examples:
   outfit design cases/demo/case.json --top 3 --out out/demo
   outfit route out/demo/candidate-01.json          # re-route a proposal
   outfit design cases/demo/case.json --budget 200000 --out out/night --progress
-  outfit design cases/demo/case.json --budget 400000 --out out/night --resume`,
+  outfit design cases/demo/case.json --budget 400000 --out out/night --resume
+
+Exit codes: ${EXIT_CODES}. A run that finds no compliant design still exits 0 and says why.`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
 
@@ -119,7 +145,7 @@ program
   .command("hydrograph")
   .description("derive each rainfall storm's runoff hydrograph per drainage area (NRCS or rational method) and write them as CSV")
   .argument("<case>", "case file (JSON) with a hydrology section and storms described by rainfall")
-  .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): one <storm>-<area>.csv per storm and area in a directory, or one .csv file for a single selected hydrograph")
+  .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): a directory (one <storm>-<area>.csv per storm and area), or a name ending in .csv for a single selected hydrograph")
   .option("--json", "print the results as JSON instead of tables")
   .option("--storm <name>", "only this storm")
   .option("--area <pre|post>", "only this drainage area: pre (before development; its peak is the target) or post (after; the inflow)")
@@ -136,7 +162,7 @@ Examples:
   outfit hydrograph cases/demo-rainfall/case.json --storm 10-yr --area post --out inflow-10yr.csv
   outfit hydrograph cases/demo-rainfall/case.json --json
 
-Exit codes: 0 done, 2 bad input.`,
+Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
 
@@ -145,8 +171,10 @@ program
   .description("write the review report of a case's outlet, or of a design run's candidates: one self-contained HTML file with plots")
   .argument("<input>", "case file (JSON), or the results directory of a design run (outfit design --out DIR)")
   .option("--out <file>", "where to write the report (default: CASE.report.html beside the case file, or DIR/report.html)")
-  .option("--format <format>", "html (one self-contained file) or md (Markdown, the plots as SVG files beside it)", "html")
-  .option("--step <minutes>", "fixed routing time step in minutes (default: chosen and refined automatically)")
+  .addOption(withDefault("--format <format>", "html (one self-contained file) or md (Markdown, the plots as SVG files beside it)", "html"))
+  .option("--step <minutes>", "fixed routing time step in minutes (default: automatic, as in route)")
+  .option("--stage-step <length>", 'stage interval of the stage-storage-discharge table, a length (default: 0.1 ft in US cases, 0.02 m in SI)')
+  .option("--hydrograph-interval <minutes>", "time interval of the hydrograph tables (default: the shortest of 5, 10, 15, 30, 60 or 120 min that keeps each table within 60 rows)")
   .addHelpText(
     "after",
     `
@@ -162,7 +190,7 @@ Examples:
   outfit report cases/demo/case.json --format md --out review/demo.md
   outfit report results/                                   # a design run: writes results/report.html
 
-Exit codes: 0 written, 2 bad input (nothing is written).`,
+Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`,
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
 
