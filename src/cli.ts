@@ -6,6 +6,7 @@ import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
+import { starterCommand } from "./commands/starter.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -193,6 +194,27 @@ Examples:
 Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`,
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
+
+program
+  .command("starter")
+  .description("write a starter case file, every field explained, that routes and designs as written")
+  .argument("<file>", "the case file to write (JSON)")
+  .addOption(withDefault("--units <system>", "US (ft, cfs) or SI (m, m3/s)", "US"))
+  .option("--force", "overwrite the file if it exists")
+  .addHelpText(
+    "after",
+    `
+Comments in the file are fields whose name starts with "//"; outfit ignores them. The pond, storms
+and outlet are an invented example: replace them with the site's own.
+
+Examples:
+  outfit starter my-pond.json
+  outfit starter my-pond-si.json --units SI
+  outfit route my-pond.json
+
+Exit codes: ${EXIT_CODES}.`,
+  )
+  .action((file: string, options) => run(() => starterCommand(file, options)));
 
 try {
   program.parse();

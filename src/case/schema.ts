@@ -394,6 +394,21 @@ export const catalogueSchema = z.object({
 
 export const costsSchema = z.record(z.string(), nonNegative, { error: "an object of cost weights (numbers)" });
 
+/** Optional project facts for the review report's project block; all free text. */
+const projectText = z.string({ error: "text" });
+export const projectSchema = z.object(
+  {
+    name: projectText.optional(),
+    number: projectText.optional(),
+    client: projectText.optional(),
+    location: projectText.optional(),
+    jurisdiction: projectText.optional(),
+    engineer: projectText.optional(),
+    revision: projectText.optional(),
+  },
+  { error: "an object of project facts (name, number, client, location, jurisdiction, engineer, revision)" },
+);
+
 export const caseSchema = z.object({
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
@@ -405,6 +420,7 @@ export const caseSchema = z.object({
   catalogue: catalogueSchema.optional(),
   costs: costsSchema.optional(),
   hydrology: hydrologySchema.optional(),
+  project: projectSchema.optional(),
 });
 
 export type CaseFile = z.infer<typeof caseSchema>;
@@ -419,3 +435,4 @@ export type Length = z.infer<typeof lengthSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;
+export type ProjectFile = z.infer<typeof projectSchema>;

@@ -27,6 +27,8 @@ function walk(schema: AnySchema, value: unknown, path: PropertyKey[], found: str
       if (typeof value !== "object" || value === null || Array.isArray(value)) return;
       const shape = def.shape as Record<string, AnySchema>;
       for (const [key, child] of Object.entries(value)) {
+        // Fields named "//..." are comments (the starter case explains its fields with them).
+        if (key.startsWith("//")) continue;
         if (shape[key] === undefined) {
           const near = Object.keys(shape).find((k) => k.toLowerCase() === key.toLowerCase());
           found.push(jsonPath([...path, key]) + (near ? ` (did you mean ${near}?)` : ""));
