@@ -87,7 +87,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     { head: "Outlet", narrow: "detail" },
     ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right" })),
     { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
-    { head: `Freeboard\nleft (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
+    { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: "Cost\n(units)", align: "right" },
     { head: "Binding check", narrow: "detail" },
     { head: "Status" },

@@ -101,7 +101,7 @@ export interface Column {
   align?: "left" | "right";
   /**
    * When the table is too wide: "keep" stays in the compact row, "detail" moves to the lines below
-   * the row (as "head: value unit"), "drop" is left out (the table says where to find it).
+   * the row (as "heading: value unit"), "drop" is left out (the table says where to find it).
    * Columns leave the compact row from the last one back.
    */
   narrow?: "keep" | "detail" | "drop";
@@ -216,7 +216,7 @@ export function renderTable(layout: Layout, columns: readonly Column[], rows: re
         if (value === "" || value === "-") return "";
         const unit = unitOf(columns[i]);
         const numeric = /^-?[\d.,]+( %)?$/.test(value);
-        return `${headLines(columns[i])[0].toLowerCase()} ${value}${unit && numeric ? ` ${unit}` : ""}`;
+        return `${headLines(columns[i])[0].toLowerCase()}: ${value}${unit && numeric ? ` ${unit}` : ""}`;
       })
       .filter((s) => s !== "");
     return items.length ? [wrap(`    ${items.join("; ")}`, width, 6)] : [];

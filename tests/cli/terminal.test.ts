@@ -39,7 +39,7 @@ describe("terminal width", () => {
       const row = lines.findIndex((l) => l.startsWith(`${storm} `));
       expect(row).toBeGreaterThan(0);
       // The detail line under the row names what the compact row leaves out.
-      expect(lines[row + 1]).toMatch(/^ {4}.*freeboard left \d+\.\d\d ft; limited by (openings|barrel, (inlet|outlet) control)$/);
+      expect(lines[row + 1]).toMatch(/^ {4}.*freeboard left: \d+\.\d\d ft; limited by: (openings|barrel, (inlet|outlet) control)$/);
     }
     // Units are in the headings, not in the cells.
     expect(run.stdout).toMatch(/\(cfs\)/);

@@ -52,7 +52,7 @@ describe("renderTable", () => {
     const next = lines.findIndex((l) => l.startsWith("2-yr"));
     expect(lines[row]).toMatch(/^100-yr\s+19\.64$/);
     for (const l of lines.slice(row + 1, next)) expect(l).toMatch(/^ {4}/);
-    expect(lines.slice(row + 1, next).join(" ").replace(/\s+/g, " ").trim()).toBe("freeboard left 0.90 ft; limited by barrel, outlet control");
+    expect(lines.slice(row + 1, next).join(" ").replace(/\s+/g, " ").trim()).toBe("freeboard left: 0.90 ft; limited by: barrel, outlet control");
   });
 
   it("--wide keeps the whole table at any width", () => {
