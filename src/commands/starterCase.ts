@@ -27,7 +27,7 @@ interface Numbers {
 
 const US: Numbers = {
   bottom: 100, top: 105, length: 200, width: 100,
-  peaks: [12, 22, 38], targets: [3, 7, 16], flowDigits: 2,
+  peaks: [12, 22, 38], targets: [3.5, 8, 18], flowDigits: 2,
   freeboard: "1 ft", drawdownDepth: "0.1 ft",
   low: { diameter: "4 in", invert: 100 }, mid: { diameter: "6 in", invert: 101.5 },
   weir: { length: 1.5, crest: 102.6 },
@@ -39,7 +39,7 @@ const US: Numbers = {
 
 const SI: Numbers = {
   bottom: 50, top: 51.5, length: 60, width: 30,
-  peaks: [0.34, 0.62, 1.08], targets: [0.085, 0.2, 0.45], flowDigits: 3,
+  peaks: [0.34, 0.62, 1.08], targets: [0.1, 0.22, 0.5], flowDigits: 3,
   freeboard: "0.3 m", drawdownDepth: "0.03 m",
   low: { diameter: "100 mm", invert: 50 }, mid: { diameter: "150 mm", invert: 50.45 },
   weir: { length: 0.45, crest: 50.78 },
