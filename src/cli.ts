@@ -53,7 +53,10 @@ Examples:
   outfit route cases/demo/case.json       # route and check the case's own outlet
   outfit rate cases/demo/case.json        # the outlet's stage-discharge table
   outfit report cases/demo/case.json      # a review report (HTML)
+  outfit starter my-pond.json             # a starter case file, every field explained
   outfit <command> --help                 # every option of a command, with examples
+
+Exit codes: 0 done; 1 not compliant (only route --check); ${EXIT_CODES.slice(8)}.
 
 Caution: ${CAUTION}
 `,

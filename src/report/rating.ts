@@ -19,7 +19,8 @@ export interface RatingRow {
 export function niceStep(depthInCaseUnits: number): number {
   const raw = depthInCaseUnits / 24;
   const power = Math.pow(10, Math.floor(Math.log10(raw)));
-  const scaled = raw / power;
+  // A depth a rounding error off a round number (6.000000000000015 ft) still gives its round step.
+  const scaled = raw / power - 1e-9;
   return (scaled <= 1 ? 1 : scaled <= 2 ? 2 : scaled <= 2.5 ? 2.5 : scaled <= 5 ? 5 : 10) * power;
 }
 

@@ -77,3 +77,14 @@ describe("wrap", () => {
     expect(text).toContain("104.50 ft");
   });
 });
+
+describe("niceStep", () => {
+  it("gives the depth / 24 rounded up to 1, 2, 2.5 or 5 x 10^n, also for a depth a rounding error off", async () => {
+    const { niceStep } = await import("../../src/report/rating.js");
+    expect(niceStep(6)).toBeCloseTo(0.25, 12);
+    expect(niceStep((106 * 0.3048 - 100 * 0.3048) / 0.3048)).toBeCloseTo(0.25, 12);
+    expect(niceStep(4)).toBeCloseTo(0.2, 12);
+    expect(niceStep(2.5)).toBeCloseTo(0.2, 12);
+    expect(niceStep(10)).toBeCloseTo(0.5, 12);
+  });
+});
