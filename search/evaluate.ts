@@ -8,7 +8,8 @@ import { route } from "../src/routing/router.js";
 import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
 import { CONTRACTED_WEIR_MAX_HEAD_RATIO, VNOTCH_MAX_HEAD } from "../src/assess/warnings.js";
-import { aimBand, type SearchProblem } from "./problem.js";
+import type { SearchProblem } from "./problem.js";
+import { ruleOf } from "../src/assess/rules/registry.js";
 import { designOutlet, designOutletFile, elevations, type Layout } from "./layout.js";
 import { baseLength } from "../src/units.js";
 
@@ -85,14 +86,9 @@ export function checkResiduals(p: SearchProblem, checks: readonly Check[]): numb
   return residuals;
 }
 
-/** Slack a check should keep: the aim's margin for peak checks, a hair for the others. */
+/** Slack a check should keep: its rule's aim (the margin for peak checks, a hair for the others). */
 export function requiredSlack(p: SearchProblem, check: Check): number {
-  if (check.kind === "peak-upper" || check.kind === "peak-lower") {
-    const storm = p.case.storms.find((s) => s.name === check.storm)!;
-    const [low, high] = aimBand(p, storm.target!);
-    return check.kind === "peak-upper" ? (check.limit - high) / check.limit : (low - check.limit) / check.limit;
-  }
-  return 0.002;
+  return ruleOf(check).aim(p.case, check, p.options.margin);
 }
 
 /** Weight of heads beyond a part's published range, per pond depth of excess (a preference, not a rule). */

@@ -3,7 +3,9 @@
 // in engineering terms.
 import type { Hydrograph } from "../src/case/model.js";
 import type { Check } from "../src/assess/checks.js";
-import { formatter } from "../src/format.js";
+import { formatter, quantityText } from "../src/format.js";
+import { ruleOf } from "../src/assess/rules/registry.js";
+import { targetBand } from "../src/assess/rules/band.js";
 import { baseLength } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
@@ -14,13 +16,9 @@ import type { LayoutPlan } from "./layouts.js";
 
 function checkText(p: SearchProblem, check: Check): string {
   const f = formatter(p.case.units);
-  const value = check.value === null ? "not drained" : isFlow(check) ? f.flow(check.value) : check.kind === "drawdown" ? `${check.value.toFixed(1)} h` : f.elevation(check.value);
-  const limit = isFlow(check) ? f.flow(check.limit) : check.kind === "drawdown" ? `${check.limit.toFixed(1)} h` : f.elevation(check.limit);
-  return `${check.name}: ${value} against ${check.kind === "peak-lower" ? "at least" : "at most"} ${limit}, slack ${pct(check.slack)}`;
-}
-
-function isFlow(check: Check): boolean {
-  return check.kind === "peak-upper" || check.kind === "peak-lower";
+  const rule = ruleOf(check);
+  const source = check.label === null ? "" : ` (${check.label})`;
+  return `${check.name}${source}: ${quantityText(f, rule.quantity, check.value)} against ${rule.comparison} ${quantityText(f, rule.quantity, check.limit)}, slack ${pct(check.slack)}`;
 }
 
 function pct(x: number): string {
@@ -30,8 +28,9 @@ function pct(x: number): string {
 /** How a check's value moved, in words: "-3.1 %" for flows, "+0.04 ft" for stages. */
 function change(p: SearchProblem, before: Check, after: Check): string {
   if (before.value === null || after.value === null) return after.value === null ? "no longer drains" : "now drains";
-  if (isFlow(before)) return `${after.value >= before.value ? "+" : ""}${((100 * (after.value - before.value)) / before.value).toFixed(1)} %`;
-  if (before.kind === "drawdown") return `${after.value >= before.value ? "+" : ""}${(after.value - before.value).toFixed(1)} h`;
+  const quantity = ruleOf(before).quantity;
+  if (quantity === "flow") return `${after.value >= before.value ? "+" : ""}${((100 * (after.value - before.value)) / before.value).toFixed(1)} %`;
+  if (quantity === "hours") return `${after.value >= before.value ? "+" : ""}${(after.value - before.value).toFixed(1)} h`;
   const L = baseLength(p.case.units);
   return `${after.value >= before.value ? "+" : ""}${((after.value - before.value) / L).toFixed(2)} ${p.case.units === "US" ? "ft" : "m"}`;
 }
@@ -43,7 +42,7 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
   if (!binding) return ["no checks apply"];
   const failing = c.assessment.checks.filter((check) => !check.passed);
   lines.push(`binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`);
-  lines.push(`why: ${bindingReason(binding)}`);
+  lines.push(`why: ${ruleOf(binding).why(binding)}`);
   const names = variableNames(p, c.layout);
   const { min, max } = variableBounds(p, c.layout);
   const unit = p.case.units === "US" ? "ft" : "m";
@@ -54,56 +53,24 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
       vars[i] = snap(p, vars[i] + direction * p.step);
       if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
       const moved = finalizeCandidate(p, c.layout, vars, designOutletFile(p, c.layout, vars));
-      const after = moved.assessment.checks.find((check) => check.name === binding.name)!;
+      const after = moved.assessment.checks.find((check) => check.key === binding.key)!;
       const gain = after.slack - binding.slack;
       if (gain <= 1e-6) continue;
       const next = moved.assessment.binding!;
       const breaks = c.assessment.compliant && !moved.assessment.compliant;
-      const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.name !== binding.name ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
+      const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.key !== binding.key ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
       moves.push({
         gain,
         breaks,
-        text: `${direction > 0 ? "raise" : "lower"} ${names[i]} by ${p.step} ${unit} to ${formatter(p.case.units).elevation(vars[i] * baseLength(p.case.units))}: ${binding.name.replace(/ within .*| freeboard| spillway dry| drawdown| no overtopping/, "")} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
+        text: `${direction > 0 ? "raise" : "lower"} ${names[i]} by ${p.step} ${unit} to ${formatter(p.case.units).elevation(vars[i] * baseLength(p.case.units))}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
       });
     }
   }
   // Moves that keep a compliant design compliant first, then by how much they relax the binding check.
   moves.sort((a, b) => Number(a.breaks) - Number(b.breaks) || b.gain - a.gain);
   if (moves.length > 0) lines.push(...moves.slice(0, 2).map((m) => `relax: ${m.text}`));
-  else lines.push(`relax: ${discreteRemedy(binding)}`);
+  else lines.push(`relax: ${ruleOf(binding).remedy(binding)}`);
   return lines;
-}
-
-function bindingReason(check: Check): string {
-  switch (check.kind) {
-    case "peak-upper":
-      return `the ${check.storm} storm releases close to its allowable peak`;
-    case "peak-lower":
-      return `the ${check.storm} storm is held back more than its band allows (over-detention)`;
-    case "freeboard":
-      return `the ${check.storm} storm rises close to the top of embankment less the freeboard`;
-    case "spillway-dry":
-      return `the ${check.storm} storm rises close to the spillway crest`;
-    case "drawdown":
-      return `the pond drains slowly after the ${check.storm} storm`;
-    case "overtopping":
-      return `the ${check.storm} storm nearly overtops the embankment`;
-  }
-}
-
-function discreteRemedy(check: Check): string {
-  switch (check.kind) {
-    case "peak-upper":
-      return "no single elevation step helps; a smaller opening at the level that holds this storm, or more storage";
-    case "peak-lower":
-      return "no single elevation step helps; a larger opening at the level that holds this storm, or accept over-detention (tolerance.under)";
-    case "freeboard":
-    case "spillway-dry":
-    case "overtopping":
-      return "no single elevation step helps; larger openings near the top, a wider riser or barrel, or more storage";
-    case "drawdown":
-      return "no single elevation step helps; a larger low-flow opening at the floor";
-  }
 }
 
 /** Volume of a hydrograph above a constant outflow q (m3): the least storage any outlet that keeps its peak at q needs. */
@@ -138,7 +105,7 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
   if (plan.viableFirst === 0 && plan.pruned.length > 0) {
     const smallest = [...plan.pruned].sort((a, b) => a.peak - b.peak)[0];
     const storm = smallest.storm;
-    const limit = storm.target! * (1 + p.case.criteria.over);
+    const limit = targetBand(storm.target!, p.case.criteria)[1];
     const held = volumeAbove(storm.inflow, limit);
     const stage = stageAtStorage(p, held);
     const file = designOutletFile(p, { levels: [smallest.part], riser: null, barrel: null }, []);

@@ -8,6 +8,7 @@ import { baseLength } from "../src/units.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
 import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
+import { targetBand } from "../src/assess/rules/band.js";
 import { designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
 import type { Evaluator } from "./evaluate.js";
 import { stagedStart } from "./fit.js";
@@ -90,7 +91,7 @@ export function riserChoices(p: SearchProblem, levels: PartOption[], barrel: Siz
 /** Barrel sizes worth fitting: the smallest that can carry the largest target at the freeboard stage, and the next. */
 export function barrelChoices(p: SearchProblem): (SizeOption | null)[] {
   if (!p.barrel || p.barrelOptions.length === 0) return [null];
-  const need = Math.max(...p.targeted.map((s) => s.target! * (1 + p.case.criteria.over)));
+  const need = Math.max(...p.targeted.map((s) => targetBand(s.target!, p.case.criteria)[1]));
   const index = p.barrelOptions.findIndex((b) => barrelCapacity(p, b) >= need);
   if (index < 0) return [p.barrelOptions[p.barrelOptions.length - 1]];
   return p.barrelOptions.slice(index, index + 2);
@@ -128,10 +129,10 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
       const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
       const result = evaluator.routeStorms(outlet, [first])[0].result;
       let peak = result.peakOutflow;
-      if (!p.floorTaken && peak > first.target! * (1 + p.case.criteria.over)) {
+      if (!p.floorTaken && peak > targetBand(first.target!, p.case.criteria)[1]) {
         // The bound holds with the most restrictive barrel: confirm with it before pruning.
         if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
-        if (peak > first.target! * (1 + p.case.criteria.over)) {
+        if (peak > targetBand(first.target!, p.case.criteria)[1]) {
           pruned.push({ part, storm: first, peak });
           continue;
         }

@@ -7,6 +7,8 @@ import { Converter } from "../src/case/normalize.js";
 import { baseLength, parseLength } from "../src/units.js";
 import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
 import { costWeights, type CostWeights } from "./cost.js";
+import { narrowed, targetBand } from "../src/assess/rules/band.js";
+import { aimMargin } from "../src/assess/rules/peakUpper.js";
 
 /** One choice for a control level: an orifice group or a weir, in catalogue sizes. */
 export interface PartOption {
@@ -164,8 +166,5 @@ function show(size: Length): string {
 
 /** Lower and upper aim of a storm's peak: the band with a margin of the target inside each edge. */
 export function aimBand(p: SearchProblem, target: number): [number, number] {
-  const { over, under } = p.case.criteria;
-  const width = over + under;
-  const margin = Math.min(p.options.margin, width / 4);
-  return [target * (1 - under + margin), target * (1 + over - margin)];
+  return targetBand(target, narrowed(p.case.criteria, aimMargin(p.case.criteria, p.options.margin)));
 }

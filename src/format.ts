@@ -43,3 +43,9 @@ export function significant(x: number): string {
   if (a >= 0.1) return x.toFixed(3);
   return x.toPrecision(3);
 }
+
+/** A check's value or limit in words: flows and elevations in case units, drawdown in hours. */
+export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hours", value: number | null): string {
+  if (value === null) return "not drained";
+  return quantity === "flow" ? f.flow(value) : quantity === "hours" ? `${value.toFixed(1)} h` : f.elevation(value);
+}

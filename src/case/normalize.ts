@@ -3,42 +3,20 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
 import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "./model.js";
-import { CaseError, describeIoError, show, type Problem } from "./errors.js";
+import { CaseError, describeIoError, show } from "./errors.js";
+import { Converter } from "./converter.js";
 import { parseInflowCsv } from "./csv.js";
-import { baseArea, baseFlow, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseLength, type UnitSystem } from "../units.js";
+import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
-import { caseHydrology, type StormHydrology } from "../hydrology/fromCase.js";
+import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
+
+export { Converter } from "./converter.js";
 
 export interface NormalizeContext {
   file: string;
   label: string;
   directory: string;
-}
-
-/** Converts case-file values to SI and collects problems that involve several fields. */
-export class Converter {
-  readonly problems: Problem[] = [];
-  constructor(
-    readonly units: UnitSystem,
-    readonly label: string,
-  ) {}
-
-  length(value: Length, path: string): number {
-    const parsed = parseLength(value, this.units);
-    if (typeof parsed === "number") return parsed;
-    this.problem(path, show(value), parsed.error);
-    return NaN;
-  }
-  optionalLength(value: Length | undefined, path: string, fallback: number): number {
-    return value === undefined ? fallback : this.length(value, path);
-  }
-  problem(path: string, found: string, expected: string): void {
-    this.problems.push({ where: `${this.label}: ${path}`, found, expected });
-  }
-  get flow(): number {
-    return baseFlow(this.units);
-  }
 }
 
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {

@@ -1,5 +1,6 @@
 // The case file's schema: the single source of the file's types (see the case-format contract).
 // Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
+import { ENTRANCES } from "../hydraulics/entrances.js";
 import { z } from "zod";
 import { AREA_UNITS, INTENSITY_UNITS, LENGTH_UNITS, QUANTITY_PATTERN } from "../units.js";
 
@@ -331,17 +332,6 @@ export const riserSchema = z.discriminatedUnion(
   ],
   { error: 'a riser shape: "circular" or "box"' },
 );
-
-export const ENTRANCES = [
-  "concrete-square-headwall",
-  "concrete-groove-headwall",
-  "concrete-groove-projecting",
-  "cmp-headwall",
-  "cmp-mitered",
-  "cmp-projecting",
-  "box-wingwall-30-75",
-  "box-wingwall-15-90",
-] as const;
 
 const barrelCommon = {
   length: positiveLength,

@@ -4,7 +4,7 @@ import { basename, join } from "node:path";
 import { caseSchema, type CaseFile } from "../case/schema.js";
 import { Converter } from "../case/normalize.js";
 import { CaseError } from "../case/errors.js";
-import { caseHydrology, AREA_NAMES } from "../hydrology/fromCase.js";
+import { caseHydrology, AREA_NAMES } from "../case/hydrology.js";
 import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
 import { writeFileAtomic } from "../io.js";
 import { emit, load, safeName, UsageError } from "./common.js";

@@ -17,7 +17,7 @@ import { load, positiveLength, positiveNumber, UsageError } from "./common.js";
 import { loadCase, type LoadedCase } from "../case/load.js";
 import type { Hydrograph } from "../case/model.js";
 import { Converter } from "../case/normalize.js";
-import { caseHydrology } from "../hydrology/fromCase.js";
+import { caseHydrology } from "../case/hydrology.js";
 import type { ReportInputs } from "../report/review/caseReport.js";
 import type { RunFacts } from "../report/review/project.js";
 

@@ -6,7 +6,17 @@
 //   row except the mitered corrugated metal pipe (+0.7), 3rd ed. Table A.1.
 // - ke: HDS-5 2nd ed. Table 12 / 3rd ed. Table C.2 (entrance loss coefficients, outlet control, full
 //   or partly full entrance).
-import type { ENTRANCES } from "../case/schema.js";
+/** The entrance names the case format accepts (case-format contract). */
+export const ENTRANCES = [
+  "concrete-square-headwall",
+  "concrete-groove-headwall",
+  "concrete-groove-projecting",
+  "cmp-headwall",
+  "cmp-mitered",
+  "cmp-projecting",
+  "box-wingwall-30-75",
+  "box-wingwall-15-90",
+] as const;
 
 export type EntranceName = (typeof ENTRANCES)[number];
 

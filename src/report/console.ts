@@ -4,7 +4,8 @@ import type { Case } from "../case/model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
-import { formatter, significant, trimNumber, type Formatter } from "../format.js";
+import { formatter, quantityText, significant, trimNumber, type Formatter } from "../format.js";
+import { ruleOf } from "../assess/rules/registry.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { withinBand } from "./json.js";
 import { CAUTION } from "./caution.js";
@@ -73,29 +74,30 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
-  const f = formatter(c.units);
-  if (value === null) return "not drained";
-  switch (check.kind) {
-    case "peak-upper":
-    case "peak-lower":
-      return f.flow(value);
-    case "drawdown":
-      return `${value.toFixed(1)} h`;
-    default:
-      return f.elevation(value);
-  }
+  return quantityText(formatter(c.units), ruleOf(check).quantity, value);
 }
 
-export function checksTable(c: Case, checks: readonly Check[]): string {
-  const table = plainTable(["Check", "Value", "Limit", "Slack", "Result"], [false, true, true, true, false]);
-  for (const check of checks) {
-    table.push([check.name, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
-  }
-  return table.toString();
+/** Every check with its value, limit, slack and result (values carry their units: the rows mix quantities). */
+export function checksTable(c: Case, checks: readonly Check[], layout: Layout = PLAIN): string {
+  const columns: Column[] = [
+    { head: "Check" },
+    { head: "Value", align: "right" },
+    { head: "Limit", align: "right" },
+    { head: "Slack", align: "right" },
+    { head: "Result" },
+  ];
+  const rows: Row[] = checks.map((check) => [
+    check.name,
+    checkValue(c, check, check.value),
+    `${limitWord(check)} ${checkValue(c, check, check.limit)}`,
+    percent(check.slack),
+    { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
+  ]);
+  return renderTable(layout, columns, rows).text;
 }
 
 function limitWord(check: Check): string {
-  return check.kind === "peak-lower" ? ">=" : "<=";
+  return ruleOf(check).comparison === "at least" ? ">=" : "<=";
 }
 
 export function warningsText(assessment: Assessment, layout: Layout = PLAIN): string {
@@ -123,7 +125,7 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     "",
     stormTable(c, routing, layout),
     "",
-    checksTable(c, assessment.checks),
+    checksTable(c, assessment.checks, layout),
     "",
     warningsText(assessment, layout),
     ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),

@@ -4,6 +4,8 @@ import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
 import { toCaseUnits } from "../units.js";
+import { withinTargetBand } from "../assess/rules/band.js";
+import { ruleOf } from "../assess/rules/registry.js";
 import { CAUTION } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
 import { outletDetail } from "../hydraulics/outlet.js";
@@ -29,9 +31,7 @@ export interface StormJson {
 
 /** Whether a peak lies inside its target band (band edges count as inside). */
 export function withinBand(c: Case, peak: number, target: number | null): boolean | null {
-  if (target === null) return null;
-  const eps = 1e-9 * Math.max(target, 1e-12);
-  return peak <= target * (1 + c.criteria.over) + eps && peak >= target * (1 - c.criteria.under) - eps;
+  return target === null ? null : withinTargetBand(peak, target, c.criteria);
 }
 
 export function stormJson(c: Case, s: StormRouting): StormJson {
@@ -62,6 +62,8 @@ export interface CheckJson {
   name: string;
   kind: string;
   storm: string;
+  key: string;
+  label: string | null;
   passed: boolean;
   value: number | null;
   limit: number;
@@ -72,13 +74,16 @@ export interface CheckJson {
 export function checkJson(c: Case, check: Check): CheckJson {
   const u = toCaseUnits(c.units);
   const labels = c.units === "US" ? { flow: "cfs", length: "ft" } : { flow: "m3/s", length: "m" };
-  const flow = check.kind === "peak-upper" || check.kind === "peak-lower";
-  const hours = check.kind === "drawdown";
+  const quantity = ruleOf(check).quantity;
+  const flow = quantity === "flow";
+  const hours = quantity === "hours";
   const convert = (x: number) => (flow ? u.flow(x) : hours ? x : u.length(x));
   return {
     name: check.name,
     kind: check.kind,
     storm: check.storm,
+    key: check.key,
+    label: check.label,
     passed: check.passed,
     value: check.value === null ? null : convert(check.value),
     limit: convert(check.limit),

@@ -5,10 +5,17 @@ import type { StormRouting } from "../../routing/routeCase.js";
 import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
 import { outletDetail } from "../../hydraulics/outlet.js";
 import { formatter } from "../../format.js";
+import { targetBand, type Tolerance } from "../../assess/rules/band.js";
 import { describeElement } from "../describe.js";
 import { niceAxis } from "../plot/ticks.js";
 import { chart, type Band, type Point, type PointGroup, type ReferenceLine, type Series } from "../plot/chart.js";
 import { cycleStyle, PALETTE, INK, type LineStyle } from "../plot/style.js";
+
+/** A storm's target band converted for a plot axis. */
+function bandIn(convert: (q: number) => number, target: number, tolerance: Tolerance): readonly [number, number] {
+  const [low, high] = targetBand(target, tolerance);
+  return [convert(low), convert(high)] as const;
+}
 
 /** Rating and storage curves are drawn with about this many intervals over the pond's depth. */
 const CURVE_INTERVALS = 240;
@@ -97,7 +104,6 @@ function fromLastZero(points: readonly Point[]): readonly Point[] {
 /** Each storm's target at its maximum stage with the target band, and its routed peak. */
 function stormPoints(c: Case, storms: readonly StormRouting[]): PointGroup[] {
   const u = formatter(c.units).raw;
-  const { over, under } = c.criteria;
   const targets = storms.filter((s) => s.storm.target !== null);
   return [
     {
@@ -108,7 +114,7 @@ function stormPoints(c: Case, storms: readonly StormRouting[]): PointGroup[] {
         x: u.flow(s.storm.target!),
         y: u.length(s.result.maxStage),
         label: s.storm.name,
-        xRange: [u.flow(s.storm.target! * (1 - under)), u.flow(s.storm.target! * (1 + over))] as const,
+        xRange: bandIn(u.flow, s.storm.target!, c.criteria),
       })),
     },
     {
@@ -129,7 +135,7 @@ export function ratingFlowLimit(c: Case, storms: readonly StormRouting[], totalA
   const u = formatter(c.units).raw;
   let largest = 0;
   for (const s of storms) {
-    largest = Math.max(largest, u.flow(s.result.peakOutflow), s.storm.target === null ? 0 : u.flow(s.storm.target * (1 + c.criteria.over)));
+    largest = Math.max(largest, u.flow(s.result.peakOutflow), s.storm.target === null ? 0 : u.flow(targetBand(s.storm.target, c.criteria)[1]));
   }
   return niceAxis(0, largest > 0 ? Math.min(totalAtTop, 2 * largest) : totalAtTop).domain[1];
 }
@@ -201,8 +207,8 @@ export function hydrographChart(id: string, c: Case, sr: StormRouting): string {
   const references: ReferenceLine[] = [];
   const target = sr.storm.target;
   if (target !== null) {
-    const { over, under } = c.criteria;
-    bands.push({ key: "target-band", axis: "y", from: u.flow(target * (1 - under)), to: u.flow(target * (1 + over)), label: `target band ${f.flow(target * (1 - under))} to ${f.flow(target * (1 + over))}`, colour: TARGET_COLOUR });
+    const [from, to] = bandIn(u.flow, target, c.criteria);
+    bands.push({ key: "target-band", axis: "y", from, to, label: `target band ${targetBand(target, c.criteria).map(f.flow).join(" to ")}`, colour: TARGET_COLOUR });
     references.push({ key: "target", axis: "y", value: u.flow(target), label: `target ${f.flow(target)}`, style: line(TARGET_COLOUR, "dotted", 1.8) });
   }
   return chart({
@@ -262,7 +268,6 @@ export interface ComparedCandidate {
 export function candidatesChart(id: string, c: Case, candidates: readonly ComparedCandidate[]): string {
   const f = formatter(c.units);
   const u = f.raw;
-  const { over, under } = c.criteria;
   const styles = candidates.map((_, i) => ({ ...cycleStyle(i), width: 2.2 }));
   const series = candidates.map((k, i) => {
     return {
@@ -282,7 +287,7 @@ export function candidatesChart(id: string, c: Case, candidates: readonly Compar
     y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
     series,
     bands: c.storms.filter((s) => s.target !== null).map((s, i) => ({
-      key: `band-${i + 1}`, axis: "x" as const, from: u.flow(s.target! * (1 - under)), to: u.flow(s.target! * (1 + over)), label: "target band of each storm", colour: TARGET_COLOUR,
+      key: `band-${i + 1}`, axis: "x" as const, from: bandIn(u.flow, s.target!, c.criteria)[0], to: bandIn(u.flow, s.target!, c.criteria)[1], label: "target band of each storm", colour: TARGET_COLOUR,
     })),
     points: candidates.map((k, i) => ({
       key: `peaks-${k.rank}`,

@@ -7,6 +7,8 @@ import { storageCurve } from "../../storage/curve.js";
 import { formatter, trimNumber, type Formatter } from "../../format.js";
 import { checkValue, hours, percent } from "../console.js";
 import { withinBand } from "../json.js";
+import { targetBand } from "../../assess/rules/band.js";
+import { ruleOf } from "../../assess/rules/registry.js";
 import { describeOutlet } from "../describe.js";
 import { niceStep, ratingGrid, ratingRows } from "../rating.js";
 import { baseLength } from "../../units.js";
@@ -73,7 +75,6 @@ export function caseFacts(c: Case): FactsBlock {
 /** The storms as given: return period, target, band and inflow. */
 export function stormsTable(c: Case): TableBlock {
   const f = formatter(c.units);
-  const { over, under } = c.criteria;
   return {
     kind: "table",
     caption: "Design storms",
@@ -86,7 +87,7 @@ export function stormsTable(c: Case): TableBlock {
         s.name,
         `${trimNumber(s.returnPeriod, 2)} yr`,
         s.target === null ? "none" : f.flow(s.target),
-        s.target === null ? "none" : `${f.flow(s.target * (1 - under))} to ${f.flow(s.target * (1 + over))}`,
+        s.target === null ? "none" : targetBand(s.target, c.criteria).map(f.flow).join(" to "),
         f.flow(peak),
         f.volume(hydrographVolume(s.inflow)),
         hoursText(s.inflow.times[s.inflow.times.length - 1]),
@@ -203,7 +204,7 @@ export function checksTable(c: Case, assessment: Assessment): TableBlock {
       return [
         binding ? { text: `${check.name} (binding)`, tone: "binding" } : check.name,
         checkValue(c, check, check.value),
-        `${check.kind === "peak-lower" ? "at least" : "at most"} ${checkValue(c, check, check.limit)}`,
+        `${ruleOf(check).comparison} ${checkValue(c, check, check.limit)}`,
         { text: percent(check.slack), tone: check.passed ? "pass" : "fail" },
         { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
       ];

@@ -1,18 +1,18 @@
 // The case file's hydrology section and storm rainfalls in SI, and what each storm derives from them:
 // the inflow (the post-development runoff hydrograph) and the target (the pre-development peak).
 // Problems are reported through the case converter with their JSON paths.
-import type { CaseFile, CatchmentFile, HydrologyFile, RainfallFile } from "../case/schema.js";
-import type { Converter } from "../case/normalize.js";
-import { show } from "../case/errors.js";
+import type { CaseFile, CatchmentFile, HydrologyFile, RainfallFile } from "./schema.js";
+import type { Converter } from "./converter.js";
+import { show } from "./errors.js";
 import { FOOT, parseArea, parseDepth, parseIntensity, type UnitSystem } from "../units.js";
-import { distributionMassCurve, type DistributionType, type MassCurve } from "./distributions.js";
-import { compositeCurveNumber, weightedMean, type AbstractionRatio } from "./runoff.js";
-import { MAX_SHEET_LENGTH, tcFromLag, travelTime, watershedLag, type FlowSegment } from "./timeOfConcentration.js";
-import { idfRange, type IdfCurve } from "./idf.js";
-import { nrcsHydrograph, type NrcsOptions } from "./nrcsHydrograph.js";
-import { criticalDuration, MIN_TC_RATIONAL, rationalAreaHydrograph, type CriticalDuration } from "./rational.js";
-import { STANDARD_PEAK_RATE_FACTOR } from "./unitHydrograph.js";
-import type { AreaHydrograph } from "./hydrograph.js";
+import { distributionMassCurve, type DistributionType, type MassCurve } from "../hydrology/distributions.js";
+import { compositeCurveNumber, weightedMean, type AbstractionRatio } from "../hydrology/runoff.js";
+import { MAX_SHEET_LENGTH, tcFromLag, travelTime, watershedLag, type FlowSegment } from "../hydrology/timeOfConcentration.js";
+import { idfRange, type IdfCurve } from "../hydrology/idf.js";
+import { nrcsHydrograph, type NrcsOptions } from "../hydrology/nrcsHydrograph.js";
+import { criticalDuration, MIN_TC_RATIONAL, rationalAreaHydrograph, type CriticalDuration } from "../hydrology/rational.js";
+import { STANDARD_PEAK_RATE_FACTOR } from "../hydrology/unitHydrograph.js";
+import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 
 export type AreaName = "pre" | "post";
 export const AREA_NAMES: readonly AreaName[] = ["pre", "post"];

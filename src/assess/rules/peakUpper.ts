@@ -1,0 +1,30 @@
+// A storm's routed peak at most the upper edge of its target band.
+import { targetBand, narrowed } from "./band.js";
+import { makeCheck, upperFlowSlack, type Rule } from "./rule.js";
+
+export const peakUpper: Rule = {
+  kind: "peak-upper",
+  quantity: "flow",
+  comparison: "at most",
+  routings: ["design"],
+  evaluate({ case: c, routings }, out) {
+    for (const { storm, result } of routings.design) {
+      if (storm.target === null) continue;
+      const upper = targetBand(storm.target, c.criteria)[1];
+      out.push(makeCheck("peak-upper", storm.name, `${storm.name} peak within upper band`, result.peakOutflow, upper, upperFlowSlack(result.peakOutflow, upper)));
+    }
+  },
+  aim(c, check, margin) {
+    const target = c.storms.find((s) => s.name === check.storm)!.target!;
+    const high = targetBand(target, narrowed(c.criteria, aimMargin(c.criteria, margin)))[1];
+    return (check.limit - high) / check.limit;
+  },
+  why: (check) => `the ${check.storm} storm releases close to its allowable peak`,
+  remedy: () => "no single elevation step helps; a smaller opening at the level that holds this storm, or more storage",
+  subject: (check) => `${check.storm} peak`,
+};
+
+/** The search's margin inside each band edge: at most a quarter of the band's width. */
+export function aimMargin(tolerance: { over: number; under: number }, margin: number): number {
+  return Math.min(margin, (tolerance.over + tolerance.under) / 4);
+}

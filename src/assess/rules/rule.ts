@@ -1,0 +1,92 @@
+// What one kind of check is: how it is evaluated on a routed case, the slack the search keeps, and its
+// words for tables and explanations. One file per rule in this folder; the registry lists them.
+import type { Case, Outlet } from "../../case/model.js";
+import type { StormRouting } from "../../routing/routeCase.js";
+
+/**
+ * A rule's kind, e.g. "peak-upper" (stable: JSON `kind` and half of a check's `key`). A plain string so
+ * that a new rule needs only its own file and a registry line; the registry test asserts uniqueness.
+ */
+export type CheckKind = string;
+
+/** What a check's value and limit measure (how they are converted and printed). */
+export type Quantity = "flow" | "elevation" | "hours";
+
+export interface Check {
+  /** Stable identity: `${kind}:${storm}`; match checks by it, never by `name`. */
+  key: string;
+  name: string;
+  kind: CheckKind;
+  storm: string;
+  /** Free-text source of the rule (e.g. an ordinance clause); null when the case gives none. */
+  label: string | null;
+  passed: boolean;
+  /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown; null when not reached. */
+  value: number | null;
+  limit: number;
+  slack: number;
+}
+
+/**
+ * A routing a rule needs: "design" is the outlet as given; a rule needing another (e.g. the principal
+ * outlet removed) names it in `routings`, and checks.ts provides each variant some rule names.
+ */
+export type RoutingVariant = string;
+
+export interface RuleInput {
+  case: Case;
+  outlet: Outlet;
+  /** Routed storms for each variant a rule declared in `routings`. */
+  routings: Readonly<Record<RoutingVariant, readonly StormRouting[]>> & { readonly design: readonly StormRouting[] };
+}
+
+export interface Rule {
+  kind: CheckKind;
+  quantity: Quantity;
+  /** "at most" for upper limits, "at least" for lower limits. */
+  comparison: "at most" | "at least";
+  routings: readonly RoutingVariant[];
+  /** Appends this rule's checks (none when the case does not ask for it). */
+  evaluate(input: RuleInput, out: Check[]): void;
+  /** Slack the search must keep on a check of this rule (the aim), given the search's margin. */
+  aim(c: Case, check: Check, margin: number): number;
+  /** Why a check of this rule binds, in words. */
+  why(check: Check): string;
+  /** What relaxes it when no single elevation step does. */
+  remedy(check: Check): string;
+  /** Short subject for "how the value moved" text (e.g. "2-yr peak"). */
+  subject(check: Check): string;
+}
+
+/** Whether a slack passes: edges count as inside, with a tolerance for round-off. */
+export const PASS_TOLERANCE = 1e-12;
+
+export function makeCheck(kind: CheckKind, storm: string, name: string, value: number | null, limit: number, slack: number, label: string | null = null): Check {
+  return { key: checkKey(kind, storm), name, kind, storm, label, passed: slack >= -PASS_TOLERANCE, value, limit, slack };
+}
+
+export function checkKey(kind: CheckKind, storm: string): string {
+  return `${kind}:${storm}`;
+}
+
+/** Slack of an upper limit measured on depths above a datum (elevation checks). */
+export function depthSlack(value: number, limit: number, datum: number): number {
+  const limitDepth = Math.max(limit - datum, 1e-9);
+  return (limitDepth - (value - datum)) / limitDepth;
+}
+
+/** Slack of an upper limit on a flow, as a fraction of the limit. */
+export function upperFlowSlack(value: number, limit: number): number {
+  return limit > 0 ? (limit - value) / limit : value > 0 ? -1 : 0;
+}
+
+/** Slack of a lower limit on a flow, as a fraction of the limit. */
+export function lowerFlowSlack(value: number, limit: number): number {
+  return (value - limit) / limit;
+}
+
+/** Default slack other rules keep in the search: a hair inside the limit. */
+export const HAIR = 0.002;
+
+/** What relaxes a stage limit when no single elevation step does (freeboard, spillway, overtopping). */
+export const HIGH_STAGE_REMEDY = "no single elevation step helps; larger openings near the top, a wider riser or barrel, or more storage";

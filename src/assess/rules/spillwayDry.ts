@@ -1,0 +1,20 @@
+// Storms up to spillway.dryThrough years stay below the spillway crest.
+import { depthSlack, HAIR, HIGH_STAGE_REMEDY, makeCheck, type Rule } from "./rule.js";
+
+export const spillwayDry: Rule = {
+  kind: "spillway-dry",
+  quantity: "elevation",
+  comparison: "at most",
+  routings: ["design"],
+  evaluate({ case: c, outlet, routings }, out) {
+    if (!outlet.spillway) return;
+    for (const { storm, result } of routings.design) {
+      if (storm.returnPeriod > c.criteria.spillwayDryThrough) continue;
+      out.push(makeCheck("spillway-dry", storm.name, `${storm.name} spillway dry`, result.maxStage, outlet.spillway.crest, depthSlack(result.maxStage, outlet.spillway.crest, c.pond.bottom)));
+    }
+  },
+  aim: () => HAIR,
+  why: (check) => `the ${check.storm} storm rises close to the spillway crest`,
+  remedy: () => HIGH_STAGE_REMEDY,
+  subject: (check) => check.storm,
+};
