@@ -4,8 +4,9 @@ import { cpus } from "node:os";
 import type { BenchSection } from "./section.js";
 import { routingSection } from "./routing.js";
 import { searchSection } from "./search.js";
+import { speedSection } from "./speed.js";
 
-const sections: BenchSection[] = [routingSection, searchSection];
+const sections: BenchSection[] = [routingSection, speedSection, searchSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

@@ -30,7 +30,7 @@ export interface Candidate {
 
 export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number[], file: OutletFile): Candidate {
   const outlet = designOutlet(p, file);
-  const routing = routeCase(p.case, outlet);
+  const routing = routeCase(p.case, outlet, { direct: p.options.referencePath });
   const assessment = assess(p.case, routing);
   let error = 0;
   for (const { storm, result } of routing.storms) {

@@ -8,6 +8,7 @@ import { runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
 import { layoutFor } from "../src/report/terminal.js";
+import { pondDesignCommand } from "./pondCommand.js";
 
 export interface DesignCommandOptions {
   seed?: string;
@@ -22,9 +23,11 @@ export interface DesignCommandOptions {
   resume?: boolean;
   progress?: boolean;
   wide?: boolean;
+  sizePond?: boolean;
 }
 
 export function designCommand(path: string, options: DesignCommandOptions): number {
+  if (options.sizePond) return pondDesignCommand(path, options);
   const loaded = load(path);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);

@@ -43,7 +43,7 @@ export class Evaluator {
   /** Routes the given storms through an outlet on the search grid. */
   routeStorms(outlet: Outlet, storms: readonly Storm[]): StormRouting[] {
     const p = this.problem;
-    const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid });
+    const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid, direct: p.options.referencePath });
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,

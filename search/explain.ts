@@ -2,6 +2,8 @@
 // floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
 // in engineering terms.
 import type { Hydrograph } from "../src/case/model.js";
+import { storageShortfall } from "../src/storage/shortfall.js";
+import { shortfallLines } from "../src/report/shortfall.js";
 import type { Check } from "../src/assess/checks.js";
 import { formatter, quantityText } from "../src/format.js";
 import { ruleOf } from "../src/assess/rules/registry.js";
@@ -131,5 +133,7 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
   if (failing.has("peak-upper") && plan.viableFirst > 0) lines.push(`Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.`);
   if (failing.has("drawdown")) lines.push(`The pond drains too slowly after some storms; a larger low-flow opening conflicts with the smallest storm's target.`);
   if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
+  const closestStage = closest.length ? Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity)) : null;
+  lines.push(...shortfallLines(p.case, storageShortfall(p.case, closestStage === null || !Number.isFinite(closestStage) ? null : closestStage)));
   return lines;
 }

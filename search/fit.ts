@@ -6,6 +6,7 @@ import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
 import { baseLength } from "../src/units.js";
 import type { Storm } from "../src/case/model.js";
+import type { RouteResult } from "../src/routing/router.js";
 import { aimBand, type SearchProblem } from "./problem.js";
 import { designOutlet, designOutletFile, elevations, firstLevelFixed, variableCount, type Layout } from "./layout.js";
 import type { Evaluation, Evaluator } from "./evaluate.js";
@@ -61,7 +62,21 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
   const high = p.case.pond.top / L + 10 * (p.case.pond.top - p.case.pond.bottom) / L;
   const count = variableCount(p, l);
   const trial = () => Array.from({ length: count }, (_, i) => (i < vars.length ? vars[i] : high));
-  const routed = (storm: Storm) => evaluator.routeStorms(designOutlet(p, designOutletFile(p, l, trial(), plain)), [storm])[0].result;
+  const routed = (storm: Storm) => {
+    const file = designOutletFile(p, l, trial(), plain);
+    // Parts still at the placeholder pass nothing at any stage of the grid: routings that differ
+    // only by them (the first one of every option the planner tries on a prefix) are the same.
+    const key = `${storm.name} ${JSON.stringify({ ...file, elements: file.elements?.filter((e) => (e.type === "weir" ? e.crest : e.invert) !== high), riser: file.riser?.crest === high ? null : file.riser })}`;
+    const memo = p.options.referencePath ? null : stagedRoutings(evaluator);
+    const known = memo?.get(key);
+    if (known) return known;
+    const result = evaluator.routeStorms(designOutlet(p, file), [storm])[0].result;
+    if (memo) {
+      if (memo.size >= STAGED_MEMO_SIZE) memo.clear();
+      memo.set(key, result);
+    }
+    return result;
+  };
 
   /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
   const place = (index: number, storm: Storm | undefined, low: number) => {
@@ -119,6 +134,19 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
     place(index, storms[storms.length - 1], Math.max(p.floor / L + p.step, ...tops));
   }
   return vars;
+}
+
+/** Routings of the staged start kept per evaluator (cleared when full). */
+const STAGED_MEMO_SIZE = 4096;
+const stagedMemos = new WeakMap<Evaluator, Map<string, RouteResult>>();
+
+function stagedRoutings(evaluator: Evaluator): Map<string, RouteResult> {
+  let memo = stagedMemos.get(evaluator);
+  if (!memo) {
+    memo = new Map();
+    stagedMemos.set(evaluator, memo);
+  }
+  return memo;
 }
 
 function clamp(x: number, low: number, high: number): number {

@@ -56,7 +56,8 @@ export function partWords(p: SearchProblem, part: PartOption): string {
 
 /** Elevation of the floor in the file's own form (so that it normalizes to exactly pond.pool). */
 function floorValue(p: SearchProblem): number | string {
-  return p.file.pond.permanentPool ?? p.file.pond.bottom;
+  // A case sized from its site has no pond in the file: its floor is then the pool in case units.
+  return p.file.pond?.permanentPool ?? p.file.pond?.bottom ?? p.case.pond.pool / baseLength(p.case.units);
 }
 
 /** Elevations (case units) of every designed level and the rim, from the variables. */

@@ -34,6 +34,10 @@ export interface SizeOption {
 export interface SearchOptions {
   /** Aim this fraction of the target inside each edge of the band (default 0.02). */
   margin: number;
+  /** The reference path, the bench's "before": every candidate rated by the direct evaluation at
+   * each stage instead of the rating sweep's tables and warm starts (results agree within the
+   * tables' stated errors), and the staged start's routings not shared between layouts. */
+  referencePath: boolean;
 }
 
 export interface SearchProblem {
@@ -148,7 +152,7 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     maxLevels: Math.max(0, cat.maxStages - new Set(keptElevations.map((z) => Math.round(z * 1e6))).size),
     grid: stageGrid(c.pond, [], gridStepOnLattice),
     costs: costWeights(c),
-    options: { margin: options.margin ?? 0.02 },
+    options: { margin: options.margin ?? 0.02, referencePath: options.referencePath ?? false },
   };
 }
 

@@ -7,6 +7,8 @@ import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
 import { starterCommand } from "./commands/starter.js";
+import { volumeCommand } from "./commands/volume.js";
+import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
@@ -54,9 +56,11 @@ Examples:
   outfit rate cases/demo/case.json        # the outlet's stage-discharge table
   outfit report cases/demo/case.json      # a review report (HTML)
   outfit starter my-pond.json             # a starter case file, every field explained
+  outfit volume cases/demo/case.json      # storage each storm needs, by several methods
+  outfit pond cases/site-only/case.json   # a pond sized from the site limits
   outfit <command> --help                 # every option of a command, with examples
 
-Exit codes: 0 done; 1 not compliant (only route --check); ${EXIT_CODES.slice(8)}.
+Exit codes: 0 done; 1 not compliant (route --check) or no pond fits (pond); ${EXIT_CODES.slice(8)}.
 
 Caution: ${CAUTION}
 `,
@@ -131,6 +135,7 @@ program
   .option("--wide", WIDE)
   .option("--resume", "with --out: skip the layouts the directory's journal already holds")
   .option("--progress", "show progress on the terminal")
+  .option("--size-pond", "also size the pond within the case's site limits: the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)")
   .addHelpText(
     "after",
     `
@@ -140,6 +145,8 @@ Examples:
   outfit route out/demo/candidate-01.json          # re-route a proposal
   outfit design cases/demo/case.json --budget 200000 --out out/night --progress
   outfit design cases/demo/case.json --budget 400000 --out out/night --resume
+  outfit design cases/site-only/case.json --size-pond --budget 3000 --out out/site
+  outfit route out/site/pond-and-outlet.json       # route the proposed pond and outlet
 
 Exit codes: ${EXIT_CODES}. A run that finds no compliant design still exits 0 and says why.`,
   )
@@ -169,6 +176,57 @@ Examples:
 Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
+
+program
+  .command("volume")
+  .description("estimate the storage each storm needs before any outlet exists (TR-55 ch. 6, hydrograph difference, modified rational), with the stage it reaches in the pond")
+  .argument("<case>", "case file (JSON)")
+  .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
+  .option("--json", "print the results as JSON instead of a table")
+  .option("--out <file>", "write the output to a file instead of the terminal")
+  .addHelpText(
+    "after",
+    `
+For every storm with a target: the TR-55 ch. 6 estimate (Figure 6-1, storm types I/IA or II/III), the
+volume of the inflow above a release rising linearly to the target at the inflow's peak, the same with
+the release at the target throughout, and for rational-method storms the modified rational
+critical-duration volume; each with the stage it reaches in the case's pond and whether that stays at
+or below the freeboard level (top of embankment less the freeboard depth).
+
+Examples:
+  outfit volume cases/demo/case.json --type II
+  outfit volume cases/demo-rainfall/case.json --json
+  outfit volume cases/demo/case.json --type II --out volume.txt
+
+Exit codes: ${EXIT_CODES}.`,
+  )
+  .action((file: string, options) => run(() => volumeCommand(file, options)));
+
+program
+  .command("pond")
+  .description("size a pond from the case's site limits to hold the largest storage estimate of any storm")
+  .argument("<case>", "case file (JSON) with a site section (its pond may be left out)")
+  .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
+  .option("--json", "print the results as JSON instead of a table")
+  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--write <file>", "also write the case file with the sized pond in it (inflow files are not copied)")
+  .addHelpText(
+    "after",
+    `
+The required storage is the largest estimate of \`outfit volume\` over every storm and method. The pond
+is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or the site's stage-area
+shape scaled in plan, as deep as site.maxDepth, the smallest on the size step (site.step) that holds
+the required storage between its permanent pool and the freeboard level, within maxTopLength,
+maxTopWidth and maxTopArea. Prints the required and provided storage, the footprint and the excavation.
+
+Examples:
+  outfit pond cases/site-only/case.json
+  outfit pond cases/site-only/case.json --json
+  outfit pond cases/site-only/case.json --write sized.json && outfit volume sized.json
+
+Exit codes: 0 a pond fits; 1 no pond within the limits holds the storage; ${EXIT_CODES.slice(8)}.`,
+  )
+  .action((file: string, options) => run(() => pondCommand(file, options)));
 
 program
   .command("report")

@@ -1,10 +1,81 @@
 // The case as outfit computes with it: every quantity in SI (m, m2, m3, m3/s, s).
 import type { UnitSystem } from "../units.js";
 
+/** Identical parallel pipes (SI): inside diameter, length, count, fall per length, low end's invert. */
+export interface PipeGallery {
+  diameter: number;
+  length: number;
+  count: number;
+  /** m/m, 0 for level pipes. */
+  slope: number;
+  /** Invert at the low end (m). */
+  invert: number;
+}
+
+/** Identical chambers from one unit's stage-area rows (heights above the base from 0, plan areas of water). */
+export interface Chambers {
+  count: number;
+  /** Elevation of the chambers' base (m). */
+  base: number;
+  heights: number[];
+  areas: number[];
+}
+
+/** A rectangular stone bed around the units: void ratio (porosity), base and top elevations, plan size. */
+export interface StoneBed {
+  voidRatio: number;
+  bottom: number;
+  top: number;
+  length: number;
+  width: number;
+}
+
+export type UndergroundUnits = { kind: "pipeGallery"; gallery: PipeGallery } | { kind: "chambers"; chambers: Chambers };
+
+export interface UndergroundSystem {
+  units: UndergroundUnits;
+  stone: StoneBed | null;
+}
+
+/** Site limits from which a pond is sized (SI). */
+export interface Site {
+  /** Pond floor elevation (m). */
+  floor: number;
+  /** Largest depth, floor to top of embankment (m). */
+  maxDepth: number;
+  /** Prismoid: side slopes (H:V) and floor length-to-width ratio. */
+  sideSlope: number;
+  lengthToWidth: number;
+  /** Largest plan dimensions and area at the top of embankment (m, m2); null when not limited. */
+  maxTopLength: number | null;
+  maxTopWidth: number | null;
+  maxTopArea: number | null;
+  pool: { depth: number } | { volume: number } | null;
+  /** A stage-area shape (depth above the floor, m; area, m2) to scale instead of a prismoid. */
+  shape: { depths: number[]; areas: number[] } | null;
+  /** Size step: floor width (m) for a prismoid, scale factor for a shape. */
+  step: number;
+}
+
+/** How a pond was sized from the site when the file gives none. */
+export interface SiteSizingSummary {
+  /** m3 above the pool below the freeboard level. */
+  required: number;
+  /** Storm and estimate method that govern. */
+  storm: string;
+  method: string;
+  /** Size steps of the pond used. */
+  steps: number;
+  /** False when no pond within the limits holds the estimate (the largest that fits is used). */
+  withinLimits: boolean;
+}
+
 export type Storage =
   | { kind: "prismoid"; length: number; width: number; sideSlope: number }
   | { kind: "stageArea"; elevations: number[]; areas: number[] }
-  | { kind: "stageStorage"; elevations: number[]; volumes: number[] };
+  | { kind: "stageStorage"; elevations: number[]; volumes: number[] }
+  /** Pipes or chambers, optionally in a stone bed (underground storage). */
+  | ({ kind: "underground" } & UndergroundSystem);
 
 export interface Pond {
   bottom: number;
@@ -152,7 +223,12 @@ export interface Case {
   units: UnitSystem;
   /** Absolute path of the case file ("" when built in memory). */
   file: string;
+  /** The pond given, or (no pond in the file) the pond sized from `site`. */
   pond: Pond;
+  /** Site limits, when the file gives them. */
+  site?: Site;
+  /** How the pond was sized from the site, when the file gives no pond. */
+  sizing?: SiteSizingSummary;
   tailwater: Tailwater;
   storms: Storm[];
   criteria: Criteria;

@@ -10,6 +10,8 @@ import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT } from "../
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
+import { normalizeUnderground } from "./underground.js";
+import { normalizeSite, siteSizing, sitePond, sizingSummary, type SiteSizing } from "./site.js";
 
 export { Converter } from "./converter.js";
 
@@ -21,7 +23,6 @@ export interface NormalizeContext {
 
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
   const cv = new Converter(file.units, context.label);
-  const pond = normalizePond(file, cv);
   const hydrology = caseHydrology(file, cv);
   const storms = file.storms.map((storm, i) => normalizeStorm(storm, i, cv, context, hydrology.storms[i]));
   const names = new Set<string>();
@@ -29,14 +30,28 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     if (names.has(storm.name)) cv.problem(`storms[${i}].name`, show(storm.name), "a storm name not used by another storm");
     names.add(storm.name);
   });
+  const criteria = normalizeCriteria(file, cv);
+  const site = file.site ? normalizeSite(file, cv) : undefined;
+  let pond: Pond | null = file.pond ? normalizePond(file, cv) : null;
+  let sizing: SiteSizing | undefined;
+  if (!file.pond && !site) cv.problem("pond", "nothing (the field is missing)", "a pond (bottom, top, storage), or a site section to size one from");
+  else if (!pond && site && cv.problems.length === 0) {
+    // No pond given: the pond sized from the site limits for the largest storage estimate.
+    sizing = siteSizing(site, storms, hydrology.storms, criteria) ?? undefined;
+    pond = sizing ? sitePond(sizing) : null;
+    if (!pond) cv.problem("site", sizing ? "limits that admit no pond of one size step" : "no storm with a target", sizing ? "site limits (maxTopLength, maxTopWidth, maxTopArea) that admit at least one size step" : "at least one storm with a target, to size the pond from");
+  }
+  if (cv.problems.length > 0) throw new CaseError(cv.problems);
   const result: Case = {
     name: file.name,
     units: file.units,
     file: context.file,
-    pond,
+    pond: pond!,
+    site,
+    sizing: sizing ? sizingSummary(sizing) : undefined,
     tailwater: normalizeTailwater(file, cv),
     storms,
-    criteria: normalizeCriteria(file, cv),
+    criteria,
     outlet: file.outlet ? normalizeOutlet(file.outlet, cv, "outlet") : undefined,
     catalogue: file.catalogue ? normalizeCatalogue(file, cv) : undefined,
     costs: file.costs ?? {},
@@ -46,7 +61,7 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
 }
 
 function normalizePond(file: CaseFile, cv: Converter): Pond {
-  const p = file.pond;
+  const p = file.pond!;
   const bottom = cv.length(p.bottom, "pond.bottom");
   const top = cv.length(p.top, "pond.top");
   const pool = cv.optionalLength(p.permanentPool, "pond.permanentPool", bottom);
@@ -64,6 +79,8 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
       width: cv.length(s.prismoid.width, "pond.storage.prismoid.width"),
       sideSlope: s.prismoid.sideSlope,
     };
+  } else if (s.pipeGallery || s.chambers) {
+    storage = normalizeUnderground(s, cv, bottom, top);
   } else {
     const rows = (s.stageArea ?? s.stageStorage)!;
     const kind = s.stageArea ? "stageArea" : "stageStorage";

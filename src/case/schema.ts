@@ -35,8 +35,8 @@ const positive = finite.refine((v) => v > 0, { message: "a number greater than z
 const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
 const pair = z.tuple([finite, finite], { error: "a pair of numbers [x, y]" });
 
-/** Rows [x, y] strictly increasing in x, non-decreasing (and optionally >= 0) in y. */
-function table(xName: string, yName: string, options: { yNonNegative?: boolean; minRows?: number } = {}) {
+/** Rows [x, y] strictly increasing in x, non-decreasing (unless `yAnyOrder`; optionally >= 0) in y. */
+function table(xName: string, yName: string, options: { yNonNegative?: boolean; minRows?: number; yAnyOrder?: boolean } = {}) {
   const minRows = options.minRows ?? 2;
   return z.array(pair, { error: `a table of [${xName}, ${yName}] rows` }).superRefine((rows, ctx) => {
     if (rows.length < minRows) {
@@ -53,7 +53,7 @@ function table(xName: string, yName: string, options: { yNonNegative?: boolean; 
       if (!(x > px)) {
         ctx.addIssue({ code: "custom", path: [i, 0], message: `${xName} strictly increasing (row before has ${px})`, input: x });
       }
-      if (y < py) {
+      if (y < py && !options.yAnyOrder) {
         ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} not decreasing (row before has ${py})`, input: y });
       }
     }
@@ -74,6 +74,36 @@ function exactlyOne<T extends Record<string, unknown>>(keys: string[], what: str
   };
 }
 
+const unitCount = z.number({ error: "a whole number of 1 or more" }).int({ message: "a whole number of 1 or more" }).min(1, { message: "a whole number of 1 or more" });
+const voidRatio = finite.refine((v) => v > 0 && v < 1, { message: "a void ratio (porosity) greater than 0 and less than 1, e.g. 0.4" });
+
+/** A rectangular stone bed around pipes or chambers; `bottom` and `top` default to the pond's. */
+export const stoneSchema = z.object({
+  voidRatio,
+  length: positiveLength,
+  width: positiveLength,
+  bottom: lengthSchema.optional(),
+  top: lengthSchema.optional(),
+});
+
+/** Parallel pipes: inside diameter, length and count; `invert` (low end) defaults to pond.bottom. */
+export const pipeGallerySchema = z.object({
+  diameter: positiveLength,
+  length: positiveLength,
+  count: unitCount,
+  slope: nonNegative.refine((v) => v < 1, { message: "a slope in ft/ft or m/m of 0 or more and less than 1" }).optional(),
+  invert: lengthSchema.optional(),
+  stone: stoneSchema.optional(),
+});
+
+/** Identical chambers from one unit's [height above its base, plan area of water inside] rows. */
+export const chambersSchema = z.object({
+  count: unitCount,
+  stageArea: table("height", "area", { yNonNegative: true, yAnyOrder: true }),
+  base: lengthSchema.optional(),
+  stone: stoneSchema.optional(),
+});
+
 export const storageSchema = z
   .object({
     prismoid: z
@@ -81,8 +111,10 @@ export const storageSchema = z
       .optional(),
     stageArea: table("elevation", "area", { yNonNegative: true }).optional(),
     stageStorage: table("elevation", "volume", { yNonNegative: true }).optional(),
+    pipeGallery: pipeGallerySchema.optional(),
+    chambers: chambersSchema.optional(),
   })
-  .superRefine(exactlyOne(["prismoid", "stageArea", "stageStorage"], "storage"));
+  .superRefine(exactlyOne(["prismoid", "stageArea", "stageStorage", "pipeGallery", "chambers"], "storage"));
 
 export const pondSchema = z.object({
   bottom: lengthSchema,
@@ -382,6 +414,23 @@ export const catalogueSchema = z.object({
   elevationStep: positiveLength.optional(),
 });
 
+/** Site limits from which outfit sizes a pond (the pond field may then be left out). */
+export const siteSchema = z.object({
+  floor: lengthSchema,
+  maxDepth: positiveLength,
+  sideSlope: nonNegative.optional(),
+  lengthToWidth: positive.optional(),
+  maxTopLength: positiveLength.optional(),
+  maxTopWidth: positiveLength.optional(),
+  maxTopArea: positiveArea.optional(),
+  permanentPool: z
+    .object({ depth: positiveLength.optional(), volume: positive.optional() })
+    .superRefine(exactlyOne(["depth", "volume"], "permanent pool"))
+    .optional(),
+  shape: z.object({ stageArea: table("depth", "area", { yNonNegative: true }) }).optional(),
+  step: positive.optional(),
+});
+
 export const costsSchema = z.record(z.string(), nonNegative, { error: "an object of cost weights (numbers)" });
 
 /** Optional project facts for the review report's project block; all free text. */
@@ -402,7 +451,8 @@ export const projectSchema = z.object(
 export const caseSchema = z.object({
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
-  pond: pondSchema,
+  pond: pondSchema.optional(),
+  site: siteSchema.optional(),
   tailwater: tailwaterSchema.optional(),
   storms: z.array(stormSchema, { error: "a list of storms" }).min(1, { message: "at least one storm" }),
   criteria: criteriaSchema.optional(),
@@ -422,6 +472,9 @@ export type SpillwayFile = z.infer<typeof spillwaySchema>;
 export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type Length = z.infer<typeof lengthSchema>;
+export type StorageFile = z.infer<typeof storageSchema>;
+export type StoneFile = z.infer<typeof stoneSchema>;
+export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;

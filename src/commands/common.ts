@@ -15,6 +15,9 @@ export class UsageError extends Error {
 export function load(path: string): LoadedCase {
   const loaded = loadCase(path);
   for (const notice of loaded.notices) process.stderr.write(`outfit: note: ${notice}\n`);
+  if (loaded.case.sizing) {
+    process.stderr.write(`outfit: note: no pond given: using the pond sized from the site limits for the ${loaded.case.sizing.storm} storm's largest storage estimate (outfit pond shows it; design --size-pond sizes pond and outlet together)\n`);
+  }
   return loaded;
 }
 

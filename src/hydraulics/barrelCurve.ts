@@ -32,6 +32,8 @@ export interface BarrelCurve {
   headwater: Float64Array;
   /** Per interval [i, i+1]: 1 where HW - HW(0) is a power of Q, 0 where HW is linear in Q. */
   power: Uint8Array;
+  /** Per power interval its exponent (computed once: the chamber solve's hot path), 0 elsewhere. */
+  exponent: Float64Array;
   /** Nodes the running maximum raised above the exact headwater (by more than 1e-9 m). */
   heldNodes: number;
   /** The barrel (a copy of its values) and tailwater elevation (-Infinity: free outfall). */
@@ -112,7 +114,15 @@ function gridNodes(b: Barrel, tailwater: number): { flows: number[]; heads: numb
 /** HW at q on the segment (qa, ha)-(qb, hb): linear, or HW - base a power of Q. */
 function segmentHeadwater(qa: number, ha: number, qb: number, hb: number, base: number, power: boolean, q: number): number {
   if (!power) return ha + ((hb - ha) * (q - qa)) / (qb - qa);
-  const exponent = Math.log((hb - base) / (ha - base)) / Math.log(qb / qa);
+  return powerHeadwater(qa, ha, base, segmentExponent(qa, ha, qb, hb, base), q);
+}
+
+/** Exponent of a power segment: HW - base = (ha - base) (q / qa)^exponent through both nodes. */
+function segmentExponent(qa: number, ha: number, qb: number, hb: number, base: number): number {
+  return Math.log((hb - base) / (ha - base)) / Math.log(qb / qa);
+}
+
+function powerHeadwater(qa: number, ha: number, base: number, exponent: number, q: number): number {
   return base + (ha - base) * Math.exp(exponent * Math.log(q / qa));
 }
 
@@ -233,10 +243,15 @@ export function buildBarrelCurve(b: Barrel, tailwater: number): BarrelCurve {
     outFlows.push(flows[i]);
     outHeads.push(heads[i]);
   }
+  const exponent = new Float64Array(power.length);
+  for (let i = 0; i < power.length; i++) {
+    if (power[i] === 1) exponent[i] = segmentExponent(outFlows[i], outHeads[i], outFlows[i + 1], outHeads[i + 1], base);
+  }
   return {
     flow: Float64Array.from(outFlows),
     headwater: Float64Array.from(outHeads),
     power: Uint8Array.from(power),
+    exponent,
     heldNodes: held,
     barrel: { ...b },
     tailwater,
@@ -263,7 +278,8 @@ export function curveHeadwater(c: BarrelCurve, flow: number): number {
   if (!(flow > 0)) return h[0];
   if (flow >= q[n - 1]) return Math.max(barrelHeadwater(c.barrel, flow, c.tailwater), h[n - 1]);
   const i = intervalOf(q, flow);
-  return segmentHeadwater(q[i], h[i], q[i + 1], h[i + 1], h[0], c.power[i] === 1, flow);
+  if (c.power[i] !== 1) return h[i] + ((h[i + 1] - h[i]) * (flow - q[i])) / (q[i + 1] - q[i]);
+  return powerHeadwater(q[i], h[i], h[0], c.exponent[i], flow);
 }
 
 /**
@@ -278,9 +294,7 @@ export function curveFlow(c: BarrelCurve, head: number): number {
   if (head >= h[n - 1]) return Math.max(exactBarrelFlow(c.barrel, c.barrel.inletInvert + head, c.tailwater), q[n - 1]);
   const i = intervalOf(h, head);
   if (c.power[i] !== 1) return q[i] + ((q[i + 1] - q[i]) * (head - h[i])) / (h[i + 1] - h[i]);
-  const base = h[0];
-  const exponent = Math.log((h[i + 1] - base) / (h[i] - base)) / Math.log(q[i + 1] / q[i]);
-  return q[i] * Math.exp(Math.log((head - base) / (h[i] - base)) / exponent);
+  return q[i] * Math.exp(Math.log((head - h[0]) / (h[i] - h[0])) / c.exponent[i]);
 }
 
 /** Curves kept by the barrel's values and tailwater (the search builds a new barrel object per candidate). */

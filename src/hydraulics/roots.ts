@@ -68,3 +68,62 @@ export function brentRoot(f: (x: number) => number, a: number, b: number, fa: nu
   }
   return b;
 }
+
+/** A root search's state carried from one stage of a rating to the next (see `warmRoot`). */
+export interface WarmStart {
+  /** The previous stage's root, or NaN when there is none. */
+  root: number;
+  /** The slope of the previous stage's function near its root, or NaN. */
+  slope: number;
+}
+
+/**
+ * The root of a falling f in [low, high] (f(low) >= 0 >= f(high) = fHigh), started from `guess`
+ * (e.g. the previous stage's root extrapolated) with the previous stage's slope (fHigh may be NaN:
+ * not yet evaluated, then f(high) is only evaluated when needed): a Newton step on
+ * that slope, then secant steps, each kept inside the bracket the evaluations have narrowed (a step
+ * that leaves it bisects instead). Accepted when a step is within `tolerance` of the root's
+ * estimate; after six steps, Brent's method on the bracket. On a smooth rating the guess is close
+ * and two evaluations suffice. `state.slope` is updated for the next stage.
+ */
+export function warmRoot(f: (x: number) => number, low: number, high: number, fHigh: number, guess: number, state: WarmStart, tolerance: number): number {
+  let a = low;
+  let fa = NaN;
+  let b = high;
+  let fb = fHigh;
+  let x = guess > low && guess < high ? guess : 0.5 * (low + high);
+  let fx = f(x);
+  if (!(state.slope < 0) && Number.isNaN(fb)) fb = f(b);
+  let slope = state.slope < 0 ? state.slope : (fb - fx) / (b - x) || -1;
+  for (let step = 0; step < 6; step++) {
+    if (fx === 0) return x;
+    if (fx > 0) {
+      a = x;
+      fa = fx;
+    } else {
+      b = x;
+      fb = fx;
+    }
+    let next = x - fx / slope;
+    if (!(next > a && next < b)) next = 0.5 * (a + b);
+    if (Math.abs(next - x) <= tolerance) {
+      state.slope = slope;
+      return next;
+    }
+    const fNext = f(next);
+    const secant = (fNext - fx) / (next - x);
+    if (secant < 0) slope = secant;
+    x = next;
+    fx = fNext;
+  }
+  state.slope = slope;
+  if (Number.isNaN(fb)) {
+    fb = f(b);
+    if (fb >= 0) return b;
+  }
+  if (Number.isNaN(fa)) {
+    fa = f(a);
+    if (fa <= 0) return a;
+  }
+  return brentRoot(f, a, b, fa, fb, tolerance);
+}

@@ -1,8 +1,8 @@
 // The outlet's rating on a stage grid, with the pond's storage at the same stages: the table that
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../case/model.js";
-import { storageCurve } from "../storage/curve.js";
-import { outletDischarge } from "../hydraulics/outlet.js";
+import { storageBreaks, storageCurve } from "../storage/curve.js";
+import { rateOutlet } from "../hydraulics/outletRating.js";
 import { openingHeight } from "../hydraulics/orifice.js";
 
 export interface RatingTable {
@@ -55,8 +55,7 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
   const tolerance = h * 1e-6;
   const inside = (z: number) => z > pond.bottom + tolerance && z < points[n] - tolerance;
   for (const b of breaks) if (inside(b)) points.push(b);
-  const s = pond.storage;
-  if (s.kind !== "prismoid") for (const z of s.elevations) if (inside(z)) points.push(z);
+  for (const z of storageBreaks(pond)) if (inside(z)) points.push(z);
   const gradedSpan = (h * GRADING_RATIO) / (GRADING_RATIO - 1);
   for (const b of onsets) {
     if (!(b > pond.bottom - tolerance && b < points[n])) continue;
@@ -102,6 +101,9 @@ export interface RatingOptions {
   step?: number;
   /** A precomputed grid (the search reuses one grid for every candidate). */
   grid?: StageGrid;
+  /** Every stage by the direct evaluation (`outletDischarge`) instead of the sweep with its tables
+   * and warm starts (outletRating.ts): the reference for tests and the bench's "before". */
+  direct?: boolean;
 }
 
 /** Rates an outlet on the pond's stage grid. */
@@ -109,9 +111,10 @@ export function buildRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, op
   const grid = options.grid ?? stageGrid(pond, ratingBreaks(pond, outlet), options.step, ratingOnsets(outlet, tail));
   const n = grid.stage.length;
   const outflow = new Float64Array(n);
+  rateOutlet(outlet, tail, grid.stage, outflow, options.direct === true);
   let held = 0;
   for (let i = 0; i < n; i++) {
-    const q = outletDischarge(outlet, tail, grid.stage[i]);
+    const q = outflow[i];
     if (i > 0 && q < outflow[i - 1]) {
       if (outflow[i - 1] - q > 1e-9 * (1 + outflow[i - 1])) held++;
       outflow[i] = outflow[i - 1];

@@ -21,6 +21,8 @@ export interface RouteCaseOptions {
   gridStep?: number;
   grid?: StageGrid;
   record?: boolean;
+  /** Rate by the direct evaluation at every stage (see RatingOptions.direct). */
+  direct?: boolean;
 }
 
 export function drainedStage(c: Case): number {
@@ -28,7 +30,7 @@ export function drainedStage(c: Case): number {
 }
 
 export function routeCase(c: Case, outlet: Outlet, options: RouteCaseOptions = {}): CaseRouting {
-  const table = buildRatingTable(c.pond, outlet, c.tailwater, { step: options.gridStep, grid: options.grid });
+  const table = buildRatingTable(c.pond, outlet, c.tailwater, { step: options.gridStep, grid: options.grid, direct: options.direct });
   return routeTable(c, outlet, table, options);
 }
 

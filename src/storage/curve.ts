@@ -3,6 +3,7 @@ import type { Pond } from "../case/model.js";
 import { prismoidArea, prismoidVolume } from "./prismoid.js";
 import { stageAreaArea, stageAreaVolume } from "./stageArea.js";
 import { stageStorageArea, stageStorageVolume } from "./stageStorage.js";
+import { undergroundArea, undergroundBreaks, undergroundVolume } from "./underground.js";
 
 export interface StorageCurve {
   /** m3 above pond.bottom at a stage (m). */
@@ -34,5 +35,26 @@ export function storageCurve(pond: Pond): StorageCurve {
         area: (stage) => stageStorageArea(s.elevations, s.volumes, stage),
       };
     }
+    case "underground": {
+      const base = undergroundVolume(s, bottom);
+      return {
+        volume: (stage) => (stage <= bottom ? 0 : undergroundVolume(s, stage) - base),
+        area: (stage) => undergroundArea(s, stage),
+      };
+    }
+  }
+}
+
+/** Elevations where the storage relation has a kink (table rows, inverts and crowns, a bed's base and top). */
+export function storageBreaks(pond: Pond): number[] {
+  const s = pond.storage;
+  switch (s.kind) {
+    case "prismoid":
+      return [];
+    case "stageArea":
+    case "stageStorage":
+      return s.elevations;
+    case "underground":
+      return undergroundBreaks(s);
   }
 }

@@ -74,7 +74,7 @@ describe("terminal width", () => {
 });
 
 describe("help", () => {
-  it.each(["route", "rate", "design", "report", "hydrograph", "starter"])("`%s --help` lists its exit codes and prints its defaults as numbers", (command) => {
+  it.each(["route", "rate", "design", "report", "hydrograph", "starter", "volume", "pond"])("`%s --help` lists its exit codes and prints its defaults as numbers", (command) => {
     const run = outfitAt(100, command, "--help");
     expect(run.status).toBe(0);
     expect(run.stdout).toMatch(/Exit codes: 0 (done|written)/);

@@ -36,6 +36,13 @@ function storageText(c: Case, f: Formatter): string {
       return `stage-area table, ${s.elevations.length} rows (conic between rows)`;
     case "stageStorage":
       return `stage-storage table, ${s.elevations.length} rows (linear between rows)`;
+    case "underground": {
+      const u = s.units;
+      const units = u.kind === "pipeGallery"
+        ? `${u.gallery.count} pipes of ${f.length(u.gallery.diameter, 2)} diameter, ${f.length(u.gallery.length, 1)} long, slope ${trimNumber(u.gallery.slope, 4)}`
+        : `${u.chambers.count} chambers (stage-area table of ${u.chambers.heights.length} rows per unit)`;
+      return s.stone ? `${units}, in a stone bed ${f.length(s.stone.length, 1)} x ${f.length(s.stone.width, 1)}, void ratio ${trimNumber(s.stone.voidRatio, 3)}` : units;
+    }
   }
 }
 

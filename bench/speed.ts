@@ -1,0 +1,105 @@
+// The rating sweep against the direct evaluation, in the same run: for every bundled case the search
+// with the sweep's tables and warm starts ("after") and with every stage evaluated directly
+// ("before", `referencePath`), each given the same budget, alternated and repeated (the fastest
+// repetition counts: the least disturbed on a shared machine). Printed: routings per second, time
+// and routings to the first compliant design (by the wall clock, and the processor time until the
+// layout that gave it was fitted); for a case with a barrel or a tailwater rating also
+// the same pond without them (no barrel, free outfall), the yardstick of the barrel's cost.
+import { readdirSync, existsSync } from "node:fs";
+import { join } from "node:path";
+import { loadCase } from "../src/case/load.js";
+import type { Case } from "../src/case/model.js";
+import type { CaseFile } from "../src/case/schema.js";
+import { buildProblem } from "../search/problem.js";
+import { runSearch } from "../search/run.js";
+import type { BenchSection } from "./section.js";
+
+/** Routings per search here: enough for the first compliant design on every bundled case. */
+const SPEED_BUDGET = 4000;
+const REPEATS = 2;
+
+interface Figures {
+  perSecond: number;
+  firstSeconds: number | null;
+  /** Processor seconds until the layout that gave the first compliant design was fitted. */
+  firstProcessorSeconds: number | null;
+  firstRoutings: number | null;
+}
+
+/** One search; routings per second of this process's processor time (on a loaded machine the wall
+ * clock also counts other work's turns), the time to the first compliant design by the wall clock. */
+function search(c: Case, file: CaseFile, direct: boolean): Figures {
+  const cpu = process.cpuUsage();
+  const processorSeconds = () => {
+    const used = process.cpuUsage(cpu);
+    return (used.user + used.system) / 1e6;
+  };
+  let firstProcessorSeconds: number | null = null;
+  const onLayout = (_entry: unknown, progress: { compliant: number }) => {
+    if (firstProcessorSeconds === null && progress.compliant > 0) firstProcessorSeconds = processorSeconds();
+  };
+  const run = runSearch(buildProblem(c, file, { referencePath: direct }), { seed: "bench", budget: SPEED_BUDGET, top: 1, starts: 3, beam: 3, onLayout });
+  const seconds = processorSeconds();
+  return { perSecond: run.routings / seconds, firstSeconds: run.secondsToFirstCompliant, firstProcessorSeconds, firstRoutings: run.routingsToFirstCompliant };
+}
+
+/** The fastest of the repetitions (the same routings each time: the search is deterministic). */
+function fastest(runs: Figures[]): Figures {
+  const best = runs.reduce((a, b) => (b.perSecond > a.perSecond ? b : a));
+  const least = (pick: (f: Figures) => number | null) => runs.reduce<number | null>((m, f) => (pick(f) === null ? m : m === null ? pick(f) : Math.min(m, pick(f)!)), null);
+  return { ...best, firstSeconds: least((f) => f.firstSeconds), firstProcessorSeconds: least((f) => f.firstProcessorSeconds) };
+}
+
+/** The case without its barrel and with a free outfall. */
+function withoutBarrel(c: Case, file: CaseFile): { c: Case; file: CaseFile } {
+  const outlet = { ...c.outlet! };
+  delete outlet.barrel;
+  const fileOutlet = { ...file.outlet };
+  delete fileOutlet.barrel;
+  const plainFile = { ...file, outlet: fileOutlet };
+  delete plainFile.tailwater;
+  return { c: { ...c, outlet, tailwater: { kind: "free" } }, file: plainFile };
+}
+
+function run(): void {
+  const casesDir = join(process.cwd(), "cases");
+  const rows: string[][] = [];
+  for (const name of readdirSync(casesDir).sort()) {
+    const path = join(casesDir, name, "case.json");
+    if (!existsSync(path)) continue;
+    const loaded = loadCase(path);
+    if (!loaded.data.catalogue) continue;
+    const before: Figures[] = [];
+    const after: Figures[] = [];
+    for (let r = 0; r < REPEATS; r++) {
+      before.push(search(loaded.case, loaded.data, true));
+      after.push(search(loaded.case, loaded.data, false));
+    }
+    const b = fastest(before);
+    const a = fastest(after);
+    const special = loaded.case.outlet?.barrel !== undefined || loaded.case.tailwater.kind === "rating";
+    let plain = "";
+    if (special) {
+      const bare = withoutBarrel(loaded.case, loaded.data);
+      const p = fastest(Array.from({ length: REPEATS }, () => search(bare.c, bare.file, false)));
+      plain = `${Math.round(p.perSecond)} (after/plain ${(a.perSecond / p.perSecond).toFixed(2)})`;
+    }
+    const first = (f: Figures) => (f.firstSeconds === null ? "none" : `${f.firstSeconds.toFixed(3)} s (${f.firstProcessorSeconds?.toFixed(3)} s) / ${f.firstRoutings}`);
+    rows.push([
+      name + (loaded.case.outlet?.barrel ? " (barrel)" : "") + (loaded.case.tailwater.kind === "rating" ? " (tailwater rating)" : ""),
+      String(Math.round(b.perSecond)),
+      String(Math.round(a.perSecond)),
+      `${(a.perSecond / b.perSecond).toFixed(2)} x`,
+      first(b),
+      first(a),
+      plain || "-",
+    ]);
+  }
+  const header = ["case", "routings per processor second, before", "after", "speed-up", "first compliant before: wall time (processor time) / routings", "after", "same pond, no barrel, free outfall: routings/s"];
+  console.log(`\nRating sweep against the direct evaluation (budget ${SPEED_BUDGET} routings per search, fastest of ${REPEATS} alternated repetitions)`);
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((l) => l[i].length)));
+  console.log(header.map((h, i) => h.padEnd(widths[i])).join("  "));
+  for (const l of rows) console.log(l.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join("  "));
+}
+
+export const speedSection: BenchSection = { name: "speed", run };

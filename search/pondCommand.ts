@@ -1,0 +1,40 @@
+// `outfit design --size-pond`: pond and outlet designed together, written whole.
+import { existsSync, mkdirSync, statSync } from "node:fs";
+import { join } from "node:path";
+import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
+import { writeFileAtomic } from "../src/io.js";
+import { designPondAndOutlet } from "./pondDesign.js";
+import { pondDesignCase, pondDesignJson, pondDesignText } from "./pondReport.js";
+import type { DesignCommandOptions } from "./command.js";
+
+/** File name of the proposal in --out. */
+export const POND_DESIGN_CASE = "pond-and-outlet.json";
+
+export function pondDesignCommand(path: string, options: DesignCommandOptions): number {
+  if (options.resume) throw new UsageError("--resume", "with --size-pond", "--resume only for an outlet search (without --size-pond)");
+  const loaded = load(path);
+  const c = loaded.case;
+  if (options.out && existsSync(options.out) && !statSync(options.out).isDirectory()) {
+    throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
+  }
+  const margin = positiveNumber("--margin", options.margin);
+  const design = designPondAndOutlet(loaded, margin === undefined ? undefined : margin / 100, {
+    seed: options.seed ?? "outfit",
+    budget: Math.round(positiveNumber("--budget", options.budget) ?? 20000),
+    timeLimit: positiveNumber("--time", options.time),
+    top: Math.round(positiveNumber("--top", options.top) ?? 5),
+    starts: Math.round(positiveNumber("--starts", options.starts) ?? 3),
+    beam: Math.round(positiveNumber("--beam", options.beam) ?? 3),
+  });
+  const json = pondDesignJson(c, design);
+  const text = pondDesignText(c, design);
+  if (options.out) {
+    mkdirSync(options.out, { recursive: true });
+    if (design.chosen) writeFileAtomic(join(options.out, POND_DESIGN_CASE), JSON.stringify(pondDesignCase(design, options.out), null, 2) + "\n");
+    writeFileAtomic(join(options.out, "results.json"), JSON.stringify(json, null, 2) + "\n");
+    writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
+    process.stderr.write(`outfit: wrote ${options.out}/results.json, summary.txt${design.chosen ? ` and ${POND_DESIGN_CASE}` : ""}\n`);
+  }
+  emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
+  return 0;
+}

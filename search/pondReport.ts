@@ -1,0 +1,105 @@
+// Output of `design --size-pond`: the sizes tried, the chosen pond and outlet, and the size one step
+// smaller that failed; as text and JSON, and the case file of the proposal.
+import { formatter, trimNumber } from "../src/format.js";
+import { toCaseUnits } from "../src/units.js";
+import { plainTable, stormTable, checksTable, verdictText } from "../src/report/console.js";
+import { routeJson } from "../src/report/json.js";
+import { CAUTION } from "../src/report/caution.js";
+import { pondFile } from "../src/report/pondFile.js";
+import { shortfallLines } from "../src/report/shortfall.js";
+import { storageShortfall } from "../src/storage/shortfall.js";
+import type { Case } from "../src/case/model.js";
+import type { SizedPond } from "../src/storage/sizing.js";
+import { candidateCase } from "./report.js";
+import { pondCost, pondCostWeights } from "./pondCost.js";
+import type { PondDesign, SizeTrial } from "./pondDesign.js";
+
+function sizeWords(c: Case, p: SizedPond): string {
+  const f = formatter(c.units);
+  const s = p.pond.storage;
+  return s.kind === "prismoid" ? `${f.length(s.length, 1)} x ${f.length(s.width, 1)} floor` : `shape x ${trimNumber(p.size, 3)}`;
+}
+
+function outcome(t: SizeTrial): string {
+  if (t.best) return t.how === "routed again" ? "compliant (outlet of the size above, routed again)" : "compliant outlet found";
+  return "no compliant outlet";
+}
+
+export function pondDesignText(c: Case, d: PondDesign): string {
+  const f = formatter(c.units);
+  const w = pondCostWeights(c);
+  const table = plainTable(["Steps", "Pond", "Storage below freeboard level", "Footprint", "Excavation", "Pond cost", "Outlet", "Result"], [true, false, true, true, true, true, true, false]);
+  for (const t of [...d.trials].sort((a, b) => a.steps - b.steps)) {
+    table.push([
+      String(t.steps),
+      sizeWords(c, t.sized),
+      f.volume(t.sized.provided),
+      `${Math.round(f.raw.area(t.sized.topArea)).toLocaleString("en-US")} ${f.labels.length}2`,
+      f.volume(t.sized.excavation),
+      `${pondCost(t.sized, w).toFixed(1)} units`,
+      t.best ? `${t.best.cost.toFixed(1)} units` : "-",
+      outcome(t) + (t === d.chosen ? "  <- chosen" : ""),
+    ]);
+  }
+  const lines = [`outfit design --size-pond: ${c.name} (${c.units} units)`, "", "Pond sizes tried (from the storage estimate, grown until an outlet complies, then trimmed):", table.toString(), ""];
+  if (d.chosen) {
+    const best = d.chosen.best!;
+    lines.push(
+      `Chosen: the smallest compliant pond found: ${sizeWords(c, d.chosen.sized)}, bottom ${f.elevation(d.chosen.sized.pond.bottom)}, top ${f.elevation(d.chosen.sized.pond.top)}; total cost proxy ${d.chosen.totalCost!.toFixed(1)} units (outlet ${best.cost.toFixed(1)} + pond ${pondCost(d.chosen.sized, w).toFixed(1)}).`,
+      d.smaller ? `One step smaller (${sizeWords(c, d.smaller.sized)}): no compliant outlet was found${d.smaller.run ? ` (${d.smaller.run.layoutsFitted} layouts fitted, ${d.smaller.run.routings} routings)` : ""}.` : "The smallest size step is compliant.",
+      "",
+      `Outlet: ${best.description}`,
+      "",
+      stormTable(d.chosen.problem.case, best.routing),
+      "",
+      checksTable(d.chosen.problem.case, best.assessment.checks),
+      "",
+      verdictText(best.assessment),
+    );
+  } else {
+    lines.push(`No compliant pond and outlet: ${d.stoppedBecause}.`);
+    const last = [...d.trials].sort((a, b) => b.steps - a.steps)[0];
+    const closest = last?.run?.candidates[0];
+    if (last) {
+      const stage = closest?.routing.storms.find((s) => s.storm.name === c.criteria.freeboardStorm)?.result.maxStage ?? null;
+      lines.push(...shortfallLines(last.problem.case, storageShortfall(last.problem.case, stage)));
+    }
+  }
+  lines.push("", `Caution: ${CAUTION}`);
+  return lines.join("\n");
+}
+
+export function pondDesignJson(c: Case, d: PondDesign) {
+  const u = toCaseUnits(c.units);
+  const w = pondCostWeights(c);
+  const trial = (t: SizeTrial) => ({
+    steps: t.steps,
+    pond: pondFile(t.sized.pond, c.units),
+    provided: u.volume(t.sized.provided),
+    footprint: u.area(t.sized.topArea),
+    excavation: u.volume(t.sized.excavation),
+    pondCost: pondCost(t.sized, w),
+    how: t.how,
+    compliant: t.best !== null,
+    outlet: t.best ? t.best.file : null,
+    outletCost: t.best ? t.best.cost : null,
+    totalCost: t.totalCost,
+  });
+  return {
+    tool: "outfit",
+    command: "design --size-pond",
+    case: c.name,
+    units: c.units,
+    caution: CAUTION,
+    stoppedBecause: d.stoppedBecause,
+    sizes: d.trials.map(trial),
+    chosen: d.chosen ? { ...trial(d.chosen), routing: routeJson(d.chosen.problem.case, d.chosen.best!.routing, d.chosen.best!.assessment) } : null,
+    smaller: d.smaller ? trial(d.smaller) : null,
+  };
+}
+
+/** The case file of the proposal: the chosen pond and outlet, ready to route. */
+export function pondDesignCase(d: PondDesign, outDir: string): unknown {
+  const t = d.chosen!;
+  return candidateCase(t.problem, t.json, t.best!, outDir);
+}

@@ -1,0 +1,51 @@
+// `outfit volume`: how much storage each storm needs before any outlet exists, by several methods.
+import { readFileSync } from "node:fs";
+import { basename } from "node:path";
+import { caseSchema, type CaseFile } from "../case/schema.js";
+import { Converter } from "../case/normalize.js";
+import type { Case } from "../case/model.js";
+import { caseHydrology } from "../case/hydrology.js";
+import { DISTRIBUTION_TYPES, type DistributionType } from "../hydrology/distributions.js";
+import { tr55Group, type Tr55Group } from "../storage/estimate.js";
+import { estimateStorm, type StormEstimate } from "../storage/stormEstimates.js";
+import { volumeJson, volumeText } from "../report/volume.js";
+import { emit, load, UsageError } from "./common.js";
+import { baseLength } from "../units.js";
+
+export interface VolumeCommandOptions {
+  type?: string;
+  json?: boolean;
+  out?: string;
+}
+
+/** The TR-55 group of `--type`, if given. */
+export function typeOption(text: string | undefined): Tr55Group | null {
+  if (text === undefined) return null;
+  if (!(DISTRIBUTION_TYPES as readonly string[]).includes(text)) throw new UsageError("--type", text, `an NRCS storm type: ${DISTRIBUTION_TYPES.join(", ")}`);
+  return tr55Group(text as DistributionType);
+}
+
+/** Every storm's estimates; a storm's own rainfall distribution wins over `--type`. */
+export function caseEstimates(path: string, c: Case, type: Tr55Group | null): StormEstimate[] {
+  // The case is valid now; read its file once more for the hydrology behind each storm.
+  const file: CaseFile = caseSchema.parse(JSON.parse(readFileSync(path, "utf8")));
+  const hydrology = caseHydrology(file, new Converter(file.units, basename(path)));
+  return c.storms.map((storm, i) => {
+    const h = hydrology.storms[i];
+    const group = h?.rainfall.kind === "distribution" ? tr55Group(h.rainfall.distribution) : type;
+    return estimateStorm(c, storm, { group, rational: h?.method === "rational" ? h.sweep : null });
+  });
+}
+
+/** Where a pond sized from the site comes from. */
+function sizedPondNote(c: Case): string {
+  return `none given; sized from the site limits for the ${c.sizing!.storm} storm's largest estimate (see outfit pond), bottom ${(c.pond.bottom / baseLength(c.units)).toFixed(2)}, top ${(c.pond.top / baseLength(c.units)).toFixed(2)} ${c.units === "US" ? "ft" : "m"}`;
+}
+
+export function volumeCommand(path: string, options: VolumeCommandOptions): number {
+  const type = typeOption(options.type);
+  const { case: c } = load(path);
+  const estimates = caseEstimates(path, c, type);
+  emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null), options.out);
+  return 0;
+}

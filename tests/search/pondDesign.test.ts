@@ -1,0 +1,95 @@
+// Pond and outlet designed together (`design --size-pond`) on an invented site with no pond, checked
+// by `route` on the written case file; and storage shortfalls stated in volumes with units.
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { outfit } from "../cli/run.js";
+
+const dir = mkdtempSync(join(tmpdir(), "outfit-pond-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe("design --size-pond on cases/site-only (no pond given)", () => {
+  let results: any;
+  beforeAll(() => {
+    const run = outfit("design", "cases/site-only/case.json", "--size-pond", "--budget", "3000", "--out", dir, "--json");
+    expect(run.status).toBe(0);
+    results = JSON.parse(run.stdout);
+  });
+
+  it("proposes a pond and an outlet that `route` confirms: every storm within tolerance, every check passed", () => {
+    expect(results.chosen.compliant).toBe(true);
+    const run = outfit("route", join(dir, "pond-and-outlet.json"), "--json", "--check");
+    expect(run.status).toBe(0);
+    const routed = JSON.parse(run.stdout);
+    expect(routed.compliant).toBe(true);
+    for (const storm of routed.storms) expect(storm.withinTolerance, storm.name).toBe(true);
+    // The written pond is the chosen one (floor twice as long as wide on 1 ft steps, the site's depth).
+    const written = JSON.parse(readFileSync(join(dir, "pond-and-outlet.json"), "utf8"));
+    expect(written.pond).toEqual(results.chosen.pond);
+    expect(written.pond.top - written.pond.bottom).toBe(4);
+    expect(written.pond.storage.prismoid.length).toBe(2 * written.pond.storage.prismoid.width);
+  });
+
+  it("is no larger than needed: one step smaller, the search finds no compliant outlet and the proposed outlet fails a check", () => {
+    expect(results.smaller.steps).toBe(results.chosen.steps - 1);
+    expect(results.smaller.compliant).toBe(false);
+    const written = JSON.parse(readFileSync(join(dir, "pond-and-outlet.json"), "utf8"));
+    written.pond = results.smaller.pond;
+    const file = join(dir, "one-step-smaller.json");
+    writeFileSync(file, JSON.stringify(written));
+    const run = outfit("route", file, "--json", "--check");
+    expect(run.status).toBe(1);
+    const routed = JSON.parse(run.stdout);
+    expect(routed.compliant).toBe(false);
+    expect(routed.checks.some((c: { passed: boolean }) => !c.passed)).toBe(true);
+  });
+
+  it("the storage estimate seeds the size, and every size tried is costed with its excavation and footprint", () => {
+    const pond = outfit("pond", "cases/site-only/case.json", "--json");
+    const seeded = JSON.parse(pond.stdout).pond.storage.prismoid.width;
+    expect(results.sizes[0].pond.storage.prismoid.width).toBe(seeded);
+    for (const s of results.sizes) {
+      // Default weights 0.001 per ft3 excavated and 0.002 per ft2 of footprint (search/pondCost.ts).
+      expect(s.pondCost).toBeCloseTo(0.001 * s.excavation + 0.002 * s.footprint, 9);
+    }
+    expect(results.chosen.totalCost).toBeCloseTo(results.chosen.outletCost + results.chosen.pondCost, 9);
+  });
+});
+
+describe("infeasible for lack of storage: the shortfall in volume, with units", () => {
+  it("design on cases/infeasible states the storage shortfall (hand: prismoid 70 x 35, 3:1, to the freeboard level 3 ft up holds 10,509 ft3)", () => {
+    // 7350 + 2835 + 324 = 10,509 ft3. The 2-yr inflow above its 0.150 cfs target, by the trapezoid
+    // rule on a 0.01-minute grid of the inflow series (linear between points):
+    const c = JSON.parse(readFileSync("cases/infeasible/case.json", "utf8"));
+    const series: [number, number][] = c.storms.find((s: { name: string }) => s.name === "2-yr").inflow.series;
+    let above = 0;
+    for (let i = 1; i < series.length; i++) {
+      const [t0, q0] = series[i - 1];
+      const [t1, q1] = series[i];
+      for (let k = 0; k < (t1 - t0) * 100; k++) {
+        const qa = q0 + ((q1 - q0) * k) / ((t1 - t0) * 100);
+        const qb = q0 + ((q1 - q0) * (k + 1)) / ((t1 - t0) * 100);
+        above += 0.5 * (Math.max(0, qa - 0.15) + Math.max(0, qb - 0.15)) * 0.6;
+      }
+    }
+    const run = outfit("design", "cases/infeasible/case.json", "--budget", "2000");
+    expect(run.status).toBe(0);
+    expect(run.stdout).toContain("the pond holds 10,509 ft3 between the floor and the freeboard level");
+    const m = /at least ([\d,]+) ft3 more storage is needed/.exec(run.stdout);
+    expect(m).not.toBeNull();
+    expect(Math.abs(Number(m![1].replace(/,/g, "")) - (above - 10509))).toBeLessThanOrEqual(2);
+  });
+
+  it("design --size-pond within site limits too small says how much storage is missing", () => {
+    const c = JSON.parse(readFileSync("cases/site-only/case.json", "utf8"));
+    c.site.maxTopLength = 50;
+    c.site.maxTopWidth = 36;
+    const file = join(dir, "tight.json");
+    writeFileSync(file, JSON.stringify(c));
+    const run = outfit("design", file, "--size-pond", "--budget", "1500");
+    expect(run.status).toBe(0);
+    expect(run.stdout).toContain("No compliant pond and outlet: no compliant outlet up to the largest pond within the site limits");
+    expect(run.stdout).toMatch(/Add about [\d,]+ ft3 of storage below the freeboard level/);
+  });
+});
