@@ -17,6 +17,7 @@ import { InlineFitter, WorkerFitter, type LayoutFitter } from "./pool.js";
 export const EXIT_INTERRUPTED = 3;
 /** Exit code of `--check` when no compliant design was found. */
 export const EXIT_NOT_COMPLIANT = 1;
+import { layoutFor } from "../src/report/terminal.js";
 import { pondDesignCommand } from "./pondCommand.js";
 
 export interface DesignCommandOptions {
@@ -37,6 +38,7 @@ export interface DesignCommandOptions {
   check?: boolean;
   /** `outfit gather`: output directories of shards whose journals are replayed. */
   gather?: string[];
+  wide?: boolean;
   sizePond?: boolean;
   vary?: string;
   keepRiser?: boolean;
@@ -181,7 +183,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
     writeFileAtomic(join(options.out, "results.json"), JSON.stringify(json, null, 2) + "\n");
     writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
   }
-  emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);
+  emit(options.json ? JSON.stringify(json, null, 2) : designText(problem, run, top, layoutFor({ wide: options.wide })), undefined);
   if (options.out && !options.quiet) printErr(`outfit: wrote ${options.out}/results.json, summary.txt and ${json.candidates.length} candidate case files\n`);
   if (run.interrupted) return EXIT_INTERRUPTED;
   return options.check && !run.success ? EXIT_NOT_COMPLIANT : 0;

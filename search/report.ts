@@ -5,7 +5,8 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { plainTable, percent, checkValue } from "../src/report/console.js";
+import { percent, checkValue } from "../src/report/console.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
 import { baselineVerdict, describeSaving, saving, type Baseline } from "./baseline.js";
@@ -105,92 +106,95 @@ export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, out
   return copy;
 }
 
-export function designText(p: SearchProblem, run: SearchRun, top: number): string {
+export function designText(p: SearchProblem, run: SearchRun, top: number, layout: Layout = PLAIN): string {
   const f = formatter(p.case.units);
-  const lines: string[] = [`outfit design: ${p.case.name} (${p.case.units} units)`, ""];
+  const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
+  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ""];
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;
-  const table = plainTable(
-    ["#", "Outlet", ...stormNames.map((n) => `${n} out/target`), `Max stage (${freeboardStorm})`, "Freeboard left", "Cost", ...(run.baseline ? ["Saving"] : []), "Binding check", "Status"],
-    [true, false, ...stormNames.map(() => true), true, true, true, ...(run.baseline ? [true] : []), false, false],
-  );
   const baseline = run.baseline;
-  const row = (c: RoutedOutlet, label: string, pareto: boolean) => {
+  const columns: Column[] = [
+    { head: "#", align: "right" },
+    { head: "Outlet", narrow: "detail" },
+    ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right" })),
+    { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
+    { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
+    { head: "Cost\n(units)", align: "right" },
+    ...(baseline ? [{ head: "Saving\n(units, %)", align: "right" } as Column] : []),
+    { head: "Binding check", narrow: "detail" },
+    { head: "Status" },
+  ];
+  const row = (c: RoutedOutlet, label: string, pareto: boolean, variantOf: number | null): Row => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
-    const status = (c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant") + ("variantOf" in c && c.variantOf !== null ? `, variant of #${c.variantOf}` : "");
-    table.push([
+    const status = (c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant") + (variantOf !== null ? `, variant of #${variantOf}` : "");
+    return [
       label,
-      wrap(c.description, 58),
+      wrapParts(c.description, 58),
       ...stormNames.map((n) => {
         const s = storms.get(n)!;
-        return percent(s.result.peakOutflow / s.storm.target!);
+        return (100 * s.result.peakOutflow / s.storm.target!).toFixed(1);
       }),
-      fb ? f.elevation(fb.result.maxStage) : "-",
-      fb ? f.length(p.case.pond.top - fb.result.maxStage) : "-",
-      `${c.cost.toFixed(1)} units${pareto ? " *" : ""}`,
+      fb ? f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3) : "-",
+      fb ? f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2) : "-",
+      `${c.cost.toFixed(1)}${pareto ? " *" : ""}`,
       ...(baseline ? [label === "0" ? "-" : savingCell(saving(baseline, c))] : []),
       c.assessment.binding ? `${c.assessment.binding.name} (${percent(c.assessment.binding.slack)})` : "-",
-      status,
-    ]);
+      { text: status, tone: c.assessment.compliant ? "pass" : "fail" },
+    ];
   };
-  if (baseline) row(baseline, "0", false);
-  shown.forEach((c, i) => row(c, String(i + 1), c.pareto));
-  if (shown.length > 0 || baseline) {
-    const heading = run.success ? [] : ["No compliant design was found; the closest candidates, with the checks they fail:", ""];
-    lines.push(...heading, table.toString(), "", "* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.");
+  const rows: Row[] = [...(baseline ? [row(baseline, "0", false, null)] : []), ...shown.map((c, i) => row(c, String(i + 1), c.pareto, c.variantOf))];
+  if (rows.length > 0) {
+    if (!run.success && shown.length > 0) lines.push(w("No compliant design was found; the closest candidates, with the checks they fail:"), "");
+    lines.push(renderTable(layout, columns, rows).text, "", w("* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.", 2));
   }
-  if (shown.length === 0) lines.push("No candidate kept every geometric rule; nothing to show.");
+  if (shown.length === 0) lines.push(w("No candidate kept every geometric rule; nothing to show."));
   if (baseline) {
-    lines.push(
-      `Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.`,
-      "",
-      `Existing outlet: ${baseline.description}`,
-    );
-    for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
-    for (const w of baseline.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
-    for (const line of baseline.explanation) lines.push(`  ${line}`);
-    lines.push(`  ${baselineVerdict(baseline, run.candidates, run.stoppedBecause)}`);
+    lines.push(w("Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.", 2), "", w(`Existing outlet: ${baseline.description}`));
+    for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
+    for (const warning of baseline.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
+    for (const line of baseline.explanation) lines.push(w(`  ${line}`));
+    lines.push(w(`  ${baselineVerdict(baseline, run.candidates, run.stoppedBecause)}`));
     if (p.limits.rankBy === "change") {
-      lines.push(`  Ranked by the change measure, smallest first: ${CHANGE_WEIGHTS.addedOrRemoved} per part added or removed, ${CHANGE_WEIGHTS.resized} per part resized, ${CHANGE_WEIGHTS.moved} per part moved, plus ${CHANGE_WEIGHTS.distance} x the total move / pond depth.`);
+      lines.push(w(`  Ranked by the change measure, smallest first: ${CHANGE_WEIGHTS.addedOrRemoved} per part added or removed, ${CHANGE_WEIGHTS.resized} per part resized, ${CHANGE_WEIGHTS.moved} per part moved, plus ${CHANGE_WEIGHTS.distance} x the total move / pond depth.`));
     }
   }
   shown.forEach((c, i) => {
-    lines.push("", `Candidate ${i + 1}: ${c.description}${c.variantOf !== null ? ` (a variant of candidate ${c.variantOf}: the same openings)` : ""}`);
+    lines.push("", w(`Candidate ${i + 1}: ${c.description}${c.variantOf !== null ? ` (a variant of candidate ${c.variantOf}: the same openings)` : ""}`));
     if (baseline && c.changes) {
-      lines.push(`  against the existing outlet: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`);
-      if (c.changes.changes.length === 0) lines.push("  change: none (the existing outlet itself)");
-      for (const change of c.changes.changes) lines.push(`  change: ${change.text}`);
+      lines.push(w(`  against the existing outlet: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`));
+      if (c.changes.changes.length === 0) lines.push(w("  change: none (the existing outlet itself)"));
+      for (const change of c.changes.changes) lines.push(w(`  change: ${change.text}`));
     }
-    for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`);
-    for (const w of c.assessment.warnings) lines.push(`  flag: ${w.part}: ${w.reason}`);
-    for (const line of c.explanation) lines.push(`  ${line}`);
+    for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
+    for (const warning of c.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
+    for (const line of c.explanation) lines.push(w(`  ${line}`));
   });
   if (!run.success) {
-    lines.push("", "No compliant design was found. Why:");
-    for (const reason of run.infeasible) lines.push(`  - ${reason}`);
+    lines.push("", w("No compliant design was found. Why:"));
+    for (const reason of run.infeasible) lines.push(w(`  - ${reason}`));
   }
   const rate = run.seconds > 0 ? Math.round(run.routings / run.seconds) : run.routings;
   const budget = run.timeBudget !== null ? `time budget ${run.timeBudget} s` : `budget ${run.budget} routings`;
   lines.push(
     "",
-    `Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`,
-    `        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than the ranking's head${run.shard ? `, ${run.layoutsOtherShards} left to the other shards` : ""}), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
+    w(`Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`, 8),
+    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than the ranking's head${run.shard ? `, ${run.layoutsOtherShards} left to the other shards` : ""}), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
-      `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`,
+      `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`, 8),
     "",
-    `Caution: ${CAUTION}`,
+    w(`Caution: ${CAUTION}`, 2),
   );
   return lines.join("\n");
 }
 
-/** "2.4 units (12.0 %)", negative when the alternative costs more. */
+/** "2.4 (12.0 %)", negative when the alternative costs more. */
 function savingCell(s: ReturnType<typeof saving>): string {
-  return `${s.cost.toFixed(1)} units${s.fraction === null ? "" : ` (${(100 * s.fraction).toFixed(1)} %)`}`;
+  return `${s.cost.toFixed(1)}${s.fraction === null ? "" : ` (${(100 * s.fraction).toFixed(1)} %)`}`;
 }
 
-function wrap(text: string, width: number): string {
+function wrapParts(text: string, width: number): string {
   const parts = text.split("; ");
   const lines: string[] = [];
   let line = "";

@@ -2,12 +2,13 @@
 // Command-line wiring only: parse, call, print, exit code.
 import { printErr } from "./io.js";
 import { readFileSync } from "node:fs";
-import { Command, CommanderError } from "commander";
+import { Command, CommanderError, Option } from "commander";
 import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
 import { schemaCommand } from "./commands/schema.js";
+import { starterCommand } from "./commands/starter.js";
 import { volumeCommand } from "./commands/volume.js";
 import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
@@ -28,10 +29,20 @@ async function run(action: () => number | Promise<number>): Promise<void> {
       const message = error instanceof Error ? error.message : String(error);
       printErr(`outfit: internal error: ${message}\n`);
       if (process.env.OUTFIT_DEBUG && error instanceof Error) printErr(`${error.stack}\n`);
-      process.exitCode = 1;
+      process.exitCode = 4;
     }
   }
 }
+
+/** Exit codes, the same in every command (route adds 1 for --check). */
+const EXIT_CODES = "0 done; 2 bad input or a bad option (nothing is written); 4 internal error (a bug; OUTFIT_DEBUG=1 shows its stack)";
+
+/** An option whose default the help prints as the number (or word) itself, not as a quoted string. */
+function withDefault(flags: string, description: string, value: string): Option {
+  return new Option(flags, description).default(value, value);
+}
+
+const WIDE = "keep every table whole whatever the terminal's width (the full form that piped output gets)";
 
 const program = new Command();
 program
@@ -46,9 +57,12 @@ Examples:
   outfit route cases/demo/case.json       # route and check the case's own outlet
   outfit rate cases/demo/case.json        # the outlet's stage-discharge table
   outfit report cases/demo/case.json      # a review report (HTML)
+  outfit starter my-pond.json             # a starter case file, every field explained
   outfit volume cases/demo/case.json      # storage each storm needs, by several methods
   outfit pond cases/site-only/case.json   # a pond sized from the site limits
   outfit <command> --help                 # every option of a command, with examples
+
+Exit codes: 0 done; 1 not compliant (route --check) or no pond fits (pond); ${EXIT_CODES.slice(8)}.
 
 Caution: ${CAUTION}
 `,
@@ -61,19 +75,26 @@ program
   .description("route every storm of a case through its outlet and check the criteria")
   .argument("<case>", "case file (JSON)")
   .option("--json", "print the results as JSON (the case-format contract's fields)")
-  .option("--step <minutes>", "fixed routing time step in minutes (default: chosen and refined automatically)")
+  .option("--step <minutes>", "fixed routing time step in minutes (default: automatic: each step changes the inflow by at most 1 % of its peak and spans at most 0.15 of the local dS/dO)")
   .option("-v, --verbose", "also say how the time step was chosen and refined for each storm")
-  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--out <file>", "write the tables (or the JSON) to this file instead of the terminal")
+  .option("--csv-dir <dir>", "also write each storm's routed series (time, inflow, outflow, stage, storage, each part's flow) as <storm>.csv in this directory")
+  .option("--series", "with --json: include each storm's routed series")
+  .option("--wide", WIDE)
   .option("--check", "exit with code 1 when the outlet is not compliant")
   .addHelpText(
     "after",
     `
+Tables fit the terminal's width (COLUMNS, else the terminal); piped output keeps the full layout.
+Colour only on a terminal, never when NO_COLOR is set.
+
 Examples:
   outfit route cases/demo/case.json
   outfit route cases/demo/case.json --json --out results/route.json
+  outfit route cases/demo/case.json --csv-dir results/series
   outfit route cases/demo/case.json --step 1 --verbose
 
-Exit codes: 0 done, 1 not compliant (with --check), 2 bad input.`,
+Exit codes: 0 done; 1 not compliant (only with --check); ${EXIT_CODES.slice(8)}.`,
   )
   .action((file: string, options) => run(() => routeCommand(file, options)));
 
@@ -81,32 +102,39 @@ program
   .command("rate")
   .description("print the outlet's stage-discharge table, part by part, with storage and the governing control")
   .argument("<case>", "case file (JSON)")
-  .option("--step <length>", 'stage interval of the table, e.g. 0.25 or "0.1 m" (default: about 24 rows)')
-  .option("--csv", "print CSV instead of a table")
+  .option("--stage-step <length>", 'stage interval of the table (a length, not a time), e.g. 0.25 or "0.1 m" (default: the pond\'s depth / 24 rounded to 1, 2, 2.5 or 5 x 10^n: 0.25 ft for a 6 ft deep pond)')
+  .option("--csv", "print CSV instead of a table (every part's flow)")
   .option("--json", "print JSON instead of a table")
-  .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--out <file>", "write the output to this file instead of the terminal")
+  .option("--wide", WIDE)
   .addHelpText(
     "after",
     `
+Narrow terminals get the parts grouped (openings, rim, spillway, total, the limiting part); --wide or
+--csv adds each opening's flow, the barrel's, the chamber level and the barrel's HW/D.
+
 Examples:
   outfit rate cases/demo/case.json
-  outfit rate cases/demo/case.json --step 0.5 --csv --out rating.csv`,
+  outfit rate cases/demo/case.json --stage-step 0.5 --csv --out rating.csv
+
+Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => rateCommand(file, options)));
 
 /** The search's options, shared by `design` and `gather` (a gather must repeat the shards' values). */
 function searchOptions(command: Command, extra: (command: Command) => Command): Command {
   command
-    .option("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit")
-    .option("--budget <routings|time>", "storm routings the search may spend (e.g. 20000), or a time it spends widening the search (90s, 20m, 8h)", "20000")
-    .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible)")
-    .option("--top <n>", "candidates to report, explain and write (the ranking does not depend on it; at most 40)", "5")
-    .option("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2")
-    .option("--starts <n>", "seeded starts of the elevation fit per layout", "3")
-    .option("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3")
+    .addOption(withDefault("--seed <text>", "seed of the search's random starts (same seed and budget, same ranking)", "outfit"))
+    .addOption(withDefault("--budget <routings|time>", "storm routings the search may spend (e.g. 20000), or a time it spends widening the search (90s, 20m, 8h)", "20000"))
+    .option("--time <seconds>", "safety stop after this many seconds (a run stopped by it is not reproducible; default: none)")
+    .addOption(withDefault("--top <n>", "candidates to report, explain and write (the ranking does not depend on it; at most 40)", "5"))
+    .addOption(withDefault("--margin <percent>", "aim this percentage of each target inside the edges of its band", "2"))
+    .addOption(withDefault("--starts <n>", "seeded starts of the elevation fit per layout", "3"))
+    .addOption(withDefault("--beam <n>", "options kept per control level when planning layouts (doubled while budget remains)", "3"))
     .option("--json", "print the results as JSON (each candidate's outlet in case-file form)")
-    .option("--out <dir>", "write results.json, summary.txt, a journal and one ready-to-route case file per candidate")
-    .option("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all")
+    .option("--out <dir>", "a directory (unlike route's and rate's --out file): results.json, summary.txt, a journal and one ready-to-route case file per candidate")
+    .option("--wide", WIDE)
+    .addOption(withDefault("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all"))
     .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
     .option("--keep-barrel", "keep the existing barrel as it is")
     .option("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost");
@@ -146,8 +174,9 @@ Examples:
   outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first
   outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim
 
-Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input,
-3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on).`,
+Exit codes: 0 done; 1 no compliant design (with --check); 2 bad input or a bad option (nothing is
+written); 3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on);
+4 internal error (a bug; OUTFIT_DEBUG=1 shows its stack).`,
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
 
@@ -168,7 +197,7 @@ here (the summary says how many came from the journals).
 Examples:
   outfit gather cases/demo/case.json out/shard-1 out/shard-2 out/shard-3 --budget 90000 --out out/all
 
-Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input, 3 interrupted.`,
+Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input, 3 interrupted, 4 internal error.`,
   )
   .action((file: string, shards: string[], options) => run(() => designCommand(file, { ...options, gather: shards })));
 
@@ -176,7 +205,7 @@ program
   .command("hydrograph")
   .description("derive each rainfall storm's runoff hydrograph per drainage area (NRCS or rational method) and write them as CSV")
   .argument("<case>", "case file (JSON) with a hydrology section and storms described by rainfall")
-  .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): one <storm>-<area>.csv per storm and area in a directory, or one .csv file for a single selected hydrograph")
+  .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): a directory (one <storm>-<area>.csv per storm and area), or a name ending in .csv for a single selected hydrograph")
   .option("--json", "print the results as JSON instead of tables")
   .option("--storm <name>", "only this storm")
   .option("--area <pre|post>", "only this drainage area: pre (before development; its peak is the target) or post (after; the inflow)")
@@ -193,7 +222,7 @@ Examples:
   outfit hydrograph cases/demo-rainfall/case.json --storm 10-yr --area post --out inflow-10yr.csv
   outfit hydrograph cases/demo-rainfall/case.json --json
 
-Exit codes: 0 done, 2 bad input.`,
+Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
 
@@ -218,7 +247,7 @@ Examples:
   outfit volume cases/demo-rainfall/case.json --json
   outfit volume cases/demo/case.json --type II --out volume.txt
 
-Exit codes: 0 done, 2 bad input.`,
+Exit codes: ${EXIT_CODES}.`,
   )
   .action((file: string, options) => run(() => volumeCommand(file, options)));
 
@@ -244,7 +273,7 @@ Examples:
   outfit pond cases/site-only/case.json --json
   outfit pond cases/site-only/case.json --write sized.json && outfit volume sized.json
 
-Exit codes: 0 a pond fits, 1 no pond within the limits holds the storage, 2 bad input.`,
+Exit codes: 0 a pond fits; 1 no pond within the limits holds the storage; ${EXIT_CODES.slice(8)}.`,
   )
   .action((file: string, options) => run(() => pondCommand(file, options)));
 
@@ -253,8 +282,10 @@ program
   .description("write the review report of a case's outlet, or of a design run's candidates: one self-contained HTML file with plots")
   .argument("<input>", "case file (JSON), or the results directory of a design run (outfit design --out DIR)")
   .option("--out <file>", "where to write the report (default: CASE.report.html beside the case file, or DIR/report.html)")
-  .option("--format <format>", "html (one self-contained file) or md (Markdown, the plots as SVG files beside it)", "html")
-  .option("--step <minutes>", "fixed routing time step in minutes (default: chosen and refined automatically)")
+  .addOption(withDefault("--format <format>", "html (one self-contained file) or md (Markdown, the plots as SVG files beside it)", "html"))
+  .option("--step <minutes>", "fixed routing time step in minutes (default: automatic, as in route)")
+  .option("--stage-step <length>", 'stage interval of the stage-storage-discharge table, a length (default: 0.1 ft in US cases, 0.02 m in SI)')
+  .option("--hydrograph-interval <minutes>", "time interval of the hydrograph tables (default: the shortest of 5, 10, 15, 30, 60 or 120 min that keeps each table within 60 rows)")
   .addHelpText(
     "after",
     `
@@ -270,7 +301,7 @@ Examples:
   outfit report cases/demo/case.json --format md --out review/demo.md
   outfit report results/                                   # a design run: writes results/report.html
 
-Exit codes: 0 written, 2 bad input (nothing is written).`,
+Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`,
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
 
@@ -289,6 +320,27 @@ Examples:
   { "$schema": "./case.schema.json", "name": "...", ... }`,
   )
   .action((options: { out?: string }) => run(() => schemaCommand(options)));
+
+program
+  .command("starter")
+  .description("write a starter case file, every field explained, that routes and designs as written")
+  .argument("<file>", "the case file to write (JSON)")
+  .addOption(withDefault("--units <system>", "US (ft, cfs) or SI (m, m3/s)", "US"))
+  .option("--force", "overwrite the file if it exists")
+  .addHelpText(
+    "after",
+    `
+Comments in the file are fields whose name starts with "//"; outfit ignores them. The pond, storms
+and outlet are an invented example: replace them with the site's own.
+
+Examples:
+  outfit starter my-pond.json
+  outfit starter my-pond-si.json --units SI
+  outfit route my-pond.json
+
+Exit codes: ${EXIT_CODES}.`,
+  )
+  .action((file: string, options) => run(() => starterCommand(file, options)));
 
 try {
   await program.parseAsync();

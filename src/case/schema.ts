@@ -468,6 +468,21 @@ export const costsSchema = z.object(
   { error: "an object of cost weights (numbers)" },
 );
 
+/** Optional project facts for the review report's project block; all free text. */
+const projectText = z.string({ error: "text" });
+export const projectSchema = z.object(
+  {
+    name: projectText.optional(),
+    number: projectText.optional(),
+    client: projectText.optional(),
+    location: projectText.optional(),
+    jurisdiction: projectText.optional(),
+    engineer: projectText.optional(),
+    revision: projectText.optional(),
+  },
+  { error: "an object of project facts (name, number, client, location, jurisdiction, engineer, revision)" },
+);
+
 export const caseSchema = z.object({
   /** The JSON Schema the file names for editor completion (`outfit schema`); not used otherwise. */
   $schema: z.string({ error: "the address of a JSON Schema (text)" }).optional(),
@@ -482,6 +497,7 @@ export const caseSchema = z.object({
   catalogue: catalogueSchema.optional(),
   costs: costsSchema.optional(),
   hydrology: hydrologySchema.optional(),
+  project: projectSchema.optional(),
 });
 
 export type CaseFile = z.infer<typeof caseSchema>;
@@ -499,3 +515,4 @@ export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;
+export type ProjectFile = z.infer<typeof projectSchema>;

@@ -77,6 +77,8 @@ function walk(schema: AnySchema, value: unknown, path: PropertyKey[], found: Unk
       const shape = def.shape as Record<string, AnySchema>;
       const known = Object.keys(shape);
       for (const [key, child] of Object.entries(value)) {
+        // Fields named "//..." are comments (the starter case explains its fields with them).
+        if (key.startsWith("//")) continue;
         const field = own(shape, key);
         if (field === undefined) found.push({ path: jsonPath([...path, key]), key, near: nearestKey(key, known.filter((k) => !Object.prototype.hasOwnProperty.call(value, k))) });
         else walk(field, child, [...path, key], found);

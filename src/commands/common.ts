@@ -48,3 +48,8 @@ export function emit(text: string, out: string | undefined): void {
 export function isUserError(error: unknown): error is CaseError | UsageError {
   return error instanceof CaseError || error instanceof UsageError;
 }
+
+/** A name as a file name: letters, digits, dot, dash and underscore kept, the rest as "_". */
+export function safeName(name: string): string {
+  return name.replace(/[^A-Za-z0-9._-]+/g, "_") || "storm";
+}

@@ -7,7 +7,7 @@ import { CaseError } from "../case/errors.js";
 import { caseHydrology, AREA_NAMES } from "../case/hydrology.js";
 import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
 import { writeFileAtomic } from "../io.js";
-import { emit, load, UsageError } from "./common.js";
+import { emit, load, safeName, UsageError } from "./common.js";
 
 export interface HydrographCommandOptions {
   out?: string;
@@ -65,9 +65,4 @@ function assignFiles(items: HydrographItem[], out: string, stormNames: string[])
     used.add(name);
     item.file = join(out, name);
   }
-}
-
-/** A storm name as a file name: letters, digits, dot, dash and underscore kept, the rest as "_". */
-function safeName(name: string): string {
-  return name.replace(/[^A-Za-z0-9._-]+/g, "_") || "storm";
 }

@@ -1,7 +1,8 @@
 // `outfit report`: the review report of a case's outlet, or of a design run's candidates, as one
 // self-contained HTML file (or Markdown with the plots as SVG files beside it).
-import { basename, dirname, join } from "node:path";
-import { existsSync } from "node:fs";
+import { basename, dirname, join, resolve } from "node:path";
+import { existsSync, readFileSync } from "node:fs";
+import { createHash } from "node:crypto";
 import { CaseError } from "../case/errors.js";
 import { routeCase } from "../routing/routeCase.js";
 import { assess } from "../assess/assess.js";
@@ -12,12 +13,20 @@ import { isDirectory, loadDesignRun } from "../report/review/designRun.js";
 import type { ReportDocument } from "../report/review/model.js";
 import { renderHtml } from "../report/html/render.js";
 import { renderMarkdown } from "../report/markdown.js";
-import { load, positiveNumber, UsageError } from "./common.js";
+import { load, positiveLength, positiveNumber, UsageError } from "./common.js";
+import { loadCase, type LoadedCase } from "../case/load.js";
+import type { Hydrograph } from "../case/model.js";
+import { Converter } from "../case/normalize.js";
+import { caseHydrology } from "../case/hydrology.js";
+import type { ReportInputs } from "../report/review/caseReport.js";
+import type { RunFacts } from "../report/review/project.js";
 
 export interface ReportCommandOptions {
   out?: string;
   format?: string;
   step?: string;
+  stageStep?: string;
+  hydrographInterval?: string;
   /** The tool's version, written into the report. */
   version: string;
 }
@@ -41,6 +50,13 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
     throw new CaseError([{ where: input, found: "no such file or directory", expected: "a case file (JSON) or a design run's results directory (outfit design --out DIR)" }]);
   }
   const directory = isDirectory(input);
+  const settings = (loaded: LoadedCase, inputFiles: string[]): ReportInputs => ({
+    project: loaded.data.project,
+    run: runFacts(options.version, inputFiles),
+    preDevelopment: preDevelopment(loaded),
+    stageStep: positiveLength("--stage-step", options.stageStep, loaded.case.units),
+    hydrographInterval: positiveNumber("--hydrograph-interval", options.hydrographInterval),
+  });
   let doc: ReportDocument;
   if (directory) {
     const run = loadDesignRun(input);
@@ -52,14 +68,18 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
         return { candidate, outlet: c.outlet!, routing, assessment: assess(c, routing) };
       })
       .sort((a, b) => a.candidate.reported.rank - b.candidate.reported.rank);
-    doc = designReport(run, routed);
+    const best = loadCase(routed[0].candidate.file);
+    const files = [join(input, "results.json"), ...run.candidates.flatMap((k) => inputFilesOf(loadCase(k.file)))];
+    doc = designReport(run, routed, settings(best, files));
   } else {
-    const { case: c } = load(input);
+    const loaded = load(input);
+    const c = loaded.case;
     if (!c.outlet) {
       throw new CaseError([{ where: `${basename(input)}: outlet`, found: "nothing (the field is missing)", expected: "an outlet to report (elements, riser, barrel, spillway)" }]);
     }
+    const inputs = settings(loaded, inputFilesOf(loaded));
     const routing = routeCase(c, c.outlet, routeOptions);
-    doc = caseReport(c, { outlet: c.outlet, routing, assessment: assess(c, routing) }, input);
+    doc = caseReport(c, { outlet: c.outlet, routing, assessment: assess(c, routing) }, input, inputs);
   }
   const out = options.out ?? defaultOutput(input, directory, format as Format);
   if (format === "md") {
@@ -73,4 +93,35 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
     printErr(`outfit: wrote ${out}\n`);
   }
   return 0;
+}
+
+/** The case file and every inflow file it reads. */
+function inputFilesOf(loaded: LoadedCase): string[] {
+  const file = loaded.case.file;
+  const inflows = loaded.data.storms.flatMap((s) => (s.inflow && "file" in s.inflow && typeof s.inflow.file === "string" ? [resolve(dirname(file), s.inflow.file)] : []));
+  return [file, ...inflows];
+}
+
+/**
+ * Date of the run (SOURCE_DATE_EPOCH, in seconds, fixes it for reproducible builds), the version and
+ * a SHA-256 over the input files' names and bytes, in a stable order.
+ */
+function runFacts(version: string, files: string[]): RunFacts {
+  const epoch = process.env.SOURCE_DATE_EPOCH;
+  const date = epoch !== undefined && /^\d+$/.test(epoch) ? new Date(Number(epoch) * 1000) : new Date();
+  const unique = [...new Set(files.map((f) => resolve(f)))].sort();
+  const hash = createHash("sha256");
+  for (const file of unique) {
+    hash.update(basename(file)).update("\0");
+    hash.update(readFileSync(file)).update("\0");
+  }
+  return { date: date.toISOString(), version, inputHash: hash.digest("hex"), inputFiles: unique.length };
+}
+
+/** Each storm's pre-development runoff when the case derives it from rainfall (hydrology.pre). */
+function preDevelopment(loaded: LoadedCase): (Hydrograph | null)[] {
+  const data = loaded.data;
+  if (!data.hydrology) return data.storms.map(() => null);
+  const hydrology = caseHydrology(data, new Converter(data.units, basename(loaded.case.file || "case")));
+  return hydrology.storms.map((s) => s?.pre?.hydrograph ?? null);
 }

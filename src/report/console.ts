@@ -4,12 +4,14 @@ import type { Case } from "../case/model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
-import { formatter, quantityText, significant, type Formatter } from "../format.js";
+import { formatter, quantityText, significant, trimNumber, type Formatter } from "../format.js";
 import { ruleOf } from "../assess/rules/registry.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { withinBand } from "./json.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
+import { limitingPart } from "./limiting.js";
+import { paint, PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 /** A borderless table: columns separated by two spaces. */
 export function plainTable(head: string[], alignRight: boolean[] = []): Table.Table {
@@ -34,76 +36,103 @@ export function percent(x: number, digits = 1): string {
   return `${(100 * x).toFixed(digits)} %`;
 }
 
-/** Per-storm table of a routed outlet. */
-export function stormTable(c: Case, routing: CaseRouting): string {
+/** Per-storm table of a routed outlet: units in the headings, compact rows when narrow. */
+export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string {
   const f = formatter(c.units);
-  const table = plainTable(
-    ["Storm", "Return", "Peak in", "Peak out", "Target", "Out/target", "Max stage", "Freeboard left", "Drawdown", "At peak stage"],
-    [false, true, true, true, true, true, true, true, true, false],
-  );
-  for (const { storm, result } of routing.storms) {
+  const L = f.labels;
+  const columns: Column[] = [
+    { head: "Storm" },
+    { head: `Peak out\n(${L.flow})`, align: "right" },
+    { head: `Target\n(${L.flow})`, align: "right" },
+    { head: "Out/target\n(%)", align: "right" },
+    { head: `Max stage\n(${L.length})`, align: "right" },
+    { head: "Drawdown\n(h)", align: "right" },
+    { head: "Return\n(yr)", align: "right", narrow: "detail" },
+    { head: `Peak in\n(${L.flow})`, align: "right", narrow: "detail" },
+    { head: `Freeboard left\n(${L.length})`, align: "right", narrow: "detail" },
+    { head: "Limited by\n(at max stage)", narrow: "detail", unit: "" },
+  ];
+  const rows: Row[] = routing.storms.map(({ storm, result }) => {
     const inBand = withinBand(c, result.peakOutflow, storm.target);
     const detail = outletDetail(routing.outlet, c.tailwater, result.maxStage);
-    table.push([
+    return [
       storm.name,
-      `${storm.returnPeriod} yr`,
-      f.flow(result.peakInflow),
-      f.flow(result.peakOutflow),
-      storm.target === null ? "none" : f.flow(storm.target),
-      storm.target ? `${percent(result.peakOutflow / storm.target)}${inBand ? "" : " !"}` : "-",
-      f.elevation(result.maxStage),
-      f.length(c.pond.top - result.maxStage),
-      hours(result.drawdownTime === null ? null : result.drawdownTime / 3600),
-      detail.control,
-    ]);
-  }
-  return table.toString();
+      significant(f.raw.flow(result.peakOutflow)),
+      storm.target === null ? "none" : significant(f.raw.flow(storm.target)),
+      storm.target ? { text: `${(100 * result.peakOutflow / storm.target).toFixed(1)}${inBand ? "" : " !"}`, tone: inBand ? "pass" : "fail" } : "-",
+      f.raw.length(result.maxStage).toFixed(c.units === "US" ? 2 : 3),
+      result.drawdownTime === null ? "not drained" : (result.drawdownTime / 3600).toFixed(1),
+      trimNumber(storm.returnPeriod, 2),
+      significant(f.raw.flow(result.peakInflow)),
+      f.raw.length(c.pond.top - result.maxStage).toFixed(2),
+      limitingPart(routing.outlet, detail),
+    ];
+  });
+  const table = renderTable(layout, columns, rows);
+  const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
+  return table.text + marks;
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
   return quantityText(formatter(c.units), ruleOf(check).quantity, value);
 }
 
-export function checksTable(c: Case, checks: readonly Check[]): string {
-  const table = plainTable(["Check", "Value", "Limit", "Slack", "Result"], [false, true, true, true, false]);
-  for (const check of checks) {
-    table.push([check.name, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
-  }
-  return table.toString();
+/** Every check with its value, limit, slack and result (values carry their units: the rows mix quantities). */
+export function checksTable(c: Case, checks: readonly Check[], layout: Layout = PLAIN): string {
+  const columns: Column[] = [
+    { head: "Check" },
+    { head: "Value", align: "right" },
+    { head: "Limit", align: "right" },
+    { head: "Slack", align: "right" },
+    { head: "Result" },
+  ];
+  const rows: Row[] = checks.map((check) => [
+    check.name,
+    checkValue(c, check, check.value),
+    `${limitWord(check)} ${checkValue(c, check, check.limit)}`,
+    percent(check.slack),
+    { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
+  ]);
+  return renderTable(layout, columns, rows).text;
 }
 
 function limitWord(check: Check): string {
   return ruleOf(check).comparison === "at least" ? ">=" : "<=";
 }
 
-export function warningsText(assessment: Assessment): string {
+export function warningsText(assessment: Assessment, layout: Layout = PLAIN): string {
   if (assessment.warnings.length === 0) return "Warnings: none";
-  return ["Warnings:", ...assessment.warnings.map((w) => `  - ${w.part}: ${w.reason}`)].join("\n");
+  return ["Warnings:", ...assessment.warnings.map((w) => wrap(`  - ${w.part}: ${w.reason}`, layout.width, 4))].join("\n");
 }
 
-export function verdictText(assessment: Assessment): string {
+export function verdictText(assessment: Assessment, layout: Layout = PLAIN): string {
   const b = assessment.binding;
   const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks";
-  return `${assessment.compliant ? "Compliant" : "NOT compliant"}; ${binding}`;
+  return wrap(`${assessment.compliant ? paint(layout, "pass", "Compliant") : paint(layout, "fail", "NOT compliant")}; ${binding}`, layout.width);
 }
 
-export function routeReport(c: Case, routing: CaseRouting, assessment: Assessment, verbose: string[] = []): string {
+/** The caution, wrapped to the layout. */
+export function cautionText(layout: Layout = PLAIN): string {
+  return wrap(`Caution: ${CAUTION}`, layout.width);
+}
+
+export function routeReport(c: Case, routing: CaseRouting, assessment: Assessment, verbose: string[] = [], layout: Layout = PLAIN): string {
   const f = formatter(c.units);
   const lines = [
-    `outfit route: ${c.name} (${c.units} units)`,
-    `Outlet: ${describeOutlet(routing.outlet, f)}`,
-    `Pond: bottom ${f.elevation(c.pond.bottom)}, top ${f.elevation(c.pond.top)}${c.pond.pool > c.pond.bottom ? `, permanent pool ${f.elevation(c.pond.pool)}` : ""}`,
+    wrap(`outfit route: ${c.name} (${c.units} units)`, layout.width),
+    wrap(`Outlet: ${describeOutlet(routing.outlet, f)}`, layout.width),
+    wrap(`Pond: bottom ${f.elevation(c.pond.bottom)}, top ${f.elevation(c.pond.top)}${c.pond.pool > c.pond.bottom ? `, permanent pool ${f.elevation(c.pond.pool)}` : ""}`, layout.width),
     "",
-    stormTable(c, routing),
+    stormTable(c, routing, layout),
     "",
-    checksTable(c, assessment.checks),
+    checksTable(c, assessment.checks, layout),
     "",
-    warningsText(assessment),
-    ...(verbose.length ? ["", ...verbose] : []),
+    warningsText(assessment, layout),
+    ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),
     "",
-    verdictText(assessment),
+    verdictText(assessment, layout),
     "",
-    `Caution: ${CAUTION}`,
+    cautionText(layout),
   ];
   return lines.join("\n");
 }

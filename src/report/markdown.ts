@@ -31,6 +31,8 @@ export function renderMarkdown(doc: ReportDocument, stem: string, version: strin
     "",
     block(doc.verdict, stem, figures),
     "",
+    block(doc.project, stem, figures),
+    "",
   ];
   doc.sections.forEach((s, i) => sectionText(s, [i + 1], 2, stem, figures, out));
   out.push("---", "", `Written by outfit ${markdownText(version)}. ${markdownText(doc.caution)}`, "");

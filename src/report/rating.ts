@@ -4,7 +4,8 @@ import { outletDetail, type OutletDetail } from "../hydraulics/outlet.js";
 import { storageCurve } from "../storage/curve.js";
 import { formatter, significant } from "../format.js";
 import { toCaseUnits } from "../units.js";
-import { plainTable } from "./console.js";
+import { limitingPart, NOTICEABLE_REDUCTION, throttling } from "./limiting.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout } from "./terminal.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { barrelRise } from "../hydraulics/barrel.js";
@@ -18,7 +19,8 @@ export interface RatingRow {
 export function niceStep(depthInCaseUnits: number): number {
   const raw = depthInCaseUnits / 24;
   const power = Math.pow(10, Math.floor(Math.log10(raw)));
-  const scaled = raw / power;
+  // A depth a rounding error off a round number (6.000000000000015 ft) still gives its round step.
+  const scaled = raw / power - 1e-9;
   return (scaled <= 1 ? 1 : scaled <= 2 ? 2 : scaled <= 2.5 ? 2.5 : scaled <= 5 ? 5 : 10) * power;
 }
 
@@ -40,7 +42,8 @@ export function ratingRows(c: Case, outlet: Outlet, step: number): RatingRow[] {
   return rows;
 }
 
-function columnNames(outlet: Outlet): string[] {
+/** One name per part, in the order of `partFlows`: "E1 orifice", ..., "rim", "barrel", "spillway". */
+export function partColumns(outlet: Outlet): string[] {
   const names = outlet.elements.map((e, i) => `E${i + 1} ${e.type === "weir" ? (e.shape === "v-notch" ? "v-notch" : "weir") : e.type}`);
   if (outlet.riser) names.push("rim");
   if (outlet.barrel) names.push("barrel");
@@ -48,7 +51,7 @@ function columnNames(outlet: Outlet): string[] {
   return names;
 }
 
-function partFlows(outlet: Outlet, d: OutletDetail): number[] {
+export function partFlows(outlet: Outlet, d: OutletDetail): number[] {
   const flows = [...d.elements];
   if (outlet.riser) flows.push(d.rim);
   if (outlet.barrel) flows.push(d.barrel ?? 0);
@@ -56,40 +59,67 @@ function partFlows(outlet: Outlet, d: OutletDetail): number[] {
   return flows;
 }
 
-/** The barrel's headwater over its rise, and the control it is under at its flow ("1.35 inlet"). */
-function barrelColumn(outlet: Outlet, d: OutletDetail): string {
-  if (!outlet.barrel || d.chamber === null || d.barrelControl === null) return "-";
-  return `${headwaterRatio(outlet, d).toFixed(2)} ${d.barrelControl}`;
-}
-
 /** Chamber level above the barrel's inlet invert over the barrel's rise. */
 function headwaterRatio(outlet: Outlet, d: OutletDetail): number {
   return (d.chamber! - outlet.barrel!.inletInvert) / barrelRise(outlet.barrel!);
 }
 
-export function ratingText(c: Case, outlet: Outlet, rows: RatingRow[]): string {
+/**
+ * The rating as a table grouped by what the parts are: each opening (dropped when narrow), the
+ * openings together, the rim, the barrel, the spillway, the total, the chamber and the limiting
+ * part. Bare numbers; units in the headings.
+ */
+export function ratingGrid(c: Case, outlet: Outlet, rows: readonly RatingRow[]): { columns: Column[]; rows: string[][] } {
   const f = formatter(c.units);
-  const names = columnNames(outlet);
-  const head = ["Stage", "Storage", ...names, "Total", ...(outlet.barrel ? ["Chamber", "Barrel HW/D"] : []), "Control"];
-  const table = plainTable(head, head.map((h) => h !== "Control"));
-  for (const { detail, storage } of rows) {
-    table.push([
-      f.elevation(detail.stage),
-      f.volume(storage),
-      ...partFlows(outlet, detail).map((q) => f.flow(q)),
-      f.flow(detail.total),
-      ...(outlet.barrel ? [detail.chamber === null ? "-" : f.elevation(detail.chamber), barrelColumn(outlet, detail)] : []),
-      detail.control,
-    ]);
-  }
-  const legend = `Parts: ${describeOutlet(outlet, f)}`;
-  return [`outfit rate: ${c.name} (${c.units} units)`, legend, "", table.toString(), "", `Caution: ${CAUTION}`].join("\n");
+  const L = f.labels;
+  const q = (x: number) => significant(f.raw.flow(x));
+  const columns: Column[] = [
+    { head: `Stage\n(${L.length})`, align: "right" },
+    { head: `Storage\n(${L.volume})`, align: "right" },
+    ...outlet.elements.map((e, i): Column => ({ head: `E${i + 1} ${e.type === "weir" ? (e.shape === "v-notch" ? "v-notch" : "weir") : e.type}\n(${L.flow})`, align: "right", narrow: "drop" })),
+    ...(outlet.elements.length ? [{ head: `Openings\n(${L.flow})`, align: "right" } as Column] : []),
+    ...(outlet.riser ? [{ head: `Rim\n(${L.flow})`, align: "right" } as Column] : []),
+    ...(outlet.barrel ? [{ head: `Barrel\n(${L.flow})`, align: "right", narrow: "drop" } as Column] : []),
+    ...(outlet.spillway ? [{ head: `Spillway\n(${L.flow})`, align: "right" } as Column] : []),
+    { head: `Total\n(${L.flow})`, align: "right" },
+    ...(outlet.barrel ? [{ head: `Chamber\n(${L.length})`, align: "right", narrow: "drop" } as Column, { head: "Barrel\nHW/D", align: "right", narrow: "drop" } as Column] : []),
+    { head: "Limited by" },
+  ];
+  const body = rows.map(({ detail: d, storage }) => [
+    f.raw.length(d.stage).toFixed(c.units === "US" ? 2 : 3),
+    Math.round(f.raw.volume(storage)).toLocaleString("en-US"),
+    ...d.elements.map(q),
+    ...(outlet.elements.length ? [q(d.elements.reduce((a, b) => a + b, 0))] : []),
+    ...(outlet.riser ? [q(d.rim)] : []),
+    ...(outlet.barrel ? [q(d.barrel ?? 0)] : []),
+    ...(outlet.spillway ? [q(d.spillway)] : []),
+    q(d.total),
+    ...(outlet.barrel ? [d.chamber === null ? "-" : f.raw.length(d.chamber).toFixed(c.units === "US" ? 2 : 3), d.chamber === null ? "-" : headwaterRatio(outlet, d).toFixed(2)] : []),
+    limitingPart(outlet, d),
+  ]);
+  return { columns, rows: body };
+}
+
+/** Whether some stage of the table has the chamber cutting the openings' flow noticeably. */
+export function chamberThrottles(outlet: Outlet, rows: readonly RatingRow[]): boolean {
+  return outlet.barrel !== undefined && rows.some((r) => throttling(outlet, r.detail) > NOTICEABLE_REDUCTION);
+}
+
+export function ratingText(c: Case, outlet: Outlet, rows: RatingRow[], layout: Layout = PLAIN): string {
+  const f = formatter(c.units);
+  const grid = ratingGrid(c, outlet, rows);
+  const table = renderTable(layout, grid.columns, grid.rows);
+  const lines = [wrap(`outfit rate: ${c.name} (${c.units} units)`, layout.width), wrap(`Parts: ${describeOutlet(outlet, f)}`, layout.width), "", table.text];
+  if (table.dropped.length) lines.push("", wrap(`Not shown at this width: ${table.dropped.join(", ")} (--wide shows them; --csv lists them).`, layout.width));
+  lines.push("", wrap(`Limited by: the part that sets the total at that stage; the barrel (or tailwater) is named only where it cuts the openings' own flow by more than ${100 * NOTICEABLE_REDUCTION} %.`, layout.width));
+  lines.push("", wrap(`Caution: ${CAUTION}`, layout.width));
+  return lines.join("\n");
 }
 
 export function ratingCsv(c: Case, outlet: Outlet, rows: RatingRow[]): string {
   const u = toCaseUnits(c.units);
   const L = formatter(c.units).labels;
-  const names = columnNames(outlet).map((n) => `${n} (${L.flow})`);
+  const names = partColumns(outlet).map((n) => `${n} (${L.flow})`);
   const head = [
     `stage (${L.length})`,
     `storage (${L.volume})`,
@@ -124,7 +154,7 @@ export function ratingJson(c: Case, outlet: Outlet, rows: RatingRow[]) {
     case: c.name,
     units: c.units,
     caution: CAUTION,
-    parts: columnNames(outlet),
+    parts: partColumns(outlet),
     rows: rows.map(({ detail, storage }) => ({
       stage: u.length(detail.stage),
       storage: u.volume(storage),

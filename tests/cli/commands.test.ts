@@ -32,7 +32,7 @@ describe("usage errors exit 2 without a stack trace", () => {
     ["an unknown option", ["route", "cases/demo/case.json", "--bogus"], "unknown option '--bogus'"],
     ["an unknown command", ["frobnicate"], "unknown command 'frobnicate'"],
     ["a step that is not a number", ["route", "cases/demo/case.json", "--step", "abc"], '--step: found "abc", expected a number greater than zero'],
-    ["a rating step that is not a length", ["rate", "cases/demo/case.json", "--step", "ten"], '--step: found "ten", expected a length greater than zero'],
+    ["a rating step that is not a length", ["rate", "cases/demo/case.json", "--stage-step", "ten"], '--stage-step: found "ten", expected a length greater than zero'],
   ];
   it.each(usage)("%s", (_name, args, message) => {
     const run = outfit(...args);

@@ -9,6 +9,7 @@ import type { Case, Outlet } from "../../src/case/model.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { assess } from "../../src/assess/assess.js";
 import { routeJson } from "../../src/report/json.js";
+import { limitingPart } from "../../src/report/limiting.js";
 import { routeReport } from "../../src/report/console.js";
 import { ratingJson, ratingRows } from "../../src/report/rating.js";
 import { outletDetail, outletDischarge } from "../../src/hydraulics/outlet.js";
@@ -44,13 +45,14 @@ describe("the demo case with its barrel", () => {
     for (const { result } of routing.storms) expect(Math.abs(result.massBalanceError)).toBeLessThan(1e-4);
   });
 
-  it("names the control at each storm's peak in the JSON and the console table", () => {
+  it("names the control at each storm's peak in the JSON, and the limiting part in the console table", () => {
     const json = routeJson(c, routing, assessment);
     const text = routeReport(c, routing, assessment);
     json.storms.forEach((s, i) => {
-      const expected = outletDetail(c.outlet!, c.tailwater, routing.storms[i].result.maxStage).control;
-      expect(s.controlAtPeak).toBe(expected);
-      expect(text).toContain(expected);
+      const detail = outletDetail(c.outlet!, c.tailwater, routing.storms[i].result.maxStage);
+      expect(s.controlAtPeak).toBe(detail.control);
+      const row = text.split("\n").find((l) => l.startsWith(`${s.name} `))!;
+      expect(row.trimEnd().endsWith(limitingPart(c.outlet!, detail))).toBe(true);
     });
     // The 18-in barrel limits the outlet at the 100-yr peak (its chamber stands above the rim).
     expect(json.storms.map((s) => s.controlAtPeak)).toContain("barrel outlet control");

@@ -169,12 +169,19 @@ describe("HTML report of the demo case, in Chromium", () => {
     for (const [volume, stage] of drawn) expect(Math.abs(volume - u.volume(curve.volume(stage / u.length(1))))).toBeLessThan(0.001 * full);
   });
 
-  it("shows every number in a table with its unit", async () => {
+  it("shows every number in a table with its unit, in the cell or in its column's heading", async () => {
     const { watched } = await report.get();
-    const cells = await watched.page.$$eval("td.number", (tds) => tds.map((td) => td.textContent ?? ""));
+    const cells = await watched.page.$$eval("td.number", (tds) =>
+      tds.map((td) => {
+        const table = td.closest("table")!;
+        const index = Array.from(td.parentElement!.children).indexOf(td);
+        return { text: td.textContent ?? "", head: table.querySelectorAll("thead th")[index]?.textContent ?? "" };
+      }),
+    );
     expect(cells.length).toBeGreaterThan(50);
     const unit = /(ft|ft3|cfs|in|h|%|yr)(, (in|below|above) band)?$/;
-    for (const text of cells) if (/\d/.test(text)) expect(text, text).toMatch(unit);
+    const headUnit = /\((ft|ft2|ft3|cfs|min|h)\)|HW\/D/;
+    for (const { text, head } of cells) if (/\d/.test(text)) expect(unit.test(text) || headUnit.test(head), `${head}: ${text}`).toBe(true);
   });
 
   it("shows the checks with their slack, the methods with their sources and the caution", async () => {

@@ -20,11 +20,12 @@ header .subtitle { margin: 4px 0 0; color: var(--muted); overflow-wrap: anywhere
 .note.caution, .note.warning { color: var(--caution); background: var(--caution-bg); }
 .note strong { text-transform: uppercase; letter-spacing: 0.06em; font-size: 12px; margin-right: 6px; }
 header .note { margin: 0; max-width: 320px; }
+header dl.project { grid-column: 1 / -1; grid-template-columns: max-content 1fr max-content 1fr; margin: 6px 0 0; padding-top: 8px; border-top: 1px solid var(--rule); font-size: 12.5px; }
 nav.contents { margin: 16px 0 8px; font-size: 13px; }
 nav.contents ol { margin: 4px 0; padding-left: 0; list-style: none; columns: 2; }
 h2 { font-size: 18px; margin: 30px 0 10px; padding-bottom: 4px; border-bottom: 2px solid var(--ink); }
 h3 { font-size: 15px; margin: 22px 0 8px; }
-h2 .number, h3 .number { color: var(--accent); margin-right: 8px; font-variant-numeric: tabular-nums; }
+h2 .number, h3 .number { color: var(--accent); margin-right: 4px; font-variant-numeric: tabular-nums; }
 dl.facts { display: grid; grid-template-columns: max-content 1fr; gap: 3px 18px; margin: 8px 0 14px; }
 dl.facts dt { color: var(--muted); }
 dl.facts dd { margin: 0; overflow-wrap: anywhere; }
@@ -32,9 +33,13 @@ table { border-collapse: collapse; margin: 8px 0 16px; width: 100%; font-size: 1
 caption { text-align: left; font-weight: 600; padding-bottom: 4px; }
 thead { display: table-header-group; }
 th { text-align: left; border-bottom: 2px solid var(--ink); padding: 4px 8px 4px 0; vertical-align: bottom; }
-td { border-bottom: 1px solid var(--rule); padding: 3px 8px 3px 0; vertical-align: top; overflow-wrap: anywhere; }
+td { border-bottom: 1px solid var(--rule); padding: 3px 8px 3px 0; vertical-align: top; overflow-wrap: break-word; }
+th { overflow-wrap: normal; hyphens: manual; }
 tbody tr:nth-child(even) td { background: var(--stripe); }
-th.number, td.number { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+th.number, td.number { text-align: right; font-variant-numeric: tabular-nums; }
+td.number, td.nowrap { white-space: nowrap; }
+table.dense { font-size: 11.5px; }
+table.dense th, table.dense td { padding-right: 6px; }
 td.pass { color: var(--pass); }
 td.fail { color: var(--fail); font-weight: 600; }
 td.binding { font-weight: 700; }
@@ -58,6 +63,7 @@ footer { margin-top: 28px; font-size: 12px; color: var(--muted); border-top: 1px
   nav.contents ol { columns: 2; }
   a { color: inherit; }
   table { font-size: 8.5pt; }
+  table.dense { font-size: 7.5pt; }
   * { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 }
 `;

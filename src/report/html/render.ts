@@ -25,6 +25,7 @@ export function renderHtml(doc: ReportDocument, version: string): string {
 <div class="tool">outfit ${e(version)} &middot; review report</div>
 <div><h1>${e(doc.title)}</h1><p class="subtitle">${e(doc.subtitle)}</p></div>
 ${renderBlock(doc.verdict)}
+<dl class="facts project" aria-label="Project">${doc.project.rows.map(([k, v]) => `<dt>${e(k)}</dt><dd>${e(v)}</dd>`).join("")}</dl>
 </header>
 <div class="note caution" role="note"><strong>Caution</strong>${e(doc.caution)}</div>
 <nav class="contents" aria-label="Contents"><strong>Contents</strong><ol>${contents}</ol></nav>
@@ -38,15 +39,16 @@ ${numbered}
 
 function renderSection(s: Section, number: number[], level: 2 | 3 | 4): string {
   const tag = `h${level}`;
-  const heading = `<${tag} id="${s.id}"><span class="number">${number.join(".")}</span>${e(s.title)}</${tag}>`;
+  // A real space after the number, so that copied or extracted text reads "5.2 12-yr storm".
+  const heading = `<${tag} id="${s.id}"><span class="number">${number.join(".")}</span> ${e(s.title)}</${tag}>`;
   const blocks = s.blocks.map(renderBlock).join("\n");
   const subsections = s.subsections.map((sub, i) => renderSection(sub, [...number, i + 1], level === 2 ? 3 : 4)).join("\n");
   return `<section class="level-${level}">\n${heading}\n${blocks}\n${subsections}\n</section>`;
 }
 
-function cell(c: string | Cell, numeric: boolean): string {
+function cell(c: string | Cell, numeric: boolean, nowrap = false): string {
   const text = typeof c === "string" ? c : c.text;
-  const classes = [numeric ? "number" : "", typeof c === "string" ? "" : c.tone ?? ""].filter(Boolean).join(" ");
+  const classes = [numeric ? "number" : "", nowrap ? "nowrap" : "", typeof c === "string" ? "" : c.tone ?? ""].filter(Boolean).join(" ");
   return `<td${classes ? ` class="${classes}"` : ""}>${e(text)}</td>`;
 }
 
@@ -64,8 +66,9 @@ function renderBlock(b: Block): string {
     }
     case "table": {
       const head = b.head.map((h, i) => `<th${b.numeric[i] ? ' class="number"' : ""} scope="col">${e(h)}</th>`).join("");
-      const rows = b.rows.map((row) => `<tr>${row.map((c, i) => cell(c, b.numeric[i] ?? false)).join("")}</tr>`).join("\n");
-      return `<table>\n<caption>${e(b.caption)}</caption>\n<thead><tr>${head}</tr></thead>\n<tbody>\n${rows}\n</tbody>\n</table>`;
+      const rows = b.rows.map((row) => `<tr>${row.map((c, i) => cell(c, b.numeric[i] ?? false, b.nowrap?.[i] ?? false)).join("")}</tr>`).join("\n");
+      // Tables of many columns are set smaller so that they fit the page.
+      return `<table${b.head.length > 9 ? ' class="dense"' : ""}>\n<caption>${e(b.caption)}</caption>\n<thead><tr>${head}</tr></thead>\n<tbody>\n${rows}\n</tbody>\n</table>`;
     }
     case "figure":
       // The figure links to itself at its head and in its caption: on paper the two links mark where

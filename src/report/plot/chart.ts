@@ -272,6 +272,8 @@ function referenceLines(references: readonly ReferenceLine[], sx: LinearScale, s
       const y = sy(r.value);
       out.push(element("line", { x1: x0, y1: y, x2: x1, y2: y, ...attrs }));
       // Labels sit at the right end above their line, moved left when they would overlap another.
+      // A line with an empty label shares the label of another drawn at the same level.
+      if (r.label === "") continue;
       let x = x1 - 6;
       let ly = y - 4;
       if (ly - 10 < y0) ly = y + 12;

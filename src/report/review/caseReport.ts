@@ -1,11 +1,16 @@
 // The review report of one outlet routed through a case: summary, storage, rating, storms, checks,
 // methods and the caution.
-import type { Case, Outlet } from "../../case/model.js";
+import type { Case, Hydrograph, Outlet } from "../../case/model.js";
 import { drainedStage, type CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
 import { formatter } from "../../format.js";
 import { CAUTION } from "../caution.js";
-import { hydrographChart, hydrographWindow, ratingChart, stageChart, storageChart } from "./figures.js";
+import { hydrographChart, hydrographWindow, prePostChart, ratingChart, stageChart, storageChart } from "./figures.js";
+import { defaultStageStep, hydrographTable, prePostTable, stageStorageDischargeTable } from "./submittal.js";
+import { projectFacts, type RunFacts } from "./project.js";
+import { chamberThrottles, niceStep, ratingRows } from "../rating.js";
+import { baseLength } from "../../units.js";
+import type { ProjectFile } from "../../case/schema.js";
 import { methodsTable } from "./methods.js";
 import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, warningsList } from "./tables.js";
 import { FigureCounter, section, type Block, type ReportDocument, type Section } from "./model.js";
@@ -14,6 +19,18 @@ export interface RoutedOutlet {
   outlet: Outlet;
   routing: CaseRouting;
   assessment: Assessment;
+}
+
+/** What the report takes besides the routed outlet: the project block's facts and the table settings. */
+export interface ReportInputs {
+  project: ProjectFile | undefined;
+  run: RunFacts;
+  /** Pre-development runoff per storm of the case, in order (null where the case has none). */
+  preDevelopment: readonly (Hydrograph | null)[];
+  /** Stage step of the stage-storage-discharge table (m); default 0.1 ft / 0.02 m. */
+  stageStep?: number;
+  /** Interval of the hydrograph tables (minutes); default chosen per storm. */
+  hydrographInterval?: number;
 }
 
 /** Stage-storage figure and the pond facts. */
@@ -28,16 +45,23 @@ export function storageSection(c: Case, outlet: Outlet | undefined, figures: Fig
  * The sections of one routed outlet: its rating, the storms and the checks. `prefix` keeps ids
  * unique when a report holds several outlets (a design run's candidates).
  */
-export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCounter, prefix = ""): Section[] {
+export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCounter, inputs: ReportInputs, prefix = ""): Section[] {
   const { outlet, routing, assessment } = routed;
   const f = formatter(c.units);
+  const coarse = ratingRows(c, outlet, niceStep((c.pond.top - c.pond.bottom) / baseLength(c.units)) * baseLength(c.units));
+  const throttled = chamberThrottles(outlet, coarse);
+  const throttleNote = throttled
+    ? ` Where the barrel throttles the openings (the table's "limited by: barrel"), the chamber behind them rises and submerges them, so each opening's curve bends back to smaller flows as the stage rises; the barrel's curve, which carries them all, and the total still rise.`
+    : "";
   const rating = section(`${prefix}rating`, "Outlet and rating", [
     partsTable(c, outlet),
-    figures.figure(`${prefix}rating`, "Rating, part by part", "Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.", (id) => ratingChart(id, c, outlet, routing.storms)),
+    figures.figure(`${prefix}rating`, "Rating, part by part", `Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.${throttleNote}`, (id) => ratingChart(id, c, outlet, routing.storms)),
     ratingTable(c, outlet),
+    stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)),
   ]);
   const stormSections = routing.storms.map((sr, i) => {
     const window = hydrographWindow(sr);
+    const pre = inputs.preDevelopment[c.storms.indexOf(sr.storm)] ?? null;
     const blocks: Block[] = [
       { kind: "text", text: stormSummary(c, sr) },
       figures.figure(`${prefix}storm-${i + 1}-hydrograph`, `${sr.storm.name}: inflow and outflow`,
@@ -46,6 +70,13 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
       figures.figure(`${prefix}storm-${i + 1}-stage`, `${sr.storm.name}: stage`,
         `Stage until the pond has drained (at or below ${f.elevation(drainedStage(c))}) or the simulation ended, with the top of embankment, the freeboard line${outlet.spillway ? " and the spillway crest" : ""}.`,
         (id) => stageChart(id, c, outlet, sr)),
+      prePostTable(c, sr, pre),
+      ...(pre
+        ? [figures.figure(`${prefix}storm-${i + 1}-pre-post`, `${sr.storm.name}: before and after development`,
+            "Pre-development runoff (dotted, triangles), post-development inflow (solid) and the routed outflow (dashed, squares) on one time axis.",
+            (id) => prePostChart(id, c, sr, pre))]
+        : []),
+      hydrographTable(c, sr, inputs.hydrographInterval),
     ];
     return section(`${prefix}storm-${i + 1}`, `${sr.storm.name} storm (${sr.storm.returnPeriod} yr)`, blocks);
   });
@@ -63,17 +94,18 @@ export function cautionSection(): Section {
 }
 
 /** The report of the case's own outlet. */
-export function caseReport(c: Case, routed: RoutedOutlet, source: string): ReportDocument {
+export function caseReport(c: Case, routed: RoutedOutlet, source: string, inputs: ReportInputs): ReportDocument {
   const figures = new FigureCounter();
   return {
     title: `Review report: ${c.name}`,
     subtitle: `The outlet of case file ${source}, routed and checked by outfit.`,
     verdict: verdictNote(routed.assessment),
+    project: projectFacts(inputs.project, inputs.run),
     caution: CAUTION,
     sections: [
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
       storageSection(c, routed.outlet, figures),
-      ...outletSections(c, routed, figures),
+      ...outletSections(c, routed, figures, inputs),
       methodsSection(c, [routed.outlet]),
       cautionSection(),
     ],

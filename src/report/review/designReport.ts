@@ -7,7 +7,8 @@ import { percent } from "../console.js";
 import { withinBand } from "../json.js";
 import { toCaseUnits } from "../../units.js";
 import { candidatesChart } from "./figures.js";
-import { cautionSection, methodsSection, outletSections, storageSection, type RoutedOutlet } from "./caseReport.js";
+import { cautionSection, methodsSection, outletSections, storageSection, type ReportInputs, type RoutedOutlet } from "./caseReport.js";
+import { projectFacts } from "./project.js";
 import { caseFacts, stormsTable, verdictNote } from "./tables.js";
 import type { DesignRun, LoadedCandidate } from "./designRun.js";
 import { FigureCounter, section, type Block, type Cell, type NoteBlock, type ReportDocument, type Section, type TableBlock } from "./model.js";
@@ -123,7 +124,7 @@ function explanationBlocks(c: Case, r: RoutedCandidate): Block[] {
   return blocks;
 }
 
-export function designReport(run: DesignRun, routed: readonly RoutedCandidate[]): ReportDocument {
+export function designReport(run: DesignRun, routed: readonly RoutedCandidate[], inputs: ReportInputs): ReportDocument {
   const figures = new FigureCounter();
   const best = routed[0];
   const c = best.candidate.case;
@@ -145,13 +146,15 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[])
     figures.figure("candidates", "Candidates compared", "Total rating of each candidate against stage; hatched: each storm's target band; open markers: each candidate's routed peak outflow at its maximum stage, named by storm.",
       (id) => candidatesChart(id, c, routed.map((r) => ({ rank: r.candidate.reported.rank, outlet: r.outlet, storms: r.routing.storms })))),
   ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));
+  // Built in the order they are shown, so that figures are numbered in document order.
+  const storage = storageSection(c, best.outlet, figures);
   const candidateSections: Section[] = routed.map((r) => {
     const rank = r.candidate.reported.rank;
     const prefix = `c${rank}-`;
     return section(`candidate-${rank}`, `Candidate ${rank}`, [
       { kind: "text", text: `${r.candidate.reported.description} (case file ${r.candidate.reported.caseFile}).` },
       verdictNote(r.assessment),
-    ], outletSections(c, r, figures, prefix));
+    ], outletSections(c, r, figures, inputs, prefix));
   });
   const verdict: NoteBlock = { ...verdictNote(best.assessment) };
   verdict.text = `Candidate ${best.candidate.reported.rank}: ${verdict.text}`;
@@ -159,12 +162,13 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[])
     title: `Design report: ${run.results.case}`,
     subtitle: `Design run in ${run.directory}: ${routed.length} candidate${routed.length === 1 ? "" : "s"}, each routed again from its own case file by outfit.`,
     verdict,
+    project: projectFacts(inputs.project, inputs.run),
     caution: CAUTION,
     sections: [
       section("run", "Design run", [runFacts]),
       compared,
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
-      storageSection(c, best.outlet, figures),
+      storage,
       ...candidateSections,
       methodsSection(c, routed.map((r) => r.outlet)),
       cautionSection(),

@@ -1,6 +1,6 @@
 // The report's plots, in the case's units: stage-storage, the outlet's rating with each storm's
 // target and routed peak, each storm's hydrographs and stage, and the candidates of a design run.
-import type { Case, Outlet } from "../../case/model.js";
+import type { Case, Hydrograph, Outlet } from "../../case/model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
 import { outletDetail } from "../../hydraulics/outlet.js";
@@ -42,12 +42,16 @@ function pondReferences(c: Case, outlet: Outlet | undefined, withFreeboard: bool
   const refs: ReferenceLine[] = [
     { key: "top", axis: "y", value: u.length(c.pond.top), label: `top of embankment ${f.elevation(c.pond.top)}`, style: TOP_STYLE },
   ];
+  const freeboardLine = c.pond.top - c.criteria.freeboardDepth;
+  // Levels that coincide share one label (two labels at one height would be drawn over each other).
+  const together = withFreeboard && outlet?.spillway !== undefined && Math.abs(outlet.spillway.crest - freeboardLine) < 1e-6;
   if (withFreeboard) {
-    const z = c.pond.top - c.criteria.freeboardDepth;
-    refs.push({ key: "freeboard", axis: "y", value: u.length(z), label: `freeboard line ${f.elevation(z)} (${f.length(c.criteria.freeboardDepth)} below top)`, style: FREEBOARD_STYLE });
+    refs.push({ key: "freeboard", axis: "y", value: u.length(freeboardLine), label: together ? "" : `freeboard line ${f.elevation(freeboardLine)} (${f.length(c.criteria.freeboardDepth)} below top)`, style: FREEBOARD_STYLE });
   }
   if (outlet?.spillway) {
-    refs.push({ key: "spillway", axis: "y", value: u.length(outlet.spillway.crest), label: `spillway crest ${f.elevation(outlet.spillway.crest)}`, style: SPILLWAY_STYLE });
+    const crest = f.elevation(outlet.spillway.crest);
+    const label = together ? `spillway crest = freeboard line ${crest} (${f.length(c.criteria.freeboardDepth)} below top)` : `spillway crest ${crest}`;
+    refs.push({ key: "spillway", axis: "y", value: u.length(outlet.spillway.crest), label, style: SPILLWAY_STYLE });
   }
   if (c.pond.pool > c.pond.bottom) {
     refs.push({ key: "pool", axis: "y", value: u.length(c.pond.pool), label: `permanent pool ${f.elevation(c.pond.pool)}`, style: POOL_STYLE });
@@ -291,5 +295,43 @@ export function candidatesChart(id: string, c: Case, candidates: readonly Compar
       style: { ...styles[i], open: true },
       points: k.storms.map((s) => ({ x: u.flow(s.result.peakOutflow), y: u.length(s.result.maxStage), label: s.storm.name })),
     })),
+  });
+}
+
+/** Pre-development runoff, post-development inflow and routed outflow of one storm on one plot. */
+export function prePostChart(id: string, c: Case, sr: StormRouting, pre: Hydrograph): string {
+  const f = formatter(c.units);
+  const u = f.raw;
+  const series = sr.result.series!;
+  const hours = series.time.map((t) => t / 3600);
+  const preHours = Array.from(pre.times, (t) => t / 3600);
+  const preFlows = Array.from(pre.flows, u.flow);
+  const inflow = series.inflow.map(u.flow);
+  const outflow = series.outflow.map(u.flow);
+  // The window around the event: from shortly before the inflow or runoff rises above 1 % of its
+  // peak to shortly after the outflow has fallen below 10 % of its peak and the runoff below 1 %.
+  const peak = (v: readonly number[]) => v.reduce((a, b) => Math.max(a, b), 0);
+  const first = (t: readonly number[], v: readonly number[], share: number) => t[Math.max(0, v.findIndex((q) => q > share * peak(v)))];
+  const last = (t: readonly number[], v: readonly number[], share: number) => {
+    for (let i = v.length - 1; i >= 0; i--) if (v[i] > share * peak(v)) return t[i];
+    return t[t.length - 1];
+  };
+  const simulated = hours[hours.length - 1];
+  const start = Math.max(0, Math.floor(Math.min(first(hours, inflow, 0.01), first(preHours, preFlows, 0.01)) - 0.5));
+  const end = Math.min(simulated, Math.ceil(Math.max(last(hours, outflow, 0.1), last(preHours, preFlows, 0.01), last(hours, inflow, 0.01)) + 0.5));
+  const within = (t: readonly number[], v: readonly number[]) => until(t, v, end).filter(([x]) => x >= start);
+  const top = niceAxis(0, Math.max(peak(inflow), peak(preFlows), peak(outflow))).domain[1];
+  return chart({
+    id,
+    key: "pre-post",
+    title: `${sr.storm.name}: before and after development`,
+    description: `Pre-development runoff, post-development inflow and routed outflow of the ${sr.storm.name} storm.`,
+    x: { label: "Time from start of storm", unit: "h", domain: [start, end] },
+    y: { label: "Flow", unit: f.labels.flow, domain: [0, top] },
+    series: [
+      { key: "pre", label: "pre-development runoff", points: within(preHours, preFlows), style: { colour: PALETTE.bluishGreen, dash: "dotted", width: 2.2, marker: "triangle" } },
+      { key: "inflow", label: "post-development inflow", points: within(hours, inflow), style: { colour: PALETTE.blue, dash: "solid", width: 2, marker: "none" } },
+      { key: "outflow", label: "routed outflow", points: within(hours, outflow), style: { colour: PALETTE.vermillion, dash: "dashed", width: 2, marker: "square" } },
+    ],
   });
 }

@@ -15,6 +15,8 @@ export interface TableBlock {
   rows: (string | Cell)[][];
   /** Right-aligned (numeric) columns. */
   numeric: boolean[];
+  /** Text columns whose cells stay on one line (short phrases such as "barrel, inlet control"). */
+  nowrap?: boolean[];
 }
 
 export interface FigureBlock {
@@ -67,6 +69,8 @@ export interface ReportDocument {
   /** The line under the title: what was reported and from which file. */
   subtitle: string;
   verdict: NoteBlock;
+  /** The project block: project facts from the case file, the date of the run, version, input hash. */
+  project: FactsBlock;
   caution: string;
   sections: Section[];
 }

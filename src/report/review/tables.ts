@@ -4,13 +4,13 @@ import type { CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
 import { hydrographVolume } from "../../routing/router.js";
 import { storageCurve } from "../../storage/curve.js";
-import { formatter, significant, trimNumber, type Formatter } from "../../format.js";
+import { formatter, trimNumber, type Formatter } from "../../format.js";
 import { checkValue, hours, percent } from "../console.js";
 import { withinBand } from "../json.js";
 import { targetBand } from "../../assess/rules/band.js";
 import { ruleOf } from "../../assess/rules/registry.js";
 import { describeOutlet } from "../describe.js";
-import { niceStep, ratingJson, ratingRows } from "../rating.js";
+import { niceStep, ratingGrid, ratingRows } from "../rating.js";
 import { baseLength } from "../../units.js";
 import type { Cell, FactsBlock, ListBlock, NoteBlock, TableBlock } from "./model.js";
 
@@ -140,25 +140,20 @@ export function partsTable(c: Case, outlet: Outlet): TableBlock {
   return { kind: "table", caption: `Outlet: ${describeOutlet(outlet, f)}`, head: ["Part", "Kind", "Size", "Elevation", "Coefficient"], numeric: [false, false, false, true, false], rows };
 }
 
-/** The outlet's rating, part by part, with storage, at a round stage step (as `outfit rate`). */
+/** The outlet's rating, grouped by part (as `outfit rate --wide`), at a round stage step; units in the headings. */
 export function ratingTable(c: Case, outlet: Outlet): TableBlock {
   const f = formatter(c.units);
   const L = baseLength(c.units);
   const step = niceStep((c.pond.top - c.pond.bottom) / L) * L;
-  const rating = ratingJson(c, outlet, ratingRows(c, outlet, step));
-  const unit = (x: number, digits: number, label: string) => `${x.toFixed(digits)} ${label}`;
+  const grid = ratingGrid(c, outlet, ratingRows(c, outlet, step));
+  const head = grid.columns.map((col) => col.head.replace("\n", " "));
   return {
     kind: "table",
-    caption: `Rating at ${f.length(step)} intervals: flow of each part and the total`,
-    head: ["Stage", "Storage", ...rating.parts, "Total", "Control"],
-    numeric: [true, true, ...rating.parts.map(() => true), true, false],
-    rows: rating.rows.map((r) => [
-      unit(r.stage, c.units === "US" ? 2 : 3, f.labels.length),
-      `${Math.round(r.storage).toLocaleString("en-US")} ${f.labels.volume}`,
-      ...[...r.elements, ...(outlet.riser ? [r.rim] : []), ...(outlet.barrel ? [r.barrel ?? 0] : []), ...(outlet.spillway ? [r.spillway] : [])].map((q) => `${significant(q)} ${f.labels.flow}`),
-      `${significant(r.total)} ${f.labels.flow}`,
-      r.control,
-    ]),
+    caption: `Rating at ${f.length(step)} intervals: flow of each opening, the openings together, the rim, barrel and spillway, the total and the part that limits it`,
+    head,
+    numeric: grid.columns.map((col) => col.align === "right"),
+    nowrap: grid.columns.map((col) => col.head === "Limited by"),
+    rows: grid.rows,
   };
 }
 

@@ -1,0 +1,90 @@
+// The terminal form of design, route and rate: at 80 columns no line is longer than 80 characters
+// (tables turn into compact rows with details below them); at 160 columns, with --wide and when
+// piped without COLUMNS the tables are whole, one row per storm or stage.
+import { describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { resolve } from "node:path";
+import { ROOT } from "./run.js";
+
+function outfitAt(columns: number | null, ...args: string[]): { status: number | null; stdout: string; stderr: string } {
+  const env = { ...process.env };
+  delete env.OUTFIT_DEBUG;
+  delete env.COLUMNS;
+  if (columns !== null) env.COLUMNS = String(columns);
+  const r = spawnSync(process.execPath, [resolve(ROOT, "dist/src/cli.js"), ...args], { cwd: ROOT, encoding: "utf8", env, timeout: 120_000 });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+const longest = (text: string) => Math.max(...text.split("\n").map((l) => l.length));
+const DEMO = "cases/demo/case.json";
+const COMMANDS: [string, string[]][] = [
+  ["route", ["route", DEMO]],
+  ["rate", ["rate", DEMO]],
+  ["design", ["design", DEMO, "--budget", "1500", "--top", "3"]],
+];
+
+describe("terminal width", () => {
+  it.each(COMMANDS)("`%s` at COLUMNS=80: no line longer than 80 characters, no colour when piped", (_name, args) => {
+    const run = outfitAt(80, ...args);
+    expect(run.status).toBe(0);
+    expect(longest(run.stdout)).toBeLessThanOrEqual(80);
+    expect(run.stdout).not.toMatch(/\u001b\[/);
+    expect(run.stdout).toContain("Caution:");
+  });
+
+  it("`route` at 80 columns keeps one compact row per storm with the other values below it", () => {
+    const run = outfitAt(80, "route", DEMO);
+    const lines = run.stdout.split("\n");
+    for (const storm of ["2-yr", "10-yr", "100-yr"]) {
+      const row = lines.findIndex((l) => l.startsWith(`${storm} `));
+      expect(row).toBeGreaterThan(0);
+      // The detail line under the row names what the compact row leaves out.
+      expect(lines[row + 1]).toMatch(/^ {4}.*freeboard left: \d+\.\d\d ft; limited by: (openings|barrel, (inlet|outlet) control)$/);
+    }
+    // Units are in the headings, not in the cells.
+    expect(run.stdout).toMatch(/\(cfs\)/);
+    expect(lines.find((l) => l.startsWith("2-yr "))).not.toContain("cfs");
+  });
+
+  it("`route` and `rate` at COLUMNS=160 print the whole table: every column on the storm's or stage's own line", () => {
+    const route = outfitAt(160, "route", DEMO);
+    expect(route.status).toBe(0);
+    const heads = route.stdout.split("\n").filter((l) => /Peak out/.test(l) || /^Storm /.test(l)).join("\n");
+    for (const head of ["Peak in", "Freeboard left", "Limited by", "Return"]) expect(heads).toContain(head);
+    const row = route.stdout.split("\n").find((l) => l.startsWith("100-yr "))!;
+    expect(row).toMatch(/barrel, (inlet|outlet) control/);
+    expect(longest(route.stdout)).toBeLessThanOrEqual(160);
+    expect(longest(route.stdout)).toBeGreaterThan(80);
+
+    const rate = outfitAt(160, "rate", DEMO);
+    expect(rate.stdout).toMatch(/E1 orifice/);
+    expect(rate.stdout).toMatch(/Chamber/);
+    expect(rate.stdout).not.toContain("Not shown at this width");
+  });
+
+  it("`design --wide` at 80 columns and piped output without COLUMNS keep the whole table, identically", () => {
+    const wide = outfitAt(80, "design", DEMO, "--budget", "1500", "--top", "2", "--wide");
+    const piped = outfitAt(null, "design", DEMO, "--budget", "1500", "--top", "2");
+    const table = (text: string) => text.split("\n").slice(0, 8).join("\n");
+    expect(table(wide.stdout)).toContain("Binding check");
+    expect(table(wide.stdout)).toContain("Outlet");
+    expect(longest(table(wide.stdout))).toBeGreaterThan(80);
+    expect(table(piped.stdout)).toBe(table(wide.stdout));
+  });
+});
+
+describe("help", () => {
+  it.each(["route", "rate", "design", "report", "hydrograph", "starter", "volume", "pond"])("`%s --help` lists its exit codes and prints its defaults as numbers", (command) => {
+    const run = outfitAt(100, command, "--help");
+    expect(run.status).toBe(0);
+    expect(run.stdout).toMatch(/Exit codes: 0 (done|written|a pond fits);/);
+    expect(run.stdout).toMatch(/2 bad input/);
+    expect(run.stdout).not.toMatch(/\(default: "/);
+  });
+
+  it("--step is a time in minutes everywhere; a stage interval is --stage-step", () => {
+    for (const command of ["route", "report"]) expect(outfitAt(100, command, "--help").stdout).toMatch(/--step <minutes>/);
+    for (const command of ["rate", "report"]) expect(outfitAt(100, command, "--help").stdout).toMatch(/--stage-step <length>/);
+    expect(outfitAt(100, "rate", "--help").stdout).not.toMatch(/--step </);
+  });
+});
