@@ -92,7 +92,7 @@ function removeStale(dir: string, keep: number): string[] {
 
 export async function designCommand(path: string, options: DesignCommandOptions): Promise<number> {
   if (options.sizePond) return pondDesignCommand(path, options);
-  const loaded = load(path);
+  const loaded = load(path, options.quiet === true);
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);
   const limits = designLimits(options);

@@ -121,7 +121,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: "Cost\n(units)", align: "right" },
-    ...(baseline ? [{ head: "Saving\n(units, %)", align: "right" } as Column] : []),
+    ...(baseline ? [{ head: "Saving\n(units, %)", align: "right", narrow: "detail" } as Column] : []),
     { head: "Binding check", narrow: "detail" },
     { head: "Status" },
   ];

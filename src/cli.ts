@@ -137,7 +137,7 @@ function searchOptions(command: Command, extra: (command: Command) => Command): 
     .addOption(withDefault("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all"))
     .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
     .option("--keep-barrel", "keep the existing barrel as it is")
-    .option("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost");
+    .addOption(withDefault("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost"));
   return extra(command)
     .option("--workers <n>", "worker threads fitting layouts (default: all cores; the ranking does not depend on it)")
     .option("--quiet", "no progress and no notes on stderr")

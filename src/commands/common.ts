@@ -12,8 +12,10 @@ export class UsageError extends Error {
   }
 }
 
-export function load(path: string): LoadedCase {
+/** Loads a case and prints its notes on stderr (none when `quiet`). */
+export function load(path: string, quiet = false): LoadedCase {
   const loaded = loadCase(path);
+  if (quiet) return loaded;
   for (const notice of loaded.notices) printErr(`outfit: note: ${notice}\n`);
   if (loaded.case.sizing) {
     printErr(`outfit: note: no pond given: using the pond sized from the site limits for the ${loaded.case.sizing.storm} storm's largest storage estimate (outfit pond shows it; design --size-pond sizes pond and outlet together)\n`);
