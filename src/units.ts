@@ -37,6 +37,21 @@ export const INTENSITY_UNITS: Readonly<Record<string, number>> = {
   "mm/hr": 0.001 / SECONDS_PER_HOUR,
 };
 
+/** Cubic metres per second per flow unit accepted in release limits (1 cfs = 1 ft3/s). */
+export const FLOW_UNITS: Readonly<Record<string, number>> = {
+  cfs: FOOT ** 3,
+  "ft3/s": FOOT ** 3,
+  "m3/s": 1,
+  "l/s": 0.001,
+};
+
+/** Cubic metres per second per square metre per unit-area release rate ("0.04 cfs/ac", "2 L/s/ha"). */
+export const UNIT_AREA_RATE_UNITS: Readonly<Record<string, number>> = {
+  "cfs/ac": FOOT ** 3 / AREA_UNITS.ac,
+  "l/s/ha": 0.001 / AREA_UNITS.ha,
+  "m3/s/ha": 1 / AREA_UNITS.ha,
+};
+
 /** A number, optionally followed by a unit such as "in", "km2" or "mm/h". */
 export const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*)?\s*$/;
 
@@ -77,6 +92,17 @@ export function parseDepth(value: number | string, system: UnitSystem): number |
 /** Parses a rainfall intensity ("2.5 in/h", "60 mm/h"; a bare number is in/h (US) or mm/h (SI)); returns m/s. */
 export function parseIntensity(value: number | string, system: UnitSystem): number | { error: string } {
   return parseQuantity(value, INTENSITY_UNITS, baseIntensity(system), "an intensity", '"2.5 in/h" or "60 mm/h"');
+}
+
+/** Parses a flow ("6.5 cfs", "184 L/s", "0.2 m3/s"; a bare number is cfs (US) or m3/s (SI)); returns m3/s. */
+export function parseFlow(value: number | string, system: UnitSystem): number | { error: string } {
+  return parseQuantity(value, FLOW_UNITS, baseFlow(system), "a flow", '"6.5 cfs" or "184 L/s"');
+}
+
+/** Parses a unit-area release rate ("0.04 cfs/ac", "2.5 L/s/ha"; a bare number is cfs/ac (US) or L/s/ha (SI)); returns m3/s per m2. */
+export function parseUnitAreaRate(value: number | string, system: UnitSystem): number | { error: string } {
+  const base = system === "US" ? UNIT_AREA_RATE_UNITS["cfs/ac"] : UNIT_AREA_RATE_UNITS["l/s/ha"];
+  return parseQuantity(value, UNIT_AREA_RATE_UNITS, base, "a release rate per area", '"0.04 cfs/ac" or "2.5 L/s/ha"');
 }
 
 /** Square metres per bare watershed-area number: acres (US) or hectares (SI). */

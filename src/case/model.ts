@@ -30,9 +30,25 @@ export interface Hydrograph {
 export interface Storm {
   name: string;
   returnPeriod: number;
-  /** Allowable peak outflow, m3/s; null when the storm has no target. */
+  /** Allowable peak outflow, m3/s (the smallest of its release limits); null when the storm has no target. */
   target: number | null;
+  /** Every release limit of the storm (the plain `target` among them); empty when it has no target. */
+  releaseLimits: ReleaseLimit[];
+  /** The release limit that governs (the smallest); null when the storm has no target. */
+  governingLimit: ReleaseLimit | null;
   inflow: Hydrograph;
+}
+
+/** One allowable-release form of a storm, resolved to a flow. */
+export interface ReleaseLimit {
+  /** "target" (the plain field), "flow", "share-of-pre", "per-area". */
+  form: "target" | "flow" | "share-of-pre" | "per-area";
+  /** m3/s. */
+  flow: number;
+  /** How the limit was stated, in the case's words (e.g. "50 % of the pre-development peak"). */
+  statement: string;
+  /** Free-text source (e.g. an ordinance clause); null when the case gives none. */
+  label: string | null;
 }
 
 export interface Criteria {
@@ -45,6 +61,12 @@ export interface Criteria {
   drawdownDepth: number;
   /** Storms with a return period up to this many years must not reach the spillway crest. */
   spillwayDryThrough: number;
+  /** The principal outlet blocked: the spillway alone passes `storm` with `freeboard` (m) below the top; null when not asked. */
+  blockedOutlet: { storm: string; freeboard: number; label: string | null } | null;
+  /** Assumed blocked share of the openings' open area; `checks` lists the rule kinds it applies to (null: every "at most" rule). */
+  clogging: { fraction: number; checks: string[] | null; label: string | null } | null;
+  /** Source labels of the criteria rules (null when the case gives none). */
+  labels: { freeboard: string | null; drawdown: string | null; spillway: string | null; overtopping: string | null };
 }
 
 export interface CircularOrifice {

@@ -9,6 +9,7 @@ import { parseInflowCsv } from "./csv.js";
 import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
+import { stormLimits } from "./releaseLimits.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
 
 export { Converter } from "./converter.js";
@@ -137,7 +138,7 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
   return {
     name: storm.name,
     returnPeriod: storm.returnPeriod,
-    target: storm.target === undefined ? (derived?.pre?.peak ?? null) : storm.target * cv.flow,
+    ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
     inflow,
   };
 }
@@ -150,16 +151,31 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
     cv.problem("criteria.freeboard.storm", show(c.freeboard.storm), `the name of a storm (${file.storms.map((s) => s.name).join(", ")})`);
   }
   const us = file.units === "US";
+  const freeboardDepth = cv.optionalLength(c.freeboard?.depth, "criteria.freeboard.depth", us ? FOOT : 0.3);
+  const stormNames = file.storms.map((s) => s.name);
+  if (c.blockedOutlet && !stormNames.includes(c.blockedOutlet.storm)) {
+    cv.problem("criteria.blockedOutlet.storm", show(c.blockedOutlet.storm), `the name of a storm (${stormNames.join(", ")})`);
+  }
   return {
     over: c.tolerance?.over ?? 0,
     under: c.tolerance?.under ?? 0.1,
     // Defaults 1 ft / 0.3 m and 0.1 ft / 0.03 m: the case-format contract (1 ft above the 100-yr
     // water surface is common practice).
-    freeboardDepth: cv.optionalLength(c.freeboard?.depth, "criteria.freeboard.depth", us ? FOOT : 0.3),
+    freeboardDepth,
     freeboardStorm,
     drawdownHours: c.drawdown?.hours ?? null,
     drawdownDepth: cv.optionalLength(c.drawdown?.depth, "criteria.drawdown.depth", us ? 0.1 * FOOT : 0.03),
     spillwayDryThrough: c.spillway?.dryThrough ?? largest.returnPeriod,
+    blockedOutlet: c.blockedOutlet
+      ? { storm: c.blockedOutlet.storm, freeboard: cv.optionalLength(c.blockedOutlet.freeboard, "criteria.blockedOutlet.freeboard", freeboardDepth), label: c.blockedOutlet.source ?? null }
+      : null,
+    clogging: c.clogging ? { fraction: c.clogging.fraction, checks: c.clogging.checks ?? null, label: c.clogging.source ?? null } : null,
+    labels: {
+      freeboard: c.freeboard?.source ?? null,
+      drawdown: c.drawdown?.source ?? null,
+      spillway: c.spillway?.source ?? null,
+      overtopping: c.overtopping?.source ?? null,
+    },
   };
 }
 

@@ -2,7 +2,7 @@
 // Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
 import { ENTRANCES } from "../hydraulics/entrances.js";
 import { z } from "zod";
-import { AREA_UNITS, INTENSITY_UNITS, LENGTH_UNITS, QUANTITY_PATTERN } from "../units.js";
+import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, QUANTITY_PATTERN, UNIT_AREA_RATE_UNITS } from "../units.js";
 
 const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "6 in"`;
 
@@ -223,11 +223,52 @@ export const rainfallSchema = z
     }
   });
 
+/** Free-text source of a rule (an ordinance clause, a design manual section), shown with its checks. */
+const sourceLabel = z.string({ error: "a free-text source label such as \"county ordinance 4.2\"" }).min(1, { message: "a non-empty source label" }).optional();
+
+/** A flow: a bare number in cfs (US) or m3/s (SI), or "6.5 cfs", "184 L/s", "0.2 m3/s". */
+const flowQuantity = quantitySchema(FLOW_UNITS, `a flow: a number, or a number and a unit (cfs, m3/s, L/s) such as "6.5 cfs"`, "flow");
+const nonNegativeFlow = flowQuantity.superRefine((value, ctx) => {
+  const n = typeof value === "number" ? value : parseFloat(String(value));
+  if (!(n >= 0)) ctx.addIssue({ code: "custom", message: "a flow of zero or more", input: value });
+});
+
+/**
+ * One allowable-release form of a storm (several may be given; the smallest governs): a flow, a share
+ * of the pre-development peak, or a release per unit of area over a stated area.
+ */
+export const releaseLimitSchema = z
+  .object({
+    flow: nonNegativeFlow.optional(),
+    shareOfPre: finite.refine((v) => v > 0 && v <= 1, { message: "a fraction greater than 0 and at most 1" }).optional(),
+    prePeak: nonNegativeFlow.optional(),
+    perArea: positiveQuantity(
+      quantitySchema(UNIT_AREA_RATE_UNITS, `a release per area: a number, or a number and a unit (cfs/ac, L/s/ha, m3/s/ha) such as "0.04 cfs/ac"`, "release-per-area"),
+      "a release per area",
+    ).optional(),
+    area: positiveArea.optional(),
+    source: sourceLabel,
+  })
+  .superRefine(exactlyOne(["flow", "shareOfPre", "perArea"], "release limit"))
+  .superRefine((limit, ctx) => {
+    if (limit.perArea !== undefined && limit.area === undefined) {
+      ctx.addIssue({ code: "custom", path: ["area"], message: 'the area the release per area applies to, such as "12 ac"', input: undefined });
+    }
+    if (limit.perArea === undefined && limit.area !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["area"], message: "an area only with perArea", input: limit.area });
+    }
+    if (limit.shareOfPre === undefined && limit.prePeak !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["prePeak"], message: "a pre-development peak only with shareOfPre", input: limit.prePeak });
+    }
+  });
+
 export const stormSchema = z
   .object({
     name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
     returnPeriod: positive,
     target: nonNegative.optional(),
+    releaseLimits: z.array(releaseLimitSchema, { error: "a list of release limits" }).min(1, { message: "at least one release limit" }).optional(),
+    targetSource: sourceLabel,
     inflow: inflowSchema.optional(),
     rainfall: rainfallSchema.optional(),
   })
@@ -244,9 +285,21 @@ export const criteriaSchema = z.object({
       under: finite.refine((v) => v >= 0 && v <= 1, { message: "a fraction from 0 to 1" }).optional(),
     })
     .optional(),
-  freeboard: z.object({ depth: lengthSchema.optional(), storm: z.string().optional() }).optional(),
-  drawdown: z.object({ hours: positive.optional(), depth: lengthSchema.optional() }).optional(),
-  spillway: z.object({ dryThrough: positive.optional() }).optional(),
+  freeboard: z.object({ depth: lengthSchema.optional(), storm: z.string().optional(), source: sourceLabel }).optional(),
+  drawdown: z.object({ hours: positive.optional(), depth: lengthSchema.optional(), source: sourceLabel }).optional(),
+  spillway: z.object({ dryThrough: positive.optional(), source: sourceLabel }).optional(),
+  /** The principal outlet blocked: the spillway alone must pass `storm` with `freeboard` (default freeboard.depth). */
+  blockedOutlet: z.object({ storm: z.string({ error: "the name of a storm" }), freeboard: lengthSchema.optional(), source: sourceLabel }).optional(),
+  /** An assumed blocked share of the openings' open area, applied to every "at most" check or to the named kinds. */
+  clogging: z
+    .object({
+      fraction: finite.refine((v) => v > 0 && v < 1, { message: "a fraction greater than 0 and less than 1 (0.5 for 50 %)" }),
+      checks: z.array(z.string(), { error: "a list of check kinds" }).min(1, { message: "at least one check kind" }).optional(),
+      source: sourceLabel,
+    })
+    .optional(),
+  /** Overtopping check's source label (the check itself always applies). */
+  overtopping: z.object({ source: sourceLabel }).optional(),
 });
 
 const keep = z.boolean({ error: "true or false" }).optional();

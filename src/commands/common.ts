@@ -1,6 +1,8 @@
 // Shared pieces of the commands: loading a case with its notices, option parsing, output.
 import { loadCase, type LoadedCase } from "../case/load.js";
 import { CaseError } from "../case/errors.js";
+import { RULE_KINDS } from "../assess/rules/registry.js";
+import { basename } from "node:path";
 import { writeFileAtomic } from "../io.js";
 import { parseLength, type UnitSystem } from "../units.js";
 
@@ -14,6 +16,11 @@ export class UsageError extends Error {
 
 export function load(path: string): LoadedCase {
   const loaded = loadCase(path);
+  const kinds = loaded.case.criteria.clogging?.checks ?? [];
+  const problems = kinds.flatMap((kind, i) =>
+    RULE_KINDS.includes(kind) ? [] : [{ where: `${basename(path)}: criteria.clogging.checks[${i}]`, found: JSON.stringify(kind), expected: `a check kind (${RULE_KINDS.join(", ")})` }],
+  );
+  if (problems.length > 0) throw new CaseError(problems);
   for (const notice of loaded.notices) process.stderr.write(`outfit: note: ${notice}\n`);
   return loaded;
 }

@@ -67,7 +67,7 @@ export function checkValue(c: Case, check: Check, value: number | null): string 
 export function checksTable(c: Case, checks: readonly Check[]): string {
   const table = plainTable(["Check", "Value", "Limit", "Slack", "Result"], [false, true, true, true, false]);
   for (const check of checks) {
-    table.push([check.name, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
+    table.push([check.label === null ? check.name : `${check.name} [${check.label}]`, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
   }
   return table.toString();
 }
@@ -83,7 +83,7 @@ export function warningsText(assessment: Assessment): string {
 
 export function verdictText(assessment: Assessment): string {
   const b = assessment.binding;
-  const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks";
+  const binding = b ? `binding check: ${b.name}${b.label === null ? "" : ` [${b.label}]`} (slack ${percent(b.slack)})` : "no checks";
   return `${assessment.compliant ? "Compliant" : "NOT compliant"}; ${binding}`;
 }
 

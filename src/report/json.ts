@@ -14,6 +14,10 @@ export interface StormJson {
   name: string;
   returnPeriod: number;
   target: number | null;
+  /** The release limit that governs the target (the smallest of the storm's limits). */
+  governingLimit: { form: string; statement: string; label: string | null } | null;
+  /** Every release limit of the storm, in case units. */
+  releaseLimits: { form: string; statement: string; label: string | null; flow: number }[];
   peakInflow: number;
   peakOutflow: number;
   timeOfPeakOutflow: number;
@@ -42,6 +46,8 @@ export function stormJson(c: Case, s: StormRouting): StormJson {
     name: s.storm.name,
     returnPeriod: s.storm.returnPeriod,
     target: target === null ? null : u.flow(target),
+    governingLimit: s.storm.governingLimit && { form: s.storm.governingLimit.form, statement: s.storm.governingLimit.statement, label: s.storm.governingLimit.label },
+    releaseLimits: s.storm.releaseLimits.map((l) => ({ form: l.form, statement: l.statement, label: l.label, flow: u.flow(l.flow) })),
     peakInflow: u.flow(r.peakInflow),
     peakOutflow: u.flow(r.peakOutflow),
     timeOfPeakOutflow: r.timeOfPeakOutflow / 60,
@@ -64,6 +70,8 @@ export interface CheckJson {
   storm: string;
   key: string;
   label: string | null;
+  /** "design", or "clogged" for the twin evaluated with criteria.clogging. */
+  condition: string;
   passed: boolean;
   value: number | null;
   limit: number;
@@ -84,6 +92,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
     storm: check.storm,
     key: check.key,
     label: check.label,
+    condition: check.condition,
     passed: check.passed,
     value: check.value === null ? null : convert(check.value),
     limit: convert(check.limit),

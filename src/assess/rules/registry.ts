@@ -6,8 +6,9 @@ import { freeboard } from "./freeboard.js";
 import { spillwayDry } from "./spillwayDry.js";
 import { drawdown } from "./drawdown.js";
 import { overtopping } from "./overtopping.js";
+import { blockedOutlet } from "./blockedOutlet.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 
@@ -15,3 +16,6 @@ const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 export function ruleOf(check: { kind: CheckKind }): Rule {
   return BY_KIND.get(check.kind)!;
 }
+
+/** The kinds of every rule (what `criteria.clogging.checks` may name). */
+export const RULE_KINDS: readonly CheckKind[] = RULES.map((r) => r.kind);
