@@ -65,6 +65,13 @@ export interface Criteria {
   blockedOutlet: { storm: string; freeboard: number; label: string | null } | null;
   /** Assumed blocked share of the openings' open area; `checks` lists the rule kinds it applies to (null: every "at most" rule). */
   clogging: { fraction: number; checks: string[] | null; label: string | null } | null;
+  /**
+   * Extended-detention rules: `storm` (a storm's volume at its peak stage) or `volume` (m3 above the
+   * pool: a water-quality volume) takes at least `hours` to release `share` of itself (1: to drain).
+   */
+  extendedDetention: { storm: string | null; volume: number | null; hours: number; share: number; label: string | null }[];
+  /** Smallest opening the rules permit (m: an orifice's diameter, or a rectangular orifice's smaller side); null when none. */
+  minimumOpening: { size: number; label: string | null } | null;
   /** Source labels of the criteria rules (null when the case gives none). */
   labels: { freeboard: string | null; drawdown: string | null; spillway: string | null; overtopping: string | null };
 }

@@ -6,7 +6,7 @@ import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Stor
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { parseInflowCsv } from "./csv.js";
-import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT } from "../units.js";
+import { baseArea, baseLength, baseVolume, baseWeirCoefficient, FOOT, parseArea, parseDepth } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { stormLimits } from "./releaseLimits.js";
@@ -170,6 +170,12 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
       ? { storm: c.blockedOutlet.storm, freeboard: cv.optionalLength(c.blockedOutlet.freeboard, "criteria.blockedOutlet.freeboard", freeboardDepth), label: c.blockedOutlet.source ?? null }
       : null,
     clogging: c.clogging ? { fraction: c.clogging.fraction, checks: c.clogging.checks ?? null, label: c.clogging.source ?? null } : null,
+    extendedDetention: (c.extendedDetention ?? []).map((r, i) => {
+      if (r.storm !== undefined && !stormNames.includes(r.storm)) cv.problem(`criteria.extendedDetention[${i}].storm`, show(r.storm), `the name of a storm (${stormNames.join(", ")})`);
+      const volume = r.volume !== undefined ? r.volume * baseVolume(file.units) : r.depth !== undefined && r.area !== undefined ? waterQualityVolume(r.depth, r.area, cv, `criteria.extendedDetention[${i}]`) : null;
+      return { storm: r.storm ?? null, volume, hours: r.hours, share: r.share ?? 1, label: r.source ?? null };
+    }),
+    minimumOpening: c.minimumOpening ? { size: cv.length(c.minimumOpening.size, "criteria.minimumOpening.size"), label: c.minimumOpening.source ?? null } : null,
     labels: {
       freeboard: c.freeboard?.source ?? null,
       drawdown: c.drawdown?.source ?? null,
@@ -177,6 +183,15 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
       overtopping: c.overtopping?.source ?? null,
     },
   };
+}
+
+/** A water-quality volume given as a runoff depth over an area (m3). */
+function waterQualityVolume(depth: number | string, area: number | string, cv: Converter, path: string): number {
+  const d = parseDepth(depth, cv.units);
+  const a = parseArea(area, cv.units);
+  if (typeof d !== "number") cv.problem(`${path}.depth`, show(depth), d.error);
+  if (typeof a !== "number") cv.problem(`${path}.area`, show(area), a.error);
+  return typeof d === "number" && typeof a === "number" ? d * a : NaN;
 }
 
 /** Converts an `outlet` section (also used for outlets written by the search). */

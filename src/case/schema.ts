@@ -298,6 +298,30 @@ export const criteriaSchema = z.object({
       source: sourceLabel,
     })
     .optional(),
+  /** Extended detention: a storm or a water-quality volume takes at least `hours` to release `share` of itself. */
+  extendedDetention: z
+    .array(
+      z
+        .object({
+          storm: z.string({ error: "the name of a storm" }).optional(),
+          volume: finite.refine((v) => v > 0, { message: "a volume greater than zero (ft3 or m3)" }).optional(),
+          depth: positiveQuantity(lengthSchema, "a depth").optional(),
+          area: positiveArea.optional(),
+          hours: positive,
+          share: finite.refine((v) => v > 0 && v <= 1, { message: "a fraction greater than 0 and at most 1" }).optional(),
+          source: sourceLabel,
+        })
+        .superRefine(exactlyOne(["storm", "volume", "depth"], "extended-detention rule (a storm, a volume, or a depth over an area)"))
+        .superRefine((r, ctx) => {
+          if ((r.depth === undefined) !== (r.area === undefined)) {
+            ctx.addIssue({ code: "custom", path: [r.depth === undefined ? "depth" : "area"], message: "a depth and an area together (a water-quality depth over its area)", input: undefined });
+          }
+        }),
+      { error: "a list of extended-detention rules" },
+    )
+    .optional(),
+  /** The smallest opening the rules permit (an orifice's diameter or a rectangular orifice's smaller side). */
+  minimumOpening: z.object({ size: positiveLength, source: sourceLabel }).optional(),
   /** Overtopping check's source label (the check itself always applies). */
   overtopping: z.object({ source: sourceLabel }).optional(),
 });

@@ -57,17 +57,32 @@ export function stormTable(c: Case, routing: CaseRouting): string {
       detail.control,
     ]);
   }
-  return table.toString();
+  const governing = routing.storms.filter(({ storm: s }) => s.governingLimit !== null && (s.governingLimit.form !== "target" || s.governingLimit.label !== null));
+  const lines = governing.map(({ storm: s }) => `  ${s.name}: ${targetText(c, s)}`);
+  return lines.length === 0 ? table.toString() : [table.toString(), "Governing release limit (the smallest of each storm's limits):", ...lines].join("\n");
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
   return quantityText(formatter(c.units), ruleOf(check).quantity, value);
 }
 
+/** A check's name with its rule's source label, if any. */
+export function checkTitle(check: Check): string {
+  return check.label === null ? check.name : `${check.name} [${check.label}]`;
+}
+
+/** The storm's target with the release limit that governs it, when that is not the plain target. */
+export function targetText(c: Case, storm: Case["storms"][number]): string {
+  if (storm.target === null) return "none";
+  const g = storm.governingLimit;
+  const words = g === null || (g.form === "target" && g.label === null) ? "" : ` (${g.statement}${g.label === null ? "" : `, ${g.label}`})`;
+  return `${formatter(c.units).flow(storm.target)}${words}`;
+}
+
 export function checksTable(c: Case, checks: readonly Check[]): string {
   const table = plainTable(["Check", "Value", "Limit", "Slack", "Result"], [false, true, true, true, false]);
   for (const check of checks) {
-    table.push([check.label === null ? check.name : `${check.name} [${check.label}]`, checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
+    table.push([checkTitle(check), checkValue(c, check, check.value), `${limitWord(check)} ${checkValue(c, check, check.limit)}`, percent(check.slack), check.passed ? "pass" : "FAIL"]);
   }
   return table.toString();
 }
@@ -83,7 +98,7 @@ export function warningsText(assessment: Assessment): string {
 
 export function verdictText(assessment: Assessment): string {
   const b = assessment.binding;
-  const binding = b ? `binding check: ${b.name}${b.label === null ? "" : ` [${b.label}]`} (slack ${percent(b.slack)})` : "no checks";
+  const binding = b ? `binding check: ${checkTitle(b)} (slack ${percent(b.slack)})` : "no checks";
   return `${assessment.compliant ? "Compliant" : "NOT compliant"}; ${binding}`;
 }
 

@@ -85,7 +85,8 @@ export function checkJson(c: Case, check: Check): CheckJson {
   const quantity = ruleOf(check).quantity;
   const flow = quantity === "flow";
   const hours = quantity === "hours";
-  const convert = (x: number) => (flow ? u.flow(x) : hours ? x : u.length(x));
+  const size = quantity === "size";
+  const convert = (x: number) => (flow ? u.flow(x) : hours ? x : size ? u.smallLength(x) : u.length(x));
   return {
     name: check.name,
     kind: check.kind,
@@ -97,7 +98,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
     value: check.value === null ? null : convert(check.value),
     limit: convert(check.limit),
     slack: check.slack,
-    unit: flow ? labels.flow : hours ? "h" : labels.length,
+    unit: flow ? labels.flow : hours ? "h" : size ? (c.units === "US" ? "in" : "mm") : labels.length,
   };
 }
 

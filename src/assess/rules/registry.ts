@@ -7,8 +7,11 @@ import { spillwayDry } from "./spillwayDry.js";
 import { drawdown } from "./drawdown.js";
 import { overtopping } from "./overtopping.js";
 import { blockedOutlet } from "./blockedOutlet.js";
+import { extendedDetention } from "./extendedDetention.js";
+import { minimumOpening } from "./minimumOpening.js";
+import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 

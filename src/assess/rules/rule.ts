@@ -10,7 +10,7 @@ import type { StormRouting } from "../../routing/routeCase.js";
 export type CheckKind = string;
 
 /** What a check's value and limit measure (how they are converted and printed). */
-export type Quantity = "flow" | "elevation" | "hours";
+export type Quantity = "flow" | "elevation" | "hours" | "size";
 
 export interface Check {
   /** Stable identity: `${kind}:${storm}`; match checks by it, never by `name`. */
@@ -23,7 +23,7 @@ export interface Check {
   /** The outlet condition the check was evaluated on: "design" (as given) or "clogged" (criteria.clogging). */
   condition: "design" | "clogged";
   passed: boolean;
-  /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown; null when not reached. */
+  /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown, m for sizes; null when not reached. */
   value: number | null;
   limit: number;
   slack: number;
