@@ -5,7 +5,7 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { plainTable, percent, checkValue } from "../src/report/console.js";
+import { plainTable, percent, checkValue, governingLimitLines } from "../src/report/console.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
 
@@ -76,7 +76,8 @@ export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, out
 
 export function designText(p: SearchProblem, run: SearchRun, top: number): string {
   const f = formatter(p.case.units);
-  const lines: string[] = [`outfit design: ${p.case.name} (${p.case.units} units)`, ""];
+  const governing = governingLimitLines(p.case);
+  const lines: string[] = [`outfit design: ${p.case.name} (${p.case.units} units)`, ...governing, ""];
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;

@@ -57,9 +57,7 @@ export function stormTable(c: Case, routing: CaseRouting): string {
       detail.control,
     ]);
   }
-  const governing = routing.storms.filter(({ storm: s }) => s.governingLimit !== null && (s.governingLimit.form !== "target" || s.governingLimit.label !== null));
-  const lines = governing.map(({ storm: s }) => `  ${s.name}: ${targetText(c, s)}`);
-  return lines.length === 0 ? table.toString() : [table.toString(), "Governing release limit (the smallest of each storm's limits):", ...lines].join("\n");
+  return [table.toString(), ...governingLimitLines(c)].join("\n");
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
@@ -77,6 +75,13 @@ export function targetText(c: Case, storm: Case["storms"][number]): string {
   const g = storm.governingLimit;
   const words = g === null || (g.form === "target" && g.label === null) ? "" : ` (${g.statement}${g.label === null ? "" : `, ${g.label}`})`;
   return `${formatter(c.units).flow(storm.target)}${words}`;
+}
+
+/** Lines naming each storm's governing release limit and its source (none when every storm has a plain, unlabelled target). */
+export function governingLimitLines(c: Case): string[] {
+  const stated = c.storms.filter((s) => s.governingLimit !== null && (s.governingLimit.form !== "target" || s.governingLimit.label !== null));
+  if (stated.length === 0) return [];
+  return ["Governing release limit (the smallest of each storm's limits):", ...stated.map((s) => `  ${s.name}: ${targetText(c, s)}`)];
 }
 
 export function checksTable(c: Case, checks: readonly Check[]): string {

@@ -84,3 +84,25 @@ describe("the smallest release limit governs", () => {
     expect(() => caseWith("US", { releaseLimits: [{ shareOfPre: 1.5, prePeak: 2 }] })).toThrow(/fraction/);
   });
 });
+
+describe("a share of the pre-development peak the hydrology section derives", () => {
+  it("is the share times the derived peak (the storm's target without release limits)", () => {
+    // Invented 10 ac site, pasture before development (the hydrology tests' site).
+    const json = {
+      name: "derived pre peak (invented)",
+      units: "US",
+      pond: { bottom: 100, top: 106, storage: { prismoid: { length: 150, width: 80, sideSlope: 3 } } },
+      hydrology: {
+        pre: { area: "10 ac", curveNumber: 65, tc: 30 },
+        post: { area: "10 ac", curveNumber: 88, tc: 10 },
+      },
+      storms: [{ name: "10-yr", returnPeriod: 10, rainfall: { depth: "5 in", distribution: "II" } }],
+    };
+    const plain = parseCase(json).case.storms[0];
+    const pre = plain.target!; // the derived pre-development peak, as before
+    expect(plain.governingLimit!.statement).toBe("pre-development peak (hydrology)");
+    const withShare = parseCase({ ...json, storms: [{ ...json.storms[0], releaseLimits: [{ shareOfPre: 0.75, source: "county ordinance 4.2(a)" }] }] }).case.storms[0];
+    expect(withShare.target).toBeCloseTo(0.75 * pre, 12);
+    expect(withShare.governingLimit).toMatchObject({ form: "share-of-pre", statement: "75 % of the pre-development peak (hydrology)", label: "county ordinance 4.2(a)" });
+  });
+});
