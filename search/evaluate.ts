@@ -47,7 +47,7 @@ export class Evaluator {
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,
-      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool }),
+      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ceiling: storm.ceiling?.hydrograph }),
     }));
   }
 

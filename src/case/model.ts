@@ -37,6 +37,8 @@ export interface Storm {
   /** The release limit that governs (the smallest); null when the storm has no target. */
   governingLimit: ReleaseLimit | null;
   inflow: Hydrograph;
+  /** The outflow must stay under this hydrograph at every instant of its span (a release-limit form); null when not asked. */
+  ceiling: { hydrograph: Hydrograph; statement: string; label: string | null } | null;
 }
 
 /** One allowable-release form of a storm, resolved to a flow. */

@@ -101,27 +101,51 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
 /** A storm's inflow and target: given explicitly, or derived from its rainfall (explicit values win). */
 function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm {
   const path = `storms[${index}]`;
+  const inflow: Hydrograph = storm.inflow || !derived?.post ? readHydrograph(storm.inflow, `${path}.inflow`, cv, context) : derived.post.hydrograph;
+  return {
+    name: storm.name,
+    returnPeriod: storm.returnPeriod,
+    ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
+    inflow,
+    ceiling: stormCeiling(storm, path, cv, context, derived),
+  };
+}
+
+/** The pre-development hydrograph the outflow must stay under (a `belowPreHydrograph` release limit), given or derived. */
+function stormCeiling(storm: CaseFile["storms"][number], path: string, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm["ceiling"] {
+  const i = (storm.releaseLimits ?? []).findIndex((r) => r.belowPreHydrograph === true);
+  if (i < 0) return null;
+  const r = storm.releaseLimits![i];
+  const where = `${path}.releaseLimits[${i}]`;
+  if (r.preHydrograph) return { hydrograph: readHydrograph(r.preHydrograph, `${where}.preHydrograph`, cv, context), statement: "under the given pre-development hydrograph", label: r.source ?? null };
+  if (derived?.pre) return { hydrograph: derived.pre.hydrograph, statement: "under the pre-development hydrograph (hydrology)", label: r.source ?? null };
+  cv.problem(`${where}.preHydrograph`, "none given", "a pre-development hydrograph (file or series), or a hydrology section with a pre-development area to derive it");
+  return null;
+}
+
+/** A hydrograph given as a CSV file or a series of [minutes, flow] pairs, in SI. */
+function readHydrograph(source: { file?: string; series?: [number, number][] } | undefined, path: string, cv: Converter, context: NormalizeContext): Hydrograph {
   let minutes: number[] = [];
   let flows: number[] = [];
-  if (storm.inflow?.series) {
-    const series = storm.inflow.series;
+  if (source?.series) {
+    const series = source.series;
     series.forEach(([t, q], i) => {
-      if (q < 0) cv.problem(`${path}.inflow.series[${i}][1]`, show(q), "a flow of zero or more");
+      if (q < 0) cv.problem(`${path}.series[${i}][1]`, show(q), "a flow of zero or more");
       if (i > 0 && !(t > series[i - 1][0])) {
-        cv.problem(`${path}.inflow.series[${i}][0]`, show(t), `a time later than the point before (${series[i - 1][0]} min)`);
+        cv.problem(`${path}.series[${i}][0]`, show(t), `a time later than the point before (${series[i - 1][0]} min)`);
       }
     });
-    if (series.length < 2) cv.problem(`${path}.inflow.series`, `${series.length} points`, "at least two [minutes, flow] points");
+    if (series.length < 2) cv.problem(`${path}.series`, `${series.length} points`, "at least two [minutes, flow] points");
     minutes = series.map((p) => p[0]);
     flows = series.map((p) => p[1]);
-  } else if (storm.inflow) {
-    const name = storm.inflow.file!;
+  } else if (source?.file) {
+    const name = source.file;
     const full = resolve(context.directory, name);
     let text: string | undefined;
     try {
       text = readFileSync(full, "utf8");
     } catch (error) {
-      cv.problem(`${path}.inflow.file`, `${show(name)}: ${describeIoError(error)} (looked for ${full})`, "a readable CSV inflow file, named relative to the case file");
+      cv.problem(`${path}.file`, `${show(name)}: ${describeIoError(error)} (looked for ${full})`, "a readable CSV inflow file, named relative to the case file");
     }
     if (text !== undefined) {
       const parsed = parseInflowCsv(text, name);
@@ -132,15 +156,7 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
       }
     }
   }
-  const inflow: Hydrograph = storm.inflow || !derived?.post
-    ? { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) }
-    : derived.post.hydrograph;
-  return {
-    name: storm.name,
-    returnPeriod: storm.returnPeriod,
-    ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
-    inflow,
-  };
+  return { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) };
 }
 
 function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {

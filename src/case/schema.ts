@@ -247,15 +247,20 @@ export const releaseLimitSchema = z
       "a release per area",
     ).optional(),
     area: positiveArea.optional(),
+    belowPreHydrograph: z.literal(true, { error: "true" }).optional(),
+    preHydrograph: inflowSchema.optional(),
     source: sourceLabel,
   })
-  .superRefine(exactlyOne(["flow", "shareOfPre", "perArea"], "release limit"))
+  .superRefine(exactlyOne(["flow", "shareOfPre", "perArea", "belowPreHydrograph"], "release limit"))
   .superRefine((limit, ctx) => {
     if (limit.perArea !== undefined && limit.area === undefined) {
       ctx.addIssue({ code: "custom", path: ["area"], message: 'the area the release per area applies to, such as "12 ac"', input: undefined });
     }
     if (limit.perArea === undefined && limit.area !== undefined) {
       ctx.addIssue({ code: "custom", path: ["area"], message: "an area only with perArea", input: limit.area });
+    }
+    if (limit.belowPreHydrograph === undefined && limit.preHydrograph !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["preHydrograph"], message: "a pre-development hydrograph only with belowPreHydrograph", input: "given" });
     }
     if (limit.shareOfPre === undefined && limit.prePeak !== undefined) {
       ctx.addIssue({ code: "custom", path: ["prePeak"], message: "a pre-development peak only with shareOfPre", input: limit.prePeak });

@@ -5,7 +5,7 @@ import type { RouteResult } from "../../src/routing/router.js";
 
 export function storm(name: string, returnPeriod: number, target: number | null): Storm {
   const governingLimit = target === null ? null : { form: "target" as const, flow: target, statement: "target", label: null };
-  return { name, returnPeriod, target, releaseLimits: governingLimit ? [governingLimit] : [], governingLimit, inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
+  return { name, returnPeriod, target, releaseLimits: governingLimit ? [governingLimit] : [], governingLimit, ceiling: null, inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
 }
 
 export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = {}): Case {

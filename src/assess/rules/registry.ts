@@ -7,11 +7,12 @@ import { spillwayDry } from "./spillwayDry.js";
 import { drawdown } from "./drawdown.js";
 import { overtopping } from "./overtopping.js";
 import { blockedOutlet } from "./blockedOutlet.js";
+import { belowPreHydrograph } from "./belowPreHydrograph.js";
 import { extendedDetention } from "./extendedDetention.js";
 import { minimumOpening } from "./minimumOpening.js";
 import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 
