@@ -47,7 +47,7 @@ export class Evaluator {
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,
-      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool }),
+      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ceiling: storm.ceiling?.hydrograph }),
     }));
   }
 
@@ -57,7 +57,7 @@ export class Evaluator {
     const file = designOutletFile(p, layout, vars);
     const outlet = designOutlet(p, file);
     const storms = this.routeStorms(outlet, p.case.storms);
-    const checks = evaluateChecks(p.case, outlet, storms);
+    const checks = evaluateChecks(p.case, outlet, storms, (o) => this.routeStorms(o, p.case.storms));
     const residuals = checkResiduals(p, checks);
     rangeResiduals(p, outlet, storms, residuals);
     const violations = geometryResiduals(p, layout, vars, residuals);

@@ -5,7 +5,7 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { percent, checkValue } from "../src/report/console.js";
+import { percent, checkValue, governingLimitLines } from "../src/report/console.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
@@ -109,7 +109,7 @@ export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, out
 export function designText(p: SearchProblem, run: SearchRun, top: number, layout: Layout = PLAIN): string {
   const f = formatter(p.case.units);
   const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
-  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ""];
+  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ...governingLimitLines(p.case).map((line) => w(line, 4)), ""];
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;

@@ -45,7 +45,7 @@ export function significant(x: number): string {
 }
 
 /** A check's value or limit in words: flows and elevations in case units, drawdown in hours. */
-export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hours", value: number | null): string {
+export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hours" | "size", value: number | null): string {
   if (value === null) return "not drained";
-  return quantity === "flow" ? f.flow(value) : quantity === "hours" ? `${value.toFixed(1)} h` : f.elevation(value);
+  return quantity === "flow" ? f.flow(value) : quantity === "hours" ? `${value.toFixed(1)} h` : quantity === "size" ? f.size(value) : f.elevation(value);
 }

@@ -76,7 +76,7 @@ export function parseNumber(text: string): number | null {
 }
 
 /** A number, optionally followed by a unit such as "in", "km2", "mm/h", "L/s" or the inch mark ("6\""). */
-const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*|")?\s*$/;
+export const QUANTITY_PATTERN = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([a-zA-Z][a-zA-Z0-9/]*|")?\s*$/;
 
 /** A quantity's number and unit text as written, or why it is not one; `units` lists the known units. */
 export function splitQuantity(text: string, units: Readonly<Record<string, number>>): { number: number; factor: number | null } | { error: string } {
@@ -89,6 +89,13 @@ export function splitQuantity(text: string, units: Readonly<Record<string, numbe
   if (factor === undefined) return { error: `a unit among ${Object.keys(units).join(", ")} ("${match[2]}" is not one)` };
   return { number, factor };
 }
+
+/** Cubic metres per second per square metre per unit-area release rate ("0.04 cfs/ac", "2 L/s/ha"). */
+export const UNIT_AREA_RATE_UNITS: Readonly<Record<string, number>> = {
+  "cfs/ac": FOOT ** 3 / AREA_UNITS.ac,
+  "l/s/ha": 0.001 / AREA_UNITS.ha,
+  "m3/s/ha": 1 / AREA_UNITS.ha,
+};
 
 /** Parses a number with an optional unit from `units`; a bare number is in `base` (SI per bare unit). */
 export function parseQuantity(
@@ -138,6 +145,12 @@ export function parseDepth(value: number | string, system: UnitSystem): number |
 /** Parses a rainfall intensity ("2.5 in/h", "60 mm/h"; a bare number is in/h (US) or mm/h (SI)); returns m/s. */
 export function parseIntensity(value: number | string, system: UnitSystem): number | { error: string } {
   return parseQuantity(value, INTENSITY_UNITS, baseIntensity(system), "an intensity", '"2.5 in/h" or "60 mm/h"');
+}
+
+/** Parses a unit-area release rate ("0.04 cfs/ac", "2.5 L/s/ha"; a bare number is cfs/ac (US) or L/s/ha (SI)); returns m3/s per m2. */
+export function parseUnitAreaRate(value: number | string, system: UnitSystem): number | { error: string } {
+  const base = system === "US" ? UNIT_AREA_RATE_UNITS["cfs/ac"] : UNIT_AREA_RATE_UNITS["l/s/ha"];
+  return parseQuantity(value, UNIT_AREA_RATE_UNITS, base, "a release rate per area", '"0.04 cfs/ac" or "2.5 L/s/ha"');
 }
 
 /** Square metres per bare watershed-area number: acres (US) or hectares (SI). */

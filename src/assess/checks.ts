@@ -1,21 +1,52 @@
 // The case's criteria as checks with value, limit and slack (case-format contract): slack is how far
 // a check is from failing as a fraction of its limit, on flows for flow checks and on depths above
 // pond.bottom for elevation checks; negative when the check fails. Each kind of check is one rule
-// in ./rules/; this file runs the registry.
+// in ./rules/; this file runs the registry, routing each variant some rule names once (and the
+// clogged outlet when the case assumes clogging).
 import type { Case, Outlet } from "../case/model.js";
-import type { StormRouting } from "../routing/routeCase.js";
+import { routeCase, type StormRouting } from "../routing/routeCase.js";
 import { RULES, ruleOf } from "./rules/registry.js";
-import type { Check } from "./rules/rule.js";
+import type { Check, RoutingVariant, RuleInput, VariantOutlet } from "./rules/rule.js";
+import { cloggedOutlet, cloggingApplies } from "./rules/clogging.js";
 
 export type { Check, CheckKind } from "./rules/rule.js";
 
-export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[]): Check[] {
+/** Routes every storm of the case through an outlet (the search passes its own grid's router). */
+export type OutletRouter = (outlet: Outlet) => readonly StormRouting[];
+
+/** Every variant some rule names, with the outlet it routes. */
+const VARIANTS: ReadonlyMap<RoutingVariant, VariantOutlet> = new Map(RULES.flatMap((r) => Object.entries(r.variants ?? {})));
+
+export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[], router: OutletRouter = (o) => routeCase(c, o).storms): Check[] {
   const checks: Check[] = [];
-  const input = { case: c, outlet, routings: { design: storms } };
+  const routings: Record<RoutingVariant, readonly StormRouting[]> & { design: readonly StormRouting[] } = { design: storms };
+  for (const [name, variant] of VARIANTS) {
+    const changed = variant(c, outlet);
+    if (changed) routings[name] = router(changed);
+  }
+  const input: RuleInput = { case: c, outlet, routings };
   for (const rule of RULES) rule.evaluate(input, checks);
-  // Flow checks are listed storm by storm (upper then lower), the others rule by rule.
+  const clog = c.criteria.clogging;
+  if (clog) {
+    const clogged = cloggedOutlet(outlet, clog.fraction);
+    const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) } };
+    const words = `${+(100 * clog.fraction).toPrecision(6)} % clogged${clog.label === null ? "" : `, ${clog.label}`}`;
+    for (const rule of RULES) {
+      if (!cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;
+      const from = checks.length;
+      rule.evaluate(cloggedInput, checks);
+      for (let i = from; i < checks.length; i++) {
+        const check = checks[i];
+        check.key += ":clogged";
+        check.name += ` (${words})`;
+        check.condition = "clogged";
+      }
+    }
+  }
+  // Flow checks are listed storm by storm (upper then lower), the others rule by rule; clogged after
+  // their unclogged twins.
   const stormIndex = new Map(storms.map((s, i) => [s.storm.name, i]));
-  const group = (check: Check) => (ruleOf(check).quantity === "flow" ? stormIndex.get(check.storm)! : storms.length + RULES.indexOf(ruleOf(check)));
+  const group = (check: Check) => (ruleOf(check).quantity === "flow" ? stormIndex.get(check.storm)! : storms.length + RULES.indexOf(ruleOf(check))) * 2 + (check.condition === "clogged" ? 1 : 0);
   return checks.sort((a, b) => group(a) - group(b));
 }
 

@@ -101,9 +101,27 @@ export interface Hydrograph {
 export interface Storm {
   name: string;
   returnPeriod: number;
-  /** Allowable peak outflow, m3/s; null when the storm has no target. */
+  /** Allowable peak outflow, m3/s (the smallest of its release limits); null when the storm has no target. */
   target: number | null;
+  /** Every release limit of the storm (the plain `target` among them); empty when it has no target. */
+  releaseLimits: ReleaseLimit[];
+  /** The release limit that governs (the smallest); null when the storm has no target. */
+  governingLimit: ReleaseLimit | null;
   inflow: Hydrograph;
+  /** The outflow must stay under this hydrograph at every instant of its span (a release-limit form); null when not asked. */
+  ceiling: { hydrograph: Hydrograph; statement: string; label: string | null } | null;
+}
+
+/** One allowable-release form of a storm, resolved to a flow. */
+export interface ReleaseLimit {
+  /** "target" (the plain field), "flow", "share-of-pre", "per-area". */
+  form: "target" | "flow" | "share-of-pre" | "per-area";
+  /** m3/s. */
+  flow: number;
+  /** How the limit was stated, in the case's words (e.g. "50 % of the pre-development peak"). */
+  statement: string;
+  /** Free-text source (e.g. an ordinance clause); null when the case gives none. */
+  label: string | null;
 }
 
 export interface Criteria {
@@ -116,6 +134,19 @@ export interface Criteria {
   drawdownDepth: number;
   /** Storms with a return period up to this many years must not reach the spillway crest. */
   spillwayDryThrough: number;
+  /** The principal outlet blocked: the spillway alone passes `storm` with `freeboard` (m) below the top; null when not asked. */
+  blockedOutlet: { storm: string; freeboard: number; label: string | null } | null;
+  /** Assumed blocked share of the openings' open area; `checks` lists the rule kinds it applies to (null: every "at most" rule). */
+  clogging: { fraction: number; checks: string[] | null; label: string | null } | null;
+  /**
+   * Extended-detention rules: `storm` (a storm's volume at its peak stage) or `volume` (m3 above the
+   * pool: a water-quality volume) takes at least `hours` to release `share` of itself (1: to drain).
+   */
+  extendedDetention: { storm: string | null; volume: number | null; hours: number; share: number; label: string | null }[];
+  /** Smallest opening the rules permit (m: an orifice's diameter, or a rectangular orifice's smaller side); null when none. */
+  minimumOpening: { size: number; label: string | null } | null;
+  /** Source labels of the criteria rules (null when the case gives none). */
+  labels: { freeboard: string | null; drawdown: string | null; spillway: string | null; overtopping: string | null };
 }
 
 export interface CircularOrifice {

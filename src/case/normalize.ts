@@ -6,9 +6,10 @@ import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Stor
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";
-import { baseLength, baseVolume, baseWeirCoefficient, FOOT, parsePondArea } from "../units.js";
+import { baseLength, baseVolume, baseWeirCoefficient, FOOT, parseArea, parseDepth, parsePondArea } from "../units.js";
 import { defaultCoefficients } from "../hydraulics/defaults.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
+import { stormLimits } from "./releaseLimits.js";
 import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
 import { normalizeUnderground } from "./underground.js";
 import { normalizeSite, siteSizing, sitePond, sizingSummary, type SiteSizing } from "./site.js";
@@ -122,28 +123,52 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
 /** A storm's inflow and target: given explicitly, or derived from its rainfall (explicit values win). */
 function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm {
   const path = `storms[${index}]`;
+  const inflow: Hydrograph = storm.inflow || !derived?.post ? readHydrograph(storm.inflow, `${path}.inflow`, cv, context) : derived.post.hydrograph;
+  return {
+    name: storm.name,
+    returnPeriod: storm.returnPeriod,
+    ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
+    inflow,
+    ceiling: stormCeiling(storm, path, cv, context, derived),
+  };
+}
+
+/** The pre-development hydrograph the outflow must stay under (a `belowPreHydrograph` release limit), given or derived. */
+function stormCeiling(storm: CaseFile["storms"][number], path: string, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm["ceiling"] {
+  const i = (storm.releaseLimits ?? []).findIndex((r) => r.belowPreHydrograph === true);
+  if (i < 0) return null;
+  const r = storm.releaseLimits![i];
+  const where = `${path}.releaseLimits[${i}]`;
+  if (r.preHydrograph) return { hydrograph: readHydrograph(r.preHydrograph, `${where}.preHydrograph`, cv, context), statement: "under the given pre-development hydrograph", label: r.source ?? null };
+  if (derived?.pre) return { hydrograph: derived.pre.hydrograph, statement: "under the pre-development hydrograph (hydrology)", label: r.source ?? null };
+  cv.problem(`${where}.preHydrograph`, "none given", "a pre-development hydrograph (file or series), or a hydrology section with a pre-development area to derive it");
+  return null;
+}
+
+/** A hydrograph given as a CSV file or a series of [minutes, flow] pairs, in SI. */
+function readHydrograph(source: { file?: string; series?: [number, number | string][] } | undefined, path: string, cv: Converter, context: NormalizeContext): Hydrograph {
   let minutes: number[] = [];
   let flows: number[] = [];
-  if (storm.inflow?.series) {
-    const series = storm.inflow.series;
-    const seriesFlows = series.map(([, q], i) => cv.flowOf(q, `${path}.inflow.series[${i}][1]`));
+  if (source?.series) {
+    const series = source.series;
+    const seriesFlows = series.map(([, q], i) => cv.flowOf(q, `${path}.series[${i}][1]`));
     series.forEach(([t], i) => {
-      if (seriesFlows[i] < 0) cv.problem(`${path}.inflow.series[${i}][1]`, show(series[i][1]), "a flow of zero or more");
+      if (seriesFlows[i] < 0) cv.problem(`${path}.series[${i}][1]`, show(series[i][1]), "a flow of zero or more");
       if (i > 0 && !(t > series[i - 1][0])) {
-        cv.problem(`${path}.inflow.series[${i}][0]`, show(t), `a time later than the point before (${series[i - 1][0]} min)`);
+        cv.problem(`${path}.series[${i}][0]`, show(t), `a time later than the point before (${series[i - 1][0]} min)`);
       }
     });
-    if (series.length < 2) cv.problem(`${path}.inflow.series`, `${series.length} points`, "at least two [minutes, flow] points");
+    if (series.length < 2) cv.problem(`${path}.series`, `${series.length} points`, "at least two [minutes, flow] points");
     minutes = series.map((p) => p[0]);
     flows = seriesFlows.map((q) => q / cv.flow);
-  } else if (storm.inflow) {
-    const name = storm.inflow.file!;
+  } else if (source?.file) {
+    const name = source.file;
     const full = resolve(context.directory, name);
     let text: string | undefined;
     try {
       text = readFileSync(full, "utf8");
     } catch (error) {
-      cv.problem(`${path}.inflow.file`, `${show(name)}: ${describeIoError(error)} (looked for ${full})`, "a readable CSV inflow file, named relative to the case file");
+      cv.problem(`${path}.file`, `${show(name)}: ${describeIoError(error)} (looked for ${full})`, "a readable CSV inflow file, named relative to the case file");
     }
     if (text !== undefined) {
       const parsed = parseInflowCsv(text, name);
@@ -155,16 +180,8 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
       }
     }
   }
-  checkInflowSpan(minutes, `${path}.inflow`, cv);
-  const inflow: Hydrograph = storm.inflow || !derived?.post
-    ? { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) }
-    : derived.post.hydrograph;
-  return {
-    name: storm.name,
-    returnPeriod: storm.returnPeriod,
-    target: storm.target === undefined ? (derived?.pre?.peak ?? null) : cv.flowOf(storm.target, `${path}.target`),
-    inflow,
-  };
+  checkInflowSpan(minutes, path, cv);
+  return { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) };
 }
 
 function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
@@ -175,17 +192,47 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
     cv.problem("criteria.freeboard.storm", show(c.freeboard.storm), `the name of a storm (${file.storms.map((s) => s.name).join(", ")})`);
   }
   const us = file.units === "US";
+  const freeboardDepth = cv.optionalLength(c.freeboard?.depth, "criteria.freeboard.depth", us ? FOOT : 0.3);
+  const stormNames = file.storms.map((s) => s.name);
+  if (c.blockedOutlet && !stormNames.includes(c.blockedOutlet.storm)) {
+    cv.problem("criteria.blockedOutlet.storm", show(c.blockedOutlet.storm), `the name of a storm (${stormNames.join(", ")})`);
+  }
   return {
     over: c.tolerance?.over ?? 0,
     under: c.tolerance?.under ?? 0.1,
     // Defaults 1 ft / 0.3 m and 0.1 ft / 0.03 m: the case-format contract (1 ft above the 100-yr
     // water surface is common practice).
-    freeboardDepth: cv.optionalLength(c.freeboard?.depth, "criteria.freeboard.depth", us ? FOOT : 0.3),
+    freeboardDepth,
     freeboardStorm,
     drawdownHours: c.drawdown?.hours ?? null,
     drawdownDepth: cv.optionalLength(c.drawdown?.depth, "criteria.drawdown.depth", us ? 0.1 * FOOT : 0.03),
     spillwayDryThrough: c.spillway?.dryThrough ?? largest.returnPeriod,
+    blockedOutlet: c.blockedOutlet
+      ? { storm: c.blockedOutlet.storm, freeboard: cv.optionalLength(c.blockedOutlet.freeboard, "criteria.blockedOutlet.freeboard", freeboardDepth), label: c.blockedOutlet.source ?? null }
+      : null,
+    clogging: c.clogging ? { fraction: c.clogging.fraction, checks: c.clogging.checks ?? null, label: c.clogging.source ?? null } : null,
+    extendedDetention: (c.extendedDetention ?? []).map((r, i) => {
+      if (r.storm !== undefined && !stormNames.includes(r.storm)) cv.problem(`criteria.extendedDetention[${i}].storm`, show(r.storm), `the name of a storm (${stormNames.join(", ")})`);
+      const volume = r.volume !== undefined ? r.volume * baseVolume(file.units) : r.depth !== undefined && r.area !== undefined ? waterQualityVolume(r.depth, r.area, cv, `criteria.extendedDetention[${i}]`) : null;
+      return { storm: r.storm ?? null, volume, hours: r.hours, share: r.share ?? 1, label: r.source ?? null };
+    }),
+    minimumOpening: c.minimumOpening ? { size: cv.length(c.minimumOpening.size, "criteria.minimumOpening.size"), label: c.minimumOpening.source ?? null } : null,
+    labels: {
+      freeboard: c.freeboard?.source ?? null,
+      drawdown: c.drawdown?.source ?? null,
+      spillway: c.spillway?.source ?? null,
+      overtopping: c.overtopping?.source ?? null,
+    },
   };
+}
+
+/** A water-quality volume given as a runoff depth over an area (m3). */
+function waterQualityVolume(depth: number | string, area: number | string, cv: Converter, path: string): number {
+  const d = parseDepth(depth, cv.units);
+  const a = parseArea(area, cv.units);
+  if (typeof d !== "number") cv.problem(`${path}.depth`, show(depth), d.error);
+  if (typeof a !== "number") cv.problem(`${path}.area`, show(area), a.error);
+  return typeof d === "number" && typeof a === "number" ? d * a : NaN;
 }
 
 /** Converts an `outlet` section (also used for outlets written by the search). */

@@ -2,7 +2,7 @@
 // Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
 import { ENTRANCES } from "../hydraulics/entrances.js";
 import { z } from "zod";
-import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, isUsableNumber, splitQuantity, USABLE_NUMBER } from "../units.js";
+import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, isUsableNumber, splitQuantity, UNIT_AREA_RATE_UNITS, USABLE_NUMBER } from "../units.js";
 
 const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "6 in"`;
 
@@ -284,11 +284,56 @@ export const rainfallSchema = z
     }
   });
 
+/** Free-text source of a rule (an ordinance clause, a design manual section), shown with its checks. */
+const sourceLabel = z.string({ error: "a free-text source label such as \"county ordinance 4.2\"" }).min(1, { message: "a non-empty source label" }).optional();
+
+const nonNegativeFlow = flowSchema.superRefine((value, ctx) => {
+  const n = quantityNumber(value, FLOW_UNITS);
+  if (!Number.isNaN(n) && !(n >= 0)) ctx.addIssue({ code: "custom", message: "a flow of zero or more", input: value });
+});
+
+/**
+ * One allowable-release form of a storm (several may be given; the smallest governs): a flow, a share
+ * of the pre-development peak, or a release per unit of area over a stated area.
+ */
+export const releaseLimitSchema = z
+  .object({
+    flow: nonNegativeFlow.optional(),
+    shareOfPre: finite.refine((v) => v > 0 && v <= 1, { message: "a fraction greater than 0 and at most 1" }).optional(),
+    prePeak: nonNegativeFlow.optional(),
+    perArea: positiveQuantity(
+      quantitySchema(UNIT_AREA_RATE_UNITS, `a release per area: a number, or a number and a unit (cfs/ac, L/s/ha, m3/s/ha) such as "0.04 cfs/ac"`, "release-per-area"),
+      UNIT_AREA_RATE_UNITS,
+      "a release per area",
+    ).optional(),
+    area: positiveArea.optional(),
+    belowPreHydrograph: z.literal(true, { error: "true" }).optional(),
+    preHydrograph: inflowSchema.optional(),
+    source: sourceLabel,
+  })
+  .superRefine(exactlyOne(["flow", "shareOfPre", "perArea", "belowPreHydrograph"], "release limit"))
+  .superRefine((limit, ctx) => {
+    if (limit.perArea !== undefined && limit.area === undefined) {
+      ctx.addIssue({ code: "custom", path: ["area"], message: 'the area the release per area applies to, such as "12 ac"', input: undefined });
+    }
+    if (limit.perArea === undefined && limit.area !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["area"], message: "an area only with perArea", input: limit.area });
+    }
+    if (limit.belowPreHydrograph === undefined && limit.preHydrograph !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["preHydrograph"], message: "a pre-development hydrograph only with belowPreHydrograph", input: "given" });
+    }
+    if (limit.shareOfPre === undefined && limit.prePeak !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["prePeak"], message: "a pre-development peak only with shareOfPre", input: limit.prePeak });
+    }
+  });
+
 export const stormSchema = z
   .object({
     name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
     returnPeriod: positive,
     target: positiveQuantity(flowSchema, FLOW_UNITS, "an allowable peak outflow").optional(),
+    releaseLimits: z.array(releaseLimitSchema, { error: "a list of release limits" }).min(1, { message: "at least one release limit" }).optional(),
+    targetSource: sourceLabel,
     inflow: inflowSchema.optional(),
     rainfall: rainfallSchema.optional(),
   })
@@ -305,9 +350,45 @@ export const criteriaSchema = z.object({
       under: finite.refine((v) => v >= 0 && v <= 1, { message: "a fraction from 0 to 1" }).optional(),
     })
     .optional(),
-  freeboard: z.object({ depth: lengthSchema.optional(), storm: z.string().optional() }).optional(),
-  drawdown: z.object({ hours: positive.optional(), depth: lengthSchema.optional() }).optional(),
-  spillway: z.object({ dryThrough: positive.optional() }).optional(),
+  freeboard: z.object({ depth: lengthSchema.optional(), storm: z.string().optional(), source: sourceLabel }).optional(),
+  drawdown: z.object({ hours: positive.optional(), depth: lengthSchema.optional(), source: sourceLabel }).optional(),
+  spillway: z.object({ dryThrough: positive.optional(), source: sourceLabel }).optional(),
+  /** The principal outlet blocked: the spillway alone must pass `storm` with `freeboard` (default freeboard.depth). */
+  blockedOutlet: z.object({ storm: z.string({ error: "the name of a storm" }), freeboard: lengthSchema.optional(), source: sourceLabel }).optional(),
+  /** An assumed blocked share of the openings' open area, applied to every "at most" check or to the named kinds. */
+  clogging: z
+    .object({
+      fraction: finite.refine((v) => v > 0 && v < 1, { message: "a fraction greater than 0 and less than 1 (0.5 for 50 %)" }),
+      checks: z.array(z.string(), { error: "a list of check kinds" }).min(1, { message: "at least one check kind" }).optional(),
+      source: sourceLabel,
+    })
+    .optional(),
+  /** Extended detention: a storm or a water-quality volume takes at least `hours` to release `share` of itself. */
+  extendedDetention: z
+    .array(
+      z
+        .object({
+          storm: z.string({ error: "the name of a storm" }).optional(),
+          volume: finite.refine((v) => v > 0, { message: "a volume greater than zero (ft3 or m3)" }).optional(),
+          depth: positiveQuantity(lengthSchema, LENGTH_UNITS, "a depth").optional(),
+          area: positiveArea.optional(),
+          hours: positive,
+          share: finite.refine((v) => v > 0 && v <= 1, { message: "a fraction greater than 0 and at most 1" }).optional(),
+          source: sourceLabel,
+        })
+        .superRefine(exactlyOne(["storm", "volume", "depth"], "extended-detention rule (a storm, a volume, or a depth over an area)"))
+        .superRefine((r, ctx) => {
+          if ((r.depth === undefined) !== (r.area === undefined)) {
+            ctx.addIssue({ code: "custom", path: [r.depth === undefined ? "depth" : "area"], message: "a depth and an area together (a water-quality depth over its area)", input: undefined });
+          }
+        }),
+      { error: "a list of extended-detention rules" },
+    )
+    .optional(),
+  /** The smallest opening the rules permit (an orifice's diameter or a rectangular orifice's smaller side). */
+  minimumOpening: z.object({ size: positiveLength, source: sourceLabel }).optional(),
+  /** Overtopping check's source label (the check itself always applies). */
+  overtopping: z.object({ source: sourceLabel }).optional(),
 });
 
 const keep = z.boolean({ error: "true or false" }).optional();

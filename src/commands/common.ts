@@ -1,6 +1,8 @@
 // Shared pieces of the commands: loading a case with its notices, option parsing, output.
 import { loadCase, type LoadedCase } from "../case/load.js";
 import { CaseError } from "../case/errors.js";
+import { RULE_KINDS } from "../assess/rules/registry.js";
+import { basename } from "node:path";
 import { printErr, printOut, terminalSafe, writeFileAtomic } from "../io.js";
 import { parseLength, type UnitSystem } from "../units.js";
 
@@ -15,6 +17,11 @@ export class UsageError extends Error {
 /** Loads a case and prints its notes on stderr (none when `quiet`). */
 export function load(path: string, quiet = false): LoadedCase {
   const loaded = loadCase(path);
+  const kinds = loaded.case.criteria.clogging?.checks ?? [];
+  const problems = kinds.flatMap((kind, i) =>
+    RULE_KINDS.includes(kind) ? [] : [{ where: `${basename(path)}: criteria.clogging.checks[${i}]`, found: JSON.stringify(kind), expected: `a check kind (${RULE_KINDS.join(", ")})` }],
+  );
+  if (problems.length > 0) throw new CaseError(problems);
   if (quiet) return loaded;
   for (const notice of loaded.notices) printErr(`outfit: note: ${notice}\n`);
   if (loaded.case.sizing) {

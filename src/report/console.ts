@@ -70,11 +70,31 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
   });
   const table = renderTable(layout, columns, rows);
   const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
-  return table.text + marks;
+  return [table.text + marks, ...governingLimitLines(c)].join("\n");
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
   return quantityText(formatter(c.units), ruleOf(check).quantity, value);
+}
+
+/** A check's name with its rule's source label, if any. */
+export function checkTitle(check: Check): string {
+  return check.label === null ? check.name : `${check.name} [${check.label}]`;
+}
+
+/** The storm's target with the release limit that governs it, when that is not the plain target. */
+export function targetText(c: Case, storm: Case["storms"][number]): string {
+  if (storm.target === null) return "none";
+  const g = storm.governingLimit;
+  const words = g === null || (g.form === "target" && g.label === null) ? "" : ` (${g.statement}${g.label === null ? "" : `, ${g.label}`})`;
+  return `${formatter(c.units).flow(storm.target)}${words}`;
+}
+
+/** Lines naming each storm's governing release limit and its source (none when every storm has a plain, unlabelled target). */
+export function governingLimitLines(c: Case): string[] {
+  const stated = c.storms.filter((s) => s.governingLimit !== null && (s.governingLimit.form !== "target" || s.governingLimit.label !== null));
+  if (stated.length === 0) return [];
+  return ["Governing release limit (the smallest of each storm's limits):", ...stated.map((s) => `  ${s.name}: ${targetText(c, s)}`)];
 }
 
 /** Every check with its value, limit, slack and result (values carry their units: the rows mix quantities). */
@@ -87,7 +107,7 @@ export function checksTable(c: Case, checks: readonly Check[], layout: Layout = 
     { head: "Result" },
   ];
   const rows: Row[] = checks.map((check) => [
-    check.name,
+    checkTitle(check),
     checkValue(c, check, check.value),
     `${limitWord(check)} ${checkValue(c, check, check.limit)}`,
     percent(check.slack),
@@ -107,7 +127,7 @@ export function warningsText(assessment: Assessment, layout: Layout = PLAIN): st
 
 export function verdictText(assessment: Assessment, layout: Layout = PLAIN): string {
   const b = assessment.binding;
-  const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks";
+  const binding = b ? `binding check: ${checkTitle(b)} (slack ${percent(b.slack)})` : "no checks";
   return wrap(`${assessment.compliant ? paint(layout, "pass", "Compliant") : paint(layout, "fail", "NOT compliant")}; ${binding}`, layout.width);
 }
 

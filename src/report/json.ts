@@ -14,6 +14,10 @@ export interface StormJson {
   name: string;
   returnPeriod: number;
   target: number | null;
+  /** The release limit that governs the target (the smallest of the storm's limits). */
+  governingLimit: { form: string; statement: string; label: string | null } | null;
+  /** Every release limit of the storm, in case units. */
+  releaseLimits: { form: string; statement: string; label: string | null; flow: number }[];
   peakInflow: number;
   peakOutflow: number;
   timeOfPeakOutflow: number;
@@ -42,6 +46,8 @@ export function stormJson(c: Case, s: StormRouting): StormJson {
     name: s.storm.name,
     returnPeriod: s.storm.returnPeriod,
     target: target === null ? null : u.flow(target),
+    governingLimit: s.storm.governingLimit && { form: s.storm.governingLimit.form, statement: s.storm.governingLimit.statement, label: s.storm.governingLimit.label },
+    releaseLimits: s.storm.releaseLimits.map((l) => ({ form: l.form, statement: l.statement, label: l.label, flow: u.flow(l.flow) })),
     peakInflow: u.flow(r.peakInflow),
     peakOutflow: u.flow(r.peakOutflow),
     timeOfPeakOutflow: r.timeOfPeakOutflow / 60,
@@ -64,6 +70,8 @@ export interface CheckJson {
   storm: string;
   key: string;
   label: string | null;
+  /** "design", or "clogged" for the twin evaluated with criteria.clogging. */
+  condition: string;
   passed: boolean;
   value: number | null;
   limit: number;
@@ -77,18 +85,20 @@ export function checkJson(c: Case, check: Check): CheckJson {
   const quantity = ruleOf(check).quantity;
   const flow = quantity === "flow";
   const hours = quantity === "hours";
-  const convert = (x: number) => (flow ? u.flow(x) : hours ? x : u.length(x));
+  const size = quantity === "size";
+  const convert = (x: number) => (flow ? u.flow(x) : hours ? x : size ? u.smallLength(x) : u.length(x));
   return {
     name: check.name,
     kind: check.kind,
     storm: check.storm,
     key: check.key,
     label: check.label,
+    condition: check.condition,
     passed: check.passed,
     value: check.value === null ? null : convert(check.value),
     limit: convert(check.limit),
     slack: check.slack,
-    unit: flow ? labels.flow : hours ? "h" : labels.length,
+    unit: flow ? labels.flow : hours ? "h" : size ? (c.units === "US" ? "in" : "mm") : labels.length,
   };
 }
 

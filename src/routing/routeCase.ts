@@ -44,6 +44,7 @@ export function routeTable(c: Case, outlet: Outlet, table: RatingTable, options:
       drainedStage: drained,
       startStage: c.pond.pool,
       record: options.record,
+      ceiling: storm.ceiling?.hydrograph,
     }),
   }));
   return { outlet, table, storms };

@@ -16,6 +16,11 @@ export interface RouteOptions {
   startStage: number;
   /** Seconds simulated after the last inflow point at most (default 10 days). */
   maxAfterInflow?: number;
+  /**
+   * A hydrograph the outflow must stay under (e.g. the pre-development hydrograph): compared at the
+   * start and at every step end inside its time span; the closest approach is reported as `ceiling`.
+   */
+  ceiling?: Hydrograph;
   /** Keep the series of time, inflow, outflow and stage (for plots); off in the search. */
   record?: boolean;
   /** Automatic step: largest step (s), default 600. */
@@ -65,6 +70,17 @@ export interface RouteResult {
   /** The stage rose above the last row of the rating table (extrapolated). */
   beyondTable: boolean;
   series?: RouteSeries;
+  /** With `options.ceiling`: the least of ceiling - outflow (m3/s) over its span, where and what. */
+  ceiling?: CeilingApproach;
+}
+
+export interface CeilingApproach {
+  /** Least ceiling - outflow (m3/s); negative when the outflow rose above the ceiling. */
+  margin: number;
+  /** Outflow and ceiling (m3/s) at that instant, and the instant (s). */
+  outflow: number;
+  limit: number;
+  time: number;
 }
 
 const TEN_DAYS = 10 * 86400;
@@ -154,6 +170,30 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const F = indication;
   const G = inverseWidth;
   const fixedTwoOverDt = fixed !== undefined ? 2 / fixed : 0;
+
+  const ceiling = options.ceiling;
+  const cTimes = ceiling?.times;
+  const cFlows = ceiling?.flows;
+  const cFirst = cTimes ? cTimes[0] : 0;
+  const cLast = cTimes ? cTimes[cTimes.length - 1] : -Infinity;
+  let cj = 0;
+  let cMargin = Infinity;
+  let cOutflow = 0;
+  let cLimit = 0;
+  let cTime = 0;
+  /** Compares the outflow at time tt with the ceiling (allocation-free; a cursor walks the ceiling). */
+  const compareCeiling = (tt: number, outflow: number) => {
+    if (!cTimes || !cFlows || tt < cFirst || tt > cLast) return;
+    cj = cTimes.length < 2 ? 0 : segmentAt(cTimes, cj, tt);
+    const limit = cTimes.length < 2 ? cFlows[0] : inflowOn(cTimes, cFlows, cj, tt);
+    if (limit - outflow < cMargin) {
+      cMargin = limit - outflow;
+      cOutflow = outflow;
+      cLimit = limit;
+      cTime = tt;
+    }
+  };
+  compareCeiling(t, O1);
 
   const record = options.record === true;
   const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [O1], stage: [H1] } : undefined;
@@ -257,6 +297,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     }
     if (H2 <= drained && !(H1 <= drained)) drainedAt = t2 - (dt * (drained - H2)) / (H1 - H2);
     else if (H2 > drained) drainedAt = NaN;
+    if (ceiling) compareCeiling(t2, O2);
     if (record) {
       series!.time.push(t2);
       series!.inflow.push(I2);
@@ -307,6 +348,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     clampedSteps: clamped,
     beyondTable: beyond,
     series,
+    ceiling: ceiling ? { margin: cMargin === Infinity ? 0 : cMargin, outflow: cOutflow, limit: cLimit, time: cTime } : undefined,
   };
 }
 

@@ -4,7 +4,8 @@ import type { StormRouting } from "../../src/routing/routeCase.js";
 import type { RouteResult } from "../../src/routing/router.js";
 
 export function storm(name: string, returnPeriod: number, target: number | null): Storm {
-  return { name, returnPeriod, target, inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
+  const governingLimit = target === null ? null : { form: "target" as const, flow: target, statement: "target", label: null };
+  return { name, returnPeriod, target, releaseLimits: governingLimit ? [governingLimit] : [], governingLimit, ceiling: null, inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
 }
 
 export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = {}): Case {
@@ -12,10 +13,10 @@ export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = 
     name: "rule test pond",
     units: "SI",
     file: "",
-    pond: { bottom: 100, top: 106 } as Case["pond"],
+    pond: { bottom: 100, top: 106, pool: 100 } as Case["pond"],
     tailwater: { kind: "free" } as Case["tailwater"],
     storms,
-    criteria: { over: 0, under: 0.1, freeboardDepth: 0.3, freeboardStorm: storms[storms.length - 1].name, drawdownHours: null, drawdownDepth: 0.03, spillwayDryThrough: 100, ...criteria },
+    criteria: { over: 0, under: 0.1, freeboardDepth: 0.3, freeboardStorm: storms[storms.length - 1].name, drawdownHours: null, drawdownDepth: 0.03, spillwayDryThrough: 100, blockedOutlet: null, clogging: null, extendedDetention: [], minimumOpening: null, labels: { freeboard: null, drawdown: null, spillway: null, overtopping: null }, ...criteria },
     costs: {},
   };
 }

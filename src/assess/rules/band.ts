@@ -1,5 +1,6 @@
 // The target band of a storm: [target*(1-under), target*(1+over)] (design notes' vocabulary). The
 // only place the band is computed; checks, search aims and reports all call it.
+import type { Storm } from "../../case/model.js";
 import { lowerFlowSlack, PASS_TOLERANCE, upperFlowSlack } from "./rule.js";
 
 export interface Tolerance {
@@ -24,4 +25,10 @@ export function narrowed(tolerance: Tolerance, margin: number): Tolerance {
 export function withinTargetBand(peak: number, target: number, tolerance: Tolerance): boolean {
   const [lower, upper] = targetBand(target, tolerance);
   return upperFlowSlack(peak, upper) >= -PASS_TOLERANCE && (lower <= 0 || lowerFlowSlack(peak, lower) >= -PASS_TOLERANCE);
+}
+
+/** Words naming the governing release limit of a storm for a check's name: none for a plain target. */
+export function limitWords(storm: Storm): string {
+  const g = storm.governingLimit;
+  return g === null || g.form === "target" ? "" : ` (${g.statement})`;
 }

@@ -11,7 +11,7 @@ export const drawdown: Rule = {
     if (hours === null) return;
     for (const { storm, result } of routings.design) {
       const value = result.drawdownTime === null ? null : result.drawdownTime / 3600;
-      out.push(makeCheck("drawdown", storm.name, `${storm.name} drawdown`, value, hours, value === null ? -1 : (hours - value) / hours));
+      out.push(makeCheck("drawdown", storm.name, `${storm.name} drawdown`, value, hours, value === null ? -1 : (hours - value) / hours, c.criteria.labels.drawdown));
     }
   },
   aim: () => HAIR,

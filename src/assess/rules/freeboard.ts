@@ -10,7 +10,7 @@ export const freeboard: Rule = {
     const s = routings.design.find((x) => x.storm.name === c.criteria.freeboardStorm);
     if (!s) return;
     const limit = c.pond.top - c.criteria.freeboardDepth;
-    out.push(makeCheck("freeboard", s.storm.name, `${s.storm.name} freeboard`, s.result.maxStage, limit, depthSlack(s.result.maxStage, limit, c.pond.bottom)));
+    out.push(makeCheck("freeboard", s.storm.name, `${s.storm.name} freeboard`, s.result.maxStage, limit, depthSlack(s.result.maxStage, limit, c.pond.bottom), c.criteria.labels.freeboard));
   },
   aim: () => HAIR,
   why: (check) => `the ${check.storm} storm rises close to the top of embankment less the freeboard`,

@@ -8,7 +8,7 @@ export const overtopping: Rule = {
   routings: ["design"],
   evaluate({ case: c, routings }, out) {
     for (const { storm, result } of routings.design) {
-      out.push(makeCheck("overtopping", storm.name, `${storm.name} no overtopping`, result.maxStage, c.pond.top, depthSlack(result.maxStage, c.pond.top, c.pond.bottom)));
+      out.push(makeCheck("overtopping", storm.name, `${storm.name} no overtopping`, result.maxStage, c.pond.top, depthSlack(result.maxStage, c.pond.top, c.pond.bottom), c.criteria.labels.overtopping));
     }
   },
   aim: () => HAIR,

@@ -1,5 +1,5 @@
 // A storm's routed peak at least the lower edge of its target band (no over-detention beyond it).
-import { targetBand, narrowed } from "./band.js";
+import { limitWords, targetBand, narrowed } from "./band.js";
 import { aimMargin } from "./peakUpper.js";
 import { lowerFlowSlack, makeCheck, type Rule } from "./rule.js";
 
@@ -12,7 +12,7 @@ export const peakLower: Rule = {
     for (const { storm, result } of routings.design) {
       if (storm.target === null) continue;
       const lower = targetBand(storm.target, c.criteria)[0];
-      if (lower > 0) out.push(makeCheck("peak-lower", storm.name, `${storm.name} peak within lower band`, result.peakOutflow, lower, lowerFlowSlack(result.peakOutflow, lower)));
+      if (lower > 0) out.push(makeCheck("peak-lower", storm.name, `${storm.name} peak within lower band${limitWords(storm)}`, result.peakOutflow, lower, lowerFlowSlack(result.peakOutflow, lower), storm.governingLimit?.label ?? null));
     }
   },
   aim(c, check, margin) {

@@ -1,5 +1,5 @@
 // A storm's routed peak at most the upper edge of its target band.
-import { targetBand, narrowed } from "./band.js";
+import { limitWords, targetBand, narrowed } from "./band.js";
 import { makeCheck, upperFlowSlack, type Rule } from "./rule.js";
 
 export const peakUpper: Rule = {
@@ -11,7 +11,7 @@ export const peakUpper: Rule = {
     for (const { storm, result } of routings.design) {
       if (storm.target === null) continue;
       const upper = targetBand(storm.target, c.criteria)[1];
-      out.push(makeCheck("peak-upper", storm.name, `${storm.name} peak within upper band`, result.peakOutflow, upper, upperFlowSlack(result.peakOutflow, upper)));
+      out.push(makeCheck("peak-upper", storm.name, `${storm.name} peak within upper band${limitWords(storm)}`, result.peakOutflow, upper, upperFlowSlack(result.peakOutflow, upper), storm.governingLimit?.label ?? null));
     }
   },
   aim(c, check, margin) {

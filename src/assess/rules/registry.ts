@@ -6,8 +6,13 @@ import { freeboard } from "./freeboard.js";
 import { spillwayDry } from "./spillwayDry.js";
 import { drawdown } from "./drawdown.js";
 import { overtopping } from "./overtopping.js";
+import { blockedOutlet } from "./blockedOutlet.js";
+import { belowPreHydrograph } from "./belowPreHydrograph.js";
+import { extendedDetention } from "./extendedDetention.js";
+import { minimumOpening } from "./minimumOpening.js";
+import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, freeboard, spillwayDry, drawdown, overtopping];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 
@@ -15,3 +20,6 @@ const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 export function ruleOf(check: { kind: CheckKind }): Rule {
   return BY_KIND.get(check.kind)!;
 }
+
+/** The kinds of every rule (what `criteria.clogging.checks` may name). */
+export const RULE_KINDS: readonly CheckKind[] = RULES.map((r) => r.kind);

@@ -10,7 +10,7 @@ import type { StormRouting } from "../../routing/routeCase.js";
 export type CheckKind = string;
 
 /** What a check's value and limit measure (how they are converted and printed). */
-export type Quantity = "flow" | "elevation" | "hours";
+export type Quantity = "flow" | "elevation" | "hours" | "size";
 
 export interface Check {
   /** Stable identity: `${kind}:${storm}`; match checks by it, never by `name`. */
@@ -20,8 +20,10 @@ export interface Check {
   storm: string;
   /** Free-text source of the rule (e.g. an ordinance clause); null when the case gives none. */
   label: string | null;
+  /** The outlet condition the check was evaluated on: "design" (as given) or "clogged" (criteria.clogging). */
+  condition: "design" | "clogged";
   passed: boolean;
-  /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown; null when not reached. */
+  /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown, m for sizes; null when not reached. */
   value: number | null;
   limit: number;
   slack: number;
@@ -32,6 +34,9 @@ export interface Check {
  * outlet removed) names it in `routings`, and checks.ts provides each variant some rule names.
  */
 export type RoutingVariant = string;
+
+/** The outlet a routing variant routes (null when the variant does not apply, e.g. no spillway). */
+export type VariantOutlet = (c: Case, outlet: Outlet) => Outlet | null;
 
 export interface RuleInput {
   case: Case;
@@ -46,6 +51,8 @@ export interface Rule {
   /** "at most" for upper limits, "at least" for lower limits. */
   comparison: "at most" | "at least";
   routings: readonly RoutingVariant[];
+  /** How each variant this rule names (other than "design") changes the outlet; checks.ts routes it once per candidate. */
+  variants?: Readonly<Record<RoutingVariant, VariantOutlet>>;
   /** Appends this rule's checks (none when the case does not ask for it). */
   evaluate(input: RuleInput, out: Check[]): void;
   /** Slack the search must keep on a check of this rule (the aim), given the search's margin. */
@@ -62,7 +69,7 @@ export interface Rule {
 export const PASS_TOLERANCE = 1e-12;
 
 export function makeCheck(kind: CheckKind, storm: string, name: string, value: number | null, limit: number, slack: number, label: string | null = null): Check {
-  return { key: checkKey(kind, storm), name, kind, storm, label, passed: slack >= -PASS_TOLERANCE, value, limit, slack };
+  return { key: checkKey(kind, storm), name, kind, storm, label, condition: "design", passed: slack >= -PASS_TOLERANCE, value, limit, slack };
 }
 
 export function checkKey(kind: CheckKind, storm: string): string {

@@ -10,7 +10,7 @@ export const spillwayDry: Rule = {
     if (!outlet.spillway) return;
     for (const { storm, result } of routings.design) {
       if (storm.returnPeriod > c.criteria.spillwayDryThrough) continue;
-      out.push(makeCheck("spillway-dry", storm.name, `${storm.name} spillway dry`, result.maxStage, outlet.spillway.crest, depthSlack(result.maxStage, outlet.spillway.crest, c.pond.bottom)));
+      out.push(makeCheck("spillway-dry", storm.name, `${storm.name} spillway dry`, result.maxStage, outlet.spillway.crest, depthSlack(result.maxStage, outlet.spillway.crest, c.pond.bottom), c.criteria.labels.spillway));
     }
   },
   aim: () => HAIR,

@@ -5,7 +5,7 @@ import type { Assessment } from "../../assess/assess.js";
 import { hydrographVolume } from "../../routing/router.js";
 import { storageCurve } from "../../storage/curve.js";
 import { formatter, trimNumber, type Formatter } from "../../format.js";
-import { checkValue, hours, percent } from "../console.js";
+import { checkTitle, checkValue, hours, percent, targetText } from "../console.js";
 import { withinBand } from "../json.js";
 import { targetBand } from "../../assess/rules/band.js";
 import { ruleOf } from "../../assess/rules/registry.js";
@@ -93,7 +93,7 @@ export function stormsTable(c: Case): TableBlock {
       return [
         s.name,
         `${trimNumber(s.returnPeriod, 2)} yr`,
-        s.target === null ? "none" : f.flow(s.target),
+        targetText(c, s),
         s.target === null ? "none" : targetBand(s.target, c.criteria).map(f.flow).join(" to "),
         f.flow(peak),
         f.volume(hydrographVolume(s.inflow)),
@@ -209,7 +209,7 @@ export function checksTable(c: Case, assessment: Assessment): TableBlock {
     rows: assessment.checks.map((check) => {
       const binding = check === assessment.binding;
       return [
-        binding ? { text: `${check.name} (binding)`, tone: "binding" } : check.name,
+        binding ? { text: `${checkTitle(check)} (binding)`, tone: "binding" } : checkTitle(check),
         checkValue(c, check, check.value),
         `${ruleOf(check).comparison} ${checkValue(c, check, check.limit)}`,
         { text: percent(check.slack), tone: check.passed ? "pass" : "fail" },
