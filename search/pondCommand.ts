@@ -12,7 +12,7 @@ export const POND_DESIGN_CASE = "pond-and-outlet.json";
 
 export async function pondDesignCommand(path: string, options: DesignCommandOptions): Promise<number> {
   if (options.resume) throw new UsageError("--resume", "with --size-pond", "--resume only for an outlet search (without --size-pond)");
-  const loaded = load(path);
+  const loaded = load(path, options.quiet === true);
   const c = loaded.case;
   if (options.out && existsSync(options.out) && !statSync(options.out).isDirectory()) {
     throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
