@@ -2,7 +2,7 @@
 // floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
 // in engineering terms.
 import type { Hydrograph } from "../src/case/model.js";
-import { storageShortfall } from "../src/storage/shortfall.js";
+import { storageShortfall } from "../src/assess/storageShortfall.js";
 import { shortfallLines } from "../src/report/shortfall.js";
 import type { Check } from "../src/assess/checks.js";
 import { formatter, quantityText } from "../src/format.js";

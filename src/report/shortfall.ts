@@ -1,7 +1,7 @@
 // A storage shortfall in words, with units.
 import type { Case } from "../case/model.js";
 import { formatter } from "../format.js";
-import type { StorageShortfall } from "../storage/shortfall.js";
+import type { StorageShortfall } from "../assess/storageShortfall.js";
 
 export function shortfallLines(c: Case, s: StorageShortfall): string[] {
   const f = formatter(c.units);

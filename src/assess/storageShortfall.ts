@@ -4,9 +4,10 @@
 // (the constant-release hydrograph difference): that less what the pond holds between its pool and
 // the freeboard level is storage no outlet can do without.
 import type { Case } from "../case/model.js";
-import { storageCurve } from "./curve.js";
-import { hydrographDifference } from "./estimate.js";
-import { availableStorage, freeboardLevel } from "./stormEstimates.js";
+import { targetBand } from "./rules/band.js";
+import { storageCurve } from "../storage/curve.js";
+import { hydrographDifference } from "../storage/estimate.js";
+import { availableStorage, freeboardLevel } from "../storage/stormEstimates.js";
 
 export interface StorageShortfall {
   /** m3 between the pool and the freeboard level. */
@@ -30,7 +31,7 @@ export function storageShortfall(c: Case, closestMaxStage: number | null): Stora
   let leastStorm: string | null = null;
   for (const s of c.storms) {
     if (s.target === null) continue;
-    const v = hydrographDifference(s.inflow, s.target * (1 + c.criteria.over), "constant");
+    const v = hydrographDifference(s.inflow, targetBand(s.target, c.criteria)[1], "constant");
     if (v > leastNeeded) [leastNeeded, leastStorm] = [v, s.name];
   }
   const curve = storageCurve(c.pond);
