@@ -8,13 +8,12 @@
 // round's order. So the same seed and routing budget give the same ranking whatever the number of
 // workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
 import type { SearchProblem } from "./problem.js";
-import { Evaluator } from "./evaluate.js";
-import { closestLayouts, layoutCost, layoutSpace, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import { scoreWith } from "./scoring.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
-import { availableParallelism } from "node:os";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
-import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
+import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
 import { explainCandidate, explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter, type LayoutFitter } from "./pool.js";
@@ -108,6 +107,8 @@ const MAX_BEAM = 64;
 const SAMPLING_BEAM = 3;
 /** Random layouts screened per round. */
 const SAMPLE_BATCH = 40;
+/** Sampled layouts scored per chunk (a unit of work for a worker; fixed, whatever the workers). */
+const SAMPLE_CHUNK = 5;
 /** A sampled layout is fitted when its objective at the staged start is at most this. */
 const PROMISING = 0.02;
 /** Rounds of sampling in a row without anything worth fitting before the search stops (or widens). */
@@ -140,7 +141,6 @@ export function inShard(key: string, shard: { index: number; count: number }): b
 export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
-  const evaluator = new Evaluator(p);
   const baseline = assessBaseline(p);
   const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
   // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
@@ -158,41 +158,36 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   let fromJournal = 0;
   let planned = 0;
   let otherShards = 0;
-  // Routings of the fits (per layout, wherever they ran) plus those of planning in this thread.
+  // Routings of the fits (per layout) and of the plan's and the widening's scores (per chunk),
+  // wherever they ran.
   let fitRoutings = 0;
   let fitEvaluations = 0;
-  const routings = () => evaluator.routings + fitRoutings;
+  const routings = () => fitRoutings;
+  const scored = async <T>(scoring: Parameters<typeof scoreWith<T>>[1]): Promise<T> => {
+    const done = await scoreWith(fitter, scoring);
+    fitRoutings += done.routings;
+    fitEvaluations += done.evaluations;
+    return done.result;
+  };
   const timed = options.timeBudget !== undefined;
 
   let beam = options.beam;
-  let plan = planLayouts(p, evaluator, beam);
+  let plan = await scored(planning(p, beam));
   const firstPlan = plan;
   let bestCost: number | null = null;
 
-  // Designs routed again while the round's other layouts are still being fitted (a pure function of
-  // the design, so computing it early changes nothing but the time); taken when the round is merged.
-  const early = new Map<string, Candidate>();
   const designKey = (layout: Layout, vars: number[]) => {
     const file = designOutletFile(p, layout, vars);
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
   };
-  // Only where a core is left for this thread besides the workers (measured: on 2 cores with 2
-  // workers the overlap slowed the fits more than it saved).
-  const overlap = fitter.workers > 1 && fitter.workers < availableParallelism();
-  const prepare = (layout: Layout, designs: number[][]) => {
-    for (const vars of designs) {
-      const { file, key } = designKey(layout, vars);
-      if (!seenDesigns.has(key) && !early.has(key)) early.set(key, finalizeCandidate(p, layout, vars, file));
-    }
-  };
   const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
-  const accept = (layout: Layout, vars: number[]): Candidate | null => {
+  // `routed`: the design already routed through the `route` path on a worker (the same numbers).
+  const accept = (layout: Layout, vars: number[], routed?: PackedRoute): Candidate | null => {
     const { file, key } = designKey(layout, vars);
     if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = early.get(key) ?? finalizeCandidate(p, layout, vars, file);
-    early.delete(key);
+    const candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
     candidates.set(key, candidate);
     if (candidates.size > 2 * KEPT) {
       const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
@@ -275,12 +270,12 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   };
 
   /** Widens the search when the queue is dry; returns a reason to stop, or null to go on. */
-  const widen = (): string | null => {
+  const widen = async (): Promise<string | null> => {
     if (p.fixedLayout) return "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
     if (spent()) return budgetWords();
     if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || firstCompliantAt === null)) {
       beam *= 2;
-      plan = planLayouts(p, evaluator, beam);
+      plan = await scored(planning(p, beam));
       const before = planned;
       enqueue(plan.layouts);
       if (planned > before || timed || closest()) return null;
@@ -295,9 +290,10 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (timed && space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
     // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
     if (!(timed && space)) {
-      const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, bar);
+      const drawn = sampleLayouts(p, firstPlan, rng, SAMPLE_BATCH, bar);
+      const values = await scored(layoutScores(p, drawn, SAMPLE_CHUNK));
       const before = planned;
-      enqueue(sampled.filter((s) => s.score <= promising));
+      enqueue(drawn.map((layout, i) => ({ layout, score: values[i].score, cost: values[i].cost })).filter((s) => s.score <= promising));
       samplingRounds = planned > before ? 0 : samplingRounds + 1;
       if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
     }
@@ -348,7 +344,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       else round.push({ ...entry, key });
     }
     if (round.length === 0) {
-      const stop = widen();
+      const stop = await widen();
       if (stop) {
         stoppedBecause = stop;
         break;
@@ -359,8 +355,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const outcomes = await fitter.fit(
       jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
       (i, outcome) => {
-        options.onLayout?.({ key: jobs[i].key, ...outcome });
-        if (overlap) prepare(jobs[i].layout, outcome.designs);
+        const { routed: _routed, ...fitted } = outcome;
+        options.onLayout?.({ key: jobs[i].key, ...fitted });
       },
       () => options.interrupt?.() != null,
     );
@@ -376,14 +372,13 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       fitEvaluations += outcome.evaluations;
       // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
       let expand = false;
-      for (const vars of outcome.designs) {
-        const c = accept(entry.layout, vars);
+      for (const [d, vars] of outcome.designs.entries()) {
+        const c = accept(entry.layout, vars, outcome.routed?.[d]);
         if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
       }
       if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
       if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
-    early.clear();
     options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
@@ -404,7 +399,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     layoutsOtherShards: otherShards,
     candidatesRouted: routedCandidates,
     routings: routings(),
-    evaluations: evaluator.evaluations + fitEvaluations,
+    evaluations: fitEvaluations,
     seconds: seconds(),
     secondsToFirstCompliant: firstCompliantAt,
     routingsToFirstCompliant: firstCompliantRoutings,
