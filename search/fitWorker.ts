@@ -9,16 +9,24 @@ import { fitJob, layoutAt, type FitSettings } from "./fitJob.js";
 import { designOutlet, designOutletFile } from "./layout.js";
 import { packRoute, routeOutlet } from "./candidate.js";
 import { scoreChunk } from "./layouts.js";
-import type { ProblemSource, WorkerTask } from "./pool.js";
+import { explainDesign, type ProblemSource, type WorkerTask } from "./pool.js";
 
 const { source, settings } = workerData as { source: ProblemSource; settings: FitSettings };
 const loaded = source.path !== undefined ? loadCase(source.path) : parseCase(source.json);
 const problem = buildProblem(loaded.case, loaded.data, { margin: source.margin }, source.limits);
 
 parentPort!.on("message", (task: WorkerTask) => {
+  const started = performance.now();
+  const ms = () => performance.now() - started;
   try {
     if (task.type === "score") {
-      parentPort!.postMessage({ id: task.id, scored: scoreChunk(problem, task.chunk) });
+      const scored = scoreChunk(problem, task.chunk);
+      parentPort!.postMessage({ id: task.id, scored, ms: ms() });
+      return;
+    }
+    if (task.type === "explain") {
+      const explanation = explainDesign(problem, layoutAt(problem, task.layout), task.vars);
+      parentPort!.postMessage({ id: task.id, explanation, ms: ms() });
       return;
     }
     const layout = layoutAt(problem, task.layout);
@@ -27,7 +35,7 @@ parentPort!.on("message", (task: WorkerTask) => {
       const file = designOutletFile(problem, layout, vars);
       return packRoute(routeOutlet(problem, file, designOutlet(problem, file)));
     });
-    parentPort!.postMessage({ id: task.id, outcome });
+    parentPort!.postMessage({ id: task.id, outcome, ms: ms() });
   } catch (error) {
     parentPort!.postMessage({ id: task.id, error: error instanceof Error ? error.message : String(error) });
   }

@@ -7,6 +7,9 @@ import type { DesignLimits, SearchProblem } from "./problem.js";
 import { fitJob, layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";
 import { scoreChunk } from "./layouts.js";
+import { finalizeCandidate } from "./candidate.js";
+import { explainCandidate } from "./explain.js";
+import { designOutletFile } from "./layout.js";
 
 /** Where a worker finds the case, to build the very problem the main thread has. */
 export interface ProblemSource {
@@ -28,17 +31,32 @@ export interface FitJobRequest {
 
 export interface LayoutFitter extends ChunkScorer {
   readonly workers: number;
+  /** Seconds spent on tasks (fits and scores), summed over the workers: their busy time. */
+  readonly taskSeconds: number;
   /**
    * Fits the jobs; `onDone` hears each outcome as soon as it is ready (for the journal), in any
    * order. Stops handing out jobs once `stop()` is true; the outcomes of jobs not fitted are null.
    */
   fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]>;
+  /** Explanations of designs (binding check, the moves that relax it), in the order given. */
+  explain(designs: ExplainRequest[]): Promise<string[][]>;
   close(): Promise<void>;
+}
+
+export interface ExplainRequest {
+  layout: Layout;
+  vars: number[];
+}
+
+/** A design's explanation: a pure function of the problem, the layout and its elevations. */
+export function explainDesign(p: SearchProblem, layout: Layout, vars: number[]): string[] {
+  return explainCandidate(p, finalizeCandidate(p, layout, vars, designOutletFile(p, layout, vars)));
 }
 
 /** Fits in this thread, yielding to the event loop between layouts (so a signal is heard). */
 export class InlineFitter implements LayoutFitter {
   readonly workers = 1;
+  taskSeconds = 0;
   constructor(private readonly problem: SearchProblem, private readonly settings: FitSettings) {}
 
   async fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
@@ -46,7 +64,9 @@ export class InlineFitter implements LayoutFitter {
     for (let i = 0; i < jobs.length; i++) {
       await new Promise((resolve) => setImmediate(resolve));
       if (stop()) break;
+      const started = performance.now();
       out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, { ...this.settings, starts: jobs[i].starts ?? this.settings.starts });
+      this.taskSeconds += (performance.now() - started) / 1000;
       onDone(i, out[i]!);
     }
     return out;
@@ -54,7 +74,14 @@ export class InlineFitter implements LayoutFitter {
 
   async score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]> {
     await new Promise((resolve) => setImmediate(resolve));
-    return chunks.map((chunk) => scoreChunk(this.problem, chunk));
+    const started = performance.now();
+    const out = chunks.map((chunk) => scoreChunk(this.problem, chunk));
+    this.taskSeconds += (performance.now() - started) / 1000;
+    return out;
+  }
+
+  async explain(designs: ExplainRequest[]): Promise<string[][]> {
+    return designs.map((d) => explainDesign(this.problem, d.layout, d.vars));
   }
 
   async close(): Promise<void> {}
@@ -63,9 +90,10 @@ export class InlineFitter implements LayoutFitter {
 /** A task as a worker receives it. */
 export type WorkerTask =
   | { type: "fit"; id: number; key: string; starts?: number; layout: LayoutIndex }
-  | { type: "score"; id: number; chunk: ScoreChunk };
+  | { type: "score"; id: number; chunk: ScoreChunk }
+  | { type: "explain"; id: number; layout: LayoutIndex; vars: number[] };
 
-type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; error?: string };
+type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; explanation?: string[]; error?: string; ms?: number };
 
 /**
  * Fits and scores on `count` worker threads, each holding its own copy of the problem. Tasks are
@@ -73,6 +101,7 @@ type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; er
  */
 export class WorkerFitter implements LayoutFitter {
   private readonly pool: Worker[];
+  taskSeconds = 0;
   constructor(private readonly problem: SearchProblem, source: ProblemSource, settings: FitSettings, readonly workers: number) {
     const script = new URL("./fitWorker.js", import.meta.url);
     this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: { source, settings } }));
@@ -102,6 +131,16 @@ export class WorkerFitter implements LayoutFitter {
       () => false,
     );
     return out as ScoreOutcome[];
+  }
+
+  async explain(designs: ExplainRequest[]): Promise<string[][]> {
+    const out = await this.run(
+      designs.map((d, id): WorkerTask => ({ type: "explain", id, layout: layoutIndex(this.problem, d.layout), vars: d.vars })),
+      designs.length,
+      (reply) => reply.explanation!,
+      () => false,
+    );
+    return out as string[][];
   }
 
   /** Runs the tasks on the pool; `take` turns each reply into its result. */
@@ -134,6 +173,7 @@ export class WorkerFitter implements LayoutFitter {
           worker.off("message", onMessage);
           worker.off("error", onError);
           busy--;
+          this.taskSeconds += (reply.ms ?? 0) / 1000;
           if (reply.error !== undefined) return fail(new Error(reply.error));
           // The worker gets its next task before the result is handled here.
           give(worker);

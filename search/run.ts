@@ -14,7 +14,7 @@ import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
-import { explainCandidate, explainInfeasible } from "./explain.js";
+import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter, type LayoutFitter } from "./pool.js";
 import type { FitOutcome } from "./fitJob.js";
@@ -141,7 +141,6 @@ export function inShard(key: string, shard: { index: number; count: number }): b
 export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
-  const baseline = assessBaseline(p);
   const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
   // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
   // designs already routed are remembered by a short hash of their outlet.
@@ -150,8 +149,12 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   let routedCandidates = 0;
   let compliantFound = 0;
   const tried = new Set<string>();
+  // When the first compliant design was in hand (routed through the `route` path, as soon as its
+  // layout's fit ended, not when its round was merged): a statistic only, the search never reads it.
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
+  // Routings of the round's fits that have ended (counted into `fitRoutings` when it is merged).
+  let roundRoutings = 0;
   let stoppedBecause = "";
   let interrupted = false;
   let fitted = 0;
@@ -172,13 +175,30 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   const timed = options.timeBudget !== undefined;
 
   let beam = options.beam;
-  let plan = await scored(planning(p, beam));
+  // The existing outlet is routed and explained here while the workers score the plan.
+  const planScored = scored(planning(p, beam));
+  const baseline = assessBaseline(p);
+  let plan = await planScored;
   const firstPlan = plan;
   let bestCost: number | null = null;
 
   const designKey = (layout: Layout, vars: number[]) => {
     const file = designOutletFile(p, layout, vars);
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
+  };
+  // Designs of the round routed as soon as their fit ended, until the first compliant one is in hand;
+  // taken when the round is merged (the same numbers: a pure function of the design).
+  const early = new Map<string, Candidate>();
+  /** Routes a design of a round early (or takes a worker's routing); whether it is compliant. */
+  const routedEarly = (layout: Layout, vars: number[], routed?: PackedRoute): boolean => {
+    const { file, key } = designKey(layout, vars);
+    if (seenDesigns.has(key)) return false;
+    let candidate = early.get(key);
+    if (!candidate) {
+      candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
+      early.set(key, candidate);
+    }
+    return candidate.assessment.compliant;
   };
   const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
   // `routed`: the design already routed through the `route` path on a worker (the same numbers).
@@ -187,7 +207,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
+    const candidate = early.get(key) ?? (routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file));
+    early.delete(key);
     candidates.set(key, candidate);
     if (candidates.size > 2 * KEPT) {
       const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
@@ -247,7 +268,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (own >= 0) return queue.splice(own, 1)[0];
     let best = 0;
     // Ranked by change, the most promising layouts (the plan holds the existing one's neighbours) go first throughout.
-    const byCost = firstCompliantAt !== null && p.limits.rankBy !== "change";
+    const byCost = compliantFound > 0 && p.limits.rankBy !== "change";
     for (let i = 1; i < queue.length; i++) {
       const a = queue[i];
       const b = queue[best];
@@ -273,7 +294,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   const widen = async (): Promise<string | null> => {
     if (p.fixedLayout) return "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
     if (spent()) return budgetWords();
-    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || firstCompliantAt === null)) {
+    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || compliantFound === 0)) {
       beam *= 2;
       plan = await scored(planning(p, beam));
       const before = planned;
@@ -281,7 +302,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (planned > before || timed || closest()) return null;
       return `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
     }
-    if (!timed && beam >= MAX_BEAM && firstCompliantAt === null) {
+    if (!timed && beam >= MAX_BEAM && compliantFound === 0) {
       if (closest()) return null;
       return `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
     }
@@ -355,8 +376,13 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const outcomes = await fitter.fit(
       jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
       (i, outcome) => {
-        const { routed: _routed, ...fitted } = outcome;
+        const { routed, ...fitted } = outcome;
         options.onLayout?.({ key: jobs[i].key, ...fitted });
+        roundRoutings += outcome.routings;
+        if (firstCompliantAt === null && outcome.designs.some((vars, d) => routedEarly(jobs[i].layout, vars, routed?.[d]))) {
+          firstCompliantAt = seconds();
+          firstCompliantRoutings = routings() + roundRoutings;
+        }
       },
       () => options.interrupt?.() != null,
     );
@@ -379,13 +405,17 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
       if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
+    early.clear();
+    roundRoutings = 0;
     options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
   const ranked = [...candidates.values()].sort(compareCandidates).slice(0, KEPT);
   markPareto(ranked);
   markVariants(ranked);
-  for (const c of ranked.slice(0, options.top)) c.explanation = explainCandidate(p, c);
+  const shown = ranked.slice(0, options.top);
+  const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
+  shown.forEach((c, i) => (c.explanation = explanations[i]));
   const success = ranked.some((c) => c.assessment.compliant);
   return {
     success,
