@@ -43,6 +43,8 @@ export interface RunOptions {
   fitter?: LayoutFitter;
   /** Fit only this share of the layouts (shard `index` of `count`, from 1). */
   shard?: { index: number; count: number };
+  /** Called once, when the first compliant design is in hand (its fit ended and it was routed). */
+  onFirstCompliant?: () => void;
   /** Asked between layouts: a reason to stop now (e.g. a signal), or null. */
   interrupt?: () => string | null;
 }
@@ -220,6 +222,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (firstCompliantAt === null) {
         firstCompliantAt = seconds();
         firstCompliantRoutings = routings();
+        options.onFirstCompliant?.();
       }
       if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
     }
@@ -382,6 +385,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         if (firstCompliantAt === null && outcome.designs.some((vars, d) => routedEarly(jobs[i].layout, vars, routed?.[d]))) {
           firstCompliantAt = seconds();
           firstCompliantRoutings = routings() + roundRoutings;
+          options.onFirstCompliant?.();
         }
       },
       () => options.interrupt?.() != null,
