@@ -3,6 +3,8 @@
 import type { Outlet } from "../src/case/model.js";
 import type { OutletFile } from "../src/case/schema.js";
 import { routeCase, type CaseRouting } from "../src/routing/routeCase.js";
+import type { RatingTable } from "../src/routing/ratingTable.js";
+import type { RouteResult } from "../src/routing/router.js";
 import { assess, type Assessment } from "../src/assess/assess.js";
 import { describeOutlet } from "../src/report/describe.js";
 import { formatter } from "../src/format.js";
@@ -40,7 +42,11 @@ export interface Candidate extends RoutedOutlet {
 }
 
 export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number[], file: OutletFile): Candidate {
-  const routed = routeOutlet(p, file, designOutlet(p, file));
+  return candidateFrom(p, layout, vars, routeOutlet(p, file, designOutlet(p, file)));
+}
+
+/** A candidate from its design and its routing through the `route` path (here or on a worker). */
+export function candidateFrom(p: SearchProblem, layout: Layout, vars: number[], routed: RoutedOutlet): Candidate {
   return {
     ...routed,
     layout,
@@ -51,6 +57,32 @@ export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number
     variantOf: null,
     explanation: [],
   };
+}
+
+/**
+ * A routed outlet as it crosses from a worker thread: plain data, without the outlet (rebuilt from
+ * its file) and the storms (the case's own, by position).
+ */
+export interface PackedRoute {
+  file: OutletFile;
+  table: RatingTable;
+  results: RouteResult[];
+  assessment: Assessment;
+  cost: number;
+  error: number;
+  description: string;
+}
+
+export function packRoute(r: RoutedOutlet): PackedRoute {
+  return { file: r.file, table: r.routing.table, results: r.routing.storms.map((s) => s.result), assessment: r.assessment, cost: r.cost, error: r.error, description: r.description };
+}
+
+/** The routed outlet again, on this thread's problem (the same case as the worker's). */
+export function unpackRoute(p: SearchProblem, packed: PackedRoute): RoutedOutlet {
+  const outlet = designOutlet(p, packed.file);
+  const storms = p.case.storms.map((storm, i) => ({ storm, result: packed.results[i] }));
+  const { table, results: _results, ...rest } = packed;
+  return { ...rest, outlet, routing: { outlet, table, storms } };
 }
 
 /** Routes an outlet through the `route` path, assesses and costs it. */

@@ -5,6 +5,7 @@ import { Evaluator } from "./evaluate.js";
 import { fitLayout } from "./fit.js";
 import type { Layout } from "./layout.js";
 import type { SearchProblem } from "./problem.js";
+import type { PackedRoute } from "./candidate.js";
 
 export interface FitSettings {
   seed: string;
@@ -18,6 +19,11 @@ export interface FitOutcome {
   /** Storm routings the fit spent (counted against the budget). */
   routings: number;
   evaluations: number;
+  /**
+   * The designs routed again through the `route` path, when fitted on a worker (so the main thread
+   * need not): never journalled, recomputed when an outcome is replayed.
+   */
+  routed?: PackedRoute[];
 }
 
 /**

@@ -1,20 +1,42 @@
-// A worker thread of the search: builds the same problem as the main thread from the case, then fits
-// the layouts it is sent, one at a time, and posts each outcome back with the job's number.
+// A worker thread of the search: builds the same problem as the main thread from the case, then does
+// the tasks it is sent, one at a time: fits a layout (and routes its designs again through the
+// `route` path, so the main thread need not), or scores a chunk of layouts for the plan. Each result
+// is posted back with the task's number.
 import { parentPort, workerData } from "node:worker_threads";
 import { loadCase, parseCase } from "../src/case/load.js";
 import { buildProblem } from "./problem.js";
-import { fitJob, layoutAt, type FitSettings, type LayoutIndex } from "./fitJob.js";
-import type { ProblemSource } from "./pool.js";
+import { fitJob, layoutAt, type FitSettings } from "./fitJob.js";
+import { designOutlet, designOutletFile } from "./layout.js";
+import { packRoute, routeOutlet } from "./candidate.js";
+import { scoreChunk } from "./layouts.js";
+import { explainDesign, type ProblemSource, type WorkerTask } from "./pool.js";
 
 const { source, settings } = workerData as { source: ProblemSource; settings: FitSettings };
 const loaded = source.path !== undefined ? loadCase(source.path) : parseCase(source.json);
 const problem = buildProblem(loaded.case, loaded.data, { margin: source.margin }, source.limits);
 
-parentPort!.on("message", (job: { id: number; key: string; starts?: number; layout: LayoutIndex }) => {
+parentPort!.on("message", (task: WorkerTask) => {
+  const started = performance.now();
+  const ms = () => performance.now() - started;
   try {
-    const outcome = fitJob(problem, layoutAt(problem, job.layout), job.key, { ...settings, starts: job.starts ?? settings.starts });
-    parentPort!.postMessage({ id: job.id, outcome });
+    if (task.type === "score") {
+      const scored = scoreChunk(problem, task.chunk);
+      parentPort!.postMessage({ id: task.id, scored, ms: ms() });
+      return;
+    }
+    if (task.type === "explain") {
+      const explanation = explainDesign(problem, layoutAt(problem, task.layout), task.vars);
+      parentPort!.postMessage({ id: task.id, explanation, ms: ms() });
+      return;
+    }
+    const layout = layoutAt(problem, task.layout);
+    const outcome = fitJob(problem, layout, task.key, { ...settings, starts: task.starts ?? settings.starts });
+    outcome.routed = outcome.designs.map((vars) => {
+      const file = designOutletFile(problem, layout, vars);
+      return packRoute(routeOutlet(problem, file, designOutlet(problem, file)));
+    });
+    parentPort!.postMessage({ id: task.id, outcome, ms: ms() });
   } catch (error) {
-    parentPort!.postMessage({ id: job.id, error: error instanceof Error ? error.message : String(error) });
+    parentPort!.postMessage({ id: task.id, error: error instanceof Error ? error.message : String(error) });
   }
 });

@@ -10,7 +10,9 @@ import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../src/assess/rules/band.js";
 import { designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
-import type { Evaluator } from "./evaluate.js";
+import { Evaluator } from "./evaluate.js";
+import { layoutAt, layoutIndex } from "./fitJob.js";
+import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
 import { stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
 
@@ -107,43 +109,59 @@ export function barrelCapacity(p: SearchProblem, size: SizeOption): number {
 /**
  * Plans layouts with `beam` options kept per level, for every number of levels from 1 to the most
  * the catalogue allows (and no more than the storms to hold, plus the rim). Sorted best first.
+ * Scored in this thread; the search scores the same plan on its workers (`planning`).
  */
-export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number): LayoutPlan {
+export function planLayouts(p: SearchProblem, beam: number): LayoutPlan {
+  return scoreHere(p, planning(p, beam)).result;
+}
+
+/** Chunk sizes of the plan's scoring: fixed, so that the plan does not depend on the workers. */
+const FIRST_CHUNK = 4;
+const LAYOUT_CHUNK = 4;
+
+/** The plan as a scoring generator: it asks for chunks of scores level by level. */
+export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
   if (p.fixedLayout) {
     const layout = p.fixedLayout;
-    return { layouts: [{ layout, ...existingScore(p, layout, evaluator) }], pruned: [], viableFirst: 1, firstOptions: layout.levels.slice(0, 1) };
+    const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, layout) }] }];
+    return { layouts: [{ layout, score: own.values[0].score, cost: own.values[0].cost }], pruned: [], viableFirst: 1, firstOptions: layout.levels.slice(0, 1) };
   }
   const storms = p.targeted;
   const barrels = barrelChoices(p);
-  const stagingBarrel = barrels[0];
   const options = p.parts.filter((part) => fitsSomeRiser(p, part));
+  const at = (part: PartOption) => p.parts.indexOf(part);
   const pruned: PruneRecord[] = [];
   const maxLevels = Math.min(p.maxLevels, storms.length);
   const results = new Map<string, ScoredLayout>();
+
+  // Layouts scored on every storm from the staged start, in order, each once.
+  function* scoreLayouts(layouts: Layout[], size: number): Generator<ScoreChunk[], void, ScoreOutcome[]> {
+    const fresh: Layout[] = [];
+    const keys = new Set<string>();
+    for (const layout of layouts) {
+      const key = layoutKey(layout);
+      if (results.has(key) || keys.has(key)) continue;
+      keys.add(key);
+      fresh.push(layout);
+    }
+    if (fresh.length === 0) return;
+    const outcomes = yield chunked(fresh.map((l) => stagedItem(p, l)), size);
+    const values = outcomes.flatMap((o) => o.values);
+    fresh.forEach((layout, i) => results.set(layoutKey(layout), { layout, score: values[i].score, cost: values[i].cost }));
+  }
 
   // Level 1 (at the floor): route the smallest storm through each option alone.
   type Partial = { levels: PartOption[]; score: number };
   let frontier: Partial[] = [];
   if (maxLevels === 0) frontier = [{ levels: [], score: 0 }];
   else {
-    const first = storms[0];
-    for (const part of options) {
-      const layout: Layout = { levels: [part], riser: null, barrel: stagingBarrel };
-      const vars = stagedStart(p, layout, evaluator, true);
-      const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
-      const result = evaluator.routeStorms(outlet, [first])[0].result;
-      let peak = result.peakOutflow;
-      if (!p.lowestFloats && peak > targetBand(first.target!, p.case.criteria)[1]) {
-        // The bound holds with the most restrictive barrel: confirm with it before pruning.
-        if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
-        if (peak > targetBand(first.target!, p.case.criteria)[1]) {
-          pruned.push({ part, storm: first, peak });
-          continue;
-        }
-      }
-      // The lowest level drains the pond's last stretch alone: a slow one fails the drawdown rule.
-      frontier.push({ levels: [part], score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 });
-    }
+    const outcomes = yield chunked(options.map((part) => ({ kind: "first", part: at(part) })), FIRST_CHUNK);
+    const values = outcomes.flatMap((o) => o.values);
+    options.forEach((part, i) => {
+      const v = values[i];
+      if (v.pruned) pruned.push({ part, storm: storms[0], peak: v.peak });
+      else frontier.push({ levels: [part], score: v.score });
+    });
   }
   const viableFirst = frontier.length;
   const firstOptions = frontier.map((f) => f.levels[0]).filter((x): x is PartOption => x !== undefined);
@@ -158,33 +176,29 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
   for (let count = 1; count <= Math.max(1, maxLevels); count++) {
     if (frontier.length === 0) break;
     // Layouts with `count` levels: score them on every storm from the staged start.
-    for (const partial of keep([...frontier])) addLayouts(partial.levels);
+    const layouts: Layout[] = [];
+    for (const partial of keep([...frontier])) {
+      for (const barrel of barrels) for (const riser of riserChoices(p, partial.levels, barrel)) layouts.push({ levels: partial.levels, riser, barrel });
+    }
+    yield* scoreLayouts(layouts, LAYOUT_CHUNK);
     if (count === maxLevels) break;
-    // Extend the best prefixes by one level, scored on the storm the new level must hold.
+    // Extend the best prefixes by one level, scored on the storm the new level must hold (one chunk
+    // per prefix: the prefix's routing is shared by every option tried on it).
+    const stormIndex = Math.min(count, storms.length - 1);
+    const storm = storms[stormIndex];
+    const last = count + 1 === maxLevels;
+    const prefixes = keep(frontier);
+    const outcomes = yield prefixes.map((partial) => ({
+      items: options.map((part): ScoreItem => ({ kind: "extend", levels: [...partial.levels, part].map(at), storm: stormIndex })),
+    }));
     const next: Partial[] = [];
-    for (const partial of keep(frontier)) {
-      const storm = storms[Math.min(count, storms.length - 1)];
-      for (const part of options) {
-        const layout: Layout = { levels: [...partial.levels, part], riser: null, barrel: stagingBarrel };
-        const vars = stagedStart(p, layout, evaluator, true);
-        const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
-        const peak = evaluator.routeStorms(outlet, [storm])[0].result.peakOutflow;
-        const last = count + 1 === maxLevels;
-        next.push({ levels: layout.levels, score: partial.score + aimDistance(p, storm, peak, last ? 1 : FIXABLE_UNDER) ** 2 });
-      }
-    }
+    prefixes.forEach((partial, k) => {
+      options.forEach((part, i) => {
+        const peak = outcomes[k].values[i].peak;
+        next.push({ levels: [...partial.levels, part], score: partial.score + aimDistance(p, storm, peak, last ? 1 : FIXABLE_UNDER) ** 2 });
+      });
+    });
     frontier = next;
-  }
-
-  function addLayouts(levels: PartOption[]) {
-    for (const barrel of barrels) {
-      for (const riser of riserChoices(p, levels, barrel)) {
-        const layout: Layout = { levels, riser, barrel };
-        const key = layoutKey(layout);
-        if (results.has(key)) continue;
-        results.set(key, { layout, ...stagedScore(p, layout, evaluator) });
-      }
-    }
   }
 
   function cost(levels: PartOption[]): number {
@@ -197,23 +211,51 @@ export function planLayouts(p: SearchProblem, evaluator: Evaluator, beam: number
   if (p.existing) {
     const existing = p.existing.layout;
     const key = layoutKey(existing);
-    if (!results.has(key) && existing.levels.length <= p.maxLevels) results.set(key, { layout: existing, ...existingScore(p, existing, evaluator) });
-    for (const layout of neighbourLayouts(p, existing)) {
-      const k = layoutKey(layout);
-      if (!results.has(k) && layout.levels.length <= p.maxLevels) results.set(k, { layout, ...stagedScore(p, layout, evaluator) });
+    if (!results.has(key) && existing.levels.length <= p.maxLevels) {
+      const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, existing) }] }];
+      results.set(key, { layout: existing, score: own.values[0].score, cost: own.values[0].cost });
     }
+    yield* scoreLayouts(neighbourLayouts(p, existing).filter((layout) => layout.levels.length <= p.maxLevels), LAYOUT_CHUNK);
   }
   const layouts = [...results.values()].sort((a, b) => a.score - b.score);
   return { layouts, pruned, viableFirst, firstOptions };
 }
 
 /**
- * Random layouts from the catalogue (the first level from the options the bound left), kept when
- * they cost less than `bar`, scored by the fit's objective at the staged start. Widens the search
- * beyond the planned and neighbouring layouts; seeded, so runs repeat.
+ * A first-level option alone on the smallest storm, staged without the barrel: its peak, whether the
+ * bound prunes it (confirmed with the most restrictive barrel), and its score as a first level.
  */
-export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Evaluator, rng: () => number, count: number, bar: number): ScoredLayout[] {
-  const out: ScoredLayout[] = [];
+export function firstLevelScore(p: SearchProblem, part: PartOption, evaluator: Evaluator): { peak: number; pruned: boolean; score: number } {
+  const first = p.targeted[0];
+  const layout: Layout = { levels: [part], riser: null, barrel: barrelChoices(p)[0] };
+  const vars = stagedStart(p, layout, evaluator, true);
+  const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
+  const result = evaluator.routeStorms(outlet, [first])[0].result;
+  let peak = result.peakOutflow;
+  if (!p.lowestFloats && peak > targetBand(first.target!, p.case.criteria)[1]) {
+    // The bound holds with the most restrictive barrel: confirm with it before pruning.
+    if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
+    if (peak > targetBand(first.target!, p.case.criteria)[1]) return { peak, pruned: true, score: Infinity };
+  }
+  // The lowest level drains the pond's last stretch alone: a slow one fails the drawdown rule.
+  return { peak, pruned: false, score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 };
+}
+
+/** Peak of `storm` through `levels` (the last one just added) at their staged start, without the barrel. */
+export function extensionPeak(p: SearchProblem, levels: PartOption[], storm: Storm, evaluator: Evaluator): number {
+  const layout: Layout = { levels, riser: null, barrel: barrelChoices(p)[0] };
+  const vars = stagedStart(p, layout, evaluator, true);
+  const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
+  return evaluator.routeStorms(outlet, [storm])[0].result.peakOutflow;
+}
+
+/**
+ * Random layouts from the catalogue (the first level from the options the bound left), kept when
+ * they cost less than `bar` (the run scores them by the fit's objective at the staged start). Widens
+ * the search beyond the planned and neighbouring layouts; seeded, so runs repeat.
+ */
+export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, rng: () => number, count: number, bar: number): Layout[] {
+  const out: Layout[] = [];
   const maxLevels = Math.min(p.maxLevels, p.targeted.length);
   if (maxLevels === 0 || plan.firstOptions.length === 0 || p.fixedLayout) return out;
   const pick = <T>(list: T[]): T => list[Math.floor(rng() * list.length)];
@@ -228,13 +270,20 @@ export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, evaluator: Eva
     if (risers.length === 0) continue;
     const layout: Layout = { levels, riser: pick(risers), barrel };
     if (layoutCost(p, layout) >= bar) continue;
-    out.push({ layout, ...stagedScore(p, layout, evaluator) });
+    out.push(layout);
   }
   return out;
 }
 
+/** Layouts scored at their staged start (the fit's objective) in chunks of `size`, in order. */
+export function* layoutScores(p: SearchProblem, layouts: Layout[], size: number): Scoring<ScoreValue[]> {
+  if (layouts.length === 0) return [];
+  const outcomes = yield chunked(layouts.map((l) => stagedItem(p, l)), size);
+  return outcomes.flatMap((o) => o.values);
+}
+
 /** Score and cost of the existing layout at its own elevations. */
-function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
+export function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   const vars = p.existing && p.existing.vars.length === variableCount(p, layout) ? p.existing.vars : stagedStart(p, layout, evaluator, true);
   const e = evaluator.evaluate(layout, vars);
   return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
@@ -284,7 +333,7 @@ export function layoutSpace(p: SearchProblem, plan: LayoutPlan, limit: number): 
 }
 
 /** Score of a full layout (the fit's own objective, every check, at the staged start) and its cost. */
-function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
+export function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   // Staged without the barrel (fast), judged with it.
   const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator, true) : [];
   const e = evaluator.evaluate(layout, vars);
@@ -379,3 +428,39 @@ export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
   }
   return out;
 }
+
+/** Scores a chunk with a fresh evaluator. */
+export function scoreChunk(p: SearchProblem, chunk: ScoreChunk): ScoreOutcome {
+  const evaluator = new Evaluator(p);
+  const values = chunk.items.map((item): ScoreValue => {
+    const none = { score: 0, cost: 0, peak: 0, drawdown: null, pruned: false };
+    switch (item.kind) {
+      case "first":
+        return { ...none, ...firstLevelScore(p, p.parts[item.part], evaluator) };
+      case "extend":
+        return { ...none, peak: extensionPeak(p, item.levels.map((i) => p.parts[i]), p.targeted[item.storm], evaluator) };
+      case "staged":
+        return { ...none, ...stagedScore(p, layoutAt(p, item.layout), evaluator) };
+      case "existing":
+        return { ...none, ...existingScore(p, layoutAt(p, item.layout), evaluator) };
+    }
+  });
+  return { values, routings: evaluator.routings, evaluations: evaluator.evaluations };
+}
+
+/** Answers a scoring generator in this thread. */
+export function scoreHere<T>(p: SearchProblem, scoring: Scoring<T>): Scored<T> {
+  let routings = 0;
+  let evaluations = 0;
+  let step = scoring.next([]);
+  while (!step.done) {
+    const outcomes = step.value.map((chunk) => scoreChunk(p, chunk));
+    for (const o of outcomes) {
+      routings += o.routings;
+      evaluations += o.evaluations;
+    }
+    step = scoring.next(outcomes);
+  }
+  return { result: step.value, routings, evaluations };
+}
+

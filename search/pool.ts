@@ -4,7 +4,12 @@
 import { Worker } from "node:worker_threads";
 import type { Layout } from "./layout.js";
 import type { DesignLimits, SearchProblem } from "./problem.js";
-import { fitJob, layoutIndex, type FitOutcome, type FitSettings } from "./fitJob.js";
+import { fitJob, layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
+import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";
+import { scoreChunk } from "./layouts.js";
+import { finalizeCandidate } from "./candidate.js";
+import { explainCandidate } from "./explain.js";
+import { designOutletFile } from "./layout.js";
 
 /** Where a worker finds the case, to build the very problem the main thread has. */
 export interface ProblemSource {
@@ -24,19 +29,34 @@ export interface FitJobRequest {
   starts?: number;
 }
 
-export interface LayoutFitter {
+export interface LayoutFitter extends ChunkScorer {
   readonly workers: number;
+  /** Seconds spent on tasks (fits and scores), summed over the workers: their busy time. */
+  readonly taskSeconds: number;
   /**
    * Fits the jobs; `onDone` hears each outcome as soon as it is ready (for the journal), in any
    * order. Stops handing out jobs once `stop()` is true; the outcomes of jobs not fitted are null.
    */
   fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]>;
+  /** Explanations of designs (binding check, the moves that relax it), in the order given. */
+  explain(designs: ExplainRequest[]): Promise<string[][]>;
   close(): Promise<void>;
+}
+
+export interface ExplainRequest {
+  layout: Layout;
+  vars: number[];
+}
+
+/** A design's explanation: a pure function of the problem, the layout and its elevations. */
+export function explainDesign(p: SearchProblem, layout: Layout, vars: number[]): string[] {
+  return explainCandidate(p, finalizeCandidate(p, layout, vars, designOutletFile(p, layout, vars)));
 }
 
 /** Fits in this thread, yielding to the event loop between layouts (so a signal is heard). */
 export class InlineFitter implements LayoutFitter {
   readonly workers = 1;
+  taskSeconds = 0;
   constructor(private readonly problem: SearchProblem, private readonly settings: FitSettings) {}
 
   async fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
@@ -44,59 +64,92 @@ export class InlineFitter implements LayoutFitter {
     for (let i = 0; i < jobs.length; i++) {
       await new Promise((resolve) => setImmediate(resolve));
       if (stop()) break;
+      const started = performance.now();
       out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, { ...this.settings, starts: jobs[i].starts ?? this.settings.starts });
+      this.taskSeconds += (performance.now() - started) / 1000;
       onDone(i, out[i]!);
     }
     return out;
   }
 
+  async score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]> {
+    await new Promise((resolve) => setImmediate(resolve));
+    const started = performance.now();
+    const out = chunks.map((chunk) => scoreChunk(this.problem, chunk));
+    this.taskSeconds += (performance.now() - started) / 1000;
+    return out;
+  }
+
+  async explain(designs: ExplainRequest[]): Promise<string[][]> {
+    return designs.map((d) => explainDesign(this.problem, d.layout, d.vars));
+  }
+
   async close(): Promise<void> {}
 }
 
-/** Fits on `count` worker threads, each holding its own copy of the problem. */
+/** A task as a worker receives it. */
+export type WorkerTask =
+  | { type: "fit"; id: number; key: string; starts?: number; layout: LayoutIndex }
+  | { type: "score"; id: number; chunk: ScoreChunk }
+  | { type: "explain"; id: number; layout: LayoutIndex; vars: number[] };
+
+type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; explanation?: string[]; error?: string; ms?: number };
+
+/**
+ * Fits and scores on `count` worker threads, each holding its own copy of the problem. Tasks are
+ * handed out one at a time to whichever worker is free; results are placed by task number.
+ */
 export class WorkerFitter implements LayoutFitter {
   private readonly pool: Worker[];
+  taskSeconds = 0;
   constructor(private readonly problem: SearchProblem, source: ProblemSource, settings: FitSettings, readonly workers: number) {
     const script = new URL("./fitWorker.js", import.meta.url);
     this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: { source, settings } }));
   }
 
   fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
-    const out: (FitOutcome | null)[] = jobs.map(() => null);
     // Handed out longest first (more elevations to fit, longer fit), so the round ends sooner; the
     // outcomes are placed by job number, so the order of handing out changes nothing else.
     const size = (j: FitJobRequest) => j.layout.levels.length + (j.layout.riser ? 1 : 0);
     const order = jobs.map((_, i) => i).sort((a, b) => size(jobs[b]) - size(jobs[a]) || a - b);
+    return this.run(
+      order.map((id): WorkerTask => ({ type: "fit", id, key: jobs[id].key, starts: jobs[id].starts, layout: layoutIndex(this.problem, jobs[id].layout) })),
+      jobs.length,
+      (reply) => {
+        onDone(reply.id, reply.outcome!);
+        return reply.outcome!;
+      },
+      stop,
+    );
+  }
+
+  async score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]> {
+    const out = await this.run(
+      chunks.map((chunk, id): WorkerTask => ({ type: "score", id, chunk })),
+      chunks.length,
+      (reply) => reply.scored!,
+      () => false,
+    );
+    return out as ScoreOutcome[];
+  }
+
+  async explain(designs: ExplainRequest[]): Promise<string[][]> {
+    const out = await this.run(
+      designs.map((d, id): WorkerTask => ({ type: "explain", id, layout: layoutIndex(this.problem, d.layout), vars: d.vars })),
+      designs.length,
+      (reply) => reply.explanation!,
+      () => false,
+    );
+    return out as string[][];
+  }
+
+  /** Runs the tasks on the pool; `take` turns each reply into its result. */
+  private run<T>(tasks: WorkerTask[], count: number, take: (reply: WorkerReply) => T, stop: () => boolean): Promise<(T | null)[]> {
+    const out: (T | null)[] = Array.from({ length: count }, () => null);
     let next = 0;
     let busy = 0;
     return new Promise((resolve, reject) => {
       let failed = false;
-      const give = (worker: Worker) => {
-        if (failed) return;
-        if (next >= jobs.length || stop()) {
-          if (busy === 0) finish();
-          return;
-        }
-        const id = order[next++];
-        busy++;
-        const onMessage = (message: { id: number; outcome?: FitOutcome; error?: string }) => {
-          worker.off("message", onMessage);
-          worker.off("error", onError);
-          busy--;
-          if (message.error !== undefined) return fail(new Error(message.error));
-          out[message.id] = message.outcome!;
-          // The worker gets its next job before the outcome is handled here.
-          give(worker);
-          onDone(message.id, message.outcome!);
-        };
-        const onError = (error: Error) => {
-          worker.off("message", onMessage);
-          fail(error);
-        };
-        worker.on("message", onMessage);
-        worker.on("error", onError);
-        worker.postMessage({ id, key: jobs[id].key, starts: jobs[id].starts, layout: layoutIndex(this.problem, jobs[id].layout) });
-      };
       let finished = false;
       const finish = () => {
         if (!finished) {
@@ -108,7 +161,34 @@ export class WorkerFitter implements LayoutFitter {
         failed = true;
         reject(error);
       };
-      if (jobs.length === 0) return finish();
+      const give = (worker: Worker) => {
+        if (failed) return;
+        if (next >= tasks.length || stop()) {
+          if (busy === 0) finish();
+          return;
+        }
+        const task = tasks[next++];
+        busy++;
+        const onMessage = (reply: WorkerReply) => {
+          worker.off("message", onMessage);
+          worker.off("error", onError);
+          busy--;
+          this.taskSeconds += (reply.ms ?? 0) / 1000;
+          if (reply.error !== undefined) return fail(new Error(reply.error));
+          // The worker gets its next task before the result is handled here.
+          give(worker);
+          // (A `finish` just now resolves with this very array, read only after this handler.)
+          out[reply.id] = take(reply);
+        };
+        const onError = (error: Error) => {
+          worker.off("message", onMessage);
+          fail(error);
+        };
+        worker.on("message", onMessage);
+        worker.on("error", onError);
+        worker.postMessage(task);
+      };
+      if (tasks.length === 0) return finish();
       for (const worker of this.pool) give(worker);
     });
   }

@@ -8,14 +8,13 @@
 // round's order. So the same seed and routing budget give the same ranking whatever the number of
 // workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
 import type { SearchProblem } from "./problem.js";
-import { Evaluator } from "./evaluate.js";
-import { closestLayouts, layoutCost, layoutSpace, neighbourLayouts, planLayouts, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan } from "./layouts.js";
+import { scoreWith } from "./scoring.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
-import { availableParallelism } from "node:os";
 import { designOutletFile, layoutKey, type Layout } from "./layout.js";
-import { compareCandidates, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
-import { explainCandidate, explainInfeasible } from "./explain.js";
+import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
+import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter, type LayoutFitter } from "./pool.js";
 import type { FitOutcome } from "./fitJob.js";
@@ -44,6 +43,8 @@ export interface RunOptions {
   fitter?: LayoutFitter;
   /** Fit only this share of the layouts (shard `index` of `count`, from 1). */
   shard?: { index: number; count: number };
+  /** Called once, when the first compliant design is in hand (its fit ended and it was routed). */
+  onFirstCompliant?: () => void;
   /** Asked between layouts: a reason to stop now (e.g. a signal), or null. */
   interrupt?: () => string | null;
 }
@@ -108,6 +109,8 @@ const MAX_BEAM = 64;
 const SAMPLING_BEAM = 3;
 /** Random layouts screened per round. */
 const SAMPLE_BATCH = 40;
+/** Sampled layouts scored per chunk (a unit of work for a worker; fixed, whatever the workers). */
+const SAMPLE_CHUNK = 5;
 /** A sampled layout is fitted when its objective at the staged start is at most this. */
 const PROMISING = 0.02;
 /** Rounds of sampling in a row without anything worth fitting before the search stops (or widens). */
@@ -140,8 +143,6 @@ export function inShard(key: string, shard: { index: number; count: number }): b
 export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
-  const evaluator = new Evaluator(p);
-  const baseline = assessBaseline(p);
   const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
   // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
   // designs already routed are remembered by a short hash of their outlet.
@@ -150,48 +151,65 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   let routedCandidates = 0;
   let compliantFound = 0;
   const tried = new Set<string>();
+  // When the first compliant design was in hand (routed through the `route` path, as soon as its
+  // layout's fit ended, not when its round was merged): a statistic only, the search never reads it.
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
+  // Routings of the round's fits that have ended (counted into `fitRoutings` when it is merged).
+  let roundRoutings = 0;
   let stoppedBecause = "";
   let interrupted = false;
   let fitted = 0;
   let fromJournal = 0;
   let planned = 0;
   let otherShards = 0;
-  // Routings of the fits (per layout, wherever they ran) plus those of planning in this thread.
+  // Routings of the fits (per layout) and of the plan's and the widening's scores (per chunk),
+  // wherever they ran.
   let fitRoutings = 0;
   let fitEvaluations = 0;
-  const routings = () => evaluator.routings + fitRoutings;
+  const routings = () => fitRoutings;
+  const scored = async <T>(scoring: Parameters<typeof scoreWith<T>>[1]): Promise<T> => {
+    const done = await scoreWith(fitter, scoring);
+    fitRoutings += done.routings;
+    fitEvaluations += done.evaluations;
+    return done.result;
+  };
   const timed = options.timeBudget !== undefined;
 
   let beam = options.beam;
-  let plan = planLayouts(p, evaluator, beam);
+  // The existing outlet is routed and explained here while the workers score the plan.
+  const planScored = scored(planning(p, beam));
+  const baseline = assessBaseline(p);
+  let plan = await planScored;
   const firstPlan = plan;
   let bestCost: number | null = null;
 
-  // Designs routed again while the round's other layouts are still being fitted (a pure function of
-  // the design, so computing it early changes nothing but the time); taken when the round is merged.
-  const early = new Map<string, Candidate>();
   const designKey = (layout: Layout, vars: number[]) => {
     const file = designOutletFile(p, layout, vars);
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
   };
-  // Only where a core is left for this thread besides the workers (measured: on 2 cores with 2
-  // workers the overlap slowed the fits more than it saved).
-  const overlap = fitter.workers > 1 && fitter.workers < availableParallelism();
-  const prepare = (layout: Layout, designs: number[][]) => {
-    for (const vars of designs) {
-      const { file, key } = designKey(layout, vars);
-      if (!seenDesigns.has(key) && !early.has(key)) early.set(key, finalizeCandidate(p, layout, vars, file));
+  // Designs of the round routed as soon as their fit ended, until the first compliant one is in hand;
+  // taken when the round is merged (the same numbers: a pure function of the design).
+  const early = new Map<string, Candidate>();
+  /** Routes a design of a round early (or takes a worker's routing); whether it is compliant. */
+  const routedEarly = (layout: Layout, vars: number[], routed?: PackedRoute): boolean => {
+    const { file, key } = designKey(layout, vars);
+    if (seenDesigns.has(key)) return false;
+    let candidate = early.get(key);
+    if (!candidate) {
+      candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
+      early.set(key, candidate);
     }
+    return candidate.assessment.compliant;
   };
   const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
-  const accept = (layout: Layout, vars: number[]): Candidate | null => {
+  // `routed`: the design already routed through the `route` path on a worker (the same numbers).
+  const accept = (layout: Layout, vars: number[], routed?: PackedRoute): Candidate | null => {
     const { file, key } = designKey(layout, vars);
     if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = early.get(key) ?? finalizeCandidate(p, layout, vars, file);
+    const candidate = early.get(key) ?? (routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file));
     early.delete(key);
     candidates.set(key, candidate);
     if (candidates.size > 2 * KEPT) {
@@ -204,6 +222,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (firstCompliantAt === null) {
         firstCompliantAt = seconds();
         firstCompliantRoutings = routings();
+        options.onFirstCompliant?.();
       }
       if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
     }
@@ -252,7 +271,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (own >= 0) return queue.splice(own, 1)[0];
     let best = 0;
     // Ranked by change, the most promising layouts (the plan holds the existing one's neighbours) go first throughout.
-    const byCost = firstCompliantAt !== null && p.limits.rankBy !== "change";
+    const byCost = compliantFound > 0 && p.limits.rankBy !== "change";
     for (let i = 1; i < queue.length; i++) {
       const a = queue[i];
       const b = queue[best];
@@ -275,18 +294,18 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   };
 
   /** Widens the search when the queue is dry; returns a reason to stop, or null to go on. */
-  const widen = (): string | null => {
+  const widen = async (): Promise<string | null> => {
     if (p.fixedLayout) return "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
     if (spent()) return budgetWords();
-    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || firstCompliantAt === null)) {
+    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || compliantFound === 0)) {
       beam *= 2;
-      plan = planLayouts(p, evaluator, beam);
+      plan = await scored(planning(p, beam));
       const before = planned;
       enqueue(plan.layouts);
       if (planned > before || timed || closest()) return null;
       return `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
     }
-    if (!timed && beam >= MAX_BEAM && firstCompliantAt === null) {
+    if (!timed && beam >= MAX_BEAM && compliantFound === 0) {
       if (closest()) return null;
       return `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
     }
@@ -295,9 +314,10 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (timed && space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
     // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
     if (!(timed && space)) {
-      const sampled = sampleLayouts(p, firstPlan, evaluator, rng, SAMPLE_BATCH, bar);
+      const drawn = sampleLayouts(p, firstPlan, rng, SAMPLE_BATCH, bar);
+      const values = await scored(layoutScores(p, drawn, SAMPLE_CHUNK));
       const before = planned;
-      enqueue(sampled.filter((s) => s.score <= promising));
+      enqueue(drawn.map((layout, i) => ({ layout, score: values[i].score, cost: values[i].cost })).filter((s) => s.score <= promising));
       samplingRounds = planned > before ? 0 : samplingRounds + 1;
       if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
     }
@@ -348,7 +368,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       else round.push({ ...entry, key });
     }
     if (round.length === 0) {
-      const stop = widen();
+      const stop = await widen();
       if (stop) {
         stoppedBecause = stop;
         break;
@@ -359,8 +379,14 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const outcomes = await fitter.fit(
       jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
       (i, outcome) => {
-        options.onLayout?.({ key: jobs[i].key, ...outcome });
-        if (overlap) prepare(jobs[i].layout, outcome.designs);
+        const { routed, ...fitted } = outcome;
+        options.onLayout?.({ key: jobs[i].key, ...fitted });
+        roundRoutings += outcome.routings;
+        if (firstCompliantAt === null && outcome.designs.some((vars, d) => routedEarly(jobs[i].layout, vars, routed?.[d]))) {
+          firstCompliantAt = seconds();
+          firstCompliantRoutings = routings() + roundRoutings;
+          options.onFirstCompliant?.();
+        }
       },
       () => options.interrupt?.() != null,
     );
@@ -376,21 +402,24 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       fitEvaluations += outcome.evaluations;
       // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
       let expand = false;
-      for (const vars of outcome.designs) {
-        const c = accept(entry.layout, vars);
+      for (const [d, vars] of outcome.designs.entries()) {
+        const c = accept(entry.layout, vars, outcome.routed?.[d]);
         if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
       }
       if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
       if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
     }
     early.clear();
+    roundRoutings = 0;
     options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
   const ranked = [...candidates.values()].sort(compareCandidates).slice(0, KEPT);
   markPareto(ranked);
   markVariants(ranked);
-  for (const c of ranked.slice(0, options.top)) c.explanation = explainCandidate(p, c);
+  const shown = ranked.slice(0, options.top);
+  const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
+  shown.forEach((c, i) => (c.explanation = explanations[i]));
   const success = ranked.some((c) => c.assessment.compliant);
   return {
     success,
@@ -404,7 +433,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     layoutsOtherShards: otherShards,
     candidatesRouted: routedCandidates,
     routings: routings(),
-    evaluations: evaluator.evaluations + fitEvaluations,
+    evaluations: fitEvaluations,
     seconds: seconds(),
     secondsToFirstCompliant: firstCompliantAt,
     routingsToFirstCompliant: firstCompliantRoutings,

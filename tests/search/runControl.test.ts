@@ -71,6 +71,28 @@ describe("design runs: determinism, interruption and recovery", () => {
     expect(ranking(JSON.parse(one.stdout))).toEqual(uninterrupted().slice(0, 1));
   });
 
+  it("does the same work on 1 and on 2 workers, through the widening's sampled layouts and on an existing outlet", () => {
+    // small-compliant at 30,000 routings spends most of its budget scoring sampled layouts (on the
+    // workers, in chunks); wet-value's existing outlet has parts no option list holds, and its
+    // candidates' explanations and change lists are made on the workers.
+    const work = (results: { search: Record<string, unknown>; candidates: Record<string, unknown>[] }) => ({
+      routings: results.search.routings,
+      evaluations: results.search.evaluations,
+      planned: results.search.layoutsPlanned,
+      fitted: results.search.layoutsFitted,
+      candidates: results.candidates.map((c) => JSON.stringify([c.outlet, c.cost, c.explanation, c.changes ?? null])),
+    });
+    for (const [file, budget] of [[CASE, "30000"], ["cases/wet-value/case.json", "6000"]]) {
+      const [one, two] = ["1", "2"].map((workers) => {
+        const r = outfit("design", file, "--budget", budget, "--workers", workers, "--top", "3", "--json", "--quiet");
+        expect(r.code).toBe(0);
+        return work(JSON.parse(r.stdout));
+      });
+      expect(one.candidates.length).toBeGreaterThan(0);
+      expect(two).toEqual(one);
+    }
+  });
+
   it("resumes a SIGKILLed run: no fitted layout lost or repeated, the ranking of the uninterrupted run", async () => {
     const out = dir("kill");
     const killed = await interrupt(["design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out], out, 6, "SIGKILL");

@@ -15,7 +15,7 @@ describe("staged start with shared routings", () => {
       const loaded = loadCase(fileURLToPath(new URL(`../../cases/${name}/case.json`, import.meta.url)));
       const shared = buildProblem(loaded.case, loaded.data);
       const reference = buildProblem(loaded.case, loaded.data, { referencePath: true });
-      const plan = planLayouts(shared, new Evaluator(shared), 2);
+      const plan = planLayouts(shared, 2);
       expect(plan.layouts.length).toBeGreaterThan(3);
       const sharedEvaluator = new Evaluator(shared);
       const referenceEvaluator = new Evaluator(reference);

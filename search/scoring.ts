@@ -1,0 +1,80 @@
+// Scores of layouts for planning and widening, as self-contained chunks: with the layout fits, the
+// units of work the run hands to worker threads. A chunk is scored with an evaluator of its own (the
+// staged start's memo is shared within the chunk only), so its result depends only on the problem and
+// the chunk: the same in whatever thread, and the same whatever the number of workers.
+import { layoutIndex, type LayoutIndex } from "./fitJob.js";
+import type { Layout } from "./layout.js";
+import type { SearchProblem } from "./problem.js";
+
+/** One thing to score: positions in the problem's option lists, so it crosses to a worker intact. */
+export type ScoreItem =
+  /** A first-level option alone, through the most open barrel, on the smallest storm. */
+  | { kind: "first"; part: number }
+  /** Levels (part positions) with the last one just added, on the storm it must hold. */
+  | { kind: "extend"; levels: number[]; storm: number }
+  /** A whole layout at its staged start, every check (the fit's objective) and its cost. */
+  | { kind: "staged"; layout: LayoutIndex }
+  /** The existing outlet's layout at its own elevations. */
+  | { kind: "existing"; layout: LayoutIndex };
+
+export interface ScoreValue {
+  /** The fit's objective at the start (staged, existing), or the level's distance score (first). */
+  score: number;
+  cost: number;
+  /** Peak outflow (m3/s) of the storm the item was routed with (first, extend). */
+  peak: number;
+  /** Drawdown time (s) of that routing, null when not drained (first). */
+  drawdown: number | null;
+  /** A first-level option that cannot meet the smallest storm's band (the bound). */
+  pruned: boolean;
+}
+
+export interface ScoreChunk {
+  items: ScoreItem[];
+}
+
+export interface ScoreOutcome {
+  values: ScoreValue[];
+  routings: number;
+  evaluations: number;
+}
+
+export const stagedItem = (p: SearchProblem, layout: Layout): ScoreItem => ({ kind: "staged", layout: layoutIndex(p, layout) });
+
+/** Something that scores chunks, in this thread or on workers; outcomes in the chunks' order. */
+export interface ChunkScorer {
+  score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]>;
+}
+
+/** A generator of scoring requests (chunks) that returns its result once every request is answered. */
+export type Scoring<T> = Generator<ScoreChunk[], T, ScoreOutcome[]>;
+
+/** Work done answering a scoring generator. */
+export interface Scored<T> {
+  result: T;
+  routings: number;
+  evaluations: number;
+}
+
+/** Answers a scoring generator with a scorer (worker threads, or this thread between events). */
+export async function scoreWith<T>(scorer: ChunkScorer, scoring: Scoring<T>): Promise<Scored<T>> {
+  let routings = 0;
+  let evaluations = 0;
+  let step = scoring.next([]);
+  while (!step.done) {
+    const outcomes = await scorer.score(step.value);
+    for (const o of outcomes) {
+      routings += o.routings;
+      evaluations += o.evaluations;
+    }
+    step = scoring.next(outcomes);
+  }
+  return { result: step.value, routings, evaluations };
+}
+
+/** Splits items into chunks of at most `size` (fixed, whatever the number of workers). */
+export function chunked(items: ScoreItem[], size: number): ScoreChunk[] {
+  const out: ScoreChunk[] = [];
+  for (let i = 0; i < items.length; i += size) out.push({ items: items.slice(i, i + size) });
+  return out;
+}
