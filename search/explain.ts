@@ -6,8 +6,9 @@ import { storageShortfall } from "../src/assess/storageShortfall.js";
 import { shortfallLines } from "../src/report/shortfall.js";
 import type { Check } from "../src/assess/checks.js";
 import { formatter, quantityText } from "../src/format.js";
-import { ruleOf } from "../src/assess/rules/registry.js";
+import { ruleOf, whyNothingComplies } from "../src/assess/rules/registry.js";
 import { targetBand } from "../src/assess/rules/band.js";
+import { closestMaxStage, freeboardStorm } from "../src/assess/rules/rule.js";
 import { baseLength } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
@@ -179,22 +180,10 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
         `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
     );
   }
-  const largest = p.targeted[p.targeted.length - 1];
-  const freeboardStorm = p.case.storms.find((s) => s.name === p.case.criteria.freeboardStorm) ?? largest;
-  const failing = new Map<string, number>();
-  for (const c of closest) for (const check of c.assessment.checks) if (!check.passed) failing.set(check.kind, (failing.get(check.kind) ?? 0) + 1);
-  if (failing.has("freeboard") || failing.has("overtopping")) {
-    const bestStage = Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity));
-    lines.push(
-      `The ${freeboardStorm.name} storm cannot be kept ${f.length(p.case.criteria.freeboardDepth)} below the top of embankment (${f.elevation(p.case.pond.top)}) ` +
-        `together with the other rules: the closest candidate still reaches ${f.elevation(bestStage)}. Allow larger openings or a wider riser, a larger barrel, or add storage.`,
-    );
-  }
-  if (failing.has("peak-lower")) lines.push(`Some storms stay below their lower band: the pond over-detains them with the openings that meet the other storms; accept over-detention (tolerance.under) or allow other sizes.`);
-  if (failing.has("peak-upper") && plan.viableFirst > 0) lines.push(`Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.`);
-  if (failing.has("drawdown")) lines.push(`The pond drains too slowly after some storms; a larger low-flow opening conflicts with the smallest storm's target.`);
+  const routings = closest.map((c) => c.routing.storms);
+  lines.push(...whyNothingComplies({ case: p.case, closest: routings, firstLevelBound: plan.viableFirst === 0 }, closest.map((c) => c.assessment.checks)));
   if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
-  const closestStage = closest.length ? Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity)) : null;
-  lines.push(...shortfallLines(p.case, storageShortfall(p.case, closestStage === null || !Number.isFinite(closestStage) ? null : closestStage)));
+  const closestStage = closestMaxStage(routings, freeboardStorm(p.case));
+  lines.push(...shortfallLines(p.case, storageShortfall(p.case, Number.isFinite(closestStage) ? closestStage : null)));
   return lines;
 }
