@@ -4,12 +4,11 @@
 // target are pruned by a bound: openings only add flow, so if the first level alone already passes
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
 import type { Storm } from "../src/case/model.js";
-import { baseLength } from "../src/units.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
 import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../src/assess/rules/band.js";
-import { designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
 import type { Evaluator } from "./evaluate.js";
 import { stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
@@ -100,7 +99,7 @@ export function barrelChoices(p: SearchProblem): (SizeOption | null)[] {
 /** Flow the barrel passes at the freeboard stage when the openings are no limit. */
 export function barrelCapacity(p: SearchProblem, size: SizeOption): number {
   const file = designOutletFile(p, { levels: [], riser: null, barrel: size }, []);
-  const outlet = designOutlet(p, { ...file, elements: [], riser: { shape: "circular", diameter: 1000, crest: p.floor / baseLength(p.case.units), coefficient: 3.0, orificeCoefficient: 0.6 }, spillway: undefined });
+  const outlet = designOutlet(p, { ...file, elements: [], riser: { shape: "circular", diameter: 1000, crest: caseElevation(p, p.floor), coefficient: 3.0, orificeCoefficient: 0.6 }, spillway: undefined });
   return outletDischarge(outlet, p.case.tailwater, p.ceiling);
 }
 
@@ -293,9 +292,8 @@ function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { 
 
 /** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
 export function layoutCost(p: SearchProblem, layout: Layout): number {
-  const L = baseLength(p.case.units);
   const n = variableCount(p, layout);
-  const vars = Array.from({ length: n }, (_, i) => p.floor / L + (i + 1) * p.step);
+  const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.stepM);
   return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs);
 }
 
