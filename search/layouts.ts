@@ -305,14 +305,17 @@ function partFlowAt(p: SearchProblem, part: PartOption, head: number): number {
   return elementFlow(e, bottom + head, -Infinity);
 }
 
+/** Head (m) at which parts of different kinds are compared as neighbours: one foot, whatever the case's units. */
+const NEIGHBOUR_HEAD = 0.3048;
+
 /**
  * Parts one catalogue step away: the next size down or up, one opening more or fewer, and for each
- * other kind of part the one passing the nearest flow at a head of 1 ft (0.3 m).
+ * other kind of part the one passing the nearest flow at a head of NEIGHBOUR_HEAD.
  */
 function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
   const same = p.parts.filter((o) => o.kind === part.kind);
   const out: PartOption[] = [];
-  const head = p.case.units === "US" ? 0.3048 : 0.3;
+  const head = NEIGHBOUR_HEAD;
   const flow = partFlowAt(p, part, head);
   for (const kind of ["orifice", "rectangular", "v-notch"] as const) {
     if (kind === part.kind) continue;
