@@ -28,7 +28,7 @@ export interface RoutedOutlet {
 
 export interface Candidate extends RoutedOutlet {
   layout: Layout;
-  /** Floating elevations (case units), on the elevation step. */
+  /** Floating elevations (m), on the elevation step's lattice. */
   vars: number[];
   /** Part by part against the existing outlet, when the case has one (value engineering). */
   changes: ChangeList | null;

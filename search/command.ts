@@ -9,7 +9,7 @@ import { buildProblem, type DesignLimits } from "./problem.js";
 import { KEPT, runSearch, type JournalEntry } from "./run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
 import { createHash } from "node:crypto";
-import { Journal, readJournal } from "./journal.js";
+import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
 import { ProgressReporter } from "./progress.js";
 import { InlineFitter, WorkerFitter, type LayoutFitter } from "./pool.js";
 
@@ -111,7 +111,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   if (options.resume && !options.out) throw new UsageError("--resume", "without --out", "--out DIR naming the directory of the run to resume");
   if (shard && !options.out) throw new UsageError("--shard", options.shard!, "--out DIR too: a shard's journal is what `outfit gather` combines");
   const journalPath = options.out ? join(options.out, "journal.jsonl") : undefined;
-  const signature = createHash("sha256").update(JSON.stringify({ json: loaded.json, seed, margin: problem.options.margin, starts, ...(limits.vary !== "all" || limits.keepRiser || limits.keepBarrel || limits.rankBy !== "cost" ? { limits } : {}) })).digest("hex").slice(0, 16);
+  const signature = createHash("sha256").update(JSON.stringify({ journal: JOURNAL_VERSION, json: loaded.json, seed, margin: problem.options.margin, starts, ...(limits.vary !== "all" || limits.keepRiser || limits.keepBarrel || limits.rankBy !== "cost" ? { limits } : {}) })).digest("hex").slice(0, 16);
   const done = new Map<string, JournalEntry>();
   const warn = (text: string) => printErr(`outfit: warning: ${text}\n`);
   const sources: [string, string][] = [];

@@ -11,7 +11,6 @@ import { CONTRACTED_WEIR_MAX_HEAD_RATIO, VNOTCH_MAX_HEAD } from "../src/assess/w
 import type { SearchProblem } from "./problem.js";
 import { ruleOf } from "../src/assess/rules/registry.js";
 import { designOutlet, designOutletFile, elevations, type Layout } from "./layout.js";
-import { baseLength } from "../src/units.js";
 
 export interface Evaluation {
   vars: number[];
@@ -116,30 +115,29 @@ function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly Storm
  * elevations between the floor and the top less freeboard. Returns the number broken.
  */
 function geometryResiduals(p: SearchProblem, layout: Layout, vars: readonly number[], residuals: number[]): number {
-  const L = baseLength(p.case.units);
-  const depth = (p.case.pond.top - p.case.pond.bottom) / L;
+  const depth = p.case.pond.top - p.case.pond.bottom;
   const z = elevations(p, layout, vars);
-  const step = p.step;
+  const step = p.stepM;
   let broken = 0;
   const push = (excess: number) => {
     const r = Math.max(0, excess) / depth;
     residuals.push(GEOMETRY_WEIGHT * r);
     if (excess > 1e-9) broken++;
   };
-  const floor = p.floor / L;
-  const ceiling = p.ceiling / L;
-  const all = [...z.levels, ...p.keptElevations.map((e) => e / L)].sort((a, b) => a - b);
+  const floor = p.floor;
+  const ceiling = p.ceiling;
+  const all = [...z.levels, ...p.keptElevations].sort((a, b) => a - b);
   for (let i = 1; i < all.length; i++) push(all[i - 1] + step - all[i] - 1e-9);
   z.levels.forEach((level, i) => {
     push(floor - level);
     push(level - ceiling);
-    const rim = z.rim ?? (p.keptRiser ? p.converter.length(p.keptRiser.crest, "outlet.riser.crest") / L : null);
+    const rim = z.rim ?? (p.keptRiser ? p.converter.length(p.keptRiser.crest, "outlet.riser.crest") : null);
     if (rim !== null) {
       const part = layout.levels[i];
-      const top = part.kind === "orifice" ? level + part.height / L : level + step;
+      const top = part.kind === "orifice" ? level + part.height : level + step;
       push(top - rim);
     }
   });
-  if (z.rim !== null) push(z.rim - p.case.pond.top / L);
+  if (z.rim !== null) push(z.rim - p.case.pond.top);
   return broken;
 }

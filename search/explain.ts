@@ -6,12 +6,13 @@ import { storageShortfall } from "../src/assess/storageShortfall.js";
 import { shortfallLines } from "../src/report/shortfall.js";
 import type { Check } from "../src/assess/checks.js";
 import { formatter, quantityText } from "../src/format.js";
-import { ruleOf } from "../src/assess/rules/registry.js";
+import { ruleOf, whyNothingComplies } from "../src/assess/rules/registry.js";
 import { targetBand } from "../src/assess/rules/band.js";
+import { closestMaxStage, freeboardStorm } from "../src/assess/rules/rule.js";
 import { baseLength } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
-import { designOutlet, designOutletFile, variableNames, partWords } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, variableNames, partWords } from "./layout.js";
 import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
 import type { ElementFile, OutletFile } from "../src/case/schema.js";
 import { describeElement } from "../src/report/describe.js";
@@ -39,7 +40,7 @@ function change(p: SearchProblem, before: Check, after: Check): string {
   return `${after.value >= before.value ? "+" : ""}${((after.value - before.value) / L).toFixed(2)} ${p.case.units === "US" ? "ft" : "m"}`;
 }
 
-/** A floating elevation of an outlet (case units) and the outlet routed again with it moved. */
+/** A floating elevation of an outlet (m) and the outlet routed again with it moved. */
 interface Movable {
   name: string;
   value: number;
@@ -67,7 +68,6 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
 
 /** The existing outlet's explanation: its binding check and the single-step moves of its parts that relax it. */
 export function explainExisting(p: SearchProblem, existing: RoutedOutlet): string[] {
-  const L = baseLength(p.case.units);
   const f = formatter(p.case.units);
   const file = existing.file;
   const movables: Movable[] = [];
@@ -75,15 +75,16 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
   // Parts that stay as they are (kept, or held by the limits) are not moved.
   (file.elements ?? []).forEach((e, i) => {
     if (p.keptElements.includes(e)) return;
-    const value = p.converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements") / L;
+    const value = p.converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements");
     movables.push({
       name: describeElement(existing.outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
       value,
-      min: p.floor / L,
-      max: p.ceiling / L,
+      min: p.floor,
+      max: p.ceiling,
       moved: (x) => {
         const elements = [...(file.elements ?? [])];
-        elements[i] = (e.type === "weir" ? { ...e, crest: x } : { ...e, invert: x }) as ElementFile;
+        const at = caseElevation(p, x);
+        elements[i] = (e.type === "weir" ? { ...e, crest: at } : { ...e, invert: at }) as ElementFile;
         return routedWith({ ...file, elements });
       },
     });
@@ -92,10 +93,10 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
   if (riser && !p.keptRiser) {
     movables.push({
       name: "riser rim",
-      value: p.converter.length(riser.crest, "outlet.riser.crest") / L,
-      min: p.floor / L + p.step,
-      max: p.case.pond.top / L,
-      moved: (x) => routedWith({ ...file, riser: { ...riser, crest: x } }),
+      value: p.converter.length(riser.crest, "outlet.riser.crest"),
+      min: p.floor + p.stepM,
+      max: p.case.pond.top,
+      moved: (x) => routedWith({ ...file, riser: { ...riser, crest: caseElevation(p, x) } }),
     });
   }
   return explainMoves(p, existing, movables);
@@ -112,7 +113,7 @@ function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): s
   const moves: { text: string; gain: number; breaks: boolean }[] = [];
   for (const m of movables) {
     for (const direction of [-1, 1]) {
-      const to = snap(p, m.value + direction * p.step);
+      const to = snap(p, m.value + direction * p.stepM);
       if (to < m.min - 1e-9 || to > m.max + 1e-9) continue;
       const moved = m.moved(to);
       const after = moved.assessment.checks.find((check) => check.key === binding.key)!;
@@ -121,11 +122,11 @@ function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): s
       const next = moved.assessment.binding!;
       const breaks = c.assessment.compliant && !moved.assessment.compliant;
       const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.key !== binding.key ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
-      const by = Number(Math.abs(to - m.value).toFixed(6));
+      const by = Number((Math.abs(to - m.value) / baseLength(p.case.units)).toFixed(6));
       moves.push({
         gain,
         breaks,
-        text: `${direction > 0 ? "raise" : "lower"} ${m.name} by ${by} ${unit} to ${formatter(p.case.units).elevation(to * baseLength(p.case.units))}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
+        text: `${direction > 0 ? "raise" : "lower"} ${m.name} by ${by} ${unit} to ${formatter(p.case.units).elevation(to)}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
       });
     }
   }
@@ -179,22 +180,10 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
         `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
     );
   }
-  const largest = p.targeted[p.targeted.length - 1];
-  const freeboardStorm = p.case.storms.find((s) => s.name === p.case.criteria.freeboardStorm) ?? largest;
-  const failing = new Map<string, number>();
-  for (const c of closest) for (const check of c.assessment.checks) if (!check.passed) failing.set(check.kind, (failing.get(check.kind) ?? 0) + 1);
-  if (failing.has("freeboard") || failing.has("overtopping")) {
-    const bestStage = Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity));
-    lines.push(
-      `The ${freeboardStorm.name} storm cannot be kept ${f.length(p.case.criteria.freeboardDepth)} below the top of embankment (${f.elevation(p.case.pond.top)}) ` +
-        `together with the other rules: the closest candidate still reaches ${f.elevation(bestStage)}. Allow larger openings or a wider riser, a larger barrel, or add storage.`,
-    );
-  }
-  if (failing.has("peak-lower")) lines.push(`Some storms stay below their lower band: the pond over-detains them with the openings that meet the other storms; accept over-detention (tolerance.under) or allow other sizes.`);
-  if (failing.has("peak-upper") && plan.viableFirst > 0) lines.push(`Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.`);
-  if (failing.has("drawdown")) lines.push(`The pond drains too slowly after some storms; a larger low-flow opening conflicts with the smallest storm's target.`);
+  const routings = closest.map((c) => c.routing.storms);
+  lines.push(...whyNothingComplies({ case: p.case, closest: routings, firstLevelBound: plan.viableFirst === 0 }, closest.map((c) => c.assessment.checks)));
   if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
-  const closestStage = closest.length ? Math.min(...closest.map((c) => c.routing.storms.find((s) => s.storm.name === freeboardStorm.name)?.result.maxStage ?? Infinity)) : null;
-  lines.push(...shortfallLines(p.case, storageShortfall(p.case, closestStage === null || !Number.isFinite(closestStage) ? null : closestStage)));
+  const closestStage = closestMaxStage(routings, freeboardStorm(p.case));
+  lines.push(...shortfallLines(p.case, storageShortfall(p.case, Number.isFinite(closestStage) ? closestStage : null)));
   return lines;
 }

@@ -4,11 +4,10 @@
 // One layout in, candidates out: a self-contained unit of work.
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
-import { baseLength } from "../src/units.js";
 import type { Storm } from "../src/case/model.js";
 import type { RouteResult } from "../src/routing/router.js";
 import { aimBand, type SearchProblem } from "./problem.js";
-import { designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
 import type { Evaluation, Evaluator } from "./evaluate.js";
 
 export interface FitOptions {
@@ -27,19 +26,18 @@ export interface FitResult {
   evaluations: number;
 }
 
-/** Lower and upper bounds of each variable (case units). */
+/** Lower and upper bounds of each variable (m). */
 export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; max: number[] } {
-  const L = baseLength(p.case.units);
   const min: number[] = [];
   const max: number[] = [];
   const n = variableCount(p, l) - (l.riser ? 1 : 0);
   for (let i = 0; i < n; i++) {
-    min.push(p.floor / L + (p.lowestFloats ? 0 : p.step));
-    max.push(p.ceiling / L);
+    min.push(p.floor + (p.lowestFloats ? 0 : p.stepM));
+    max.push(p.ceiling);
   }
   if (l.riser) {
-    min.push(p.floor / L + p.step);
-    max.push(p.case.pond.top / L);
+    min.push(p.floor + p.stepM);
+    max.push(p.case.pond.top);
   }
   return { min, max };
 }
@@ -52,21 +50,21 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
  * the same way for the largest storm.
  */
 export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, plain = false): number[] {
-  const L = baseLength(p.case.units);
   const { min, max } = variableBounds(p, l);
   const storms = p.targeted;
   const vars: number[] = [];
   const fixed = firstLevelFixed(p, l);
-  const z = (level: number) => (fixed && level === 0 ? p.floor / L : vars[fixed ? level - 1 : level]);
+  const z = (level: number) => (fixed && level === 0 ? p.floor : vars[fixed ? level - 1 : level]);
   // Placeholder elevations above everything while levels are staged one by one.
-  const high = p.case.pond.top / L + 10 * (p.case.pond.top - p.case.pond.bottom) / L;
+  const high = p.case.pond.top + 10 * (p.case.pond.top - p.case.pond.bottom);
   const count = variableCount(p, l);
   const trial = () => Array.from({ length: count }, (_, i) => (i < vars.length ? vars[i] : high));
   const routed = (storm: Storm) => {
     const file = designOutletFile(p, l, trial(), plain);
     // Parts still at the placeholder pass nothing at any stage of the grid: routings that differ
     // only by them (the first one of every option the planner tries on a prefix) are the same.
-    const key = `${storm.name} ${JSON.stringify({ ...file, elements: file.elements?.filter((e) => (e.type === "weir" ? e.crest : e.invert) !== high), riser: file.riser?.crest === high ? null : file.riser })}`;
+    const placeholder = caseElevation(p, high);
+    const key = `${storm.name} ${JSON.stringify({ ...file, elements: file.elements?.filter((e) => (e.type === "weir" ? e.crest : e.invert) !== placeholder), riser: file.riser?.crest === placeholder ? null : file.riser })}`;
     const memo = p.options.referencePath ? null : stagedRoutings(evaluator);
     const known = memo?.get(key);
     if (known) return known;
@@ -81,12 +79,12 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
   /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
   const place = (index: number, storm: Storm | undefined, low: number) => {
     // A floating lowest level starts just above a kept element at the floor, or at a held pool.
-    let stage = p.poolHeldByTailwater ? p.case.pond.pool / L + (p.floorTaken ? p.step : 0) : p.floor / L + p.step;
+    let stage = p.poolHeldByTailwater ? p.case.pond.pool + (p.floorTaken ? p.stepM : 0) : p.floor + p.stepM;
     let peak = Infinity;
     if (storm) {
       vars[index] = high;
       const r = routed(storm);
-      stage = r.maxStage / L;
+      stage = r.maxStage;
       peak = r.peakOutflow;
     }
     let at = clamp(Math.max(stage, low), min[index], max[index]);
@@ -126,13 +124,13 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
     const previous = level > 0 ? z(level - 1) : -Infinity;
     const index = vars.length;
     vars.push(high);
-    place(index, storm, previous + p.step);
+    place(index, storm, previous + p.stepM);
   }
   if (l.riser) {
     const index = vars.length;
     vars.push(high);
-    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height / L : p.step));
-    place(index, storms[storms.length - 1], Math.max(p.floor / L + p.step, ...tops));
+    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height : p.stepM));
+    place(index, storms[storms.length - 1], Math.max(p.floor + p.stepM, ...tops));
   }
   return vars;
 }
@@ -154,10 +152,9 @@ function clamp(x: number, low: number, high: number): number {
   return Math.min(Math.max(x, low), high);
 }
 
-/** Rounds an elevation to the lattice of the elevation step (case units), without float noise. */
+/** Rounds an elevation (m) to the lattice of the elevation step: k * stepM (written as k steps, `caseElevation`). */
 export function snap(p: SearchProblem, x: number): number {
-  const decimals = Math.max(0, Math.ceil(-Math.log10(p.step)) + 3);
-  return Number((Math.round(x / p.step) * p.step).toFixed(decimals));
+  return Math.round(x / p.stepM) * p.stepM;
 }
 
 /** Total order on evaluations: compliant first, then fewer broken rules, then the objective. */
@@ -176,7 +173,7 @@ export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator
     for (let i = 0; i < best.vars.length; i++) {
       for (const direction of [-1, 1]) {
         const vars = [...best.vars];
-        vars[i] = snap(p, vars[i] + direction * p.step);
+        vars[i] = snap(p, vars[i] + direction * p.stepM);
         if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
         const trial = evaluator.evaluate(l, vars);
         if (better(trial, best)) {
@@ -227,6 +224,14 @@ export function fitLayout(p: SearchProblem, l: Layout, evaluator: Evaluator, opt
   return { designs, evaluations: evaluator.evaluations - before };
 }
 
+/**
+ * Initial damping of Levenberg-Marquardt. The residuals are dimensionless and the variables are
+ * elevations, so the damping is per square metre: 1e-2 per square foot, the value the fit was tuned
+ * with when it worked in feet on the US cases (LM with damping scaled by the square of the length
+ * unit takes the same steps in either unit, so those cases fit exactly as they did).
+ */
+const DAMPING = 1e-2 / (0.3048 * 0.3048);
+
 /** Levenberg-Marquardt on the residual vector (its "data" are zeros; the model is the residuals). */
 function levenbergFit(p: SearchProblem, l: Layout, evaluator: Evaluator, initial: number[], min: number[], max: number[], iterations: number): number[] {
   let lastKey = "";
@@ -255,8 +260,8 @@ function levenbergFit(p: SearchProblem, l: Layout, evaluator: Evaluator, initial
       initialValues: initial,
       minValues: min,
       maxValues: max,
-      gradientDifference: p.step / 2,
-      damping: 1e-2,
+      gradientDifference: p.stepM / 2,
+      damping: DAMPING,
       maxIterations: iterations,
       errorTolerance: 1e-12,
     },

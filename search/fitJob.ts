@@ -14,7 +14,7 @@ export interface FitSettings {
 }
 
 export interface FitOutcome {
-  /** The fitted designs' variables (case units) that keep every geometric rule, best first. */
+  /** The fitted designs' variables (elevations in m) that keep every geometric rule, best first. */
   designs: number[][];
   /** Storm routings the fit spent (counted against the budget). */
   routings: number;

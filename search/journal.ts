@@ -6,7 +6,13 @@ import { writeFileAtomic } from "../src/io.js";
 import { UsageError } from "../src/commands/common.js";
 import type { JournalEntry } from "./run.js";
 
-const VERSION = 2;
+/**
+ * Format of the entries. 3: a design's variables are elevations in m (2 held them in case units, so a
+ * version-2 journal is refused, never read as metres). The version is hashed into the run's signature
+ * too, so an older entry whose header was lost is refused as well.
+ */
+export const JOURNAL_VERSION = 3;
+const VERSION = JOURNAL_VERSION;
 
 export interface JournalRead {
   entries: Map<string, JournalEntry>;
@@ -46,7 +52,11 @@ export function readJournal(path: string, signature: string, option: string): Jo
     }
     const v = value as Record<string, unknown> | null;
     if (i === 0 && v !== null && typeof v === "object" && "journal" in v) {
-      if (v.version !== VERSION || v.signature !== signature) {
+      if (v.version !== VERSION) {
+        const older = typeof v.version === "number" && v.version < VERSION;
+        throw new UsageError(option, path, `a journal of format version ${VERSION} (this one is version ${String(v.version)}${older ? ", written before the search held elevations in m; its entries cannot be read: run again without --resume, or into a new --out directory" : ", written by another version of outfit"})`);
+      }
+      if (v.signature !== signature) {
         throw new UsageError(option, path, "a journal of a run of the same case, seed, margin and starts (the case or the options have changed, or it was written by another version)");
       }
       return;

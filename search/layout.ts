@@ -1,6 +1,7 @@
 // A layout is the discrete part of a design (which parts, counts, sizes); its variables are the
-// elevations of the levels that float and the riser's rim. Together they make an outlet in the case
-// file's own form, so that every candidate is exactly what a case file would give.
+// elevations (m) of the levels that float and the riser's rim. Together they make an outlet in the
+// case file's own form, so that every candidate is exactly what a case file would give: the only
+// place the search converts elevations to case units (`caseElevation`).
 import type { ElementFile, OutletFile } from "../src/case/schema.js";
 import type { Outlet } from "../src/case/model.js";
 import { CaseError } from "../src/case/errors.js";
@@ -63,13 +64,29 @@ function floorValue(p: SearchProblem): number | string {
   return p.file.pond?.permanentPool ?? p.file.pond?.bottom ?? p.case.pond.pool / baseLength(p.case.units);
 }
 
-/** Elevations (case units) of every designed level and the rim, from the variables. */
-export function elevations(p: SearchProblem, l: Layout, vars: readonly number[]): { levels: number[]; rim: number | null } {
+/**
+ * An elevation (m) as the case file writes it: a level on the step's lattice (k * stepM) as exactly k
+ * steps in case units, rounded as the step is written (so 1668 steps of 0.05 ft is 83.4, not
+ * 83.39999999999999); any other elevation (a fit's trial point, a bound) converted as it is.
+ */
+export function caseElevation(p: SearchProblem, z: number): number {
   const L = baseLength(p.case.units);
+  const k = Math.round(z / p.stepM);
+  if (Math.abs(z - k * p.stepM) > LATTICE_TOLERANCE * p.stepM) return z / L;
+  const step = p.stepM / L;
+  const decimals = Math.max(0, Math.ceil(-Math.log10(step)) + 3);
+  return Number((k * step).toFixed(decimals));
+}
+
+/** How close (a fraction of the step) an elevation must be to the lattice to be written as whole steps. */
+const LATTICE_TOLERANCE = 1e-9;
+
+/** Elevations (m) of every designed level and the rim, from the variables. */
+export function elevations(p: SearchProblem, l: Layout, vars: readonly number[]): { levels: number[]; rim: number | null } {
   const levels: number[] = [];
   let v = 0;
   l.levels.forEach((_, i) => {
-    if (i === 0 && firstLevelFixed(p, l)) levels.push(p.floor / L);
+    if (i === 0 && firstLevelFixed(p, l)) levels.push(p.floor);
     else levels.push(vars[v++]);
   });
   return { levels, rim: l.riser ? vars[v] : null };
@@ -84,7 +101,7 @@ export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly num
   const z = elevations(p, l, vars);
   const kept: ElementFile[] = p.keptElements.map((e) => ({ ...e, coefficient: e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d) } as ElementFile));
   const designed: ElementFile[] = l.levels.map((part, i) => {
-    const at = i === 0 && firstLevelFixed(p, l) ? floorValue(p) : z.levels[i];
+    const at = i === 0 && firstLevelFixed(p, l) ? floorValue(p) : caseElevation(p, z.levels[i]);
     if (part.template) return movedTemplate(part.template, at, d);
     switch (part.kind) {
       case "orifice":
@@ -97,7 +114,7 @@ export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly num
   });
   const file: OutletFile = { elements: [...kept.map(stripUndefined), ...designed] };
   if (p.keptRiser) file.riser = { ...p.keptRiser, coefficient: p.keptRiser.coefficient ?? d.riserWeir, orificeCoefficient: p.keptRiser.orificeCoefficient ?? d.riserOrifice };
-  else if (l.riser) file.riser = { shape: "circular", diameter: l.riser.size, crest: z.rim!, coefficient: d.riserWeir, orificeCoefficient: d.riserOrifice };
+  else if (l.riser) file.riser = { shape: "circular", diameter: l.riser.size, crest: caseElevation(p, z.rim!), coefficient: d.riserWeir, orificeCoefficient: d.riserOrifice };
   if (p.barrel && !plain) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
   if (p.spillway) file.spillway = { ...p.spillway, coefficient: p.spillway.coefficient ?? d.spillway };
   return file;

@@ -4,12 +4,11 @@
 // target are pruned by a bound: openings only add flow, so if the first level alone already passes
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
 import type { Storm } from "../src/case/model.js";
-import { baseLength } from "../src/units.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
 import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../src/assess/rules/band.js";
-import { designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
 import { Evaluator } from "./evaluate.js";
 import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
@@ -102,7 +101,7 @@ export function barrelChoices(p: SearchProblem): (SizeOption | null)[] {
 /** Flow the barrel passes at the freeboard stage when the openings are no limit. */
 export function barrelCapacity(p: SearchProblem, size: SizeOption): number {
   const file = designOutletFile(p, { levels: [], riser: null, barrel: size }, []);
-  const outlet = designOutlet(p, { ...file, elements: [], riser: { shape: "circular", diameter: 1000, crest: p.floor / baseLength(p.case.units), coefficient: 3.0, orificeCoefficient: 0.6 }, spillway: undefined });
+  const outlet = designOutlet(p, { ...file, elements: [], riser: { shape: "circular", diameter: 1000, crest: caseElevation(p, p.floor), coefficient: 3.0, orificeCoefficient: 0.6 }, spillway: undefined });
   return outletDischarge(outlet, p.case.tailwater, p.ceiling);
 }
 
@@ -342,9 +341,8 @@ export function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluat
 
 /** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
 export function layoutCost(p: SearchProblem, layout: Layout): number {
-  const L = baseLength(p.case.units);
   const n = variableCount(p, layout);
-  const vars = Array.from({ length: n }, (_, i) => p.floor / L + (i + 1) * p.step);
+  const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.stepM);
   return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs);
 }
 
@@ -356,14 +354,17 @@ function partFlowAt(p: SearchProblem, part: PartOption, head: number): number {
   return elementFlow(e, bottom + head, -Infinity);
 }
 
+/** Head (m) at which parts of different kinds are compared as neighbours: one foot, whatever the case's units. */
+const NEIGHBOUR_HEAD = 0.3048;
+
 /**
  * Parts one catalogue step away: the next size down or up, one opening more or fewer, and for each
- * other kind of part the one passing the nearest flow at a head of 1 ft (0.3 m).
+ * other kind of part the one passing the nearest flow at a head of NEIGHBOUR_HEAD.
  */
 function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
   const same = p.parts.filter((o) => o.kind === part.kind);
   const out: PartOption[] = [];
-  const head = p.case.units === "US" ? 0.3048 : 0.3;
+  const head = NEIGHBOUR_HEAD;
   const flow = partFlowAt(p, part, head);
   for (const kind of ["orifice", "rectangular", "v-notch"] as const) {
     if (kind === part.kind) continue;

@@ -7,7 +7,7 @@ import { normalizeOutlet } from "../src/case/normalize.js";
 import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { CaseError } from "../src/case/errors.js";
 import { Converter } from "../src/case/normalize.js";
-import { baseLength, parseLength } from "../src/units.js";
+import { parseLength } from "../src/units.js";
 import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
 import { costWeights, type CostWeights } from "./cost.js";
 import { narrowed, targetBand } from "../src/assess/rules/band.js";
@@ -74,8 +74,10 @@ export interface SearchProblem {
   case: Case;
   file: CaseFile;
   converter: Converter;
-  /** elevationStep in case units and in m. */
-  step: number;
+  /**
+   * The catalogue's elevationStep (m). Every elevation of the search is in m; a level on the step's
+   * lattice (k * stepM) is written back to the case file as exactly k steps in case units.
+   */
   stepM: number;
   /**
    * Lowest opening elevation (m): the permanent pool, or the pond floor when a constant tailwater at
@@ -122,7 +124,6 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
   const cat = c.catalogue;
   const catFile = file.catalogue;
   const converter = new Converter(c.units, label);
-  const L = baseLength(c.units);
   const outlet = file.outlet ?? {};
   // An outlet with openings or a riser is an existing design (the baseline of value engineering);
   // one with only a barrel or spillway is site data.
@@ -186,7 +187,6 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     case: c,
     file,
     converter,
-    step: stepM / L,
     stepM,
     floor,
     poolHeldByTailwater,
@@ -229,7 +229,6 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
 function existingOutlet(p: SearchProblem, file: OutletFile, label: string): ExistingOutlet {
   const converter = new Converter(p.case.units, label);
   const outlet = normalizeOutlet(file, converter, "outlet");
-  const L = baseLength(p.case.units);
   const d = defaultCoefficients(p.case.units);
   const designed = (file.elements ?? []).filter((e) => !p.keptElements.includes(e));
   const at = (e: ElementFile) => converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements");
@@ -258,9 +257,9 @@ function existingOutlet(p: SearchProblem, file: OutletFile, label: string): Exis
   const riser = !p.keptRiser && file.riser?.shape === "circular" ? { size: file.riser.diameter, sizeM: converter.length(file.riser.diameter, "outlet.riser.diameter") } : null;
   const barrel = !p.barrelKept && file.barrel?.shape === "circular" ? { size: file.barrel.diameter, sizeM: converter.length(file.barrel.diameter, "outlet.barrel.diameter") } : null;
   const layout: Layout = { levels, riser, barrel };
-  // The existing elevations of the variables: the levels that float, then the rim.
-  const vars = designed.map((e) => at(e) / L).filter((_, i) => i > 0 || p.lowestFloats);
-  if (riser && file.riser) vars.push(converter.length(file.riser.crest, "outlet.riser.crest") / L);
+  // The existing elevations of the variables (m): the levels that float, then the rim.
+  const vars = designed.map(at).filter((_, i) => i > 0 || p.lowestFloats);
+  if (riser && file.riser) vars.push(converter.length(file.riser.crest, "outlet.riser.crest"));
   return { file, outlet, layout, vars };
 }
 

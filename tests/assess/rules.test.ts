@@ -9,7 +9,7 @@ import { freeboard } from "../../src/assess/rules/freeboard.js";
 import { spillwayDry } from "../../src/assess/rules/spillwayDry.js";
 import { drawdown } from "../../src/assess/rules/drawdown.js";
 import { overtopping } from "../../src/assess/rules/overtopping.js";
-import { RULES, ruleOf } from "../../src/assess/rules/registry.js";
+import { RULES, ruleOf, whyNothingComplies } from "../../src/assess/rules/registry.js";
 import type { Check, Rule } from "../../src/assess/rules/rule.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import { withinBand } from "../../src/report/json.js";
@@ -140,5 +140,42 @@ describe("registry", () => {
     const c = testCase([two, hundred]);
     const kinds = evaluateChecks(c, NO_SPILLWAY, [routed(two, 1, 101), routed(hundred, 4, 104)]).map((k) => k.key);
     expect(kinds).toEqual(["peak-upper:2-yr", "peak-lower:2-yr", "peak-upper:100-yr", "peak-lower:100-yr", "freeboard:100-yr", "overtopping:2-yr", "overtopping:100-yr"]);
+  });
+});
+
+describe("why nothing complies (each rule words its own cause)", () => {
+  const c = testCase([two, hundred], { freeboardDepth: 0.5 });
+  const failingRun = [routed(two, 1.5, 103), routed(hundred, 4, 106.2)];
+  const betterRun = [routed(two, 1.2, 103), routed(hundred, 4, 105.8)];
+  const checksOf = (storms: StormRouting[]) => evaluateChecks(c, NO_SPILLWAY, storms);
+  const input = (firstLevelBound: boolean) => ({ case: c, closest: [failingRun, betterRun], firstLevelBound });
+
+  it("speaks once for freeboard and overtopping, with the lowest stage the closest candidates reach", () => {
+    const lines = whyNothingComplies(input(false), [checksOf(failingRun), checksOf(betterRun)]);
+    const stage = lines.filter((l) => l.includes("below the top of embankment"));
+    // Both candidates fail freeboard (limit 105.5 m) and the first overtops (106 m); one sentence, the better stage.
+    expect(stage).toHaveLength(1);
+    expect(stage[0]).toContain("The 100-yr storm cannot be kept 0.50 m below the top of embankment (106.000 m)");
+    expect(stage[0]).toContain("still reaches 105.800 m");
+    expect(lines.some((l) => l.startsWith("Some storms exceed their allowable peak"))).toBe(true);
+  });
+
+  it("leaves the peak's cause to the search when its first-level bound already gave it", () => {
+    const lines = whyNothingComplies(input(true), [checksOf(failingRun)]);
+    expect(lines.some((l) => l.includes("exceed their allowable peak"))).toBe(false);
+    expect(lines).toHaveLength(1);
+  });
+
+  it("says nothing for rules that pass", () => {
+    expect(whyNothingComplies(input(false), [checksOf([routed(two, 1, 101), routed(hundred, 4, 102)])])).toEqual([]);
+  });
+
+  it("every rule has a sentence for its failing checks (or leaves it to another, with null)", () => {
+    const failing: Check = { key: "x:2-yr", name: "x", kind: "x", storm: "2-yr", label: null, condition: "design", passed: false, value: 2, limit: 1, slack: -1 };
+    for (const rule of RULES) {
+      const line = rule.whyNothingComplies({ case: c, failing: [{ ...failing, kind: rule.kind }], closest: [failingRun], firstLevelBound: false });
+      expect(line, rule.kind).not.toBeNull();
+      expect(line!.length, rule.kind).toBeGreaterThan(40);
+    }
   });
 });

@@ -25,7 +25,7 @@ describe("staged start with shared routings", () => {
           const b = stagedStart(reference, layout, referenceEvaluator, plain);
           // The reference rates by the direct evaluation: the starts agree to far within a step.
           expect(a.length).toBe(b.length);
-          a.forEach((x, i) => expect(Math.abs(x - b[i])).toBeLessThan(1e-3 * shared.step));
+          a.forEach((x, i) => expect(Math.abs(x - b[i])).toBeLessThan(1e-3 * shared.stepM));
         }
       }
       expect(sharedEvaluator.routings).toBeLessThan(referenceEvaluator.routings);

@@ -1,7 +1,7 @@
 // The outflow hydrograph never above the pre-development hydrograph, at any instant of the latter's
 // span (a release-limit form). The router reports the closest approach (RouteOptions.ceiling); the
 // slack is that least margin as a fraction of the pre-development peak.
-import { HAIR, makeCheck, type Rule } from "./rule.js";
+import { failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
 
 export const belowPreHydrograph: Rule = {
   kind: "below-pre-hydrograph",
@@ -21,4 +21,6 @@ export const belowPreHydrograph: Rule = {
   why: (check) => `the ${check.storm} outflow comes close to the pre-development hydrograph at some instant`,
   remedy: () => "no single elevation step helps; a smaller opening at the level active when the pre-development hydrograph is low (often its rising limb or tail), or more storage",
   subject: (check) => `${check.storm} closest outflow to the pre-development hydrograph`,
+  whyNothingComplies: ({ failing }) =>
+    `The ${failingSubjects(failing)} outflow rises above the pre-development hydrograph at some instant with every layout tried; allow smaller openings at the levels active on its rising limb or tail, or add storage.`,
 };

@@ -1,7 +1,7 @@
 // Blocked principal outlet: with every opening, the riser and the barrel out of service, the spillway
 // alone passes the named storm with at least the given freeboard below the top of embankment.
 import type { Outlet } from "../../case/model.js";
-import { depthSlack, HAIR, makeCheck, type Rule } from "./rule.js";
+import { depthSlack, failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
 
 export const BLOCKED_VARIANT = "principal-outlet-blocked";
 
@@ -29,4 +29,6 @@ export const blockedOutlet: Rule = {
   why: (check) => `with the principal outlet blocked, the spillway alone barely passes the ${check.storm} storm below the freeboard level`,
   remedy: () => "no elevation step of the principal outlet helps (it is blocked in this check); a longer or lower spillway, a higher embankment, or more storage",
   subject: (check) => `${check.storm} with the principal outlet blocked`,
+  whyNothingComplies: ({ failing }) =>
+    `With the principal outlet blocked, the spillway alone cannot pass the ${failingSubjects(failing)} storm below its freeboard level, whatever the principal outlet; a longer or lower spillway, a higher embankment, or more storage.`,
 };

@@ -18,4 +18,5 @@ export const drawdown: Rule = {
   why: (check) => `the pond drains slowly after the ${check.storm} storm`,
   remedy: () => "no single elevation step helps; a larger low-flow opening at the floor",
   subject: (check) => check.storm,
+  whyNothingComplies: () => "The pond drains too slowly after some storms; a larger low-flow opening conflicts with the smallest storm's target.",
 };

@@ -8,7 +8,7 @@
 import { drainedStage } from "../../routing/routeCase.js";
 import { drainTime, stageOfVolume } from "../../routing/drainTime.js";
 import { storageCurve } from "../../storage/curve.js";
-import { HAIR, makeCheck, type Rule } from "./rule.js";
+import { failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
 
 export const WATER_QUALITY = "water-quality volume";
 
@@ -41,4 +41,6 @@ export const extendedDetention: Rule = {
   why: (check) => `the ${check.storm} is released faster than the extended-detention rule allows`,
   remedy: () => "no single elevation step helps; a smaller opening at the lowest level (or fewer of them), or raise the openings above it",
   subject: (check) => `${check.storm} release time`,
+  whyNothingComplies: ({ failing }) =>
+    `The ${failingSubjects(failing)} is released faster than the extended-detention rule allows with every layout tried; allow a smaller lowest opening (or a flow regulator), or raise the openings above it.`,
 };

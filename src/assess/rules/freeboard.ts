@@ -1,5 +1,5 @@
 // The freeboard storm's maximum stage at most the top of embankment less the freeboard depth.
-import { depthSlack, HAIR, HIGH_STAGE_REMEDY, makeCheck, type Rule } from "./rule.js";
+import { depthSlack, HAIR, HIGH_STAGE_REMEDY, highStageInfeasible, makeCheck, type Rule } from "./rule.js";
 
 export const freeboard: Rule = {
   kind: "freeboard",
@@ -16,4 +16,5 @@ export const freeboard: Rule = {
   why: (check) => `the ${check.storm} storm rises close to the top of embankment less the freeboard`,
   remedy: () => HIGH_STAGE_REMEDY,
   subject: (check) => check.storm,
+  whyNothingComplies: highStageInfeasible,
 };

@@ -29,4 +29,5 @@ export const minimumOpening: Rule = {
   why: () => "an orifice is at the smallest size the rules permit",
   remedy: () => "no elevation step helps; a larger orifice (the minimum opening is a rule, not a catalogue choice)",
   subject: () => "smallest orifice",
+  whyNothingComplies: () => "Every layout tried needs an orifice smaller than the minimum opening the rules permit; allow larger orifices in the catalogue.",
 };

@@ -5,7 +5,7 @@
 // instead of leaving the search to fail on the peak.
 import type { Case, Outlet } from "../../case/model.js";
 import { limitWords, targetBand } from "./band.js";
-import { makeCheck, upperFlowSlack, type Rule } from "./rule.js";
+import { failingSubjects, makeCheck, upperFlowSlack, type Rule } from "./rule.js";
 
 export const SMALLEST_VARIANT = "smallest-permitted-opening";
 
@@ -35,4 +35,6 @@ export const minimumOpeningRelease: Rule = {
   why: (check) => `even the smallest opening the rules permit, alone at the lowest level, releases about the ${check.storm} storm's allowable peak: the target cannot be met with openings of that size`,
   remedy: () => "no outlet change helps: more storage below the first opening, a permanent pool, a flow regulator where the rules allow it, or a variance from the minimum opening",
   subject: (check) => `${check.storm} peak through the smallest permitted opening`,
+  whyNothingComplies: ({ failing }) =>
+    `Even the smallest opening the rules permit, alone at the lowest level, releases more than the ${failingSubjects(failing)} storm's allowable peak, so no outlet of permitted openings meets it; add storage below the first opening, a permanent pool, a flow regulator where the rules allow it, or seek a variance from the minimum opening.`,
 };

@@ -1,5 +1,5 @@
 // No storm's maximum stage above the top of embankment.
-import { depthSlack, HAIR, HIGH_STAGE_REMEDY, makeCheck, type Rule } from "./rule.js";
+import { depthSlack, HAIR, HIGH_STAGE_REMEDY, highStageInfeasible, makeCheck, type Rule } from "./rule.js";
 
 export const overtopping: Rule = {
   kind: "overtopping",
@@ -15,4 +15,5 @@ export const overtopping: Rule = {
   why: (check) => `the ${check.storm} storm nearly overtops the embankment`,
   remedy: () => HIGH_STAGE_REMEDY,
   subject: (check) => check.storm,
+  whyNothingComplies: highStageInfeasible,
 };

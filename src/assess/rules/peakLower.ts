@@ -23,4 +23,5 @@ export const peakLower: Rule = {
   why: (check) => `the ${check.storm} storm is held back more than its band allows (over-detention)`,
   remedy: () => "no single elevation step helps; a larger opening at the level that holds this storm, or accept over-detention (tolerance.under)",
   subject: (check) => `${check.storm} peak`,
+  whyNothingComplies: () => "Some storms stay below their lower band: the pond over-detains them with the openings that meet the other storms; accept over-detention (tolerance.under) or allow other sizes.",
 };

@@ -22,6 +22,8 @@ export const peakUpper: Rule = {
   why: (check) => `the ${check.storm} storm releases close to its allowable peak`,
   remedy: () => "no single elevation step helps; a smaller opening at the level that holds this storm, or more storage",
   subject: (check) => `${check.storm} peak`,
+  whyNothingComplies: ({ firstLevelBound }) =>
+    firstLevelBound ? null : "Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.",
 };
 
 /** The search's margin inside each band edge: at most a quarter of the band's width. */

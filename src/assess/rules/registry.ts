@@ -1,5 +1,5 @@
 // Every rule, in the order its checks are listed. Adding a rule: one file in this folder, one line here.
-import type { CheckKind, Rule } from "./rule.js";
+import type { Check, CheckKind, InfeasibleInput, Rule } from "./rule.js";
 import { peakUpper } from "./peakUpper.js";
 import { peakLower } from "./peakLower.js";
 import { freeboard } from "./freeboard.js";
@@ -23,3 +23,27 @@ export function ruleOf(check: { kind: CheckKind }): Rule {
 
 /** The kinds of every rule (what `criteria.clogging.checks` may name). */
 export const RULE_KINDS: readonly CheckKind[] = RULES.map((r) => r.kind);
+
+/**
+ * Why nothing complies, rule by rule in the registry's order: each rule failing in the closest
+ * candidates words its own cause (a sentence two rules share is given once).
+ */
+export function whyNothingComplies(input: Omit<InfeasibleInput, "failing">, closestChecks: readonly (readonly Check[])[]): string[] {
+  const failing = new Map<Rule, Check[]>();
+  for (const checks of closestChecks) {
+    for (const check of checks) {
+      if (check.passed) continue;
+      const rule = ruleOf(check);
+      const list = failing.get(rule);
+      if (list) list.push(check);
+      else failing.set(rule, [check]);
+    }
+  }
+  const lines = new Set<string>();
+  for (const rule of RULES) {
+    const checks = failing.get(rule);
+    const line = checks ? rule.whyNothingComplies({ ...input, failing: checks }) : null;
+    if (line !== null) lines.add(line);
+  }
+  return [...lines];
+}

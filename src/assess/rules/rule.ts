@@ -1,7 +1,8 @@
 // What one kind of check is: how it is evaluated on a routed case, the slack the search keeps, and its
 // words for tables and explanations. One file per rule in this folder; the registry lists them.
-import type { Case, Outlet } from "../../case/model.js";
+import type { Case, Outlet, Storm } from "../../case/model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
+import { formatter } from "../../format.js";
 
 /**
  * A rule's kind, e.g. "peak-upper" (stable: JSON `kind` and half of a check's `key`). A plain string so
@@ -63,6 +64,29 @@ export interface Rule {
   remedy(check: Check): string;
   /** Short subject for "how the value moved" text (e.g. "2-yr peak"). */
   subject(check: Check): string;
+  /**
+   * Why no design tried meets this rule, in one sentence, when a search finds nothing compliant and
+   * this rule fails in its closest candidates (null: nothing to add). Rules that share a cause return
+   * the same sentence; it is said once.
+   */
+  whyNothingComplies(input: InfeasibleInput): string | null;
+}
+
+/** What a rule is told when no design complies: its failing checks in the closest candidates. */
+export interface InfeasibleInput {
+  case: Case;
+  /** This rule's failing checks in the closest candidates (at least one). */
+  failing: readonly Check[];
+  /** The closest candidates' routed storms (the design as given), one list per candidate. */
+  closest: readonly (readonly StormRouting[])[];
+  /** Whether no opening passed the search's first-level bound (the search then says why peaks fail itself). */
+  firstLevelBound: boolean;
+}
+
+/** The storms (or subjects) of failing checks, once each, in words: "2-yr and 10-yr". */
+export function failingSubjects(failing: readonly Check[]): string {
+  const names = [...new Set(failing.map((c) => c.storm))];
+  return names.length <= 1 ? names.join("") : `${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
 }
 
 /** Whether a slack passes: edges count as inside, with a tolerance for round-off. */
@@ -97,3 +121,30 @@ export const HAIR = 0.002;
 
 /** What relaxes a stage limit when no single elevation step does (freeboard, spillway, overtopping). */
 export const HIGH_STAGE_REMEDY = "no single elevation step helps; larger openings near the top, a wider riser or barrel, or more storage";
+
+/** The storm the freeboard applies to: the criteria's, else the largest storm with a target. */
+export function freeboardStorm(c: Case): Storm | undefined {
+  let largest: Storm | undefined;
+  for (const s of c.storms) if (s.target !== null && (largest === undefined || s.returnPeriod >= largest.returnPeriod)) largest = s;
+  return c.storms.find((s) => s.name === c.criteria.freeboardStorm) ?? largest;
+}
+
+/** The lowest maximum stage any of the routings reaches in a storm (Infinity when none routes it). */
+export function closestMaxStage(closest: readonly (readonly StormRouting[])[], storm: Storm | undefined): number {
+  return Math.min(...closest.map((storms) => storms.find((s) => s.storm.name === storm?.name)?.result.maxStage ?? Infinity));
+}
+
+/**
+ * Why nothing keeps the freeboard storm low enough (freeboard and overtopping share it): the lowest
+ * maximum stage the closest candidates reach in that storm (the largest storm with a target when the
+ * criteria name none).
+ */
+export function highStageInfeasible({ case: c, closest }: InfeasibleInput): string {
+  const f = formatter(c.units);
+  const storm = freeboardStorm(c);
+  const best = closestMaxStage(closest, storm);
+  return (
+    `The ${storm?.name} storm cannot be kept ${f.length(c.criteria.freeboardDepth)} below the top of embankment (${f.elevation(c.pond.top)}) ` +
+    `together with the other rules: the closest candidate still reaches ${f.elevation(best)}. Allow larger openings or a wider riser, a larger barrel, or add storage.`
+  );
+}

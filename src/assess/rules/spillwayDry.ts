@@ -1,5 +1,5 @@
 // Storms up to spillway.dryThrough years stay below the spillway crest.
-import { depthSlack, HAIR, HIGH_STAGE_REMEDY, makeCheck, type Rule } from "./rule.js";
+import { depthSlack, failingSubjects, HAIR, HIGH_STAGE_REMEDY, makeCheck, type Rule } from "./rule.js";
 
 export const spillwayDry: Rule = {
   kind: "spillway-dry",
@@ -17,4 +17,6 @@ export const spillwayDry: Rule = {
   why: (check) => `the ${check.storm} storm rises close to the spillway crest`,
   remedy: () => HIGH_STAGE_REMEDY,
   subject: (check) => check.storm,
+  whyNothingComplies: ({ failing }) =>
+    `The ${failingSubjects(failing)} storm${new Set(failing.map((x) => x.storm)).size > 1 ? "s rise" : " rises"} to the spillway crest with every layout tried; allow larger openings below the crest or a wider riser, raise the spillway crest, or add storage.`,
 };
