@@ -15,6 +15,15 @@ import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
 
+// A reader that closes the pipe early (`outfit design --help | head`) has what it wanted: stop quietly,
+// without a stack trace. Files are written whole (io.ts), so nothing is left half-written.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on("error", (error: NodeJS.ErrnoException) => {
+    if (error.code === "EPIPE") process.exit(0);
+    throw error;
+  });
+}
+
 const version = (JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version: string }).version;
 
 /** Runs a command and turns user errors into a message and exit code 2, never a stack trace. */

@@ -88,3 +88,14 @@ describe("help", () => {
     expect(outfitAt(100, "rate", "--help").stdout).not.toMatch(/--step </);
   });
 });
+
+describe("a reader that closes the pipe early", () => {
+  it("`design --help | head -1` and `rate | head -1`: exit 0, no stack trace on stderr", () => {
+    for (const args of [["design", "--help"], ["rate", DEMO]]) {
+      // The shell's own pipe: head reads one line and closes it while outfit is still writing.
+      const r = spawnSync("sh", ["-c", `"${process.execPath}" dist/src/cli.js ${args.join(" ")} | head -1 >/dev/null`], { cwd: ROOT, encoding: "utf8", timeout: 120_000 });
+      expect(r.stderr).not.toMatch(/EPIPE|at .*\(node:|Unhandled/);
+      expect(r.status).toBe(0);
+    }
+  });
+});
