@@ -13,23 +13,25 @@ import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { warmRoot, type WarmStart } from "./roots.js";
 
-/** Fills `out` with the outlet's outflow at each of `stages` (non-decreasing), in m3/s. */
-export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array, direct = false): void {
+/** Fills `out` with the outlet's outflow at each of `stages` (non-decreasing), in m3/s. `keep`: the
+ * stages are a grid worth keeping parts' free-flow columns for (see `freeColumn`); false for a grid
+ * used once. */
+export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array, direct = false, keep = true): void {
   const n = stages.length;
   if (direct) {
     for (let i = 0; i < n; i++) out[i] = outletDischarge(outlet, tail, stages[i]);
     return;
   }
   if (tail.kind === "rating") {
-    rateUnderTailwaterRating(outlet, tail, stages, out);
+    rateUnderTailwaterRating(outlet, tail, stages, out, keep);
     return;
   }
   const tw = tailwaterLevel(tail, 0);
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
-  openings.useGrid(stages);
+  openings.useGrid(stages, keep);
   const chamber = outlet.barrel ? new ChamberSweep(openings, tw) : null;
-  const spill = spillway ? freeColumn(stages, `spillway ${tw} ${JSON.stringify(spillway)}`, (ws) => spillwayFlow(spillway, ws, tw)) : null;
+  const spill = spillway ? freeColumn(stages, `spillway ${tw} ${JSON.stringify(spillway)}`, (ws) => spillwayFlow(spillway, ws, tw), keep) : null;
   for (let i = 0; i < n; i++) {
     out[i] = (chamber ? chamber.flow(stages[i], i) : openingsWithTailwater(openings, i, tw)) + (spill ? spill[i] : 0);
   }
@@ -45,10 +47,10 @@ function openingsWithTailwater(openings: OpeningsSweep, index: number, tw: numbe
  * started from the previous stage's. Without a barrel the openings come from the sweep; with one,
  * each evaluation is the direct chamber solve for that tailwater (as outlet.ts does).
  */
-function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array): void {
+function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array, keep: boolean): void {
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
-  openings.useGrid(stages);
+  openings.useGrid(stages, keep);
   let lowestEffect = lowestOpening(outlet);
   if (spillway) lowestEffect = Math.min(lowestEffect, spillway.crest);
   if (outlet.barrel) lowestEffect = Math.min(lowestEffect, outlet.barrel.outletInvert);
