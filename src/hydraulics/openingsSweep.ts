@@ -80,16 +80,25 @@ export class OpeningsSweep {
 
   private columns: Float64Array[] = [];
   private stages: Float64Array | null = null;
+  /** After `useGrid`: each part's key (its values and how its free flow is computed) and bottom
+   * (invert, crest or rim), elements then the rim. */
+  partKeys: string[] = [];
+  partBottoms: number[] = [];
 
   /** Takes every part's free flow over a stage grid from the columns kept for it (see `freeColumn`);
    * `keep` false: computed for this grid alone (a grid used once, e.g. a drain-time integral's). */
   useGrid(stages: Float64Array, keep = true): void {
     const elements = this.outlet.elements;
     this.columns = [];
+    this.partKeys = [];
+    this.partBottoms = [];
     for (let i = 0; i <= elements.length; i++) {
       const part = i < elements.length ? elements[i] : (this.outlet.riser ?? null);
       const how = i < elements.length && this.circleFactor[i] > 0 ? "table" : "direct";
-      this.columns.push(freeColumn(stages, `${how} ${JSON.stringify(part)}`, (ws) => this.freeFlow(i, ws), keep));
+      const key = `${how} ${JSON.stringify(part)}`;
+      this.partKeys.push(key);
+      this.partBottoms.push(i < elements.length ? this.bottoms[i] : this.rimCrest);
+      this.columns.push(freeColumn(stages, key, (ws) => this.freeFlow(i, ws), keep));
     }
     this.stages = stages;
   }
