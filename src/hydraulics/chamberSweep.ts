@@ -86,6 +86,9 @@ export class ChamberSweep {
     if (!(free > 0)) return 0;
     let freeExcess = NaN;
     if (!throttled) {
+      // Up to the flow that lifts the chamber to the lowest opening nothing is throttled (one
+      // comparison instead of a look-up on the curve).
+      if (free < this.unthrottled) return free;
       const freeLevel = this.barrel.inletInvert + curveHeadwater(this.curve, free);
       if (freeLevel <= this.lowest) return free;
       freeExcess = freeLevel >= ws ? -free : openings.flow(freeLevel) - free;
