@@ -2,8 +2,10 @@
 // the sweep reuses what one stage tells the next: each opening's free flow once per stage
 // (OpeningsSweep), the chamber root and the root under a tailwater rating started from the previous
 // stage's (the outflow does not fall as the stage rises), and circular orifices' free flow from the
-// dimensionless table (circleTable.ts). With `direct` every stage is `outletDischarge` on its own,
-// the reference the tests and the bench compare the sweep with.
+// dimensionless table (circleTable.ts), and the stages below the lowest part in which the outlet
+// differs from a kept rating on the same grid from that rating (sweepReuse.ts, exact). With `direct`
+// every stage is `outletDischarge` on its own, the reference the tests and the bench compare the
+// sweep with.
 import type { Outlet, Tailwater } from "../case/model.js";
 import { dischargeAtTailwater, outletDischarge } from "./outlet.js";
 import { lowestOpening } from "./openings.js";
