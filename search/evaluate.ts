@@ -56,7 +56,7 @@ export class Evaluator {
     const file = designOutletFile(p, layout, vars);
     const outlet = designOutlet(p, file);
     const storms = this.routeStorms(outlet, p.case.storms);
-    const checks = evaluateChecks(p.case, outlet, storms, (o) => this.routeStorms(o, p.case.storms));
+    const checks = evaluateChecks(p.case, outlet, storms, (o) => this.routeStorms(o, p.case.storms), p.options.referencePath);
     const residuals = checkResiduals(p, checks);
     rangeResiduals(p, outlet, storms, residuals);
     const violations = geometryResiduals(p, layout, vars, residuals);

@@ -8,8 +8,10 @@ import { openingHeight, openingWidth } from "../hydraulics/orifice.js";
 import { weirWidth } from "../hydraulics/weir.js";
 import { riserPerimeter } from "../hydraulics/riser.js";
 import { regulatorMaxHead } from "../hydraulics/regulator.js";
-import { elementBottom, openingsFlow, outletDetail } from "../hydraulics/outlet.js";
-import { barrelRise, outletControlDoubt, type OutletDoubt } from "../hydraulics/barrel.js";
+import { elementBottom, openingsFlow, outletDetail, outletDischarge } from "../hydraulics/outlet.js";
+import { chamberFlow } from "../hydraulics/chamber.js";
+import { tailwaterLevel } from "../hydraulics/tailwater.js";
+import { barrelRise, barrelState, outletControlDoubt, type OutletDoubt } from "../hydraulics/barrel.js";
 
 export interface Warning {
   /** Which part: its path in the case file and a short description. */
@@ -180,11 +182,14 @@ function outletControlNotes(c: Case, outlet: Outlet, routing: CaseRouting, f: Fo
   const found = new Map<OutletDoubt, { lowest: number; highest: number }>();
   for (let i = 1; i <= BARREL_SCAN_STAGES; i++) {
     const stage = c.pond.pool + ((top - c.pond.pool) * i) / BARREL_SCAN_STAGES;
-    const d = outletDetail(outlet, c.tailwater, stage);
-    if (d.barrel === null || d.barrelControl !== "outlet") continue;
-    const held = d.barrel < openingsFlow(outlet, stage, -Infinity) * (1 - 1e-9);
-    if (!held || (d.tailwater !== null && d.tailwater >= stage)) continue;
-    const doubt = outletControlDoubt(b, d.barrel, d.tailwater ?? -Infinity);
+    // The values of `outletDetail` at the stage, in the order that skips the barrel's exact state
+    // (a backwater profile) where the openings are not held back or the tailwater drowns the pond.
+    const tw = c.tailwater.kind === "rating" ? tailwaterLevel(c.tailwater, outletDischarge(outlet, c.tailwater, stage)) : tailwaterLevel(c.tailwater, 0);
+    const flow = chamberFlow(outlet, stage, tw, c.tailwater.kind === "rating");
+    const held = flow < openingsFlow(outlet, stage, -Infinity) * (1 - 1e-9);
+    if (!held || (Number.isFinite(tw) && tw >= stage)) continue;
+    if (barrelState(b, flow, tw).control !== "outlet") continue;
+    const doubt = outletControlDoubt(b, flow, tw);
     if (doubt === null) continue;
     const range = found.get(doubt) ?? { lowest: stage, highest: stage };
     found.set(doubt, { lowest: Math.min(range.lowest, stage), highest: Math.max(range.highest, stage) });

@@ -302,7 +302,8 @@ const CACHE_SIZE = 64;
 const byValue = new Map<string, BarrelCurve>();
 const byObject = new WeakMap<Barrel, BarrelCurve[]>();
 
-function valueKey(b: Barrel, tailwater: number): string {
+/** The barrel's values and the tailwater as a key: what its curve depends on. */
+export function valueKey(b: Barrel, tailwater: number): string {
   const size = b.shape === "circular" ? `${b.diameter}` : `${b.span}x${b.rise}`;
   return `${b.shape} ${size} ${b.length} ${b.inletInvert} ${b.outletInvert} ${b.manningN} ${b.entrance} ${tailwater}`;
 }

@@ -39,6 +39,30 @@ export class ChamberSweep {
     this.excess = (q: number) => openings.flow(inlet + curveHeadwater(curve, q)) - q;
   }
 
+  /** The slope of g the next stage's root search starts from (see `WarmStart`). */
+  get slope(): number {
+    return this.state.slope;
+  }
+
+  /**
+   * Takes up the sweep at stage `index` of the openings' grid as if it had swept every stage below:
+   * `flows` and `slopes` hold what `flow` and `slope` gave at the stages below `index` (for these
+   * openings, or for openings that agree with them there). The stages from `index` on then come out
+   * exactly as in a sweep from the bottom.
+   */
+  resume(stages: Float64Array, flows: Float64Array, slopes: Float64Array, index: number): void {
+    if (index <= 0) return;
+    const at = (k: number, column: Float64Array) => (k >= 0 ? column[k] : NaN);
+    this.state.root = flows[index - 1];
+    this.state.slope = slopes[index - 1];
+    this.previousStage = stages[index - 1];
+    this.earlierRoot = at(index - 2, flows);
+    this.earlierStage = at(index - 2, stages);
+    this.evenEarlierRoot = at(index - 3, flows);
+    this.evenEarlierStage = at(index - 3, stages);
+    this.previousFree = this.openings.setGridStage(index - 1);
+  }
+
   /** Flow through the openings and the barrel at stage `index` of the openings' grid, above the
    * previous one (m3/s). */
   flow(ws: number, index: number): number {
@@ -62,6 +86,9 @@ export class ChamberSweep {
     if (!(free > 0)) return 0;
     let freeExcess = NaN;
     if (!throttled) {
+      // Up to the flow that lifts the chamber to the lowest opening nothing is throttled (one
+      // comparison instead of a look-up on the curve).
+      if (free < this.unthrottled) return free;
       const freeLevel = this.barrel.inletInvert + curveHeadwater(this.curve, free);
       if (freeLevel <= this.lowest) return free;
       freeExcess = freeLevel >= ws ? -free : openings.flow(freeLevel) - free;

@@ -23,7 +23,8 @@ const freeColumns = new WeakMap<Float64Array, Map<string, Float64Array>>();
  * at a fixed tailwater), kept by the part's values and the grid: candidates of a search that share
  * a level share its column. A pure function's memo: the values are those computed on a miss.
  */
-export function freeColumn(stages: Float64Array, key: string, flowAt: (ws: number) => number): Float64Array {
+export function freeColumn(stages: Float64Array, key: string, flowAt: (ws: number) => number, keep = true): Float64Array {
+  if (!keep) return computedColumn(stages, flowAt);
   let columns = freeColumns.get(stages);
   if (!columns) {
     columns = new Map();
@@ -31,12 +32,15 @@ export function freeColumn(stages: Float64Array, key: string, flowAt: (ws: numbe
   }
   let column = columns.get(key);
   if (column) columns.delete(key);
-  else {
-    column = new Float64Array(stages.length);
-    for (let i = 0; i < stages.length; i++) column[i] = flowAt(stages[i]);
-  }
+  else column = computedColumn(stages, flowAt);
   columns.set(key, column);
   if (columns.size > FREE_COLUMNS_KEPT) columns.delete(columns.keys().next().value as string);
+  return column;
+}
+
+function computedColumn(stages: Float64Array, flowAt: (ws: number) => number): Float64Array {
+  const column = new Float64Array(stages.length);
+  for (let i = 0; i < stages.length; i++) column[i] = flowAt(stages[i]);
   return column;
 }
 
@@ -76,15 +80,25 @@ export class OpeningsSweep {
 
   private columns: Float64Array[] = [];
   private stages: Float64Array | null = null;
+  /** After `useGrid`: each part's key (its values and how its free flow is computed) and bottom
+   * (invert, crest or rim), elements then the rim. */
+  partKeys: string[] = [];
+  partBottoms: number[] = [];
 
-  /** Takes every part's free flow over a stage grid from the columns kept for it (see `freeColumn`). */
-  useGrid(stages: Float64Array): void {
+  /** Takes every part's free flow over a stage grid from the columns kept for it (see `freeColumn`);
+   * `keep` false: computed for this grid alone (a grid used once, e.g. a drain-time integral's). */
+  useGrid(stages: Float64Array, keep = true): void {
     const elements = this.outlet.elements;
     this.columns = [];
+    this.partKeys = [];
+    this.partBottoms = [];
     for (let i = 0; i <= elements.length; i++) {
       const part = i < elements.length ? elements[i] : (this.outlet.riser ?? null);
       const how = i < elements.length && this.circleFactor[i] > 0 ? "table" : "direct";
-      this.columns.push(freeColumn(stages, `${how} ${JSON.stringify(part)}`, (ws) => this.freeFlow(i, ws)));
+      const key = `${how} ${JSON.stringify(part)}`;
+      this.partKeys.push(key);
+      this.partBottoms.push(i < elements.length ? this.bottoms[i] : this.rimCrest);
+      this.columns.push(freeColumn(stages, key, (ws) => this.freeFlow(i, ws), keep));
     }
     this.stages = stages;
   }

@@ -44,6 +44,9 @@ export interface RuleInput {
   outlet: Outlet;
   /** Routed storms for each variant a rule declared in `routings`. */
   routings: Readonly<Record<RoutingVariant, readonly StormRouting[]>> & { readonly design: readonly StormRouting[] };
+  /** Rules that rate the outlet themselves do it by the direct evaluation (the search's reference
+   * path, `RatingOptions.direct`) instead of the rating sweep. */
+  direct?: boolean;
 }
 
 export interface Rule {
