@@ -39,14 +39,14 @@ export class Evaluator {
     this.drained = drainedStage(problem.case);
   }
 
-  /** Routes the given storms through an outlet on the search grid. */
+  /** Routes the given storms through an outlet on the search grid, on the search's inflows. */
   routeStorms(outlet: Outlet, storms: readonly Storm[]): StormRouting[] {
     const p = this.problem;
     const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid, direct: p.options.referencePath });
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,
-      result: route(table, storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ceiling: storm.ceiling?.hydrograph }),
+      result: route(table, p.inflows.get(storm) ?? storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ceiling: storm.ceiling?.hydrograph }),
     }));
   }
 

@@ -1,6 +1,6 @@
 // What the search works on: the case, the catalogue's part options, the fixed parts, the elevation
 // limits, the stage grid shared by every candidate and the target aims.
-import type { Case, Outlet, Storm } from "../src/case/model.js";
+import type { Case, Hydrograph, Outlet, Storm } from "../src/case/model.js";
 import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
 import type { Layout } from "./layout.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
@@ -9,6 +9,7 @@ import { CaseError } from "../src/case/errors.js";
 import { Converter } from "../src/case/normalize.js";
 import { parseLength } from "../src/units.js";
 import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
+import { searchInflow } from "../src/routing/thinInflow.js";
 import { costWeights, type CostWeights } from "./cost.js";
 import { narrowed, targetBand } from "../src/assess/rules/band.js";
 import { aimMargin } from "../src/assess/rules/peakUpper.js";
@@ -112,6 +113,11 @@ export interface SearchProblem {
   fixedLayout: Layout | null;
   limits: DesignLimits;
   grid: StageGrid;
+  /**
+   * The inflow each storm is routed on in the search (a long fine record thinned, volume kept: see
+   * `src/routing/thinInflow.ts`); reported candidates are routed on the full inflow.
+   */
+  inflows: ReadonlyMap<Storm, Hydrograph>;
   costs: CostWeights;
   options: SearchOptions;
 }
@@ -205,6 +211,7 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     parts,
     maxLevels: Math.max(0, cat.maxStages - new Set(keptElevations.map((z) => Math.round(z * 1e6))).size),
     grid: stageGrid(c.pond, [], gridStepOnLattice),
+    inflows: new Map(c.storms.map((s) => [s, searchInflow(s.inflow)])),
     costs: costWeights(c),
     options: { margin: options.margin ?? 0.02, referencePath: options.referencePath ?? false },
     existing: null,
