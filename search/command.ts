@@ -147,7 +147,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   process.on("SIGTERM", onSignal);
   const progress = options.quiet ? undefined : new ProgressReporter(process.stderr, budget);
   const settings = { seed, starts };
-  const fitter: LayoutFitter = workers > 1 ? new WorkerFitter(problem, { path: resolve(path), margin: problem.options.margin, limits }, settings, workers) : new InlineFitter(problem, settings);
+  const fitter: LayoutFitter = workers > 1 ? new WorkerFitter(problem, { path: resolve(path), margin: problem.options.margin, limits, hydrographs: loaded.hydrographs }, settings, workers) : new InlineFitter(problem, settings);
   let run;
   try {
     run = await runSearch(problem, {

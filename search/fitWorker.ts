@@ -12,7 +12,7 @@ import { scoreChunk } from "./layouts.js";
 import { explainDesign, type ProblemSource, type WorkerTask } from "./pool.js";
 
 const { source, settings } = workerData as { source: ProblemSource; settings: FitSettings };
-const loaded = source.path !== undefined ? loadCase(source.path) : parseCase(source.json);
+const loaded = source.path !== undefined ? loadCase(source.path, { hydrographs: source.hydrographs }) : parseCase(source.json, { hydrographs: source.hydrographs });
 const problem = buildProblem(loaded.case, loaded.data, { margin: source.margin }, source.limits);
 
 parentPort!.on("message", (task: WorkerTask) => {

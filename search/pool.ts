@@ -4,6 +4,7 @@
 import { Worker } from "node:worker_threads";
 import type { Layout } from "./layout.js";
 import type { DesignLimits, SearchProblem } from "./problem.js";
+import type { Hydrograph } from "../src/case/model.js";
 import { fitJob, layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";
 import { scoreChunk } from "./layouts.js";
@@ -20,6 +21,20 @@ export interface ProblemSource {
   margin?: number;
   /** What the search may change (value engineering), as the command built the problem with. */
   limits?: DesignLimits;
+  /** The inflow files the main thread read (`LoadedCase.hydrographs`): the workers do not read them
+   * again (on a million-row record, seconds of parsing each), and share their memory. */
+  hydrographs?: Map<string, Hydrograph>;
+}
+
+/** The hydrographs in shared memory, so that every worker reads the main thread's copy. */
+function shared(hydrographs: Map<string, Hydrograph> | undefined): Map<string, Hydrograph> | undefined {
+  if (!hydrographs) return undefined;
+  const copy = (a: Float64Array) => {
+    const out = new Float64Array(new SharedArrayBuffer(a.byteLength));
+    out.set(a);
+    return out;
+  };
+  return new Map([...hydrographs].map(([path, h]) => [path, { times: copy(h.times), flows: copy(h.flows) }]));
 }
 
 export interface FitJobRequest {
@@ -104,7 +119,8 @@ export class WorkerFitter implements LayoutFitter {
   taskSeconds = 0;
   constructor(private readonly problem: SearchProblem, source: ProblemSource, settings: FitSettings, readonly workers: number) {
     const script = new URL("./fitWorker.js", import.meta.url);
-    this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: { source, settings } }));
+    const data = { source: { ...source, hydrographs: shared(source.hydrographs) }, settings };
+    this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: data }));
   }
 
   fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {

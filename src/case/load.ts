@@ -5,7 +5,7 @@ import type { z } from "zod";
 import { caseSchema, type CaseFile } from "./schema.js";
 import { CaseError, describeIoError, jsonPath, show, type Problem } from "./errors.js";
 import { normalizeCase } from "./normalize.js";
-import type { Case } from "./model.js";
+import type { Case, Hydrograph } from "./model.js";
 import { unknownFields } from "./unknownFields.js";
 
 export interface LoadedCase {
@@ -16,10 +16,12 @@ export interface LoadedCase {
   json: unknown;
   /** Fields the contract does not know, reported but not fatal. */
   notices: string[];
+  /** Every inflow file read, by absolute path, as SI series (a worker thread reuses them). */
+  hydrographs: Map<string, Hydrograph>;
 }
 
 /** Reads and validates a case file; throws CaseError naming every problem found. */
-export function loadCase(path: string): LoadedCase {
+export function loadCase(path: string, options: Pick<ParseOptions, "hydrographs"> = {}): LoadedCase {
   const file = resolve(path);
   const label = basename(file);
   let text: string;
@@ -35,7 +37,7 @@ export function loadCase(path: string): LoadedCase {
     const message = error instanceof Error ? error.message : String(error);
     throw new CaseError([{ where: jsonErrorPlace(text, message, label), found: `text that is not JSON (${message.split("\n")[0]})`, expected: "a JSON case file" }]);
   }
-  return parseCase(json, { file, label });
+  return parseCase(json, { file, label, hydrographs: options.hydrographs });
 }
 
 export interface ParseOptions {
@@ -43,6 +45,8 @@ export interface ParseOptions {
   file?: string;
   /** Name used in messages. */
   label?: string;
+  /** Inflow files already read (by absolute path, as `LoadedCase.hydrographs` holds them): not read again. */
+  hydrographs?: Map<string, Hydrograph>;
 }
 
 /** Validates a parsed JSON value as a case. */
@@ -60,8 +64,9 @@ export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase
   const notices = unknown.map((u) => `${label}: ${u.path}: field not in the case format, ignored`);
   const data: CaseFile = result.data;
   const notes: string[] = [];
-  const c = normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd(), notes });
-  return { case: c, data, json, notices: [...notices, ...notes] };
+  const hydrographs = new Map(options.hydrographs ?? []);
+  const c = normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd(), notes, hydrographs });
+  return { case: c, data, json, notices: [...notices, ...notes], hydrographs };
 }
 
 /** A zod issue as a problem naming the path, the value found and what was expected. */

@@ -22,6 +22,8 @@ export interface NormalizeContext {
   directory: string;
   /** Notes on how inputs were read (a CSV's separator and units), for the user. */
   notes?: string[];
+  /** Inflow files read, by absolute path (SI): taken from here when present, added when read. */
+  hydrographs?: Map<string, Hydrograph>;
 }
 
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
@@ -164,6 +166,8 @@ function readHydrograph(source: { file?: string; series?: [number, number | stri
   } else if (source?.file) {
     const name = source.file;
     const full = resolve(context.directory, name);
+    const known = context.hydrographs?.get(full);
+    if (known) return known;
     let text: string | undefined;
     try {
       text = readFileSync(full, "utf8");
@@ -181,7 +185,9 @@ function readHydrograph(source: { file?: string; series?: [number, number | stri
     }
   }
   checkInflowSpan(minutes, path, cv);
-  return { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) };
+  const hydrograph = { times: Float64Array.from(minutes, (m) => m * 60), flows: Float64Array.from(flows, (q) => q * cv.flow) };
+  if (source?.file && cv.problems.length === 0) context.hydrographs?.set(resolve(context.directory, source.file), hydrograph);
+  return hydrograph;
 }
 
 function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
