@@ -17,21 +17,34 @@ const CASES: { name: string; budget: number }[] = [
 
 interface Timed {
   run: SearchRun;
-  /** Wall seconds from before the workers start to the ranking. */
+  /** Wall seconds of the timed search (cold: from loading the case, starting the workers included). */
   wall: number;
-  /** Seconds the fitter's threads spent on tasks. */
+  /** Seconds the fitter's threads spent on tasks during the timed search. */
   busy: number;
 }
 
-async function timed(file: string, budget: number, workers: number): Promise<Timed> {
+/**
+ * One search, cold (a fresh process state: the threads start and compile their code during the run,
+ * as a short run does) or warm (the same threads first run a search with another seed: the steady
+ * state of a long run, where each thread's compiled code is long since ready).
+ */
+async function timed(file: string, budget: number, workers: number, warm: boolean): Promise<Timed> {
   const started = performance.now();
   const loaded = loadCase(file);
   const problem = buildProblem(loaded.case, loaded.data);
   const settings = { seed: "bench", starts: 3 };
-  const fitter: LayoutFitter = workers > 1 ? new WorkerFitter(problem, { path: file }, settings, workers) : new InlineFitter(problem, settings);
+  const fitter: LayoutFitter = workers > 1 ? new WorkerFitter(problem, { path: file, hydrographs: loaded.hydrographs }, settings, workers) : new InlineFitter(problem, settings);
   try {
-    const run = await runSearch(problem, { seed: "bench", budget, top: 5, starts: 3, beam: 3, fitter });
-    return { run, wall: (performance.now() - started) / 1000, busy: fitter.taskSeconds };
+    const search = () => runSearch(problem, { seed: "bench", budget, top: 5, starts: 3, beam: 3, fitter });
+    if (!warm) {
+      const run = await search();
+      return { run, wall: (performance.now() - started) / 1000, busy: fitter.taskSeconds };
+    }
+    await runSearch(problem, { seed: "bench warm-up", budget, top: 5, starts: 3, beam: 3, fitter });
+    const busyBefore = fitter.taskSeconds;
+    const t = performance.now();
+    const run = await search();
+    return { run, wall: (performance.now() - t) / 1000, busy: fitter.taskSeconds - busyBefore };
   } finally {
     await fitter.close();
   }
@@ -44,17 +57,20 @@ export const workersSection: BenchSection = {
   name: "workers",
   async run() {
     const cores = availableParallelism();
-    console.log(`\nWorkers: the same search on 1 worker and on ${cores} (seed "bench"; wall time from loading the case to the explained ranking, starting the workers included; busy = time on fits and scores over the workers' wall time; load average before: ${load()})`);
+    console.log(`\nWorkers: the same search on 1 worker and on ${cores} (seed "bench"). Cold: a fresh start, from loading the case to the explained ranking (threads started and their code compiled during the run, as in a short run). Warm: the same threads after a search with another seed (the steady state of a long run). Busy: time on fits and scores over the workers' wall time. Load average before: ${load()}; on a loaded machine the ratio says little.`);
     for (const { name, budget } of CASES) {
       const file = join("cases", name, "case.json");
-      const one = await timed(file, budget, 1);
-      const all = await timed(file, budget, cores);
-      const line = (n: number, t: Timed) =>
-        `  --workers ${n}: ${t.wall.toFixed(2)} s, ${t.run.layoutsFitted} layouts, ${t.run.routings} routings, busy ${((100 * t.busy) / (n * t.wall)).toFixed(0)} %`;
       console.log(`${name}, budget ${budget} routings:`);
-      console.log(line(1, one));
-      console.log(line(cores, all));
-      console.log(`  speed-up ${(one.wall / all.wall).toFixed(2)}x; rankings ${ranking(one.run) === ranking(all.run) ? "identical" : "DIFFERENT"} (${one.run.candidates.length} candidates); load average after: ${load()}`);
+      for (const warm of [false, true]) {
+        const one = await timed(file, budget, 1, warm);
+        const all = await timed(file, budget, cores, warm);
+        const line = (n: number, t: Timed) =>
+          `    --workers ${n}: ${t.wall.toFixed(2)} s, ${t.run.layoutsFitted} layouts, ${t.run.routings} routings, busy ${((100 * t.busy) / (n * t.wall)).toFixed(0)} %`;
+        console.log(`  ${warm ? "warm" : "cold"}:`);
+        console.log(line(1, one));
+        console.log(line(cores, all));
+        console.log(`    speed-up ${(one.wall / all.wall).toFixed(2)}x; rankings ${ranking(one.run) === ranking(all.run) ? "identical" : "DIFFERENT"} (${one.run.candidates.length} candidates); load average after: ${load()}`);
+      }
     }
   },
 };
