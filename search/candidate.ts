@@ -42,7 +42,12 @@ export interface Candidate extends RoutedOutlet {
 }
 
 export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number[], file: OutletFile): Candidate {
-  return candidateFrom(p, layout, vars, routeOutlet(p, file, designOutlet(p, file)));
+  return candidateFrom(p, layout, vars, routeDesign(p, file));
+}
+
+/** A design's outlet file routed through the `route` path, assessed and costed. */
+export function routeDesign(p: SearchProblem, file: OutletFile): RoutedOutlet {
+  return routeOutlet(p, file, designOutlet(p, file));
 }
 
 /** A candidate from its design and its routing through the `route` path (here or on a worker). */

@@ -6,8 +6,8 @@ import { parentPort, workerData } from "node:worker_threads";
 import { loadCase, parseCase } from "../src/case/load.js";
 import { buildProblem } from "./problem.js";
 import { fitJob, layoutAt, type FitSettings } from "./fitJob.js";
-import { designOutlet, designOutletFile } from "./layout.js";
-import { packRoute, routeOutlet } from "./candidate.js";
+import { designOutletFile } from "./layout.js";
+import { packRoute, routeDesign } from "./candidate.js";
 import { scoreChunk } from "./layouts.js";
 import { explainDesign, type ProblemSource, type WorkerTask } from "./pool.js";
 
@@ -31,10 +31,7 @@ parentPort!.on("message", (task: WorkerTask) => {
     }
     const layout = layoutAt(problem, task.layout);
     const outcome = fitJob(problem, layout, task.key, { ...settings, starts: task.starts ?? settings.starts });
-    outcome.routed = outcome.designs.map((vars) => {
-      const file = designOutletFile(problem, layout, vars);
-      return packRoute(routeOutlet(problem, file, designOutlet(problem, file)));
-    });
+    outcome.routed = outcome.designs.map((vars) => packRoute(routeDesign(problem, designOutletFile(problem, layout, vars))));
     parentPort!.postMessage({ id: task.id, outcome, ms: ms() });
   } catch (error) {
     parentPort!.postMessage({ id: task.id, error: error instanceof Error ? error.message : String(error) });

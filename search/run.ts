@@ -8,6 +8,7 @@
 // round's order. So the same seed and routing budget give the same ranking whatever the number of
 // workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
 import type { SearchProblem } from "./problem.js";
+import type { OutletFile } from "../src/case/schema.js";
 import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan } from "./layouts.js";
 import { scoreWith } from "./scoring.js";
 import seedrandom from "seedrandom";
@@ -155,7 +156,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   // layout's fit ended, not when its round was merged): a statistic only, the search never reads it.
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
-  // Routings of the round's fits that have ended (counted into `fitRoutings` when it is merged).
+  // Routings of the round's fits that have ended (counted into `routings` when it is merged).
   let roundRoutings = 0;
   let stoppedBecause = "";
   let interrupted = false;
@@ -165,13 +166,12 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   let otherShards = 0;
   // Routings of the fits (per layout) and of the plan's and the widening's scores (per chunk),
   // wherever they ran.
-  let fitRoutings = 0;
-  let fitEvaluations = 0;
-  const routings = () => fitRoutings;
+  let routings = 0;
+  let evaluations = 0;
   const scored = async <T>(scoring: Parameters<typeof scoreWith<T>>[1]): Promise<T> => {
     const done = await scoreWith(fitter, scoring);
-    fitRoutings += done.routings;
-    fitEvaluations += done.evaluations;
+    routings += done.routings;
+    evaluations += done.evaluations;
     return done.result;
   };
   const timed = options.timeBudget !== undefined;
@@ -188,6 +188,9 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     const file = designOutletFile(p, layout, vars);
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
   };
+  /** A design routed through the `route` path: here, or taken from a worker's routing of it. */
+  const routedCandidate = (layout: Layout, vars: number[], file: OutletFile, routed?: PackedRoute): Candidate =>
+    routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
   // Designs of the round routed as soon as their fit ended, until the first compliant one is in hand;
   // taken when the round is merged (the same numbers: a pure function of the design).
   const early = new Map<string, Candidate>();
@@ -197,7 +200,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (seenDesigns.has(key)) return false;
     let candidate = early.get(key);
     if (!candidate) {
-      candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
+      candidate = routedCandidate(layout, vars, file, routed);
       early.set(key, candidate);
     }
     return candidate.assessment.compliant;
@@ -209,7 +212,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (seenDesigns.has(key)) return null;
     seenDesigns.add(key);
     routedCandidates++;
-    const candidate = early.get(key) ?? (routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file));
+    const candidate = early.get(key) ?? routedCandidate(layout, vars, file, routed);
     early.delete(key);
     candidates.set(key, candidate);
     if (candidates.size > 2 * KEPT) {
@@ -221,7 +224,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       compliantFound++;
       if (firstCompliantAt === null) {
         firstCompliantAt = seconds();
-        firstCompliantRoutings = routings();
+        firstCompliantRoutings = routings;
         options.onFirstCompliant?.();
       }
       if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
@@ -279,7 +282,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     }
     return queue.splice(best, 1)[0];
   };
-  const spent = () => (timed ? seconds() >= options.timeBudget! : routings() >= options.budget);
+  const spent = () => (timed ? seconds() >= options.timeBudget! : routings >= options.budget);
   const budgetWords = () => (timed ? `the time budget of ${options.timeBudget} s was used` : `the budget of ${options.budget} routings was used`);
   // The whole layout space when it is small enough to list: a time budget can then prove it exhausted.
   let space: Layout[] | null | undefined;
@@ -384,7 +387,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         roundRoutings += outcome.routings;
         if (firstCompliantAt === null && outcome.designs.some((vars, d) => routedEarly(jobs[i].layout, vars, routed?.[d]))) {
           firstCompliantAt = seconds();
-          firstCompliantRoutings = routings() + roundRoutings;
+          firstCompliantRoutings = routings + roundRoutings;
           options.onFirstCompliant?.();
         }
       },
@@ -398,8 +401,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       if (!outcome) continue;
       if (previous) fromJournal++;
       fitted++;
-      fitRoutings += outcome.routings;
-      fitEvaluations += outcome.evaluations;
+      routings += outcome.routings;
+      evaluations += outcome.evaluations;
       // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
       let expand = false;
       for (const [d, vars] of outcome.designs.entries()) {
@@ -411,7 +414,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     }
     early.clear();
     roundRoutings = 0;
-    options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings: routings(), compliant: compliantFound, bestCost, seconds: seconds() });
+    options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings, compliant: compliantFound, bestCost, seconds: seconds() });
   }
 
   const ranked = [...candidates.values()].sort(compareCandidates).slice(0, KEPT);
@@ -432,8 +435,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     layoutsSkipped: skipped,
     layoutsOtherShards: otherShards,
     candidatesRouted: routedCandidates,
-    routings: routings(),
-    evaluations: fitEvaluations,
+    routings,
+    evaluations,
     seconds: seconds(),
     secondsToFirstCompliant: firstCompliantAt,
     routingsToFirstCompliant: firstCompliantRoutings,
