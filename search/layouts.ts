@@ -91,6 +91,18 @@ export function riserChoices(p: SearchProblem, levels: PartOption[], barrel: Siz
 
 /** Barrel sizes worth fitting: the smallest that can carry the largest target at the freeboard stage, and the next. */
 export function barrelChoices(p: SearchProblem): (SizeOption | null)[] {
+  // A pure function of the problem, asked for every layout the plan scores: solved once per problem.
+  let choices = barrelChoicesOf.get(p);
+  if (!choices) {
+    choices = chooseBarrels(p);
+    barrelChoicesOf.set(p, choices);
+  }
+  return choices;
+}
+
+const barrelChoicesOf = new WeakMap<SearchProblem, (SizeOption | null)[]>();
+
+function chooseBarrels(p: SearchProblem): (SizeOption | null)[] {
   if (!p.barrel || p.barrelOptions.length === 0) return [null];
   const need = Math.max(...p.targeted.map((s) => targetBand(s.target!, p.case.criteria)[1]));
   const index = p.barrelOptions.findIndex((b) => barrelCapacity(p, b) >= need);
