@@ -17,19 +17,19 @@ export type OutletRouter = (outlet: Outlet) => readonly StormRouting[];
 /** Every variant some rule names, with the outlet it routes. */
 const VARIANTS: ReadonlyMap<RoutingVariant, VariantOutlet> = new Map(RULES.flatMap((r) => Object.entries(r.variants ?? {})));
 
-export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[], router: OutletRouter = (o) => routeCase(c, o).storms): Check[] {
+export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[], router: OutletRouter = (o) => routeCase(c, o).storms, direct = false): Check[] {
   const checks: Check[] = [];
   const routings: Record<RoutingVariant, readonly StormRouting[]> & { design: readonly StormRouting[] } = { design: storms };
   for (const [name, variant] of VARIANTS) {
     const changed = variant(c, outlet);
     if (changed) routings[name] = router(changed);
   }
-  const input: RuleInput = { case: c, outlet, routings };
+  const input: RuleInput = { case: c, outlet, routings, direct };
   for (const rule of RULES) rule.evaluate(input, checks);
   const clog = c.criteria.clogging;
   if (clog) {
     const clogged = cloggedOutlet(outlet, clog.fraction);
-    const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) } };
+    const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) }, direct };
     const words = `${+(100 * clog.fraction).toPrecision(6)} % clogged${clog.label === null ? "" : `, ${clog.label}`}`;
     for (const rule of RULES) {
       if (!cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;

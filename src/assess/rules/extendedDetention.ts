@@ -17,7 +17,7 @@ export const extendedDetention: Rule = {
   quantity: "hours",
   comparison: "at least",
   routings: ["design"],
-  evaluate({ case: c, outlet, routings }, out) {
+  evaluate({ case: c, outlet, routings, direct }, out) {
     if (c.criteria.extendedDetention.length === 0) return;
     const storage = storageCurve(c.pond);
     const poolVolume = storage.volume(c.pond.pool);
@@ -31,7 +31,7 @@ export const extendedDetention: Rule = {
       const full = rule.share >= 1;
       const stored = storage.volume(from) - poolVolume;
       const to = full ? Math.max(drainedStage(c), c.pond.pool) : stageOfVolume(storage, c.pond, poolVolume + (1 - rule.share) * stored);
-      const hours = Math.min(drainTime(storage, outlet, c.tailwater, from, to), 1e12) / 3600;
+      const hours = Math.min(drainTime(storage, outlet, c.tailwater, from, to, direct), 1e12) / 3600;
       const subject = rule.storm ?? WATER_QUALITY;
       const what = full ? "to drain" : `to release ${+(100 * rule.share).toPrecision(6)} % of its volume`;
       out.push(makeCheck("extended-detention", subject, `${subject} takes at least ${rule.hours} h ${what}`, hours, rule.hours, (hours - rule.hours) / rule.hours, rule.label));

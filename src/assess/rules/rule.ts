@@ -44,6 +44,8 @@ export interface RuleInput {
   outlet: Outlet;
   /** Routed storms for each variant a rule declared in `routings`. */
   routings: Readonly<Record<RoutingVariant, readonly StormRouting[]>> & { readonly design: readonly StormRouting[] };
+  /** Rules that evaluate the outlet themselves do it stage by stage, without the rating sweep (the reference path). */
+  direct?: boolean;
 }
 
 export interface Rule {
