@@ -68,12 +68,14 @@ export function hydrographDifference(h: Hydrograph, release: number, form: Relea
     return (release * (t - facts.start)) / (facts.timeOfPeak - facts.start);
   };
   // The start and the peak are points of the inflow, so the release is linear between its points too.
+  // The inflow at its own points is its flows (a repeated time spans no interval): linear in time.
   const times = h.times;
+  const flows = h.flows;
   let volume = 0;
   for (let i = 1; i < times.length; i++) {
     const t0 = times[i - 1];
     const t1 = times[i];
-    volume += positivePart(flowAt(h, t0) - releaseAt(t0), flowAt(h, t1) - releaseAt(t1), t1 - t0);
+    volume += positivePart(flows[i - 1] - releaseAt(t0), flows[i] - releaseAt(t1), t1 - t0);
   }
   return volume;
 }
@@ -84,13 +86,4 @@ function positivePart(a: number, b: number, dt: number): number {
   if (a <= 0 && b <= 0) return 0;
   const p = Math.max(a, b);
   return 0.5 * p * dt * (p / (Math.abs(a) + Math.abs(b)));
-}
-
-function flowAt(h: Hydrograph, t: number): number {
-  const n = h.times.length;
-  if (t <= h.times[0]) return h.flows[0];
-  for (let i = 1; i < n; i++) {
-    if (t <= h.times[i]) return h.flows[i - 1] + ((h.flows[i] - h.flows[i - 1]) * (t - h.times[i - 1])) / (h.times[i] - h.times[i - 1]);
-  }
-  return 0;
 }
