@@ -4,7 +4,7 @@
 // One layout in, candidates out: a self-contained unit of work.
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
-import type { Storm } from "../src/case/model.js";
+import type { Storm, Tailwater } from "../src/case/model.js";
 import type { RouteResult } from "../src/routing/router.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import { hydrographDifference } from "../src/storage/estimate.js";
@@ -104,7 +104,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
       let tries = 5;
       // The storage-needed estimate first: the elevation at which the levels pass the goal at the
       // stage holding the storm's inflow above the goal; then regula falsi in what it leaves.
-      const z0 = levelPassing(p, l, trial, vars, index, zLow, zHigh, goalStage(p, storm, goal), goal, plain);
+      const z0 = levelPassing(p, l, trial, vars, index, zLow, zHigh, goalStage(p, storm, goal), goal);
       vars[index] = z0;
       const f0 = routed(storm).peakOutflow - goal;
       at = z0;
@@ -180,24 +180,28 @@ export function goalStage(p: SearchProblem, storm: Storm, goal: number): number 
   return stage;
 }
 
+const FREE: Tailwater = { kind: "free" };
+
 /** Goal stages by storm, then goal and pond (a pure function's memo: the goal is fixed per storm in a search). */
 const goalStages = new WeakMap<Storm, Map<string, number>>();
 
 /**
  * The elevation of variable `index` in [low, high] at which the trial outlet passes `goal` at
- * `stage` (its flow there falls as the level rises), by bisection to a tenth of the step; `low` when
+ * `stage` (its flow there falls as the level rises), by bisection to half the step; `low` when
  * even there it passes less, `high` when even there it passes more.
  */
-function levelPassing(p: SearchProblem, l: Layout, trial: () => number[], vars: number[], index: number, low: number, high: number, stage: number, goal: number, plain: boolean): number {
+function levelPassing(p: SearchProblem, l: Layout, trial: () => number[], vars: number[], index: number, low: number, high: number, stage: number, goal: number): number {
+  // Without the barrel and with a free outfall: an estimate, cheap to evaluate (the routing that
+  // follows judges it with the outlet as staged).
   const flowAt = (z: number) => {
     vars[index] = z;
-    return outletDischarge(designOutlet(p, designOutletFile(p, l, trial(), plain)), p.case.tailwater, stage);
+    return outletDischarge(designOutlet(p, designOutletFile(p, l, trial(), true)), FREE, stage);
   };
   if (flowAt(low) <= goal) return low;
   if (flowAt(high) >= goal) return high;
   let a = low;
   let b = high;
-  while (b - a > 0.1 * p.stepM) {
+  while (b - a > 0.5 * p.stepM) {
     const mid = 0.5 * (a + b);
     if (flowAt(mid) > goal) a = mid;
     else b = mid;
