@@ -139,6 +139,11 @@ function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly Storm
   }
 }
 
+/** Geometric rules a design breaks (ordering, openings above the rim, elevation limits): no routing needed. */
+export function geometryViolations(p: SearchProblem, layout: Layout, vars: readonly number[]): number {
+  return geometryResiduals(p, layout, vars, []);
+}
+
 /**
  * Geometric rules as residuals: levels ordered at least one step apart, openings below the rim,
  * elevations between the floor and the top less freeboard. Returns the number broken.

@@ -11,7 +11,7 @@ import { hydrographDifference } from "../src/storage/estimate.js";
 import { stageAtVolume } from "../src/storage/stageAtVolume.js";
 import { aimBand, type SearchProblem } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
-import type { Evaluation, Evaluator } from "./evaluate.js";
+import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
 
 export interface FitOptions {
   /** Seeded starts of the fit (the first is the staged start). */
@@ -238,8 +238,8 @@ export function better(a: Evaluation, b: Evaluation): boolean {
   return a.objective < b.objective;
 }
 
-/** Polishes snapped variables by single steps while that improves the design. */
-export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator: Evaluator, maxPasses = 6): Evaluation {
+/** Polishes snapped variables by single steps while that improves the design (`screen` false: every step routed, the tests' reference). */
+export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator: Evaluator, maxPasses = 6, screen = true): Evaluation {
   let best = start;
   const { min, max } = variableBounds(p, l);
   for (let pass = 0; pass < maxPasses; pass++) {
@@ -249,6 +249,8 @@ export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator
         const vars = [...best.vars];
         vars[i] = snap(p, vars[i] + direction * p.stepM);
         if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
+        // A step breaking more geometric rules than the best cannot be better (`better`): not routed.
+        if (screen && geometryViolations(p, l, vars) > best.violations) continue;
         const trial = evaluator.evaluate(l, vars);
         if (better(trial, best)) {
           best = trial;
