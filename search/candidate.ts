@@ -93,7 +93,7 @@ export function unpackRoute(p: SearchProblem, packed: PackedRoute): RoutedOutlet
 /** Routes an outlet through the `route` path, assesses and costs it. */
 export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet): RoutedOutlet {
   const routing = routeCase(p.case, outlet, { direct: p.options.referencePath });
-  const assessment = assess(p.case, routing);
+  const assessment = assess(p.case, routing, p.options.referencePath);
   let error = 0;
   for (const { storm, result } of routing.storms) {
     if (storm.target) error = Math.max(error, Math.abs(result.peakOutflow / storm.target - 1));

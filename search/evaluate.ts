@@ -27,6 +27,9 @@ export interface Evaluation {
   violations: number;
 }
 
+/** Outlets whose routings an evaluator keeps for the checks (least recently used dropped). */
+const VARIANT_MEMO_SIZE = 8;
+
 /** Weight of geometric violations, per pond depth of violation. */
 const GEOMETRY_WEIGHT = 20;
 
@@ -34,12 +37,38 @@ export class Evaluator {
   /** Storms routed so far (one storm through one rating = one routing). */
   routings = 0;
   evaluations = 0;
+  /** Routings of the checks' outlets (variants, clogged) by their content, most recent last. */
+  private readonly variantRoutings = new Map<string, StormRouting[]>();
   private readonly drained: number;
   constructor(readonly problem: SearchProblem) {
     this.drained = drainedStage(problem.case);
   }
 
-  /** Routes the given storms through an outlet on the search grid, on the search's inflows. */
+  /**
+   * Routes an outlet the checks ask for (a routing variant, the clogged outlet), reusing this
+   * evaluator's routing of the same outlet: a variant that does not depend on the elevations (the
+   * spillway alone of the blocked-outlet rule, the smallest permitted orifice through the layout's
+   * barrel) is routed once per fit instead of once per evaluation. Kept per evaluator, so a job's
+   * routings stay its own; the reference path routes every one.
+   */
+  routeVariant(outlet: Outlet): StormRouting[] {
+    const p = this.problem;
+    if (p.options.referencePath) return this.routeStorms(outlet, p.case.storms);
+    const key = JSON.stringify(outlet);
+    const known = this.variantRoutings.get(key);
+    if (known) {
+      // Most recently used last: the variants met at every evaluation stay while clogged outlets pass through.
+      this.variantRoutings.delete(key);
+      this.variantRoutings.set(key, known);
+      return known;
+    }
+    const routed = this.routeStorms(outlet, p.case.storms);
+    if (this.variantRoutings.size >= VARIANT_MEMO_SIZE) this.variantRoutings.delete(this.variantRoutings.keys().next().value!);
+    this.variantRoutings.set(key, routed);
+    return routed;
+  }
+
+  /** Routes the given storms through an outlet on the search grid. */
   routeStorms(outlet: Outlet, storms: readonly Storm[]): StormRouting[] {
     const p = this.problem;
     const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid, direct: p.options.referencePath });
@@ -56,7 +85,7 @@ export class Evaluator {
     const file = designOutletFile(p, layout, vars);
     const outlet = designOutlet(p, file);
     const storms = this.routeStorms(outlet, p.case.storms);
-    const checks = evaluateChecks(p.case, outlet, storms, (o) => this.routeStorms(o, p.case.storms), p.options.referencePath);
+    const checks = evaluateChecks(p.case, outlet, storms, (o) => this.routeVariant(o), p.options.referencePath);
     const residuals = checkResiduals(p, checks);
     rangeResiduals(p, outlet, storms, residuals);
     const violations = geometryResiduals(p, layout, vars, residuals);
@@ -108,6 +137,11 @@ function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly Storm
     const limit = e.shape === "rectangular" ? (e.endContractions > 0 ? CONTRACTED_WEIR_MAX_HEAD_RATIO * e.length : Infinity) : VNOTCH_MAX_HEAD;
     residuals.push((RANGE_WEIGHT * Math.max(0, head - limit)) / depth);
   }
+}
+
+/** Geometric rules a design breaks (ordering, openings above the rim, elevation limits): no routing needed. */
+export function geometryViolations(p: SearchProblem, layout: Layout, vars: readonly number[]): number {
+  return geometryResiduals(p, layout, vars, []);
 }
 
 /**

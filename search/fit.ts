@@ -4,11 +4,14 @@
 // One layout in, candidates out: a self-contained unit of work.
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
-import type { Storm } from "../src/case/model.js";
+import type { Storm, Tailwater } from "../src/case/model.js";
 import type { RouteResult } from "../src/routing/router.js";
+import { outletDischarge } from "../src/hydraulics/outlet.js";
+import { hydrographDifference } from "../src/storage/estimate.js";
+import { stageAtVolume } from "../src/storage/stageAtVolume.js";
 import { aimBand, type SearchProblem } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
-import type { Evaluation, Evaluator } from "./evaluate.js";
+import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
 
 export interface FitOptions {
   /** Seeded starts of the fit (the first is the staged start). */
@@ -46,8 +49,10 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
  * The staged start: level k+1 sits at the highest stage the k-th smallest storm reaches through
  * levels 1..k, so each storm is held mostly by the levels below its stage. When those levels release
  * too little for that storm, level k+1 is lowered until the storm's peak reaches the middle of its
- * aim (a few routings by regula falsi: the peak only rises as a level is lowered). The rim is placed
- * the same way for the largest storm.
+ * aim: first to the storage-needed estimate (where the levels pass the goal at the stage holding the
+ * storm's inflow above it, `goalStage`, no routing), then by regula falsi in the bracket that routing
+ * leaves (the peak only rises as a level is lowered). The rim is placed the same way for the largest
+ * storm.
  */
 export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, plain = false): number[] {
   const { min, max } = variableBounds(p, l);
@@ -94,12 +99,33 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
       const goal = 0.5 * (aimLow + aimHigh);
       let zLow = clamp(low, min[index], max[index]);
       let zHigh = at;
-      vars[index] = zLow;
-      let fLow = routed(storm).peakOutflow - goal;
       let fHigh = peak - goal;
-      if (fLow <= 0) at = zLow;
-      else {
-        for (let i = 0; i < 5; i++) {
+      let fLow = NaN;
+      let tries = 5;
+      // The storage-needed estimate first: the elevation at which the levels pass the goal at the
+      // stage holding the storm's inflow above the goal; then regula falsi in what it leaves.
+      const z0 = levelPassing(p, l, trial, vars, index, zLow, zHigh, goalStage(p, storm, goal), goal);
+      vars[index] = z0;
+      const f0 = routed(storm).peakOutflow - goal;
+      at = z0;
+      if (Math.abs(f0) < 0.01 * goal) tries = 0;
+      else if (f0 > 0) {
+        zLow = z0;
+        fLow = f0;
+      } else {
+        zHigh = z0;
+        fHigh = f0;
+      }
+      if (tries > 0 && Number.isNaN(fLow)) {
+        vars[index] = zLow;
+        fLow = routed(storm).peakOutflow - goal;
+        if (fLow <= 0) {
+          at = zLow;
+          tries = 0;
+        }
+      }
+      if (tries > 0) {
+        for (let i = 0; i < tries; i++) {
           const zt = zHigh - (fHigh * (zHigh - zLow)) / (fHigh - fLow);
           vars[index] = zt;
           const f = routed(storm).peakOutflow - goal;
@@ -135,6 +161,54 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
   return vars;
 }
 
+/**
+ * The stage that holds the storm's inflow above a release rising linearly to `goal` at the inflow's
+ * peak (`hydrographDifference`, "rising"): about where a storm released at `goal` peaks.
+ */
+export function goalStage(p: SearchProblem, storm: Storm, goal: number): number {
+  let byGoal = goalStages.get(storm);
+  if (!byGoal) {
+    byGoal = new Map();
+    goalStages.set(storm, byGoal);
+  }
+  const key = `${goal} ${JSON.stringify(p.case.pond)}`;
+  let stage = byGoal.get(key);
+  if (stage === undefined) {
+    stage = stageAtVolume(p.case.pond, hydrographDifference(storm.inflow, goal, "rising"));
+    byGoal.set(key, stage);
+  }
+  return stage;
+}
+
+const FREE: Tailwater = { kind: "free" };
+
+/** Goal stages by storm, then goal and pond (a pure function's memo: the goal is fixed per storm in a search). */
+const goalStages = new WeakMap<Storm, Map<string, number>>();
+
+/**
+ * The elevation of variable `index` in [low, high] at which the trial outlet passes `goal` at
+ * `stage` (its flow there falls as the level rises), by bisection to half the step; `low` when
+ * even there it passes less, `high` when even there it passes more.
+ */
+function levelPassing(p: SearchProblem, l: Layout, trial: () => number[], vars: number[], index: number, low: number, high: number, stage: number, goal: number): number {
+  // Without the barrel and with a free outfall: an estimate, cheap to evaluate (the routing that
+  // follows judges it with the outlet as staged).
+  const flowAt = (z: number) => {
+    vars[index] = z;
+    return outletDischarge(designOutlet(p, designOutletFile(p, l, trial(), true)), FREE, stage);
+  };
+  if (flowAt(low) <= goal) return low;
+  if (flowAt(high) >= goal) return high;
+  let a = low;
+  let b = high;
+  while (b - a > 0.5 * p.stepM) {
+    const mid = 0.5 * (a + b);
+    if (flowAt(mid) > goal) a = mid;
+    else b = mid;
+  }
+  return 0.5 * (a + b);
+}
+
 /** Routings of the staged start kept per evaluator (cleared when full). */
 const STAGED_MEMO_SIZE = 4096;
 const stagedMemos = new WeakMap<Evaluator, Map<string, RouteResult>>();
@@ -164,8 +238,8 @@ export function better(a: Evaluation, b: Evaluation): boolean {
   return a.objective < b.objective;
 }
 
-/** Polishes snapped variables by single steps while that improves the design. */
-export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator: Evaluator, maxPasses = 6): Evaluation {
+/** Polishes snapped variables by single steps while that improves the design (`screen` false: every step routed, the tests' reference). */
+export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator: Evaluator, maxPasses = 6, screen = true): Evaluation {
   let best = start;
   const { min, max } = variableBounds(p, l);
   for (let pass = 0; pass < maxPasses; pass++) {
@@ -175,6 +249,8 @@ export function polish(p: SearchProblem, l: Layout, start: Evaluation, evaluator
         const vars = [...best.vars];
         vars[i] = snap(p, vars[i] + direction * p.stepM);
         if (vars[i] < min[i] - 1e-9 || vars[i] > max[i] + 1e-9) continue;
+        // A step breaking more geometric rules than the best cannot be better (`better`): not routed.
+        if (screen && geometryViolations(p, l, vars) > best.violations) continue;
         const trial = evaluator.evaluate(l, vars);
         if (better(trial, best)) {
           best = trial;

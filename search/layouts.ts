@@ -14,6 +14,9 @@ import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
 import { stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
+import { RULES } from "../src/assess/rules/registry.js";
+import type { Check } from "../src/assess/rules/rule.js";
+import type { Outlet } from "../src/case/model.js";
 
 export interface ScoredLayout {
   layout: Layout;
@@ -34,6 +37,8 @@ export interface LayoutPlan {
   layouts: ScoredLayout[];
   /** First-level options pruned by the bound, for explanations. */
   pruned: PruneRecord[];
+  /** First-level options left out because alone they fail a rule's `boundFirstLevel` check (e.g. released too fast for extended detention). */
+  bounded: PartOption[];
   /** First-level options that survived. */
   viableFirst: number;
   /** The surviving first-level options themselves. */
@@ -135,7 +140,7 @@ export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
   if (p.fixedLayout) {
     const layout = p.fixedLayout;
     const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, layout) }] }];
-    return { layouts: [{ layout, score: own.values[0].score, cost: own.values[0].cost }], pruned: [], viableFirst: 1, firstOptions: layout.levels.slice(0, 1) };
+    return { layouts: [{ layout, score: own.values[0].score, cost: own.values[0].cost }], pruned: [], bounded: [], viableFirst: 1, firstOptions: layout.levels.slice(0, 1) };
   }
   const storms = p.targeted;
   const barrels = barrelChoices(p);
@@ -164,6 +169,7 @@ export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
   // Level 1 (at the floor): route the smallest storm through each option alone.
   type Partial = { levels: PartOption[]; score: number };
   let frontier: Partial[] = [];
+  let bounded: Partial[] = [];
   if (maxLevels === 0) frontier = [{ levels: [], score: 0 }];
   else {
     const outcomes = yield chunked(options.map((part) => ({ kind: "first", part: at(part) })), FIRST_CHUNK);
@@ -171,8 +177,13 @@ export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
     options.forEach((part, i) => {
       const v = values[i];
       if (v.pruned) pruned.push({ part, storm: storms[0], peak: v.peak });
-      else frontier.push({ levels: [part], score: v.score });
+      else (v.bounded ? bounded : frontier).push({ levels: [part], score: v.score });
     });
+    // When the rules' bounds would leave no first level, keep those options (the closest candidates are shown from them).
+    if (frontier.length === 0) {
+      frontier = bounded;
+      bounded = [];
+    }
   }
   const viableFirst = frontier.length;
   const firstOptions = frontier.map((f) => f.levels[0]).filter((x): x is PartOption => x !== undefined);
@@ -229,14 +240,14 @@ export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
     yield* scoreLayouts(neighbourLayouts(p, existing).filter((layout) => layout.levels.length <= p.maxLevels), LAYOUT_CHUNK);
   }
   const layouts = [...results.values()].sort((a, b) => a.score - b.score);
-  return { layouts, pruned, viableFirst, firstOptions };
+  return { layouts, pruned, bounded: bounded.map((b) => b.levels[0]), viableFirst, firstOptions };
 }
 
 /**
  * A first-level option alone on the smallest storm, staged without the barrel: its peak, whether the
  * bound prunes it (confirmed with the most restrictive barrel), and its score as a first level.
  */
-export function firstLevelScore(p: SearchProblem, part: PartOption, evaluator: Evaluator): { peak: number; pruned: boolean; score: number } {
+export function firstLevelScore(p: SearchProblem, part: PartOption, evaluator: Evaluator): { peak: number; pruned: boolean; bounded: boolean; score: number } {
   const first = p.targeted[0];
   const layout: Layout = { levels: [part], riser: null, barrel: barrelChoices(p)[0] };
   const vars = stagedStart(p, layout, evaluator, true);
@@ -246,10 +257,23 @@ export function firstLevelScore(p: SearchProblem, part: PartOption, evaluator: E
   if (!p.lowestFloats && peak > targetBand(first.target!, p.case.criteria)[1]) {
     // The bound holds with the most restrictive barrel: confirm with it before pruning.
     if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
-    if (peak > targetBand(first.target!, p.case.criteria)[1]) return { peak, pruned: true, score: Infinity };
+    if (peak > targetBand(first.target!, p.case.criteria)[1]) return { peak, pruned: true, bounded: false, score: Infinity };
   }
+  // Checks that openings added above can only worsen, on this level alone with the most restrictive barrel.
+  const bounded = !p.lowestFloats && !p.options.referencePath && failsFirstLevelBound(p, designOutlet(p, designOutletFile(p, layout, vars)));
   // The lowest level drains the pond's last stretch alone: a slow one fails the drawdown rule.
-  return { peak, pruned: false, score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 };
+  return { peak, pruned: false, bounded, score: aimDistance(p, first, peak, FIXABLE_UNDER) ** 2 + drawdownShortfall(p, result.drawdownTime) ** 2 };
+}
+
+/**
+ * Whether an outlet of one level at the floor fails a check that every layout starting with that
+ * level fails too (the rules' `boundFirstLevel`; no storm is routed for them, so checks on a storm's
+ * routing are left out).
+ */
+function failsFirstLevelBound(p: SearchProblem, outlet: Outlet): boolean {
+  const checks: Check[] = [];
+  for (const rule of RULES) rule.boundFirstLevel?.({ case: p.case, outlet, routings: { design: [] } }, checks);
+  return checks.some((c) => !c.passed);
 }
 
 /** Peak of `storm` through `levels` (the last one just added) at their staged start, without the barrel. */
@@ -446,7 +470,7 @@ export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
 export function scoreChunk(p: SearchProblem, chunk: ScoreChunk): ScoreOutcome {
   const evaluator = new Evaluator(p);
   const values = chunk.items.map((item): ScoreValue => {
-    const none = { score: 0, cost: 0, peak: 0, drawdown: null, pruned: false };
+    const none = { score: 0, cost: 0, peak: 0, drawdown: null, pruned: false, bounded: false };
     switch (item.kind) {
       case "first":
         return { ...none, ...firstLevelScore(p, p.parts[item.part], evaluator) };

@@ -27,6 +27,8 @@ export interface ScoreValue {
   drawdown: number | null;
   /** A first-level option that cannot meet the smallest storm's band (the bound). */
   pruned: boolean;
+  /** A first-level option alone failing a check that only gets worse as openings are added (a rule's `boundFirstLevel`). */
+  bounded: boolean;
 }
 
 export interface ScoreChunk {

@@ -12,8 +12,9 @@ export interface Assessment {
   binding: Check | undefined;
 }
 
-export function assess(c: Case, routing: CaseRouting): Assessment {
-  const checks = evaluateChecks(c, routing.outlet, routing.storms);
+/** `direct`: rules that evaluate the outlet themselves do it stage by stage (the search's reference path). */
+export function assess(c: Case, routing: CaseRouting, direct = false): Assessment {
+  const checks = evaluateChecks(c, routing.outlet, routing.storms, undefined, direct);
   return {
     checks,
     warnings: [...outletWarnings(c, routing.outlet, routing), ...implausibleInputWarnings(c, routing.outlet, routing)],

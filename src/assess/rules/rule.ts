@@ -59,6 +59,13 @@ export interface Rule {
   variants?: Readonly<Record<RoutingVariant, VariantOutlet>>;
   /** Appends this rule's checks (none when the case does not ask for it). */
   evaluate(input: RuleInput, out: Check[]): void;
+  /**
+   * Appends those of this rule's checks that can only get worse as openings are added (every added
+   * opening adds flow at every stage) and need no routing but the design's (checks on storms not
+   * routed are left out). The search evaluates them on a first level alone at the floor and drops
+   * the option when one fails: no layout starting with it can comply. Absent: no such checks.
+   */
+  boundFirstLevel?(input: RuleInput, out: Check[]): void;
   /** Slack the search must keep on a check of this rule (the aim), given the search's margin. */
   aim(c: Case, check: Check, margin: number): number;
   /** Why a check of this rule binds, in words. */
