@@ -10,7 +10,8 @@
 // and fits, and also the `route` path's routings of the candidates, of their explanations and of the
 // existing outlet, whose processor time the search's own count (`SearchRun.routings`) would charge
 // without their routings. That count is printed too ("search only"); it favours the pond with fewer
-// candidates and cheaper explanations.
+// candidates and cheaper explanations. The searches here run in this thread (no fitter given: the
+// inline one), so the tally sees all their routings.
 // `OUTFIT_BENCH_CASES=demo,wet-value` limits the section to those cases.
 import { readdirSync, existsSync } from "node:fs";
 import { join } from "node:path";
