@@ -36,6 +36,10 @@ export interface BarrelCurve {
   exponent: Float64Array;
   /** Nodes the running maximum raised above the exact headwater (by more than 1e-9 m). */
   heldNodes: number;
+  /** The intervals of the last look-ups by flow and by headwater, tried first by the next (a sweep's
+   * look-ups move little from one to the next); they change no result (see `intervalOf`). */
+  flowHint: { at: number };
+  headHint: { at: number };
   /** The barrel (a copy of its values) and tailwater elevation (-Infinity: free outfall). */
   barrel: Barrel;
   tailwater: number;
@@ -253,13 +257,26 @@ export function buildBarrelCurve(b: Barrel, tailwater: number): BarrelCurve {
     power: Uint8Array.from(power),
     exponent,
     heldNodes: held,
+    flowHint: { at: 0 },
+    headHint: { at: 0 },
     barrel: { ...b },
     tailwater,
   };
 }
 
-/** Index i of the interval [x[i], x[i+1]] holding v (x non-decreasing, x[0] <= v < x[n-1]); the last such interval. */
-function intervalOf(x: Float64Array, v: number): number {
+/** Index i of the interval [x[i], x[i+1]] holding v (x non-decreasing, x[0] <= v < x[n-1]); the last
+ * such interval: the one i with x[i] <= v < x[i+1]. The hinted interval and the one above it are
+ * tried first; either is that i when it passes the same test, else the bisection finds it. */
+function intervalOf(x: Float64Array, v: number, hint: { at: number }): number {
+  const h = hint.at;
+  if (x[h] <= v) {
+    if (v < x[h + 1]) return h;
+    if (h + 2 < x.length && v < x[h + 2]) return (hint.at = h + 1);
+  }
+  return (hint.at = bisectInterval(x, v));
+}
+
+function bisectInterval(x: Float64Array, v: number): number {
   let lo = 0;
   let hi = x.length - 1;
   while (hi - lo > 1) {
@@ -277,7 +294,7 @@ export function curveHeadwater(c: BarrelCurve, flow: number): number {
   const n = q.length;
   if (!(flow > 0)) return h[0];
   if (flow >= q[n - 1]) return Math.max(barrelHeadwater(c.barrel, flow, c.tailwater), h[n - 1]);
-  const i = intervalOf(q, flow);
+  const i = intervalOf(q, flow, c.flowHint);
   if (c.power[i] !== 1) return h[i] + ((h[i + 1] - h[i]) * (flow - q[i])) / (q[i + 1] - q[i]);
   return powerHeadwater(q[i], h[i], h[0], c.exponent[i], flow);
 }
@@ -292,7 +309,7 @@ export function curveFlow(c: BarrelCurve, head: number): number {
   const n = h.length;
   if (!(head > h[0])) return 0;
   if (head >= h[n - 1]) return Math.max(exactBarrelFlow(c.barrel, c.barrel.inletInvert + head, c.tailwater), q[n - 1]);
-  const i = intervalOf(h, head);
+  const i = intervalOf(h, head, c.headHint);
   if (c.power[i] !== 1) return q[i] + ((q[i + 1] - q[i]) * (head - h[i])) / (h[i + 1] - h[i]);
   return q[i] * Math.exp(Math.log((head - h[0]) / (h[i] - h[0])) / c.exponent[i]);
 }

@@ -37,12 +37,16 @@ export interface ChamberSolution {
 interface BarrelLaw {
   headwater: (q: number) => number;
   flow: ((head: number) => number) | null;
+  /** The curve's last node (flow, headwater): beyond it the headwater is at least that (see
+   * `curveHeadwater`); null for the pointwise evaluation. */
+  last: { flow: number; headwater: number } | null;
 }
 
 function barrelLaw(b: Barrel, tw: number, exact: boolean): BarrelLaw {
-  if (exact) return { headwater: (q) => barrelHeadwater(b, q, tw), flow: null };
+  if (exact) return { headwater: (q) => barrelHeadwater(b, q, tw), flow: null, last: null };
   const curve = barrelCurve(b, tw);
-  return { headwater: (q) => curveHeadwater(curve, q), flow: (head) => curveFlow(curve, head) };
+  const n = curve.flow.length;
+  return { headwater: (q) => curveHeadwater(curve, q), flow: (head) => curveFlow(curve, head), last: { flow: curve.flow[n - 1], headwater: curve.headwater[n - 1] } };
 }
 
 function solveFlow(outlet: Outlet, ws: number, law: BarrelLaw): number {
@@ -50,7 +54,12 @@ function solveFlow(outlet: Outlet, ws: number, law: BarrelLaw): number {
   const free = openingsFlow(outlet, ws, -Infinity);
   if (!(free > 0)) return 0;
   const lowest = lowestOpening(outlet);
-  const freeLevel = b.inletInvert + law.headwater(free);
+  // A free flow beyond the curve's last node whose headwater there already reaches the pond (e.g. a
+  // riser rim far wider than the barrel): the chamber would stand at or above the pond, so g(free) =
+  // -free as below, without the pointwise barrel evaluation the curve falls back to there.
+  const last = law.last;
+  const drowned = last !== null && free >= last.flow && ws > lowest && b.inletInvert + last.headwater >= ws;
+  const freeLevel = drowned ? ws : b.inletInvert + law.headwater(free);
   if (freeLevel <= lowest) return free;
   const freeExcess = freeLevel < ws ? openingsFlow(outlet, ws, freeLevel) - free : -free;
   if (freeExcess >= 0) return free;

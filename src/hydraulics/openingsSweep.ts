@@ -125,17 +125,48 @@ export class OpeningsSweep {
     const bottoms = this.bottoms;
     const free = this.free;
     let q = 0;
-    const factors = this.circleFactor;
-    for (let i = 0; i < elements.length; i++) {
-      if (ds <= bottoms[i]) q += free[i];
-      else {
-        const e = elements[i];
-        if (factors[i] > 0 && e.type === "orifice" && e.shape === "circular" && ws >= e.invert + (1 + SHORT_RULE_COVER) * e.diameter) {
-          q += ds < ws ? factors[i] * circularOpeningIntegral(e.diameter, e.invert, ws, ds, SHORT_RULE) : 0;
-        } else q += elementFlow(e, ws, ds);
-      }
-    }
+    for (let i = 0; i < elements.length; i++) q += ds <= bottoms[i] ? free[i] : this.drowned(i, ws, ds);
     if (this.outlet.riser) q += ds <= this.rimCrest ? free[elements.length] : rimDischarge(this.outlet.riser, ws, ds);
     return q;
+  }
+
+  /** Flow of element i at a stage for a downstream level above its bottom. */
+  private drowned(i: number, ws: number, ds: number): number {
+    const e = this.outlet.elements[i];
+    const factor = this.circleFactor[i];
+    if (factor > 0 && e.type === "orifice" && e.shape === "circular" && ws >= e.invert + (1 + SHORT_RULE_COVER) * e.diameter) {
+      return ds < ws ? factor * circularOpeningIntegral(e.diameter, e.invert, ws, ds, SHORT_RULE) : 0;
+    }
+    return elementFlow(e, ws, ds);
+  }
+
+  /**
+   * The openings' and the rim's flow at every stage of the grid given to `useGrid` for one constant
+   * downstream level (a fixed tailwater without a barrel): each part's flow at that level is a column
+   * kept like its free flow (`freeColumn`, by the part's key and the level), so candidates that share
+   * a part evaluate it once per grid; the sum is `flow(tw)` at each stage bit for bit (the same terms
+   * added in the same order), and the free flow where that is zero (as `rateOutlet` takes it).
+   */
+  flowsAtLevel(tw: number, out: Float64Array, keep = true): void {
+    const stages = this.stages as Float64Array;
+    const elements = this.outlet.elements;
+    const riser = this.outlet.riser;
+    const columns: Float64Array[] = [];
+    for (let i = 0; i < elements.length; i++) {
+      if (tw <= this.bottoms[i]) columns.push(this.columns[i]);
+      else columns.push(freeColumn(stages, `at ${tw} ${this.partKeys[i]}`, (ws) => this.drowned(i, ws, tw), keep));
+    }
+    const rim = !riser ? null : tw <= this.rimCrest ? this.columns[elements.length] : freeColumn(stages, `at ${tw} ${this.partKeys[elements.length]}`, (ws) => rimDischarge(riser, ws, tw), keep);
+    for (let k = 0; k < stages.length; k++) {
+      const free = this.setGridStage(k);
+      if (!(free > 0)) {
+        out[k] = free;
+        continue;
+      }
+      let q = 0;
+      for (let i = 0; i < columns.length; i++) q += columns[i][k];
+      if (rim) q += rim[k];
+      out[k] = q;
+    }
   }
 }

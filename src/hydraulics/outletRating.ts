@@ -41,7 +41,12 @@ export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array
     for (let i = 0; i < n; i++) out[i] = (chamberFlows ? chamberFlows[i] : chamber.flow(stages[i], i)) + (spill ? spill[i] : 0);
     return;
   }
-  for (let i = 0; i < n; i++) out[i] = openingsWithTailwater(openings, i, tw) + (spill ? spill[i] : 0);
+  if (tw === -Infinity) {
+    for (let i = 0; i < n; i++) out[i] = openings.setGridStage(i) + (spill ? spill[i] : 0);
+    return;
+  }
+  openings.flowsAtLevel(tw, out, keep);
+  if (spill) for (let i = 0; i < n; i++) out[i] += spill[i];
 }
 
 /** The chamber flow at every stage: the stages below the lowest part in which the outlet differs
@@ -79,11 +84,6 @@ function sharedColumns(stages: Float64Array, openings: OpeningsSweep, context: s
     columns.flags.set(rating.flags.subarray(0, count));
   }
   return { columns, count };
-}
-
-function openingsWithTailwater(openings: OpeningsSweep, index: number, tw: number): number {
-  const free = openings.setGridStage(index);
-  return tw === -Infinity || !(free > 0) ? free : openings.flow(tw);
 }
 
 /**

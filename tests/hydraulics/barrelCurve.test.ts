@@ -194,3 +194,34 @@ describe("across the switch between the backwater profile and the full-flow form
     );
   });
 });
+
+describe("look-ups on the curve whatever their order", () => {
+  it("give the same headwater and flow in rising, falling and random order, at the nodes and between them", () => {
+    const b = demoOutlet(18).barrel!;
+    for (const tw of [-Infinity, 99.8 * FOOT]) {
+      const curve = buildBarrelCurve(b, tw);
+      // The same nodes with nothing looked up before (the hints at the first interval).
+      const fresh = () => ({ ...curve, flowHint: { at: 0 }, headHint: { at: 0 } });
+      const n = curve.flow.length;
+      const flows: number[] = [];
+      const heads: number[] = [];
+      for (let i = 0; i < n - 1; i++) {
+        flows.push(curve.flow[i], 0.5 * (curve.flow[i] + curve.flow[i + 1]));
+        heads.push(curve.headwater[i], 0.5 * (curve.headwater[i] + curve.headwater[i + 1]));
+      }
+      // Each value looked up first on a copy of its own, the reference.
+      const headOf = flows.map((q) => curveHeadwater(fresh(), q));
+      const flowOf = heads.map((h) => curveFlow(fresh(), h));
+      let seed = 11;
+      const random = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+      const shuffled = flows.map((_, i) => i).sort(() => random() - 0.5);
+      for (const order of [flows.map((_, i) => i), flows.map((_, i) => flows.length - 1 - i), shuffled]) {
+        for (const i of order) {
+          expect(curveHeadwater(curve, flows[i])).toBe(headOf[i]);
+          expect(curveFlow(curve, heads[i])).toBe(flowOf[i]);
+        }
+      }
+      expect(flows.length).toBeGreaterThan(100);
+    }
+  });
+});

@@ -51,6 +51,9 @@ describe("chamber level against a brute-force scan", () => {
     ["demo outlet with an 18-in barrel (US, free outfall)", demoOutlet(18), [100.5, 101.5, 102.5, 103.5, 104.2, 104.75, 105.0, 105.5].map((z) => z * FOOT), -Infinity],
     ["demo outlet with a 24-in barrel against a 99.8 ft tailwater", demoOutlet(24), [100.3, 102.5, 104.6, 105.2].map((z) => z * FOOT), 99.8 * FOOT],
     ["box barrel under a headwall box (SI)", boxOutlet(), [10.1, 10.6, 11.2, 11.9, 12.5, 13.0], -Infinity],
+    // A rim far wider than the barrel (the barrel's capacity): its free flow lies beyond the curve's
+    // last node, so the solve takes the chamber as drowned there without the pointwise barrel.
+    ["an 18-in barrel under a 1000 m rim (its capacity)", { elements: [], riser: circularRiser(1000, 100 * FOOT), barrel: demoOutlet(18).barrel }, [100.2, 101, 103, 105.5].map((z) => z * FOOT), -Infinity],
   ];
   for (const [label, outlet, stages, tw] of cases) {
     it.each(stages)(`${label}: stage %f m agrees within 0.1 % of flow`, (ws) => {

@@ -16,6 +16,7 @@ import { circularBarrel, demoOutlet } from "./barrelFixtures.js";
 import { dischargeAtTailwater } from "../../src/hydraulics/outlet.js";
 import { tailwaterLevel } from "../../src/hydraulics/tailwater.js";
 import { randomPonds } from "../routing/support/randomPonds.js";
+import { OpeningsSweep } from "../../src/hydraulics/openingsSweep.js";
 
 /** Stated error of the sweep's outflow against the direct evaluation, relative to the flow (0.001 %;
  * the tables' errors are 1e-6, the warm roots' 1e-7 of the free flow). */
@@ -160,5 +161,39 @@ describe("rating sweep against the direct evaluation at every stage", () => {
         expect(worstDifference(outlet, demo, tail, grid).worst).toBeLessThan(SWEEP_FLOW_TOLERANCE);
       }
     }
+  });
+});
+
+describe("openings at a constant downstream level from kept columns", () => {
+  it("give the pointwise sum (OpeningsSweep.flow, each part's orifice, weir and rim equation) bit for bit, from new and from kept columns", () => {
+    let compared = 0;
+    let drowned = 0;
+    for (const pond of randomPonds("columns at a level", 8)) {
+      const c = parseCase(pond.json).case;
+      const outlet = c.outlet!;
+      const grid = stageGrid(c.pond, [], (c.pond.top - c.pond.bottom) / 200).stage;
+      const depth = c.pond.top - c.pond.bottom;
+      for (const fraction of [0.05, 0.3, 0.6]) {
+        const tw = c.pond.bottom + fraction * depth;
+        for (let pass = 0; pass < 2; pass++) {
+          const sweep = new OpeningsSweep(outlet, true);
+          sweep.useGrid(grid);
+          const columns = new Float64Array(grid.length);
+          sweep.flowsAtLevel(tw, columns);
+          const pointwise = new OpeningsSweep(outlet, true);
+          pointwise.useGrid(grid);
+          for (let i = 0; i < grid.length; i++) {
+            const free = pointwise.setGridStage(i);
+            const expected = free > 0 ? pointwise.flow(tw) : free;
+            if (columns[i] !== expected) throw new Error(`stage ${grid[i]}: ${columns[i]} against ${expected} on ${pond.summary} at ${tw}`);
+            if (expected < free) drowned++;
+            compared++;
+          }
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(8 * 3 * 2 * 200);
+    // The level reaches the openings at a good share of the stages (the check is not vacuous).
+    expect(drowned).toBeGreaterThan(0.1 * compared);
   });
 });
