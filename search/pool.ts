@@ -110,9 +110,12 @@ export type WorkerTask =
 
 type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; explanation?: string[]; error?: string; ms?: number };
 
+/** Tasks a worker holds at once: the one it works on and the next, waiting in its port. */
+const IN_FLIGHT = 2;
+
 /**
  * Fits and scores on `count` worker threads, each holding its own copy of the problem. Tasks are
- * handed out one at a time to whichever worker is free; results are placed by task number.
+ * handed out in order to the workers, each holding up to IN_FLIGHT; results are placed by task number.
  */
 export class WorkerFitter implements LayoutFitter {
   private readonly pool: Worker[];
@@ -159,7 +162,13 @@ export class WorkerFitter implements LayoutFitter {
     return out as string[][];
   }
 
-  /** Runs the tasks on the pool; `take` turns each reply into its result. */
+  /**
+   * Runs the tasks on the pool; `take` turns each reply into its result. A worker is given its next
+   * task while it still works on one (up to IN_FLIGHT), so it never waits for this thread to hear
+   * its reply and answer with the next: a short task (a chunk of scores) would otherwise idle it for
+   * a message's round trip each time. Near the end (no more tasks left than workers) a task goes
+   * only to a worker with nothing in hand, so the last ones are not queued behind a long one.
+   */
   private run<T>(tasks: WorkerTask[], count: number, take: (reply: WorkerReply) => T, stop: () => boolean): Promise<(T | null)[]> {
     const out: (T | null)[] = Array.from({ length: count }, () => null);
     let next = 0;
@@ -167,43 +176,53 @@ export class WorkerFitter implements LayoutFitter {
     return new Promise((resolve, reject) => {
       let failed = false;
       let finished = false;
+      const inHand = new Map<Worker, number>();
+      const listeners: [Worker, (reply: WorkerReply) => void, (error: Error) => void][] = [];
+      const detach = () => {
+        for (const [worker, onMessage, onError] of listeners) {
+          worker.off("message", onMessage);
+          worker.off("error", onError);
+        }
+      };
       const finish = () => {
         if (!finished) {
           finished = true;
+          detach();
           resolve(out);
         }
       };
       const fail = (error: Error) => {
+        if (failed) return;
         failed = true;
+        detach();
         reject(error);
       };
       const give = (worker: Worker) => {
-        if (failed) return;
-        if (next >= tasks.length || stop()) {
-          if (busy === 0) finish();
-          return;
+        while (!failed && next < tasks.length && !stop()) {
+          const held = inHand.get(worker)!;
+          if (held >= IN_FLIGHT || (held > 0 && tasks.length - next <= this.pool.length)) break;
+          inHand.set(worker, held + 1);
+          busy++;
+          worker.postMessage(tasks[next++]);
         }
-        const task = tasks[next++];
-        busy++;
+        if (busy === 0 && !failed) finish();
+      };
+      for (const worker of this.pool) {
+        inHand.set(worker, 0);
         const onMessage = (reply: WorkerReply) => {
-          worker.off("message", onMessage);
-          worker.off("error", onError);
+          inHand.set(worker, inHand.get(worker)! - 1);
           busy--;
           this.taskSeconds += (reply.ms ?? 0) / 1000;
           if (reply.error !== undefined) return fail(new Error(reply.error));
-          // The worker gets its next task before the result is handled here.
-          give(worker);
-          // (A `finish` just now resolves with this very array, read only after this handler.)
+          // Its result is placed before more tasks are handed out (a `finish` resolves with `out`).
           out[reply.id] = take(reply);
+          give(worker);
         };
-        const onError = (error: Error) => {
-          worker.off("message", onMessage);
-          fail(error);
-        };
+        const onError = (error: Error) => fail(error);
         worker.on("message", onMessage);
         worker.on("error", onError);
-        worker.postMessage(task);
-      };
+        listeners.push([worker, onMessage, onError]);
+      }
       if (tasks.length === 0) return finish();
       for (const worker of this.pool) give(worker);
     });
