@@ -108,14 +108,15 @@ export const BAR_RANK = 5;
 const MAX_BEAM = 64;
 /** Beam from which the search widens by screened random layouts instead of a wider plan. */
 const SAMPLING_BEAM = 3;
-/** Random layouts screened per round. */
-const SAMPLE_BATCH = 40;
+/** Random layouts screened per round: one batch of scores for the workers, large enough that they
+ * share it evenly (40 left them a third idle, waiting on this thread between batches). */
+const SAMPLE_BATCH = 160;
 /** Sampled layouts scored per chunk (a unit of work for a worker; fixed, whatever the workers). */
 const SAMPLE_CHUNK = 5;
 /** A sampled layout is fitted when its objective at the staged start is at most this. */
 const PROMISING = 0.02;
 /** Rounds of sampling in a row without anything worth fitting before the search stops (or widens). */
-const MAX_SAMPLING_ROUNDS = 200;
+const MAX_SAMPLING_ROUNDS = 50;
 /** Largest layout space enumerated whole, so that a time budget can prove it exhausted. */
 const ENUMERABLE = 5000;
 /** A time budget fits a layout found wanting again with 3, then 9 times the starts, no more. */
