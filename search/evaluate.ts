@@ -3,7 +3,7 @@
 // to the assessment later needs no change here.
 import type { Outlet, Storm } from "../src/case/model.js";
 import type { OutletFile } from "../src/case/schema.js";
-import { buildRatingTable } from "../src/routing/ratingTable.js";
+import { buildRatingTable, lazyRatingTable } from "../src/routing/ratingTable.js";
 import { route } from "../src/routing/router.js";
 import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
@@ -68,10 +68,12 @@ export class Evaluator {
     return routed;
   }
 
-  /** Routes the given storms through an outlet on the search grid. */
+  /** Routes the given storms through an outlet on the search grid: on a lazy table (the stages the
+   * storms reach; the reference path rates the whole table, directly). The table is not kept. */
   routeStorms(outlet: Outlet, storms: readonly Storm[]): StormRouting[] {
     const p = this.problem;
-    const table = buildRatingTable(p.case.pond, outlet, p.case.tailwater, { grid: p.grid, direct: p.options.referencePath });
+    const options = { grid: p.grid, direct: p.options.referencePath };
+    const table = p.options.referencePath ? buildRatingTable(p.case.pond, outlet, p.case.tailwater, options) : lazyRatingTable(p.case.pond, outlet, p.case.tailwater, options);
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,

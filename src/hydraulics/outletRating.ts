@@ -21,47 +21,93 @@ import { warmRoot, type WarmStart } from "./roots.js";
  * stages are a grid worth keeping parts' free-flow columns for (see `freeColumn`); false for a grid
  * used once. */
 export function rateOutlet(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array, direct = false, keep = true): void {
-  const n = stages.length;
-  if (direct) {
-    for (let i = 0; i < n; i++) out[i] = outletDischarge(outlet, tail, stages[i]);
-    return;
-  }
-  if (tail.kind === "rating") {
-    rateUnderTailwaterRating(outlet, tail, stages, out, keep);
-    return;
-  }
-  const tw = tailwaterLevel(tail, 0);
-  const spillway = outlet.spillway;
-  const openings = new OpeningsSweep(outlet, true);
-  openings.useGrid(stages, keep);
-  const spill = spillway ? freeColumn(stages, `spillway ${tw} ${JSON.stringify(spillway)}`, (ws) => spillwayFlow(spillway, ws, tw), keep) : null;
-  if (outlet.barrel) {
-    const chamber = new ChamberSweep(openings, tw);
-    const chamberFlows = keep ? chamberSweepShared(stages, openings, chamber, sweepContext(outlet, tail)) : null;
-    for (let i = 0; i < n; i++) out[i] = (chamberFlows ? chamberFlows[i] : chamber.flow(stages[i], i)) + (spill ? spill[i] : 0);
-    return;
-  }
-  if (tw === -Infinity) {
-    for (let i = 0; i < n; i++) out[i] = openings.setGridStage(i) + (spill ? spill[i] : 0);
-    return;
-  }
-  openings.flowsAtLevel(tw, out, keep);
-  if (spill) for (let i = 0; i < n; i++) out[i] += spill[i];
+  new RatingSweep(outlet, tail, stages, out, direct, keep).rateTo(stages.length);
 }
 
-/** The chamber flow at every stage: the stages below the lowest part in which the outlet differs
- * from a kept rating of the same barrel, tailwater and grid from that rating, the rest swept from
- * there (sweepReuse.ts); the result is kept in turn. */
-function chamberSweepShared(stages: Float64Array, openings: OpeningsSweep, chamber: ChamberSweep, context: string): Float64Array {
-  const { columns, count } = sharedColumns(stages, openings, context);
-  const { flows, slopes } = columns;
-  chamber.resume(stages, flows, slopes, count);
-  for (let i = count; i < stages.length; i++) {
-    flows[i] = chamber.flow(stages[i], i);
-    slopes[i] = chamber.slope;
+/**
+ * The sweep of `rateOutlet`, taken up stage by stage: `rateTo(count)` fills `out` for the stages
+ * below `count` that are not rated yet, so a router that asks only for the stages a storm reaches
+ * (a lazy rating table, ratingTable.ts) gets the values a whole sweep gives, bit for bit: each stage
+ * depends only on the stages below it. The parts' free-flow columns and a fixed tailwater's
+ * columns are whole-grid columns (kept per grid, cheap); the roots (chamber, tailwater rating) are
+ * what is put off.
+ */
+export class RatingSweep {
+  /** Stages rated so far, from the bottom (`out` holds their values). */
+  rated = 0;
+  private readonly step: (i: number) => number;
+  private readonly shared: SweepColumns | null = null;
+
+  constructor(outlet: Outlet, tail: Tailwater, private readonly stages: Float64Array, private readonly out: Float64Array, direct = false, keep = true) {
+    const n = stages.length;
+    if (direct) {
+      this.step = (i) => outletDischarge(outlet, tail, stages[i]);
+      return;
+    }
+    if (tail.kind === "rating") {
+      const sweep = tailwaterRatingSweep(outlet, tail, stages, keep);
+      this.step = sweep.step;
+      this.shared = sweep.shared;
+      if (sweep.initial) out.set(sweep.initial.subarray(0, sweep.start));
+      this.startFromShared(sweep.start);
+      return;
+    }
+    const tw = tailwaterLevel(tail, 0);
+    const spillway = outlet.spillway;
+    const openings = new OpeningsSweep(outlet, true);
+    openings.useGrid(stages, keep);
+    const spill = spillway ? freeColumn(stages, `spillway ${tw} ${JSON.stringify(spillway)}`, (ws) => spillwayFlow(spillway, ws, tw), keep) : null;
+    if (outlet.barrel) {
+      const chamber = new ChamberSweep(openings, tw);
+      if (keep) {
+        const { columns, count } = sharedColumns(stages, openings, sweepContext(outlet, tail));
+        const { flows, slopes } = columns;
+        chamber.resume(stages, flows, slopes, count);
+        this.shared = columns;
+        this.step = (i) => {
+          flows[i] = chamber.flow(stages[i], i);
+          slopes[i] = chamber.slope;
+          return flows[i] + (spill ? spill[i] : 0);
+        };
+        for (let i = 0; i < count; i++) out[i] = flows[i] + (spill ? spill[i] : 0);
+        this.startFromShared(count);
+      } else this.step = (i) => chamber.flow(stages[i], i) + (spill ? spill[i] : 0);
+      return;
+    }
+    // Without a barrel or a tailwater rating a stage is a sum of kept columns: the whole grid at
+    // once (cheaper than taking it up stage by stage).
+    if (tw === -Infinity) for (let i = 0; i < n; i++) out[i] = openings.setGridStage(i) + (spill ? spill[i] : 0);
+    else {
+      // A fixed tailwater: kept columns per level.
+      openings.flowsAtLevel(tw, out, keep);
+      if (spill) for (let i = 0; i < n; i++) out[i] += spill[i];
+    }
+    this.step = (i) => out[i];
+    this.rated = n;
   }
-  keepSweep(stages, columns);
-  return flows;
+
+  /** The stages a kept sweep shared are rated; the columns are kept for the next outlet from here on,
+   * their valid length (`rated`) following this sweep's. */
+  private startFromShared(count: number): void {
+    this.rated = count;
+    if (this.shared) {
+      this.shared.rated = count;
+      keepSweep(this.stages, this.shared);
+    }
+  }
+
+  /** Rates the stages below `count` (at most the grid's); returns the number rated. */
+  rateTo(count: number): number {
+    const end = Math.min(count, this.stages.length);
+    if (end <= this.rated) return this.rated;
+    const shared = this.shared;
+    if (shared && shared.retired) throw new Error("internal: a rating sweep was taken up after its kept columns went to another outlet");
+    const out = this.out;
+    for (let i = this.rated; i < end; i++) out[i] = this.step(i);
+    this.rated = end;
+    if (shared) shared.rated = end;
+    return end;
+  }
 }
 
 /** What a sweep's roots depend on besides the openings and the grid (sweepReuse.ts): for the chamber
@@ -89,9 +135,11 @@ function sharedColumns(stages: Float64Array, openings: OpeningsSweep, context: s
 /**
  * Under a downstream channel rating: O = discharge(ws, TW(O)) at each stage (outlet.ts), its root
  * started from the previous stage's. Without a barrel the openings come from the sweep; with one,
- * each evaluation is the direct chamber solve for that tailwater (as outlet.ts does).
+ * each evaluation is the direct chamber solve for that tailwater (as outlet.ts does). Returns the
+ * step for stage i (stages in order from `start`, the stages a kept sweep shares, which `out`
+ * must be given by the caller from `shared`).
  */
-function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float64Array, out: Float64Array, keep: boolean): void {
+function tailwaterRatingSweep(outlet: Outlet, tail: Tailwater & { kind: "rating" }, stages: Float64Array, keep: boolean): { step: (i: number) => number; shared: SweepColumns | null; start: number; initial: Float64Array | null } {
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
   openings.useGrid(stages, keep);
@@ -105,17 +153,23 @@ function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float
   const excess = (o: number) => discharge(tailwaterLevel(tail, o)) - o;
   const state: WarmStart = { root: NaN, slope: NaN };
   let felt = false;
+  // The roots of the last three stages (the extrapolation's), raw (before any held level).
+  let q1 = NaN;
+  let q2 = NaN;
+  let q3 = NaN;
   // The stages a kept sweep shares (sweepReuse.ts), and the state it had reached there.
   const shared = keep ? sharedColumns(stages, openings, sweepContext(outlet, tail)) : null;
   const start = shared ? shared.count : 0;
   if (shared && start > 0) {
     const { flows, slopes, flags } = shared.columns;
-    out.set(flows.subarray(0, start));
     state.root = flows[start - 1];
     state.slope = slopes[start - 1];
     felt = flags[start - 1] === 1;
+    q1 = flows[start - 1];
+    q2 = start >= 2 ? flows[start - 2] : NaN;
+    q3 = start >= 3 ? flows[start - 3] : NaN;
   }
-  for (let i = start; i < stages.length; i++) {
+  const step = (i: number): number => {
     ws = stages[i];
     // The free flow (no tailwater, no chamber) bounds the outflow from above: f(free) <= 0.
     const high = openings.setGridStage(i) + (spillway ? spillwayFlow(spillway, ws, -Infinity) : 0);
@@ -126,17 +180,20 @@ function rateUnderTailwaterRating(outlet: Outlet, tail: Tailwater, stages: Float
       // Once the tailwater is felt, f(high) is evaluated only if the root search needs it.
       const previous = state.root;
       const low = previous > 0 && previous < high ? previous : 0;
-      const guess = i >= 3 ? extrapolate(ws, stages[i - 1], previous, stages[i - 2], out[i - 2], stages[i - 3], out[i - 3]) : previous;
+      const guess = i >= 3 ? extrapolate(ws, stages[i - 1], previous, stages[i - 2], q2, stages[i - 3], q3) : previous;
       o = warmRoot(excess, low, high, felt ? NaN : excess(high), guess, state, sweepTolerance(guess, high));
       felt = o < high;
     }
     state.root = o;
-    out[i] = o;
+    q3 = q2;
+    q2 = q1;
+    q1 = o;
     if (shared) {
       shared.columns.flows[i] = o;
       shared.columns.slopes[i] = state.slope;
       shared.columns.flags[i] = felt ? 1 : 0;
     }
-  }
-  if (shared) keepSweep(stages, shared.columns);
+    return o;
+  };
+  return { step, shared: shared ? shared.columns : null, start, initial: shared && start > 0 ? shared.columns.flows : null };
 }

@@ -23,6 +23,11 @@ export interface SweepColumns {
   flows: Float64Array;
   slopes: Float64Array;
   flags: Uint8Array;
+  /** Stages rated so far from the bottom (a lazy rating rates only the stages its storms reach;
+   * the columns hold valid values below this index). */
+  rated: number;
+  /** The arrays went to a newer rating (`sweepColumns`): the sweep that filled them may not go on. */
+  retired: boolean;
 }
 
 const kept = new WeakMap<Float64Array, SweepColumns[]>();
@@ -60,7 +65,7 @@ export function sharedSweep(stages: Float64Array, context: string, bottoms: read
   let count = 0;
   for (const rating of kept.get(stages) ?? []) {
     if (rating.context !== context) continue;
-    const shared = stagesBelow(stages, lowestDifference(rating.bottoms, rating.keys, bottoms, keys));
+    const shared = Math.min(rating.rated, stagesBelow(stages, lowestDifference(rating.bottoms, rating.keys, bottoms, keys)));
     if (shared > count) {
       best = rating;
       count = shared;
@@ -78,11 +83,15 @@ export function sweepColumns(stages: Float64Array, context: string, bottoms: num
   }
   const reused = list.length >= KEPT_SWEEPS ? list.pop()! : null;
   const n = stages.length;
-  if (reused) return { context, bottoms, keys, flows: reused.flows, slopes: reused.slopes, flags: reused.flags };
-  return { context, bottoms, keys, flows: new Float64Array(n), slopes: new Float64Array(n), flags: new Uint8Array(n) };
+  if (reused) {
+    reused.retired = true;
+    return { context, bottoms, keys, flows: reused.flows, slopes: reused.slopes, flags: reused.flags, rated: 0, retired: false };
+  }
+  return { context, bottoms, keys, flows: new Float64Array(n), slopes: new Float64Array(n), flags: new Uint8Array(n), rated: 0, retired: false };
 }
 
-/** Keeps a finished rating's columns (newest first). */
+/** Keeps a rating's columns (newest first), valid below their `rated`, which grows as the rating
+ * goes on. */
 export function keepSweep(stages: Float64Array, columns: SweepColumns): void {
   const list = kept.get(stages)!;
   list.unshift(columns);

@@ -2,7 +2,7 @@
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../case/model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
-import { rateOutlet } from "../hydraulics/outletRating.js";
+import { RatingSweep } from "../hydraulics/outletRating.js";
 import { openingHeight } from "../hydraulics/orifice.js";
 
 export interface RatingTable {
@@ -14,6 +14,13 @@ export interface RatingTable {
   outflow: Float64Array;
   /** Nodes where the computed outflow fell below the one beneath it and was held level. */
   heldNodes: number;
+  /**
+   * A lazy table (`lazyRatingTable`, the search's): `outflow` (and `heldNodes`) hold the stages below
+   * `rated` only, and `extend(count)` rates on to at least `count` stages (the grid's at most) and
+   * returns the new `rated`. Without them the whole table is rated.
+   */
+  rated?: number;
+  extend?: (count: number) => number;
 }
 
 /** A stage grid with the pond's storage on it, reusable for every outlet on the same pond. */
@@ -108,19 +115,49 @@ export interface RatingOptions {
 
 /** Rates an outlet on the pond's stage grid. */
 export function buildRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, options: RatingOptions = {}): RatingTable {
+  const table = lazyRatingTable(pond, outlet, tail, options);
+  table.extend!(table.stage.length);
+  delete table.rated;
+  delete table.extend;
+  return table;
+}
+
+/** Stages a lazy table rates beyond the count asked for (one call per few intervals the router climbs). */
+const LAZY_CHUNK = 8;
+
+/**
+ * A rating table that rates its stages as the router climbs into them (`RatingTable.extend`): a
+ * storm that peaks at half the grid needs only the stages below it, and the stages above are where a
+ * barrel throttles and each stage costs a chamber solve. The values are those of the whole table bit
+ * for bit (each stage of the sweep depends only on the stages below, and the held level only on the
+ * stage below). The search routes on these (search/evaluate.ts); a table kept after its routings
+ * (the `route` path's, the assessment's) is `buildRatingTable`'s, rated whole.
+ */
+export function lazyRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, options: RatingOptions = {}): RatingTable {
   const grid = options.grid ?? stageGrid(pond, ratingBreaks(pond, outlet), options.step, ratingOnsets(outlet, tail));
   const n = grid.stage.length;
   const outflow = new Float64Array(n);
-  rateOutlet(outlet, tail, grid.stage, outflow, options.direct === true);
-  let held = 0;
-  for (let i = 0; i < n; i++) {
-    const q = outflow[i];
-    if (i > 0 && q < outflow[i - 1]) {
-      if (outflow[i - 1] - q > 1e-9 * (1 + outflow[i - 1])) held++;
-      outflow[i] = outflow[i - 1];
-    } else outflow[i] = q;
-  }
-  return { stage: grid.stage, storage: grid.storage, outflow, heldNodes: held };
+  const sweep = new RatingSweep(outlet, tail, grid.stage, outflow, options.direct === true);
+  const table: RatingTable = { stage: grid.stage, storage: grid.storage, outflow, heldNodes: 0, rated: 0 };
+  let done = 0;
+  table.extend = (count: number) => {
+    if (count <= done) return done;
+    const end = sweep.rateTo(Math.max(count, done + LAZY_CHUNK));
+    // The outflow does not fall as the stage rises: a node below the one beneath is held level.
+    let held = table.heldNodes;
+    for (let i = done; i < end; i++) {
+      const q = outflow[i];
+      if (i > 0 && q < outflow[i - 1]) {
+        if (outflow[i - 1] - q > 1e-9 * (1 + outflow[i - 1])) held++;
+        outflow[i] = outflow[i - 1];
+      }
+    }
+    table.heldNodes = held;
+    done = end;
+    table.rated = end;
+    return end;
+  };
+  return table;
 }
 
 /** A table given directly as columns (e.g. a textbook's storage-indication table). */

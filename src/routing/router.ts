@@ -148,8 +148,15 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
 
   const drainedStorage = drained <= Z[0] ? 0 : interpolateAtStage(table, S, Math.min(drained, Z[last]));
 
+  // A lazy table (ratingTable.ts) rates its stages as the cursor climbs: O holds the stages below
+  // `rated`, and the cursor's interval [k, k + 1] is always rated.
+  const extend = table.extend;
+  let rated = extend ? (table.rated as number) : Z.length;
+  if (extend && fixed !== undefined) rated = extend(Z.length);
+
   // Start: pond at the start stage with zero inflow history, at the first inflow point.
   let k = locate(Z, options.startStage);
+  if (k + 2 > rated) rated = extend!(k + 2);
   let u = (options.startStage - Z[k]) / (Z[k + 1] - Z[k]);
   let S1 = S[k] + u * (S[k + 1] - S[k]);
   let O1 = O[k] + u * (O[k + 1] - O[k]);
@@ -267,7 +274,10 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         N = I1 + I2 + twoOverDt * S1 - O1;
         if (N < 0) N = 0;
         // Walk the cursor to the table interval holding N.
-        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) k++;
+        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) {
+          k++;
+          if (k + 2 > rated) rated = extend!(k + 2);
+        }
         while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
         if (dt <= minStep) break;
         const dO = O[k + 1] - O[k];
