@@ -51,8 +51,11 @@ export interface LayoutFitter extends ChunkScorer {
   /**
    * Fits the jobs; `onDone` hears each outcome as soon as it is ready (for the journal), in any
    * order. Stops handing out jobs once `stop()` is true; the outcomes of jobs not fitted are null.
+   * `ahead`: jobs a later round is likely to hold, which a worker with nothing else to do may fit
+   * meanwhile (kept by key; a later `fit` of the same key takes the outcome, the same as fitting it
+   * then: a fit is a pure function of its layout, key and starts). In this thread: ignored.
    */
-  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]>;
+  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean, ahead?: FitJobRequest[]): Promise<(FitOutcome | null)[]>;
   /** Explanations of designs (binding check, the moves that relax it), in the order given. */
   explain(designs: ExplainRequest[]): Promise<string[][]>;
   close(): Promise<void>;
@@ -112,40 +115,189 @@ type WorkerReply = { id: number; outcome?: FitOutcome; scored?: ScoreOutcome; ex
 
 /** Tasks a worker holds at once: the one it works on and the next, waiting in its port. */
 const IN_FLIGHT = 2;
+/** Outcomes of fits done ahead kept for a later round (oldest dropped). */
+const AHEAD_KEPT = 64;
+
+/** A task queued for the pool, with what to do with its reply. */
+interface Queued {
+  task: WorkerTask;
+  /** Whether its run has stopped handing out tasks. */
+  stop: () => boolean;
+  done: (reply: WorkerReply) => void;
+  /** Not handed out (its run stopped), or the pool failed. */
+  dropped: (error?: Error) => void;
+}
 
 /**
  * Fits and scores on `count` worker threads, each holding its own copy of the problem. Tasks are
- * handed out in order to the workers, each holding up to IN_FLIGHT; results are placed by task number.
+ * handed out in order to the workers, each holding up to IN_FLIGHT; results are placed by task
+ * number. One dispatcher for the pool's life (every reply is heard by its task number), so a fit
+ * done ahead (`fit`'s `ahead`) may still run while the next round starts.
  */
 export class WorkerFitter implements LayoutFitter {
   private readonly pool: Worker[];
   taskSeconds = 0;
+  /** Fits started ahead (or done), by key, oldest first. */
+  private readonly aheadFits = new Map<string, Promise<FitOutcome | null>>();
+  /** Jobs a worker with nothing in hand may fit ahead, in order. */
+  private aheadJobs: FitJobRequest[] = [];
+  /** Fits done ahead that a round then took, and those it did not (statistics). */
+  aheadUsed = 0;
+  aheadStarted = 0;
+  private readonly queue: Queued[] = [];
+  private readonly waiting = new Map<number, Queued>();
+  private readonly inHand = new Map<Worker, number>();
+  private nextId = 0;
+  private failure: Error | null = null;
+
   constructor(private readonly problem: SearchProblem, source: ProblemSource, settings: FitSettings, readonly workers: number) {
     const script = new URL("./fitWorker.js", import.meta.url);
     const data = { source: { ...source, hydrographs: shared(source.hydrographs) }, settings };
     this.pool = Array.from({ length: workers }, () => new Worker(script, { workerData: data }));
+    for (const worker of this.pool) {
+      this.inHand.set(worker, 0);
+      worker.on("message", (reply: WorkerReply) => {
+        this.inHand.set(worker, this.inHand.get(worker)! - 1);
+        this.taskSeconds += (reply.ms ?? 0) / 1000;
+        const queued = this.waiting.get(reply.id);
+        this.waiting.delete(reply.id);
+        if (reply.error !== undefined) this.fail(new Error(reply.error));
+        else queued?.done(reply);
+        this.pump();
+      });
+      worker.on("error", (error: Error) => this.fail(error));
+    }
   }
 
-  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean): Promise<(FitOutcome | null)[]> {
-    // Handed out longest first (more elevations to fit, longer fit), so the round ends sooner; the
+  private fail(error: Error): void {
+    if (this.failure) return;
+    this.failure = error;
+    for (const q of [...this.queue, ...this.waiting.values()]) q.dropped(error);
+    this.queue.length = 0;
+    this.waiting.clear();
+    this.aheadJobs = [];
+  }
+
+  /** Hands out queued tasks: up to IN_FLIGHT per worker; when no more are queued than there are
+   * workers, only to a worker with nothing in hand (so the last ones do not queue behind a long one);
+   * with nothing queued, a fit ahead to a worker with nothing in hand. */
+  private pump(): void {
+    if (this.failure) return;
+    for (const worker of this.pool) {
+      for (;;) {
+        while (this.queue.length > 0 && this.queue[0].stop()) this.queue.shift()!.dropped();
+        const held = this.inHand.get(worker)!;
+        if (this.queue.length > 0) {
+          if (held >= IN_FLIGHT || (held > 0 && this.queue.length <= this.pool.length)) break;
+          this.send(worker, this.queue.shift()!);
+          continue;
+        }
+        if (held > 0 || !this.startAhead(worker)) break;
+      }
+    }
+  }
+
+  private send(worker: Worker, queued: Queued): void {
+    this.inHand.set(worker, this.inHand.get(worker)! + 1);
+    this.waiting.set(queued.task.id, queued);
+    worker.postMessage(queued.task);
+  }
+
+  /** Starts the next fit ahead on an idle worker; false when there is none to start. */
+  private startAhead(worker: Worker): boolean {
+    let job: FitJobRequest | undefined;
+    while ((job = this.aheadJobs.shift()) && this.aheadFits.has(job.key));
+    if (!job) return false;
+    const request = job;
+    const promise = new Promise<FitOutcome | null>((resolve) => {
+      this.send(worker, {
+        task: { type: "fit", id: this.nextId++, key: request.key, starts: request.starts, layout: layoutIndex(this.problem, request.layout) },
+        stop: () => false,
+        done: (reply) => resolve(reply.outcome!),
+        dropped: () => resolve(null),
+      });
+    });
+    this.aheadFits.set(request.key, promise);
+    this.aheadStarted++;
+    while (this.aheadFits.size > AHEAD_KEPT) this.aheadFits.delete(this.aheadFits.keys().next().value!);
+    return true;
+  }
+
+  /** Queues the tasks (numbered here) and resolves with their results by position, null for those
+   * its `stop` kept from being handed out. */
+  private run<T>(tasks: Omit<WorkerTask, "id">[], take: (reply: WorkerReply, index: number) => T, stop: () => boolean): Promise<(T | null)[]> {
+    const out: (T | null)[] = tasks.map(() => null);
+    if (this.failure) return Promise.reject(this.failure);
+    return new Promise((resolve, reject) => {
+      let left = tasks.length;
+      let failed = false;
+      const settle = () => {
+        if (--left === 0 && !failed) resolve(out);
+      };
+      if (left === 0) return resolve(out);
+      tasks.forEach((task, index) => {
+        this.queue.push({
+          task: { ...task, id: this.nextId++ } as WorkerTask,
+          stop,
+          done: (reply) => {
+            // Placed before more tasks are handed out.
+            out[index] = take(reply, index);
+            settle();
+          },
+          dropped: (error) => {
+            if (error) {
+              failed = true;
+              return reject(error);
+            }
+            settle();
+          },
+        });
+      });
+      this.pump();
+    });
+  }
+
+  async fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean, ahead: FitJobRequest[] = []): Promise<(FitOutcome | null)[]> {
+    const out: (FitOutcome | null)[] = jobs.map(() => null);
+    // Jobs fitted (or being fitted) ahead are taken from there; the others go to the workers,
+    // handed out longest first (more elevations to fit, longer fit), so the round ends sooner; the
     // outcomes are placed by job number, so the order of handing out changes nothing else.
+    const fresh: number[] = [];
+    const early: Promise<void>[] = [];
+    jobs.forEach((job, i) => {
+      const known = this.aheadFits.get(job.key);
+      if (!known) return fresh.push(i);
+      this.aheadFits.delete(job.key);
+      early.push(
+        known.then((outcome) => {
+          if (outcome === null) throw new Error(`internal: a fit done ahead for ${job.key} was lost`);
+          this.aheadUsed++;
+          out[i] = outcome;
+          onDone(i, outcome);
+        }),
+      );
+    });
+    const planned = new Set(jobs.map((j) => j.key));
+    this.aheadJobs = stop() ? [] : ahead.filter((j) => !planned.has(j.key));
     const size = (j: FitJobRequest) => j.layout.levels.length + (j.layout.riser ? 1 : 0);
-    const order = jobs.map((_, i) => i).sort((a, b) => size(jobs[b]) - size(jobs[a]) || a - b);
-    return this.run(
-      order.map((id): WorkerTask => ({ type: "fit", id, key: jobs[id].key, starts: jobs[id].starts, layout: layoutIndex(this.problem, jobs[id].layout) })),
-      jobs.length,
-      (reply) => {
-        onDone(reply.id, reply.outcome!);
+    fresh.sort((a, b) => size(jobs[b]) - size(jobs[a]) || a - b);
+    const fitted = this.run(
+      fresh.map((i) => ({ type: "fit" as const, key: jobs[i].key, starts: jobs[i].starts, layout: layoutIndex(this.problem, jobs[i].layout) })),
+      (reply, k) => {
+        out[fresh[k]] = reply.outcome!;
+        onDone(fresh[k], reply.outcome!);
         return reply.outcome!;
       },
       stop,
     );
+    await Promise.all([fitted, ...early]);
+    if (stop()) this.aheadJobs = [];
+    return out;
   }
 
   async score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]> {
     const out = await this.run(
-      chunks.map((chunk, id): WorkerTask => ({ type: "score", id, chunk })),
-      chunks.length,
+      chunks.map((chunk) => ({ type: "score" as const, chunk })),
       (reply) => reply.scored!,
       () => false,
     );
@@ -154,78 +306,11 @@ export class WorkerFitter implements LayoutFitter {
 
   async explain(designs: ExplainRequest[]): Promise<string[][]> {
     const out = await this.run(
-      designs.map((d, id): WorkerTask => ({ type: "explain", id, layout: layoutIndex(this.problem, d.layout), vars: d.vars })),
-      designs.length,
+      designs.map((d) => ({ type: "explain" as const, layout: layoutIndex(this.problem, d.layout), vars: d.vars })),
       (reply) => reply.explanation!,
       () => false,
     );
     return out as string[][];
-  }
-
-  /**
-   * Runs the tasks on the pool; `take` turns each reply into its result. A worker is given its next
-   * task while it still works on one (up to IN_FLIGHT), so it never waits for this thread to hear
-   * its reply and answer with the next: a short task (a chunk of scores) would otherwise idle it for
-   * a message's round trip each time. Near the end (no more tasks left than workers) a task goes
-   * only to a worker with nothing in hand, so the last ones are not queued behind a long one.
-   */
-  private run<T>(tasks: WorkerTask[], count: number, take: (reply: WorkerReply) => T, stop: () => boolean): Promise<(T | null)[]> {
-    const out: (T | null)[] = Array.from({ length: count }, () => null);
-    let next = 0;
-    let busy = 0;
-    return new Promise((resolve, reject) => {
-      let failed = false;
-      let finished = false;
-      const inHand = new Map<Worker, number>();
-      const listeners: [Worker, (reply: WorkerReply) => void, (error: Error) => void][] = [];
-      const detach = () => {
-        for (const [worker, onMessage, onError] of listeners) {
-          worker.off("message", onMessage);
-          worker.off("error", onError);
-        }
-      };
-      const finish = () => {
-        if (!finished) {
-          finished = true;
-          detach();
-          resolve(out);
-        }
-      };
-      const fail = (error: Error) => {
-        if (failed) return;
-        failed = true;
-        detach();
-        reject(error);
-      };
-      const give = (worker: Worker) => {
-        while (!failed && next < tasks.length && !stop()) {
-          const held = inHand.get(worker)!;
-          if (held >= IN_FLIGHT || (held > 0 && tasks.length - next <= this.pool.length)) break;
-          inHand.set(worker, held + 1);
-          busy++;
-          worker.postMessage(tasks[next++]);
-        }
-        if (busy === 0 && !failed) finish();
-      };
-      for (const worker of this.pool) {
-        inHand.set(worker, 0);
-        const onMessage = (reply: WorkerReply) => {
-          inHand.set(worker, inHand.get(worker)! - 1);
-          busy--;
-          this.taskSeconds += (reply.ms ?? 0) / 1000;
-          if (reply.error !== undefined) return fail(new Error(reply.error));
-          // Its result is placed before more tasks are handed out (a `finish` resolves with `out`).
-          out[reply.id] = take(reply);
-          give(worker);
-        };
-        const onError = (error: Error) => fail(error);
-        worker.on("message", onMessage);
-        worker.on("error", onError);
-        listeners.push([worker, onMessage, onError]);
-      }
-      if (tasks.length === 0) return finish();
-      for (const worker of this.pool) give(worker);
-    });
   }
 
   async close(): Promise<void> {

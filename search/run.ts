@@ -17,7 +17,7 @@ import { designOutletFile, layoutKey, type Layout } from "./layout.js";
 import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
-import { InlineFitter, type LayoutFitter } from "./pool.js";
+import { InlineFitter, type FitJobRequest, type LayoutFitter } from "./pool.js";
 import type { FitOutcome } from "./fitJob.js";
 
 export interface RunOptions {
@@ -268,20 +268,35 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     }
   };
   const existingKey = p.existing && p.limits.rankBy === "change" ? layoutKey(p.existing.layout) : null;
-  const take = (): Entry | undefined => {
-    if (queue.length === 0) return undefined;
+  /** The place in `list` of the entry to fit next. */
+  const pick = (list: Entry[]): number => {
     // Ranked by change, the existing layout goes first (refitting its elevations is the smallest fix).
-    const own = existingKey === null ? -1 : queue.findIndex((e) => layoutKey(e.layout) === existingKey);
-    if (own >= 0) return queue.splice(own, 1)[0];
+    const own = existingKey === null ? -1 : list.findIndex((e) => layoutKey(e.layout) === existingKey);
+    if (own >= 0) return own;
     let best = 0;
     // Ranked by change, the most promising layouts (the plan holds the existing one's neighbours) go first throughout.
     const byCost = compliantFound > 0 && p.limits.rankBy !== "change";
-    for (let i = 1; i < queue.length; i++) {
-      const a = queue[i];
-      const b = queue[best];
+    for (let i = 1; i < list.length; i++) {
+      const a = list[i];
+      const b = list[best];
       if (byCost ? a.cost < b.cost || (a.cost === b.cost && a.score < b.score) : a.score < b.score || (a.score === b.score && a.cost < b.cost)) best = i;
     }
-    return queue.splice(best, 1)[0];
+    return best;
+  };
+  const take = (): Entry | undefined => (queue.length === 0 ? undefined : queue.splice(pick(queue), 1)[0]);
+  /** The jobs the next round would hold if nothing entered the queue meanwhile (fitted ahead by idle
+   * workers; the round itself is chosen after this one is merged, so a guess costs nothing but an
+   * idle worker's time). */
+  const nextRound = (bar: number): FitJobRequest[] => {
+    const rest = [...queue];
+    const out: FitJobRequest[] = [];
+    while (out.length < ROUND && rest.length > 0) {
+      const entry = rest.splice(pick(rest), 1)[0];
+      const key = entryKey(entry);
+      if (entry.cost >= bar || (options.shard && !inShard(key, options.shard)) || options.done?.has(key)) continue;
+      out.push({ key, layout: entry.layout, starts: entry.starts });
+    }
+    return out;
   };
   const spent = () => (timed ? seconds() >= options.timeBudget! : routings >= options.budget);
   const budgetWords = () => (timed ? `the time budget of ${options.timeBudget} s was used` : `the budget of ${options.budget} routings was used`);
@@ -393,6 +408,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         }
       },
       () => options.interrupt?.() != null,
+      nextRound(bar),
     );
     const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
     for (const entry of round) {
