@@ -25,7 +25,14 @@ import type { BenchSection } from "./section.js";
 
 /** Routings per search here: enough for the first compliant design on every bundled case. */
 const SPEED_BUDGET = 4000;
-const REPEATS = 3;
+const REPEATS = 5;
+/** The steadier after/plain ratio: searches of this many routings (a few tenths of a second to a
+ * second each, so that compiling and collecting weigh less than in the short ones), after one of
+ * each to warm up, alternated STEADY_REPEATS times; the median of each. */
+const STEADY_BUDGET = 20000;
+const STEADY_REPEATS = 3;
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 interface Figures {
   /** Every routing of the process (`routingTally`) per processor second. */
@@ -40,7 +47,7 @@ interface Figures {
 
 /** One search; routings per second of this process's processor time (on a loaded machine the wall
  * clock also counts other work's turns), the time to the first compliant design by the wall clock. */
-async function search(c: Case, file: CaseFile, direct: boolean): Promise<Figures> {
+async function search(c: Case, file: CaseFile, direct: boolean, budget = SPEED_BUDGET): Promise<Figures> {
   const tally = routingTally.count;
   const cpu = process.cpuUsage();
   const processorSeconds = () => {
@@ -52,7 +59,7 @@ async function search(c: Case, file: CaseFile, direct: boolean): Promise<Figures
   const onFirstCompliant = () => {
     firstProcessorSeconds = processorSeconds();
   };
-  const run = await runSearch(buildProblem(c, file, { referencePath: direct }), { seed: "bench", budget: SPEED_BUDGET, top: 1, starts: 3, beam: 3, onFirstCompliant });
+  const run = await runSearch(buildProblem(c, file, { referencePath: direct }), { seed: "bench", budget, top: 1, starts: 3, beam: 3, onFirstCompliant });
   const seconds = processorSeconds();
   return { perSecond: (routingTally.count - tally) / seconds, searchPerSecond: run.routings / seconds, firstSeconds: run.secondsToFirstCompliant, firstProcessorSeconds, firstRoutings: run.routingsToFirstCompliant };
 }
@@ -104,7 +111,17 @@ async function run(): Promise<void> {
       // The ratio of each repetition with its own plain twin, as a range, and of the fastest of each.
       const ratios = after.map((f, i) => f.perSecond / plainRuns[i].perSecond);
       const range = `${Math.min(...ratios).toFixed(2)}-${Math.max(...ratios).toFixed(2)}`;
-      plain = `${Math.round(p.perSecond)} (after/plain ${(a.perSecond / p.perSecond).toFixed(2)}, per repetition ${range}; search only ${(a.searchPerSecond / p.searchPerSecond).toFixed(2)})`;
+      // The steadier measure: longer searches, warmed up, medians.
+      await search(loaded.case, loaded.data, false, STEADY_BUDGET);
+      await search(bare!.c, bare!.file, false, STEADY_BUDGET);
+      const steadyAfter: number[] = [];
+      const steadyPlain: number[] = [];
+      for (let r = 0; r < STEADY_REPEATS; r++) {
+        steadyAfter.push((await search(loaded.case, loaded.data, false, STEADY_BUDGET)).perSecond);
+        steadyPlain.push((await search(bare!.c, bare!.file, false, STEADY_BUDGET)).perSecond);
+      }
+      const steady = median(steadyAfter) / median(steadyPlain);
+      plain = `${Math.round(p.perSecond)} (after/plain ${(a.perSecond / p.perSecond).toFixed(2)}, per repetition ${range}; search only ${(a.searchPerSecond / p.searchPerSecond).toFixed(2)}; ${STEADY_BUDGET}-routing searches, medians: ${Math.round(median(steadyAfter))} / ${Math.round(median(steadyPlain))} = ${steady.toFixed(2)})`;
     }
     const first = (f: Figures) => (f.firstSeconds === null ? "none" : `${f.firstSeconds.toFixed(3)} s (${f.firstProcessorSeconds?.toFixed(3)} s) / ${f.firstRoutings}`);
     rows.push([
