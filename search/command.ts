@@ -11,7 +11,7 @@ import { candidateCase, candidateCaseName, designJson, designText } from "./repo
 import { createHash } from "node:crypto";
 import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
 import { ProgressReporter } from "./progress.js";
-import { InlineFitter, WorkerFitter, type LayoutFitter } from "./pool.js";
+import { AdaptiveFitter, InlineFitter, WorkerFitter, worthSpreading, type LayoutFitter, type RunSoFar } from "./pool.js";
 
 /** Exit code of a run stopped by SIGINT or SIGTERM (results of the work done are written). */
 export const EXIT_INTERRUPTED = 3;
@@ -103,7 +103,9 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const seed = options.seed ?? "outfit";
   const budget = parseBudget(options.budget ?? "20000");
   const starts = Math.round(positiveNumber("--starts", options.starts) ?? 3);
-  const workers = Math.round(positiveNumber("--workers", options.workers) ?? availableParallelism());
+  // Without --workers: all cores once the rest of the run is long enough to gain from them (AdaptiveFitter).
+  const chosenWorkers = positiveNumber("--workers", options.workers);
+  const workers = Math.round(chosenWorkers ?? availableParallelism());
   const shard = options.shard === undefined ? undefined : parseShard(options.shard);
   if (options.out && existsSync(options.out) && !statSync(options.out).isDirectory()) {
     throw new UsageError("--out", options.out, "a directory for the results (this is a file)");
@@ -147,12 +149,20 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   process.on("SIGTERM", onSignal);
   const progress = options.quiet ? undefined : new ProgressReporter(process.stderr, budget);
   const settings = { seed, starts };
-  const fitter: LayoutFitter = workers > 1 ? new WorkerFitter(problem, { path: resolve(path), margin: problem.options.margin, limits, hydrographs: loaded.hydrographs }, settings, workers) : new InlineFitter(problem, settings);
+  const source = { path: resolve(path), margin: problem.options.margin, limits, hydrographs: loaded.hydrographs };
+  let soFar: RunSoFar = { routings: 0, seconds: 0 };
+  const runBudget = { routings: shard ? budget.routings / shard.count : budget.routings, seconds: budget.seconds };
+  const fitter: LayoutFitter =
+    chosenWorkers === undefined
+      ? new AdaptiveFitter(problem, source, settings, workers, () => worthSpreading(soFar, runBudget))
+      : workers > 1
+        ? new WorkerFitter(problem, source, settings, workers)
+        : new InlineFitter(problem, settings);
   let run;
   try {
     run = await runSearch(problem, {
       seed,
-      budget: shard ? budget.routings / shard.count : budget.routings,
+      budget: runBudget.routings,
       timeBudget: budget.seconds,
       timeLimit: positiveNumber("--time", options.time),
       top,
@@ -164,7 +174,10 @@ export async function designCommand(path: string, options: DesignCommandOptions)
       interrupt: () => stopReason,
       // Finished work is kept: each fitted layout is appended to the journal as soon as it is done.
       onLayout: (entry) => journal?.append(entry),
-      onProgress: (p) => progress?.update(p),
+      onProgress: (p) => {
+        soFar = p;
+        progress?.update(p);
+      },
     });
   } finally {
     await fitter.close();

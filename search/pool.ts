@@ -317,3 +317,74 @@ export class WorkerFitter implements LayoutFitter {
     await Promise.all(this.pool.map((w) => w.terminate()));
   }
 }
+
+/** A run is spread over worker threads when it has at least this many seconds left (each worker
+ * starts, builds its problem and compiles its code: about a second of slower work on this 2-core
+ * machine, so a run of a few seconds is faster in one thread). */
+export const SPREAD_SECONDS = 4;
+
+/** Where a run stands, as its progress reports it. */
+export interface RunSoFar {
+  routings: number;
+  seconds: number;
+}
+
+/**
+ * Whether the rest of a run is worth the workers' start: with a time budget, its time left; with a
+ * routing budget, the routings left at the rate so far (unknown before any is counted: not yet).
+ */
+export function worthSpreading(so: RunSoFar, budget: { routings: number; seconds?: number }): boolean {
+  if (budget.seconds !== undefined) return budget.seconds - so.seconds >= SPREAD_SECONDS;
+  if (!(so.routings > 0) || !(so.seconds > 0)) return false;
+  return ((budget.routings - so.routings) * so.seconds) / so.routings >= SPREAD_SECONDS;
+}
+
+/**
+ * The default of `design`: fits in this thread while the run is short, and on `workers` threads from
+ * the first call after `spread()` says the rest is worth it (checked at every call until then). The
+ * outcomes are the same either way (pure functions of their tasks, merged in the round's order), so
+ * the ranking does not depend on when, or whether, it spread.
+ */
+export class AdaptiveFitter implements LayoutFitter {
+  private readonly inline: InlineFitter;
+  private pool: WorkerFitter | null = null;
+  constructor(
+    private readonly problem: SearchProblem,
+    private readonly source: ProblemSource,
+    private readonly settings: FitSettings,
+    private readonly most: number,
+    private readonly spread: () => boolean,
+  ) {
+    this.inline = new InlineFitter(problem, settings);
+  }
+
+  /** The threads fitting now (1 until the run spread). */
+  get workers(): number {
+    return this.pool ? this.pool.workers : 1;
+  }
+
+  get taskSeconds(): number {
+    return this.inline.taskSeconds + (this.pool?.taskSeconds ?? 0);
+  }
+
+  private current(): LayoutFitter {
+    if (!this.pool && this.most > 1 && this.spread()) this.pool = new WorkerFitter(this.problem, this.source, this.settings, this.most);
+    return this.pool ?? this.inline;
+  }
+
+  fit(jobs: FitJobRequest[], onDone: (index: number, outcome: FitOutcome) => void, stop: () => boolean, ahead?: FitJobRequest[]): Promise<(FitOutcome | null)[]> {
+    return this.current().fit(jobs, onDone, stop, ahead);
+  }
+
+  score(chunks: ScoreChunk[]): Promise<ScoreOutcome[]> {
+    return this.current().score(chunks);
+  }
+
+  explain(designs: ExplainRequest[]): Promise<string[][]> {
+    return this.current().explain(designs);
+  }
+
+  async close(): Promise<void> {
+    await this.pool?.close();
+  }
+}

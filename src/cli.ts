@@ -148,7 +148,7 @@ function searchOptions(command: Command, extra: (command: Command) => Command): 
     .option("--keep-barrel", "keep the existing barrel as it is")
     .addOption(withDefault("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost"));
   return extra(command)
-    .option("--workers <n>", "worker threads fitting layouts (default: all cores; the ranking does not depend on it)")
+    .option("--workers <n>", "worker threads fitting layouts (default: all cores once the rest of the run is at least 4 s, until then the main thread; the ranking does not depend on it)")
     .option("--quiet", "no progress and no notes on stderr")
     .option("--check", "exit with code 1 when no compliant design is found");
 }

@@ -1,0 +1,63 @@
+// The default fitter of `design` (search/pool.ts `AdaptiveFitter`): the main thread while the run is
+// short, all cores once the rest is worth the workers' start. The ranking is the same whichever,
+// and wherever in the run it spread: the search through the built modules (the workers run
+// dist/search/fitWorker.js) with a fitter that spreads after a few calls, against one that never does.
+import { describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { join } from "node:path";
+import { pathToFileURL } from "node:url";
+import { SPREAD_SECONDS, worthSpreading } from "../../search/pool.js";
+
+const dist = (path: string) => pathToFileURL(join(process.cwd(), "dist", path)).href;
+const CASE = join(process.cwd(), "cases/small-compliant/case.json");
+
+describe("spreading a run over the workers", () => {
+  it("spreads when the time left, or the routings left at the rate so far, reach SPREAD_SECONDS", () => {
+    expect(SPREAD_SECONDS).toBe(4);
+    // A time budget: its time left.
+    expect(worthSpreading({ routings: 0, seconds: 0 }, { routings: 0, seconds: 8 * 3600 })).toBe(true);
+    expect(worthSpreading({ routings: 0, seconds: 0 }, { routings: 0, seconds: 3 })).toBe(false);
+    expect(worthSpreading({ routings: 5000, seconds: 10 }, { routings: 0, seconds: 13.5 })).toBe(false);
+    // A routing budget: unknown before anything is counted, then the routings left at the rate so far.
+    expect(worthSpreading({ routings: 0, seconds: 0.4 }, { routings: 1e9 })).toBe(false);
+    expect(worthSpreading({ routings: 2000, seconds: 0.5 }, { routings: 20000 })).toBe(true); // 18000 at 4000/s: 4.5 s
+    expect(worthSpreading({ routings: 2000, seconds: 0.2 }, { routings: 20000 })).toBe(false); // at 10000/s: 1.8 s
+    expect(worthSpreading({ routings: 20000, seconds: 5 }, { routings: 20000 })).toBe(false);
+  });
+
+  it("gives the same ranking when it spreads mid-run as in one thread throughout", async () => {
+    const { loadCase } = await import(dist("src/case/load.js"));
+    const { buildProblem } = await import(dist("search/problem.js"));
+    const { runSearch } = await import(dist("search/run.js"));
+    const { AdaptiveFitter } = await import(dist("search/pool.js"));
+    const loaded = loadCase(CASE);
+    const problem = buildProblem(loaded.case, loaded.data);
+    const settings = { seed: "spread", starts: 3 };
+    const search = async (spreadAfter: number) => {
+      let calls = 0;
+      const fitter = new AdaptiveFitter(problem, { path: CASE }, settings, 2, () => ++calls > spreadAfter);
+      try {
+        const run = await runSearch(problem, { seed: "spread", budget: 6000, top: 5, starts: 3, beam: 3, fitter });
+        return { workers: run.workers, ranking: run.candidates.map((c: { file: unknown; cost: number }) => JSON.stringify(c.file) + " " + c.cost), routings: run.routings };
+      } finally {
+        await fitter.close();
+      }
+    };
+    const inline = await search(Infinity);
+    const spread = await search(6);
+    expect(inline.workers).toBe(1);
+    expect(spread.workers).toBe(2);
+    expect(spread.ranking).toEqual(inline.ranking);
+    expect(spread.routings).toBe(inline.routings);
+  }, 120_000);
+
+  it("keeps a short default run in the main thread, with the ranking of two workers", () => {
+    const cli = join(process.cwd(), "dist/src/cli.js");
+    const run = (...args: string[]) => JSON.parse(spawnSync(process.execPath, [cli, "design", CASE, "--budget", "2000", "--json", "--quiet", ...args], { encoding: "utf8", timeout: 120_000 }).stdout);
+    const byDefault = run();
+    const two = run("--workers", "2");
+    expect(byDefault.search.workers).toBe(1);
+    expect(two.search.workers).toBe(2);
+    expect(byDefault.candidates).toEqual(two.candidates);
+  }, 120_000);
+});
