@@ -48,7 +48,7 @@ export class RatingSweep {
       const sweep = tailwaterRatingSweep(outlet, tail, stages, keep);
       this.step = sweep.step;
       this.shared = sweep.shared;
-      if (sweep.initial) out.set(sweep.initial.subarray(0, sweep.start));
+      if (sweep.shared && sweep.start > 0) out.set(sweep.shared.flows.subarray(0, sweep.start));
       this.startFromShared(sweep.start);
       return;
     }
@@ -82,8 +82,9 @@ export class RatingSweep {
       openings.flowsAtLevel(tw, out, keep);
       if (spill) for (let i = 0; i < n; i++) out[i] += spill[i];
     }
-    this.step = (i) => out[i];
     this.rated = n;
+    // Rated whole: `rateTo` never takes a stage up.
+    this.step = (i) => out[i];
   }
 
   /** The stages a kept sweep shared are rated; the columns are kept for the next outlet from here on,
@@ -139,7 +140,7 @@ function sharedColumns(stages: Float64Array, openings: OpeningsSweep, context: s
  * step for stage i (stages in order from `start`, the stages a kept sweep shares, which `out`
  * must be given by the caller from `shared`).
  */
-function tailwaterRatingSweep(outlet: Outlet, tail: Tailwater & { kind: "rating" }, stages: Float64Array, keep: boolean): { step: (i: number) => number; shared: SweepColumns | null; start: number; initial: Float64Array | null } {
+function tailwaterRatingSweep(outlet: Outlet, tail: Tailwater & { kind: "rating" }, stages: Float64Array, keep: boolean): { step: (i: number) => number; shared: SweepColumns | null; start: number } {
   const spillway = outlet.spillway;
   const openings = new OpeningsSweep(outlet, true);
   openings.useGrid(stages, keep);
@@ -195,5 +196,5 @@ function tailwaterRatingSweep(outlet: Outlet, tail: Tailwater & { kind: "rating"
     }
     return o;
   };
-  return { step, shared: shared ? shared.columns : null, start, initial: shared && start > 0 ? shared.columns.flows : null };
+  return { step, shared: shared ? shared.columns : null, start };
 }

@@ -115,11 +115,9 @@ export interface RatingOptions {
 
 /** Rates an outlet on the pond's stage grid. */
 export function buildRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, options: RatingOptions = {}): RatingTable {
-  const table = lazyRatingTable(pond, outlet, tail, options);
-  table.extend!(table.stage.length);
-  delete table.rated;
-  delete table.extend;
-  return table;
+  const lazy = lazyRatingTable(pond, outlet, tail, options);
+  lazy.extend!(lazy.stage.length);
+  return { stage: lazy.stage, storage: lazy.storage, outflow: lazy.outflow, heldNodes: lazy.heldNodes };
 }
 
 /** Stages a lazy table rates beyond the count asked for (one call per few intervals the router climbs). */
@@ -139,8 +137,8 @@ export function lazyRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, opt
   const outflow = new Float64Array(n);
   const sweep = new RatingSweep(outlet, tail, grid.stage, outflow, options.direct === true);
   const table: RatingTable = { stage: grid.stage, storage: grid.storage, outflow, heldNodes: 0, rated: 0 };
-  let done = 0;
   table.extend = (count: number) => {
+    const done = table.rated as number;
     if (count <= done) return done;
     const end = sweep.rateTo(Math.max(count, done + LAZY_CHUNK));
     // The outflow does not fall as the stage rises: a node below the one beneath is held level.
@@ -153,7 +151,6 @@ export function lazyRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, opt
       }
     }
     table.heldNodes = held;
-    done = end;
     table.rated = end;
     return end;
   };
