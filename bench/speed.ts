@@ -113,12 +113,12 @@ async function run(): Promise<void> {
       const range = `${Math.min(...ratios).toFixed(2)}-${Math.max(...ratios).toFixed(2)}`;
       // The steadier measure: longer searches, warmed up, medians.
       await search(loaded.case, loaded.data, false, STEADY_BUDGET);
-      await search(bare!.c, bare!.file, false, STEADY_BUDGET);
+      await search(bare.c, bare.file, false, STEADY_BUDGET);
       const steadyAfter: number[] = [];
       const steadyPlain: number[] = [];
       for (let r = 0; r < STEADY_REPEATS; r++) {
         steadyAfter.push((await search(loaded.case, loaded.data, false, STEADY_BUDGET)).perSecond);
-        steadyPlain.push((await search(bare!.c, bare!.file, false, STEADY_BUDGET)).perSecond);
+        steadyPlain.push((await search(bare.c, bare.file, false, STEADY_BUDGET)).perSecond);
       }
       const steady = median(steadyAfter) / median(steadyPlain);
       plain = `${Math.round(p.perSecond)} (after/plain ${(a.perSecond / p.perSecond).toFixed(2)}, per repetition ${range}; search only ${(a.searchPerSecond / p.searchPerSecond).toFixed(2)}; ${STEADY_BUDGET}-routing searches, medians: ${Math.round(median(steadyAfter))} / ${Math.round(median(steadyPlain))} = ${steady.toFixed(2)})`;

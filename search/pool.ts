@@ -141,7 +141,7 @@ export class WorkerFitter implements LayoutFitter {
   private readonly aheadFits = new Map<string, Promise<FitOutcome | null>>();
   /** Jobs a worker with nothing in hand may fit ahead, in order. */
   private aheadJobs: FitJobRequest[] = [];
-  /** Fits done ahead that a round then took, and those it did not (statistics). */
+  /** Fits done ahead that a round then took, and all fits started ahead (statistics). */
   aheadUsed = 0;
   aheadStarted = 0;
   private readonly queue: Queued[] = [];

@@ -408,7 +408,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         }
       },
       () => options.interrupt?.() != null,
-      nextRound(bar),
+      // Guessed only for workers (in this thread nothing is idle to fit ahead).
+      fitter.workers > 1 ? nextRound(bar) : [],
     );
     const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
     for (const entry of round) {
