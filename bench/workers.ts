@@ -2,6 +2,7 @@
 // their ratio, how busy the workers were, and whether the two rankings are identical (they must be:
 // rounds are merged in order and every unit of work is a pure function of its inputs).
 import { availableParallelism, loadavg } from "node:os";
+import { Worker } from "node:worker_threads";
 import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
 import { buildProblem } from "../search/problem.js";
@@ -28,11 +29,14 @@ interface Timed {
 
 /** Warm searches per configuration, alternated; the fastest of each counts (the least disturbed). */
 const WARM_REPEATS = 3;
+/** Searches with other seeds before a warm one is timed: after one, the workers' compiled code is
+ * still settling (the next search is 10-20 % slower on two workers than the ones after it). */
+const WARM_UPS = 2;
 
 /**
  * One search, cold (a fresh process state: the threads start and compile their code during the run,
- * as a short run does) or warm (the same threads first run a search with another seed: the steady
- * state of a long run, where each thread's compiled code is long since ready).
+ * as a short run does) or warm (the same threads first run WARM_UPS searches with other seeds: the
+ * steady state of a long run, where each thread's compiled code is long since ready).
  */
 async function timed(file: string, budget: number, workers: number, warm: boolean): Promise<Timed> {
   const started = performance.now();
@@ -51,7 +55,7 @@ async function timed(file: string, budget: number, workers: number, warm: boolea
       const run = await search();
       return { run, wall: (performance.now() - started) / 1000, busy: fitter.taskSeconds, processor: processor() };
     }
-    await runSearch(problem, { seed: "bench warm-up", budget, top: 5, starts: 3, beam: 3, fitter });
+    for (let i = 0; i < WARM_UPS; i++) await runSearch(problem, { seed: `bench warm-up ${i}`, budget, top: 5, starts: 3, beam: 3, fitter });
     const busyBefore = fitter.taskSeconds;
     cpu = process.cpuUsage();
     const t = performance.now();
@@ -62,6 +66,33 @@ async function timed(file: string, budget: number, workers: number, warm: boolea
   }
 }
 
+/**
+ * `count` wholly independent one-thread searches at once, each in its own worker thread, warmed up
+ * like the warm runs; the wall seconds from the common start to the last one's end. With count 1,
+ * the same search alone: count × alone / together is what the machine gives for independent work,
+ * the ceiling of any pool of workers on it (the collector and compiler threads of every thread
+ * share the same cores).
+ */
+async function sideBySide(file: string, budget: number, count: number): Promise<number> {
+  const script = new URL("./sideBySideWorker.js", import.meta.url);
+  const threads = Array.from({ length: count }, () => new Worker(script, { workerData: { file, budget, warmUps: WARM_UPS } }));
+  try {
+    const next = (w: Worker) =>
+      new Promise<{ seconds?: number }>((resolve, reject) => {
+        w.once("message", resolve);
+        w.once("error", reject);
+      });
+    await Promise.all(threads.map(next));
+    const started = performance.now();
+    const done = threads.map(next);
+    for (const w of threads) w.postMessage("go");
+    await Promise.all(done);
+    return (performance.now() - started) / 1000;
+  } finally {
+    await Promise.all(threads.map((w) => w.terminate()));
+  }
+}
+
 const ranking = (run: SearchRun) => run.candidates.map((c) => JSON.stringify(c.file) + c.cost).join("\n");
 const load = () => loadavg().map((x) => x.toFixed(2)).join(" ");
 
@@ -69,10 +100,11 @@ export const workersSection: BenchSection = {
   name: "workers",
   async run() {
     const cores = availableParallelism();
-    console.log(`\nWorkers: the same search on 1 worker and on ${cores} (seed "bench"). Cold: a fresh start, from loading the case to the explained ranking (threads started and their code compiled during the run, as in a short run). Warm: the same threads after a search with another seed (the steady state of a long run). Busy: time on fits and scores over the workers' wall time. Load average before: ${load()}; on a loaded machine the ratio says little.`);
+    console.log(`\nWorkers: the same search on 1 worker and on ${cores} (seed "bench"). Cold: a fresh start, from loading the case to the explained ranking (threads started and their code compiled during the run, as in a short run). Warm: the same threads after ${WARM_UPS} searches with other seeds (the steady state of a long run). Ceiling: the one-thread search alone, then ${cores} of them at once in their own threads (what the machine gives for wholly independent work). Busy: time on fits and scores over the workers' wall time. Load average before: ${load()}; on a loaded machine the ratio says little.`);
     for (const { name, budget } of CASES) {
       const file = join("cases", name, "case.json");
       console.log(`${name}, budget ${budget} routings:`);
+      let warmSpeedUp = NaN;
       for (const warm of [false, true]) {
         const ones: Timed[] = [];
         const alls: Timed[] = [];
@@ -88,11 +120,22 @@ export const workersSection: BenchSection = {
         console.log(`  ${warm ? `warm, fastest of ${WARM_REPEATS} alternated` : "cold"}:`);
         console.log(line(1, one));
         console.log(line(cores, all));
+        if (warm) warmSpeedUp = one.wall / all.wall;
         const same = [...ones, ...alls].every((t) => ranking(t.run) === ranking(one.run));
         // One thread already keeps the engine's collector and compiler threads busy on the other cores:
         // the most all cores can give is the cores over what one thread's run uses.
         console.log(`    speed-up ${(one.wall / all.wall).toFixed(2)}x (at most ${(cores / Math.max(1, one.processor / one.wall)).toFixed(2)}x: ${cores} cores over the ${(one.processor / one.wall).toFixed(2)} the one-thread run used); rankings ${same ? "identical" : "DIFFERENT"} (${one.run.candidates.length} candidates); load average after: ${load()}`);
       }
+      // The machine's ceiling for this search: independent one-thread searches side by side.
+      const alone: number[] = [];
+      const together: number[] = [];
+      for (let r = 0; r < WARM_REPEATS; r++) {
+        alone.push(await sideBySide(file, budget, 1));
+        together.push(await sideBySide(file, budget, cores));
+      }
+      const a = Math.min(...alone);
+      const t = Math.min(...together);
+      console.log(`  ceiling (warm, fastest of ${WARM_REPEATS} alternated): the one-thread search alone in a worker thread ${a.toFixed(2)} s; ${cores} of them at once, each in its own thread, no messages: ${t.toFixed(2)} s, so ${cores} cores give ${((cores * a) / t).toFixed(2)}x the work of one on wholly independent searches; the pool's warm ${warmSpeedUp.toFixed(2)}x is ${((100 * warmSpeedUp * t) / (cores * a)).toFixed(0)} % of that`);
     }
   },
 };
