@@ -1,6 +1,7 @@
 // What `outfit design` prints and writes: a ranked table, explanations, the contract's JSON, and one
 // ready-to-route case file per reported candidate.
-import { relative, resolve, dirname, isAbsolute } from "node:path";
+import { dirname } from "node:path";
+import { rebaseCase } from "../src/case/rebase.js";
 import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate, RoutedOutlet } from "./candidate.js";
@@ -93,16 +94,11 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
   };
 }
 
-/** The input case with the candidate's outlet, inflow files pointing back at the originals. */
+/** The input case with the candidate's outlet, its inflow files and "$schema" pointing back at the originals. */
 export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, outDir: string): unknown {
   const copy = JSON.parse(JSON.stringify(json)) as Record<string, unknown>;
   copy.outlet = c.file;
-  const caseDir = p.case.file ? dirname(p.case.file) : process.cwd();
-  const storms = copy.storms as { inflow?: { file?: string } }[];
-  for (const storm of storms ?? []) {
-    const file = storm.inflow?.file;
-    if (file && !isAbsolute(file)) storm.inflow!.file = relative(resolve(outDir), resolve(caseDir, file)).split("\\").join("/");
-  }
+  rebaseCase(copy, p.case.file ? dirname(p.case.file) : process.cwd(), outDir);
   return copy;
 }
 

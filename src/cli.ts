@@ -267,7 +267,7 @@ program
   .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
   .option("--json", "print the results as JSON instead of a table")
   .option("--out <file>", "write the output to a file instead of the terminal")
-  .option("--write <file>", "also write the case file with the sized pond in it (inflow files are not copied)")
+  .option("--write <file>", "also write the case file with the sized pond in it (inflow files are not copied: its relative paths are made to point at them from where it is written)")
   .addHelpText(
     "after",
     `

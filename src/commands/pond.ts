@@ -1,5 +1,5 @@
 // `outfit pond`: pond dimensions from the site limits that hold the largest storage estimate.
-import { basename } from "node:path";
+import { basename, dirname } from "node:path";
 import { CaseError } from "../case/errors.js";
 import { sizePond } from "../storage/sizing.js";
 import { governingVolume } from "../storage/stormEstimates.js";
@@ -7,6 +7,7 @@ import type { SiteSizing } from "../case/site.js";
 import { sizingJson, sizingText } from "../report/pondSizing.js";
 import { pondFile } from "../report/pondFile.js";
 import { writeFileAtomic } from "../io.js";
+import { rebaseCase } from "../case/rebase.js";
 import { caseEstimates, typeOption } from "./volume.js";
 import { emit, load } from "./common.js";
 
@@ -32,6 +33,7 @@ export function pondCommand(path: string, options: PondCommandOptions): number {
     if (chosen) {
       const copy = JSON.parse(JSON.stringify(loaded.json)) as Record<string, unknown>;
       copy.pond = pondFile(chosen.pond, c.units);
+      rebaseCase(copy, dirname(path), dirname(options.write));
       writeFileAtomic(options.write, JSON.stringify(copy, null, 2) + "\n");
       process.stderr.write(`outfit: wrote ${options.write} (the case with the sized pond)\n`);
     }
