@@ -102,9 +102,15 @@ export interface Column {
   /**
    * When the table is too wide: "keep" stays in the compact row, "detail" moves to the lines below
    * the row (as "heading: value unit"), "drop" is left out (the table says where to find it).
-   * Columns leave the compact row from the last one back.
+   * Columns leave the compact row from the last one back (or by `rank`).
    */
   narrow?: "keep" | "detail" | "drop";
+  /**
+   * For "detail" and "drop" columns: the order in which they are offered the room the "keep"
+   * columns leave, lowest first (default: the column's position), so a table can keep its main
+   * numbers in the compact row before the columns that precede them.
+   */
+  rank?: number;
   /** Unit appended to a detail value ("22.0 cfs"); defaults to the heading's second line without parentheses. */
   unit?: string;
 }
@@ -190,8 +196,8 @@ function unitOf(column: Column): string {
 
 /**
  * A table in the layout: whole when it fits (or with `--wide`, or without a width); otherwise the
- * compact row holds the "keep" columns and as many of the others, in order, as fit, and the rest
- * go to the detail lines (or are dropped).
+ * compact row holds the "keep" columns and as many of the others, in order of rank, as fit (shown
+ * in their own order), and the rest go to the detail lines (or are dropped).
  */
 export function renderTable(layout: Layout, columns: readonly Column[], rows: readonly Row[]): RenderedTable {
   const all = columns.map((_, i) => i);
@@ -200,7 +206,8 @@ export function renderTable(layout: Layout, columns: readonly Column[], rows: re
   }
   const width = layout.width;
   const shown = all.filter((i) => (columns[i].narrow ?? "keep") === "keep");
-  for (const i of all) {
+  const offered = [...all].sort((a, b) => (columns[a].rank ?? a) - (columns[b].rank ?? b));
+  for (const i of offered) {
     if (shown.includes(i)) continue;
     const trial = [...shown, i].sort((a, b) => a - b);
     if (tableWidth(columns, trial, rows) <= width) shown.splice(0, shown.length, ...trial);

@@ -55,6 +55,24 @@ describe("renderTable", () => {
     expect(lines.slice(row + 1, next).join(" ").replace(/\s+/g, " ").trim()).toBe("freeboard left: 0.90 ft; limited by: barrel, outlet control");
   });
 
+  it("offers the room left to the lowest-ranked columns first, and shows them in their own order", () => {
+    const ranked: Column[] = [
+      { head: "Storm" },
+      { head: "Target\n(cfs)", align: "right", narrow: "detail", rank: 2 },
+      { head: "Peak\n(cfs)", align: "right" },
+      { head: "Stage\n(ft)", align: "right", narrow: "detail", rank: 1 },
+    ];
+    const wide = [["100-yr", "30.00", "19.64", "102.85"]];
+    // Storm, Peak and one more column fit in 22 characters: Stage (rank 1), not Target (first in order).
+    const lines = renderTable({ width: 22, wide: false, colour: false }, ranked, wide).text.split("\n");
+    expect(lines[2]).toMatch(/^100-yr\s+19\.64\s+102\.85$/);
+    expect(lines[3]).toBe("    target: 30.00 cfs");
+    // Without ranks the first column in order takes the room.
+    const plain = renderTable({ width: 22, wide: false, colour: false }, ranked.map(({ rank: _rank, ...c }) => c), wide).text.split("\n");
+    expect(plain[2]).toMatch(/^100-yr\s+30\.00\s+19\.64$/);
+    expect(plain[3]).toBe("    stage: 102.85 ft");
+  });
+
   it("--wide keeps the whole table at any width", () => {
     const table = renderTable({ width: 30, wide: true, colour: false }, columns, rows);
     expect(table.compact).toBe(false);
