@@ -52,6 +52,7 @@ function withDefault(flags: string, description: string, value: string): Option 
 }
 
 const WIDE = "keep every table whole whatever the terminal's width (the full form that piped output gets)";
+const FITS = "Tables fit the terminal's width (COLUMNS, else the terminal); piped output keeps the full layout.";
 
 const program = new Command();
 program
@@ -94,7 +95,7 @@ program
   .addHelpText(
     "after",
     `
-Tables fit the terminal's width (COLUMNS, else the terminal); piped output keeps the full layout.
+${FITS}
 Colour only on a terminal, never when NO_COLOR is set.
 
 Examples:
@@ -242,6 +243,7 @@ program
   .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
   .option("--json", "print the results as JSON instead of a table")
   .option("--out <file>", "write the output to a file instead of the terminal")
+  .option("--wide", WIDE)
   .addHelpText(
     "after",
     `
@@ -250,6 +252,10 @@ volume of the inflow above a release rising linearly to the target at the inflow
 the release at the target throughout, and for rational-method storms the modified rational
 critical-duration volume; each with the stage it reaches in the case's pond and whether that stays at
 or below the freeboard level (top of embankment less the freeboard depth).
+
+${FITS}
+Narrow terminals keep each method's volume, and the stage as room allows, on its row; the target,
+peak inflow and notes go below it.
 
 Examples:
   outfit volume cases/demo/case.json --type II

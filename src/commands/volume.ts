@@ -9,6 +9,7 @@ import { DISTRIBUTION_TYPES, type DistributionType } from "../hydrology/distribu
 import { tr55Group, type Tr55Group } from "../storage/estimate.js";
 import { estimateStorm, type StormEstimate } from "../storage/stormEstimates.js";
 import { volumeJson, volumeText } from "../report/volume.js";
+import { layoutFor } from "../report/terminal.js";
 import { emit, load, UsageError } from "./common.js";
 import { baseLength } from "../units.js";
 
@@ -16,6 +17,7 @@ export interface VolumeCommandOptions {
   type?: string;
   json?: boolean;
   out?: string;
+  wide?: boolean;
 }
 
 /** The TR-55 group of `--type`, if given. */
@@ -46,6 +48,7 @@ export function volumeCommand(path: string, options: VolumeCommandOptions): numb
   const type = typeOption(options.type);
   const { case: c } = load(path);
   const estimates = caseEstimates(path, c, type);
-  emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null), options.out);
+  const layout = layoutFor({ wide: options.wide, toFile: options.out !== undefined });
+  emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null, layout), options.out);
   return 0;
 }
