@@ -69,8 +69,9 @@ export function paint(layout: Layout, tone: Tone, text: string): string {
 export function wrap(text: string, width: number | null, indent: number | string = 2): string {
   if (width === null) return text;
   const pad = typeof indent === "number" ? " ".repeat(indent) : indent;
-  // A number and its unit ("1 %", "3.0 ft") stay on one line.
+  // A number and its unit ("1 %", "3.0 ft") stay on one line, and so does a slope ("3 H : 1 V").
   return text
+    .replace(/(\d) H : (\d+(?:\.\d+)?) V\b/g, "$1\u00a0H\u00a0:\u00a0$2\u00a0V")
     .replace(/(\d) (%|ft|in|m|mm|h|cfs|m3\/s|ft3|m3|yr)\b/g, "$1\u00a0$2")
     .replace(/(\d) %/g, "$1\u00a0%")
     .split("\n")

@@ -94,6 +94,12 @@ describe("wrap", () => {
     expect(text).toContain("1 %");
     expect(text).toContain("104.50 ft");
   });
+
+  it("keeps a slope ratio on one line", () => {
+    expect(wrap("side slopes 3 H : 1 V", 16).split("\n")).toEqual(["side slopes", "  3 H : 1 V"]);
+    // Control: text that is not a ratio breaks at the same width after "3 H".
+    expect(wrap("side slopes 3 H ; 1 V", 16).split("\n")).toEqual(["side slopes 3 H", "  ; 1 V"]);
+  });
 });
 
 describe("niceStep", () => {
