@@ -274,6 +274,7 @@ program
   .option("--json", "print the results as JSON instead of a table")
   .option("--out <file>", "write the output to a file instead of the terminal")
   .option("--write <file>", "also write the case file with the sized pond in it (inflow files are not copied: its relative paths are made to point at them from where it is written)")
+  .option("--wide", WIDE)
   .addHelpText(
     "after",
     `
@@ -282,6 +283,9 @@ is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or t
 shape scaled in plan, as deep as site.maxDepth, the smallest on the size step (site.step) that holds
 the required storage between its permanent pool and the freeboard level, within maxTopLength,
 maxTopWidth and maxTopArea. Prints the required and provided storage, the footprint and the excavation.
+
+${FITS}
+Narrow terminals wrap the labels and values within the width.
 
 Examples:
   outfit pond cases/site-only/case.json

@@ -9,6 +9,7 @@ import { pondFile } from "../report/pondFile.js";
 import { writeFileAtomic } from "../io.js";
 import { rebaseCase } from "../case/rebase.js";
 import { caseEstimates, typeOption } from "./volume.js";
+import { layoutFor } from "../report/terminal.js";
 import { emit, load } from "./common.js";
 
 export interface PondCommandOptions {
@@ -16,6 +17,7 @@ export interface PondCommandOptions {
   json?: boolean;
   out?: string;
   write?: string;
+  wide?: boolean;
 }
 
 export function pondCommand(path: string, options: PondCommandOptions): number {
@@ -38,6 +40,7 @@ export function pondCommand(path: string, options: PondCommandOptions): number {
       process.stderr.write(`outfit: wrote ${options.write} (the case with the sized pond)\n`);
     }
   }
-  emit(options.json ? JSON.stringify(sizingJson(c, sizing), null, 2) : sizingText(c, sizing), options.out);
+  const layout = layoutFor({ wide: options.wide, toFile: options.out !== undefined });
+  emit(options.json ? JSON.stringify(sizingJson(c, sizing), null, 2) : sizingText(c, sizing, layout), options.out);
   return sizing.pond ? 0 : 1;
 }
