@@ -72,7 +72,7 @@ export function wrap(text: string, width: number | null, indent: number | string
   // A number and its unit ("1 %", "3.0 ft") stay on one line, and so does a slope ("3 H : 1 V").
   return text
     .replace(/(\d) H : (\d+(?:\.\d+)?) V\b/g, "$1\u00a0H\u00a0:\u00a0$2\u00a0V")
-    .replace(/(\d) (%|ft|in|m|mm|h|cfs|m3\/s|ft3|m3|yr)\b/g, "$1\u00a0$2")
+    .replace(/(\d) (%|ft|in|m|mm|h|min|s|ac|ha|cfs|m3\/s|ft2|ft3|m2|m3|yr)\b/g, "$1\u00a0$2")
     .replace(/(\d) %/g, "$1\u00a0%")
     .split("\n")
     .map((paragraph) => {
@@ -114,6 +114,8 @@ export interface Column {
   rank?: number;
   /** Unit appended to a detail value ("22.0 cfs"); defaults to the heading's second line without parentheses. */
   unit?: string;
+  /** How a detail line names the column ("Tc used"); defaults to the heading's first line in lower case. */
+  label?: string;
 }
 
 export interface Cell {
@@ -224,7 +226,9 @@ export function renderTable(layout: Layout, columns: readonly Column[], rows: re
         if (value === "" || value === "-") return "";
         const unit = unitOf(columns[i]);
         const numeric = /^-?[\d.,]+( %)?$/.test(value);
-        return `${headLines(columns[i])[0].toLowerCase()}: ${value}${unit && numeric ? ` ${unit}` : ""}`;
+        // The label's words stay on one line ("time to peak:").
+        const label = (columns[i].label ?? headLines(columns[i])[0].toLowerCase()).replace(/ /g, "\u00a0");
+        return `${label}: ${value}${unit && numeric ? ` ${unit}` : ""}`;
       })
       .filter((s) => s !== "");
     return items.length ? [wrap(`    ${items.join("; ")}`, width, 6)] : [];

@@ -73,6 +73,19 @@ describe("renderTable", () => {
     expect(plain[3]).toBe("    stage: 102.85 ft");
   });
 
+  it("names a detail by its label when it has one, and never breaks a label across lines", () => {
+    const timed: Column[] = [
+      { head: "Storm" },
+      { head: "Tc used", align: "right", narrow: "detail", label: "Tc used" },
+      { head: "Time to peak", align: "right", narrow: "detail" },
+    ];
+    const rows = [["100-yr storm of record", "8.6 min (given)", "12.02 h"]];
+    const lines = renderTable({ width: 34, wide: false, colour: false }, timed, rows).text.split("\n");
+    expect(lines.slice(1)).toEqual(["100-yr storm of record", "    Tc used: 8.6 min (given);", "      time to peak: 12.02 h"]);
+    // Control: the same words wrapped as prose break inside the label at this width.
+    expect(wrap("    Tc used: 8.6 min (given); time to peak: 12.02 h", 34, 6).split("\n")[0]).toMatch(/time$/);
+  });
+
   it("--wide keeps the whole table at any width", () => {
     const table = renderTable({ width: 30, wide: true, colour: false }, columns, rows);
     expect(table.compact).toBe(false);
@@ -93,6 +106,14 @@ describe("wrap", () => {
     for (const l of text.split("\n")) expect(l.length).toBeLessThanOrEqual(20);
     expect(text).toContain("1 %");
     expect(text).toContain("104.50 ft");
+  });
+
+  it("keeps minutes, seconds and areas with their numbers", () => {
+    for (const unit of ["min", "s", "ac", "ha", "ft2", "m2"]) {
+      expect(wrap(`step is 0.3 ${unit}`, 12).split("\n")).toEqual(["step is", `  0.3 ${unit}`]);
+    }
+    // Control: a word that is not a unit breaks from its number.
+    expect(wrap("step is 0.3 of", 12).split("\n")).toEqual(["step is 0.3", "  of"]);
   });
 
   it("keeps a slope ratio on one line", () => {
