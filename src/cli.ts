@@ -219,12 +219,17 @@ program
   .option("--json", "print the results as JSON instead of tables")
   .option("--storm <name>", "only this storm")
   .option("--area <pre|post>", "only this drainage area: pre (before development; its peak is the target) or post (after; the inflow)")
+  .option("--wide", WIDE)
   .addHelpText(
     "after",
     `
 For each storm given by its rainfall (storms[].rainfall) and each area of the hydrology section, prints
 the rainfall, runoff depth, peak flow, time to peak, volume, the Tc used and the time step, and what the
 routed case uses it for. The CSV files can be read back as a storm's inflow file.
+
+${FITS}
+Narrow terminals keep each hydrograph's storm, area, peak and volume on its row, and its other
+values as room allows; the rest (the rainfall first) go on indented lines below the row.
 
 Examples:
   outfit hydrograph cases/demo-rainfall/case.json
@@ -254,8 +259,8 @@ critical-duration volume; each with the stage it reaches in the case's pond and 
 or below the freeboard level (top of embankment less the freeboard depth).
 
 ${FITS}
-Narrow terminals keep each method's volume, and the stage as room allows, on its row; the target,
-peak inflow and notes go below it.
+Narrow terminals keep each method's volume on its row, and the stage and the fit as room allows;
+the rest (the storm's target and peak inflow, the notes) go on indented lines below the row.
 
 Examples:
   outfit volume cases/demo/case.json --type II

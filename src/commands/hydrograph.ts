@@ -6,6 +6,7 @@ import { Converter } from "../case/normalize.js";
 import { CaseError } from "../case/errors.js";
 import { caseHydrology, AREA_NAMES } from "../case/hydrology.js";
 import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
+import { layoutFor } from "../report/terminal.js";
 import { writeFileAtomic } from "../io.js";
 import { emit, load, safeName, UsageError } from "./common.js";
 
@@ -14,6 +15,7 @@ export interface HydrographCommandOptions {
   json?: boolean;
   storm?: string;
   area?: string;
+  wide?: boolean;
 }
 
 export function hydrographCommand(path: string, options: HydrographCommandOptions): number {
@@ -44,7 +46,9 @@ export function hydrographCommand(path: string, options: HydrographCommandOption
   // Everything is computed before anything is written; each file is written whole.
   for (const item of items) if (item.file) writeFileAtomic(item.file, hydrographCsv(c, item.result.hydrograph));
   const given: GivenValues[] = file.storms.map((s) => ({ inflow: s.inflow !== undefined, target: s.target !== undefined }));
-  emit(options.json ? JSON.stringify(hydrographJson(c, hydrology, items, given), null, 2) : hydrographText(c, hydrology, items, given), undefined);
+  // --out names the CSV files; the tables always go to the terminal, so they fit it.
+  const layout = layoutFor({ wide: options.wide });
+  emit(options.json ? JSON.stringify(hydrographJson(c, hydrology, items, given), null, 2) : hydrographText(c, hydrology, items, given, layout), undefined);
   return 0;
 }
 

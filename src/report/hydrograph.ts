@@ -6,8 +6,9 @@ import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 import { dimensionlessShape } from "../hydrology/unitHydrograph.js";
 import { formatter, trimNumber } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
-import { plainTable } from "./console.js";
+import { cautionText } from "./console.js";
 import { CAUTION } from "./caution.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 /** Which of a storm's inflow and target the case file gives explicitly (explicit values win). */
 export interface GivenValues {
@@ -62,15 +63,28 @@ function usedAs(area: AreaName, given: GivenValues): string {
   return given.target ? "shown only (target given)" : "target (its peak)";
 }
 
-export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[], given: GivenValues[]): string {
+/**
+ * The areas and every storm's runoff per area. Narrow: each hydrograph's storm, area, peak and volume
+ * stay in the compact row, then the runoff, time to peak and use as room allows; the rest (the
+ * rainfall, Tc and step; an area's curve number, runoff coefficient and Tc source) go below the row.
+ */
+export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[], given: GivenValues[], layout: Layout = PLAIN): string {
   const f = formatter(c.units);
   const hu = hydrologyUnits(c.units);
   const depth = (m: number) => `${hu.depth(m).toFixed(c.units === "US" ? 2 : 1)} ${hu.labels.depth}`;
-  const areas = plainTable(["Area", "Size", "Curve number", "Runoff coefficient", "Tc", "Tc from"], [false, true, true, true, true, false]);
+  const areaColumns: Column[] = [
+    { head: "Area" },
+    { head: "Size", align: "right" },
+    { head: "Curve number", align: "right", narrow: "detail" },
+    { head: "Runoff coefficient", align: "right", narrow: "detail" },
+    { head: "Tc", align: "right" },
+    { head: "Tc from", narrow: "detail", label: "Tc from" },
+  ];
+  const areaRows: Row[] = [];
   for (const name of ["pre", "post"] as const) {
     const k = h.catchments[name];
     if (!k) continue;
-    areas.push([
+    areaRows.push([
       name,
       `${hu.area(k.area).toFixed(2)} ${hu.labels.area}`,
       k.curveNumber === null ? "-" : k.curveNumber.toFixed(1),
@@ -79,14 +93,22 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
       tcText(k),
     ]);
   }
-  const storms = plainTable(
-    ["Storm", "Rainfall", "Area", "Runoff", "Peak", "Time to peak", "Volume", "Tc used", "Step", "Used as"],
-    [false, false, false, true, true, true, true, true, true, false],
-  );
-  for (const item of items) {
+  const stormColumns: Column[] = [
+    { head: "Storm" },
+    { head: "Rainfall", narrow: "detail", rank: 6 },
+    { head: "Area" },
+    { head: "Runoff", align: "right", narrow: "detail", rank: 1 },
+    { head: "Peak", align: "right" },
+    { head: "Time to peak", align: "right", narrow: "detail", rank: 2 },
+    { head: "Volume", align: "right" },
+    { head: "Tc used", align: "right", narrow: "detail", rank: 4, label: "Tc used" },
+    { head: "Step", align: "right", narrow: "detail", rank: 5 },
+    { head: "Used as", narrow: "detail", rank: 3 },
+  ];
+  const stormRows: Row[] = items.map((item) => {
     const s = h.storms[item.stormIndex]!;
     const r = item.result;
-    storms.push([
+    return [
       c.storms[item.stormIndex].name,
       rainfallText(c, s, r),
       item.area,
@@ -97,32 +119,37 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
       durationText(r.tc),
       r.unitDuration === null ? "-" : durationText(r.unitDuration),
       usedAs(item.area, given[item.stormIndex]),
-    ]);
-  }
+    ];
+  });
   const methods = new Set(h.storms.filter((s) => s !== null).map((s) => s!.method));
-  const lines = [`outfit hydrograph: ${c.name} (${c.units} units)`];
+  const prose = (text: string) => wrap(text, layout.width);
+  const lines = [prose(`outfit hydrograph: ${c.name} (${c.units} units)`)];
   if (methods.has("nrcs")) {
     lines.push(
-      `NRCS method: initial abstraction ratio ${h.nrcs.ratio}${h.nrcs.ratio === 0.05 ? " (curve numbers converted, Hawkins et al. 2002)" : ""}; ` +
-        `unit hydrograph ${dimensionlessShape(h.nrcs.peakRateFactor).source}; step = unit duration <= 0.133 Tc`,
+      prose(
+        `NRCS method: initial abstraction ratio ${h.nrcs.ratio}${h.nrcs.ratio === 0.05 ? " (curve numbers converted, Hawkins et al. 2002)" : ""}; ` +
+          `unit hydrograph ${dimensionlessShape(h.nrcs.peakRateFactor).source}; step = unit duration <= 0.133 Tc`,
+      ),
     );
   }
-  if (methods.has("rational")) lines.push("Rational method: Q = C i A; inflow = modified rational hydrograph of the duration needing the most storage");
-  lines.push("", areas.toString(), "", storms.toString());
+  if (methods.has("rational")) lines.push(prose("Rational method: Q = C i A; inflow = modified rational hydrograph of the duration needing the most storage"));
+  lines.push("", renderTable(layout, areaColumns, areaRows).text, "", renderTable(layout, stormColumns, stormRows).text);
   const sweeps = items.filter((i) => i.area === "post" && h.storms[i.stormIndex]!.sweep);
   for (const item of sweeps) {
     const s = h.storms[item.stormIndex]!;
     const k = s.sweep!.critical;
     lines.push(
       "",
-      `${c.storms[item.stormIndex].name}: of ${s.sweep!.trials.length} storm durations from ${durationText(s.sweep!.trials[0].duration)} to ` +
-        `${durationText(s.sweep!.trials[s.sweep!.trials.length - 1].duration)}, ${durationText(k.duration)} needs the most storage: ` +
-        `${hu.intensity(k.intensity).toFixed(2)} ${hu.labels.intensity}, peak ${f.flow(k.peak)}, ${f.volume(k.storage)} held to a release of ${f.flow(s.allowable!)}`,
+      prose(
+        `${c.storms[item.stormIndex].name}: of ${s.sweep!.trials.length} storm durations from ${durationText(s.sweep!.trials[0].duration)} to ` +
+          `${durationText(s.sweep!.trials[s.sweep!.trials.length - 1].duration)}, ${durationText(k.duration)} needs the most storage: ` +
+          `${hu.intensity(k.intensity).toFixed(2)} ${hu.labels.intensity}, peak ${f.flow(k.peak)}, ${f.volume(k.storage)} held to a release of ${f.flow(s.allowable!)}`,
+      ),
     );
   }
   const written = items.filter((i) => i.file !== null);
-  if (written.length > 0) lines.push("", "Hydrographs written (minutes, flow in " + f.labels.flow + "):", ...written.map((i) => `  ${i.file}`));
-  lines.push("", `Caution: ${CAUTION}`);
+  if (written.length > 0) lines.push("", prose("Hydrographs written (minutes, flow in " + f.labels.flow + "):"), ...written.map((i) => wrap(`  ${i.file}`, layout.width, 4)));
+  lines.push("", cautionText(layout));
   return lines.join("\n");
 }
 
