@@ -13,9 +13,22 @@ export interface Run {
 }
 
 export function outfit(...args: string[]): Run {
+  return outfitWith({}, ...args);
+}
+
+/**
+ * The command line with these environment variables set (undefined: unset). COLUMNS is unset unless
+ * given, so what the tests see does not depend on the terminal they run in.
+ */
+export function outfitWith(vars: Record<string, string | undefined>, ...args: string[]): Run {
   const env = { ...process.env };
   delete env.OUTFIT_DEBUG;
-  const r = spawnSync(process.execPath, [CLI, ...args], { cwd: ROOT, encoding: "utf8", env, timeout: 60_000 });
+  delete env.COLUMNS;
+  for (const [name, value] of Object.entries(vars)) {
+    if (value === undefined) delete env[name];
+    else env[name] = value;
+  }
+  const r = spawnSync(process.execPath, [CLI, ...args], { cwd: ROOT, encoding: "utf8", env, timeout: 120_000 });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 

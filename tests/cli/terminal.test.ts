@@ -3,16 +3,10 @@
 // piped without COLUMNS the tables are whole, one row per storm or stage.
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { resolve } from "node:path";
-import { ROOT } from "./run.js";
+import { outfitWith, ROOT, type Run } from "./run.js";
 
-function outfitAt(columns: number | null, ...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const env = { ...process.env };
-  delete env.OUTFIT_DEBUG;
-  delete env.COLUMNS;
-  if (columns !== null) env.COLUMNS = String(columns);
-  const r = spawnSync(process.execPath, [resolve(ROOT, "dist/src/cli.js"), ...args], { cwd: ROOT, encoding: "utf8", env, timeout: 120_000 });
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+function outfitAt(columns: number | null, ...args: string[]): Run {
+  return outfitWith({ COLUMNS: columns === null ? undefined : String(columns) }, ...args);
 }
 
 const longest = (text: string) => Math.max(...text.split("\n").map((l) => l.length));
