@@ -5,6 +5,7 @@ import { emit, load, positiveNumber, UsageError } from "../src/commands/common.j
 import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
 import { designPondAndOutlet } from "./pondDesign.js";
 import { pondDesignCase, pondDesignJson, pondDesignText } from "./pondReport.js";
+import { layoutFor, PLAIN } from "../src/report/terminal.js";
 import type { DesignCommandOptions } from "./command.js";
 
 /** File name of the proposal in --out. */
@@ -27,12 +28,13 @@ export async function pondDesignCommand(path: string, options: DesignCommandOpti
     beam: Math.round(positiveNumber("--beam", options.beam) ?? 3),
   });
   const json = pondDesignJson(c, design);
-  const text = pondDesignText(c, design);
+  const text = pondDesignText(c, design, layoutFor({ wide: options.wide }));
   if (options.out) {
     makeDirectory(options.out);
     if (design.chosen) writeFileAtomic(join(options.out, POND_DESIGN_CASE), JSON.stringify(pondDesignCase(design, options.out), null, 2) + "\n");
     writeFileAtomic(join(options.out, "results.json"), JSON.stringify(json, null, 2) + "\n");
-    writeFileAtomic(join(options.out, "summary.txt"), text + "\n");
+    // The summary file: the full plain layout, whatever the terminal.
+    writeFileAtomic(join(options.out, "summary.txt"), pondDesignText(c, design, PLAIN) + "\n");
     printErr(`outfit: wrote ${options.out}/results.json, summary.txt${design.chosen ? ` and ${POND_DESIGN_CASE}` : ""}\n`);
   }
   emit(options.json ? JSON.stringify(json, null, 2) : text, undefined);

@@ -2,7 +2,8 @@
 // smaller that failed; as text and JSON, and the case file of the proposal.
 import { formatter, trimNumber } from "../src/format.js";
 import { toCaseUnits } from "../src/units.js";
-import { plainTable, stormTable, checksTable, verdictText } from "../src/report/console.js";
+import { stormTable, checksTable, verdictText, cautionText } from "../src/report/console.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { routeJson } from "../src/report/json.js";
 import { CAUTION } from "../src/report/caution.js";
 import { pondFile } from "../src/report/pondFile.js";
@@ -25,12 +26,26 @@ function outcome(t: SizeTrial): string {
   return "no compliant outlet";
 }
 
-export function pondDesignText(c: Case, d: PondDesign): string {
+/** The sizes tried, narrowed to the layout: the step, the pond, its storage, the outlet's cost and
+ * the result stay on the row; footprint, excavation and pond cost go below it when narrow. Every
+ * cell carries its unit. */
+function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
   const f = formatter(c.units);
   const w = pondCostWeights(c);
-  const table = plainTable(["Steps", "Pond", "Storage below freeboard level", "Footprint", "Excavation", "Pond cost", "Outlet", "Result"], [true, false, true, true, true, true, true, false]);
-  for (const t of [...d.trials].sort((a, b) => a.steps - b.steps)) {
-    table.push([
+  const narrow = layout.width !== null && !layout.wide;
+  const columns: Column[] = [
+    { head: "Steps", align: "right" },
+    { head: "Pond" },
+    { head: "Storage below\nfreeboard level", align: "right", unit: "", label: "storage below freeboard level" },
+    { head: "Footprint", align: "right", narrow: "detail" },
+    { head: "Excavation", align: "right", narrow: "detail" },
+    { head: "Pond cost", align: "right", narrow: "detail" },
+    { head: "Outlet", align: "right", narrow: "detail", rank: 0, label: "outlet cost" },
+    { head: "Result" },
+  ];
+  const rows: Row[] = [...d.trials]
+    .sort((a, b) => a.steps - b.steps)
+    .map((t) => [
       String(t.steps),
       sizeWords(c, t.sized),
       f.volume(t.sized.provided),
@@ -38,34 +53,41 @@ export function pondDesignText(c: Case, d: PondDesign): string {
       f.volume(t.sized.excavation),
       `${pondCost(t.sized, w).toFixed(1)} units`,
       t.best ? `${t.best.cost.toFixed(1)} units` : "-",
-      outcome(t) + (t === d.chosen ? "  <- chosen" : ""),
+      // The marker goes under the result when the table must fit a width.
+      outcome(t) + (t === d.chosen ? (narrow ? "\n<- chosen" : "  <- chosen") : ""),
     ]);
-  }
-  const lines = [`outfit design --size-pond: ${c.name} (${c.units} units)`, "", "Pond sizes tried (from the storage estimate, grown until an outlet complies, then trimmed):", table.toString(), ""];
+  return renderTable(layout, columns, rows).text;
+}
+
+export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): string {
+  const f = formatter(c.units);
+  const w = pondCostWeights(c);
+  const p = (text: string) => wrap(text, layout.width);
+  const lines = [p(`outfit design --size-pond: ${c.name} (${c.units} units)`), "", p("Pond sizes tried (from the storage estimate, grown until an outlet complies, then trimmed):"), sizesTable(c, d, layout), ""];
   if (d.chosen) {
     const best = d.chosen.best!;
     lines.push(
-      `Chosen: the smallest compliant pond found: ${sizeWords(c, d.chosen.sized)}, bottom ${f.elevation(d.chosen.sized.pond.bottom)}, top ${f.elevation(d.chosen.sized.pond.top)}; total cost proxy ${d.chosen.totalCost!.toFixed(1)} units (outlet ${best.cost.toFixed(1)} + pond ${pondCost(d.chosen.sized, w).toFixed(1)}).`,
-      d.smaller ? `One step smaller (${sizeWords(c, d.smaller.sized)}): no compliant outlet was found${d.smaller.run ? ` (${d.smaller.run.layoutsFitted} layouts fitted, ${d.smaller.run.routings} routings)` : ""}.` : "The smallest size step is compliant.",
+      p(`Chosen: the smallest compliant pond found: ${sizeWords(c, d.chosen.sized)}, bottom ${f.elevation(d.chosen.sized.pond.bottom)}, top ${f.elevation(d.chosen.sized.pond.top)}; total cost proxy ${d.chosen.totalCost!.toFixed(1)} units (outlet ${best.cost.toFixed(1)} + pond ${pondCost(d.chosen.sized, w).toFixed(1)}).`),
+      p(d.smaller ? `One step smaller (${sizeWords(c, d.smaller.sized)}): no compliant outlet was found${d.smaller.run ? ` (${d.smaller.run.layoutsFitted} layouts fitted, ${d.smaller.run.routings} routings)` : ""}.` : "The smallest size step is compliant."),
       "",
-      `Outlet: ${best.description}`,
+      p(`Outlet: ${best.description}`),
       "",
-      stormTable(d.chosen.problem.case, best.routing),
+      stormTable(d.chosen.problem.case, best.routing, layout),
       "",
-      checksTable(d.chosen.problem.case, best.assessment.checks),
+      checksTable(d.chosen.problem.case, best.assessment.checks, layout),
       "",
-      verdictText(best.assessment),
+      verdictText(best.assessment, layout),
     );
   } else {
-    lines.push(`No compliant pond and outlet: ${d.stoppedBecause}.`);
+    lines.push(p(`No compliant pond and outlet: ${d.stoppedBecause}.`));
     const last = [...d.trials].sort((a, b) => b.steps - a.steps)[0];
     const closest = last?.run?.candidates[0];
     if (last) {
       const stage = closest?.routing.storms.find((s) => s.storm.name === c.criteria.freeboardStorm)?.result.maxStage ?? null;
-      lines.push(...shortfallLines(last.problem.case, storageShortfall(last.problem.case, stage)));
+      lines.push(...shortfallLines(last.problem.case, storageShortfall(last.problem.case, stage)).map(p));
     }
   }
-  lines.push("", `Caution: ${CAUTION}`);
+  lines.push("", cautionText(layout));
   return lines.join("\n");
 }
 

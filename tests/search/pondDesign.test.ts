@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { outfit } from "../cli/run.js";
+import { outfit, outfitWith } from "../cli/run.js";
 
 const dir = mkdtempSync(join(tmpdir(), "outfit-pond-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -93,3 +93,34 @@ describe("infeasible for lack of storage: the shortfall in volume, with units", 
     expect(run.stdout).toMatch(/Add about [\d,]+ ft3 of storage below the freeboard level/);
   });
 });
+
+describe("design --size-pond as text", () => {
+  const widest = (text: string) => Math.max(...text.split("\n").map((line) => line.length));
+  const out = join(dir, "text-out");
+  let narrow: string;
+  let piped: string;
+  beforeAll(() => {
+    const run = outfitWith({ COLUMNS: "80" }, "design", "cases/site-only/case.json", "--size-pond", "--budget", "3000", "--quiet", "--out", out);
+    expect(run.status).toBe(0);
+    narrow = run.stdout;
+    piped = outfit("design", "cases/site-only/case.json", "--size-pond", "--budget", "3000", "--quiet").stdout;
+  });
+
+  it("fits 80 columns: the sizes' footprint, excavation and costs go below each row, with their units", () => {
+    expect(widest(narrow)).toBeLessThanOrEqual(80);
+    expect(narrow).toMatch(/^ {4}footprint: [\d,]+ ft2; excavation: [\d,]+ ft3; pond cost: [\d.]+ units/m);
+    expect(narrow).toContain("<- chosen");
+    // The same pond sizes as the full table.
+    const sizes = (text: string) => [...text.matchAll(/(\d+\.\d ft x \d+\.\d ft floor) +([\d,]+ ft3)/g)].map((m) => `${m[1]} ${m[2]}`);
+    expect(sizes(narrow)).toEqual(sizes(piped));
+    expect(sizes(narrow).length).toBeGreaterThan(1);
+  });
+
+  it("piped and in summary.txt: the whole table on one line per size (the control: wider than 80)", () => {
+    expect(piped).toMatch(/^Steps {2}Pond .*freeboard level {2}Footprint {2}Excavation .*Pond cost .*Outlet {2}Result$/m);
+    expect(piped).toMatch(/^ +\d+ {2}[\d.]+ ft x [\d.]+ ft floor +[\d,]+ ft3 +[\d,]+ ft2 +[\d,]+ ft3 +[\d.]+ units +(-|[\d.]+ units) {2}\S/m);
+    expect(widest(piped)).toBeGreaterThan(80);
+    expect(readFileSync(join(out, "summary.txt"), "utf8").trimEnd()).toBe(piped.trimEnd());
+  });
+});
+
