@@ -1,5 +1,4 @@
 // Aligned console tables with a unit on every number.
-import Table from "cli-table3";
 import type { Case } from "../case/model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
@@ -12,21 +11,6 @@ import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { limitingPart } from "./limiting.js";
 import { paint, PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
-
-/** A borderless table: columns separated by two spaces. */
-export function plainTable(head: string[], alignRight: boolean[] = []): Table.Table {
-  return new Table({
-    head,
-    chars: {
-      top: "", "top-mid": "", "top-left": "", "top-right": "",
-      bottom: "", "bottom-mid": "", "bottom-left": "", "bottom-right": "",
-      left: "", "left-mid": "", mid: "", "mid-mid": "",
-      right: "", "right-mid": "", middle: "  ",
-    },
-    style: { head: [], border: [], "padding-left": 0, "padding-right": 0 },
-    colAligns: head.map((_, i) => (alignRight[i] ? "right" : "left")),
-  });
-}
 
 export function hours(h: number | null): string {
   return h === null ? "not drained" : `${h.toFixed(1)} h`;
