@@ -32,7 +32,6 @@ function outcome(t: SizeTrial): string {
 function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
   const f = formatter(c.units);
   const w = pondCostWeights(c);
-  const narrow = layout.width !== null && !layout.wide;
   const columns: Column[] = [
     { head: "Steps", align: "right" },
     { head: "Pond" },
@@ -43,20 +42,22 @@ function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
     { head: "Outlet", align: "right", narrow: "detail", rank: 0, label: "outlet cost" },
     { head: "Result" },
   ];
-  const rows: Row[] = [...d.trials]
-    .sort((a, b) => a.steps - b.steps)
-    .map((t) => [
-      String(t.steps),
-      sizeWords(c, t.sized),
-      f.volume(t.sized.provided),
-      `${Math.round(f.raw.area(t.sized.topArea)).toLocaleString("en-US")} ${f.labels.length}2`,
-      f.volume(t.sized.excavation),
-      `${pondCost(t.sized, w).toFixed(1)} units`,
-      t.best ? `${t.best.cost.toFixed(1)} units` : "-",
-      // The marker goes under the result when the table must fit a width.
-      outcome(t) + (t === d.chosen ? (narrow ? "\n<- chosen" : "  <- chosen") : ""),
-    ]);
-  return renderTable(layout, columns, rows).text;
+  const rows = (mark: string): Row[] =>
+    [...d.trials]
+      .sort((a, b) => a.steps - b.steps)
+      .map((t) => [
+        String(t.steps),
+        sizeWords(c, t.sized),
+        f.volume(t.sized.provided),
+        `${Math.round(f.raw.area(t.sized.topArea)).toLocaleString("en-US")} ${f.labels.length}2`,
+        f.volume(t.sized.excavation),
+        `${pondCost(t.sized, w).toFixed(1)} units`,
+        t.best ? `${t.best.cost.toFixed(1)} units` : "-",
+        outcome(t) + (t === d.chosen ? mark : ""),
+      ]);
+  // The chosen size's mark follows its result; under it when the table had to be narrowed.
+  const whole = renderTable(layout, columns, rows("  <- chosen"));
+  return (whole.compact ? renderTable(layout, columns, rows("\n<- chosen")) : whole).text;
 }
 
 export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): string {
