@@ -1,7 +1,7 @@
 // FLOOR FOR THE BENCH ONLY: the storage-indication recurrence on a rating table with nothing else
 // (no peaks, volumes, drawdown or stopping rule), for a fixed number of steps. What a JavaScript loop
 // over the same arithmetic costs; the router's bookkeeping is the difference.
-import type { Hydrograph } from "../src/case/model.js";
+import type { Hydrograph } from "../src/model.js";
 import type { RatingTable } from "../src/routing/ratingTable.js";
 
 export function bareLoop(table: RatingTable, inflow: Hydrograph, step: number, steps: number): number {

@@ -3,7 +3,7 @@
 // storage curve (50 halvings), looking the outflow up in the rating table by binary search at each
 // try. outfit's router instead walks a cursor along the table's 2S/dt + O column and interpolates
 // once. Same step, same table, same stopping rule, so the ratio of the two is the router's gain.
-import type { Hydrograph } from "../src/case/model.js";
+import type { Hydrograph } from "../src/model.js";
 import type { StorageCurve } from "../src/storage/curve.js";
 import { interpolateAtStage, type RatingTable } from "../src/routing/ratingTable.js";
 

@@ -3,7 +3,7 @@
 // the heap before and after many routings.
 import { fileURLToPath } from "node:url";
 import { loadCase } from "../src/case/load.js";
-import type { Hydrograph } from "../src/case/model.js";
+import type { Hydrograph } from "../src/model.js";
 import { buildRatingTable } from "../src/routing/ratingTable.js";
 import { route } from "../src/routing/router.js";
 import { drainedStage } from "../src/routing/routeCase.js";

@@ -16,7 +16,7 @@
 import { readdirSync, existsSync } from "node:fs";
 import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
-import type { Case } from "../src/case/model.js";
+import type { Case } from "../src/model.js";
 import type { CaseFile } from "../src/case/schema.js";
 import { buildProblem } from "../search/problem.js";
 import { runSearch } from "../search/run.js";

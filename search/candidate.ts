@@ -1,6 +1,6 @@
 // A candidate: a fitted design routed again through the very path `outfit route` uses, assessed with
 // warnings, costed, and ranked. The search never reports numbers from its own faster grid.
-import type { Outlet } from "../src/case/model.js";
+import type { Outlet } from "../src/model.js";
 import type { OutletFile } from "../src/case/schema.js";
 import { routeCase, type CaseRouting } from "../src/routing/routeCase.js";
 import type { RatingTable } from "../src/routing/ratingTable.js";

@@ -1,7 +1,7 @@
 // The cost proxy: a relative measure of what an outlet takes to build (not money). Each weight may be
 // overridden in the case's `costs`, in the case's length unit (per ft for US, per m for SI).
 import { own } from "../src/own.js";
-import type { Case, Outlet } from "../src/case/model.js";
+import type { Case, Outlet } from "../src/model.js";
 import { FOOT } from "../src/units.js";
 import { riserPerimeter } from "../src/hydraulics/riser.js";
 

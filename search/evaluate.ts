@@ -1,7 +1,7 @@
 // Evaluates a design: builds its outlet, rates it on the shared grid, routes the storms and turns
 // every check's slack into a residual. The fit is driven by the checks generically, so a rule added
 // to the assessment later needs no change here.
-import type { Outlet, Storm } from "../src/case/model.js";
+import type { Outlet, Storm } from "../src/model.js";
 import type { OutletFile } from "../src/case/schema.js";
 import { buildRatingTable, lazyRatingTable } from "../src/routing/ratingTable.js";
 import { route } from "../src/routing/router.js";

@@ -1,7 +1,7 @@
 // Explanations: which check binds each candidate, which elevation relaxes it and by how much (each
 // floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
 // in engineering terms.
-import type { Hydrograph } from "../src/case/model.js";
+import type { Hydrograph } from "../src/model.js";
 import { storageShortfall } from "../src/assess/storageShortfall.js";
 import { shortfallLines } from "../src/report/shortfall.js";
 import type { Check } from "../src/assess/checks.js";

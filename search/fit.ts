@@ -4,7 +4,7 @@
 // One layout in, candidates out: a self-contained unit of work.
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
-import type { Storm, Tailwater } from "../src/case/model.js";
+import type { Storm, Tailwater } from "../src/model.js";
 import type { RouteResult } from "../src/routing/router.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import { hydrographDifference } from "../src/storage/estimate.js";

@@ -3,7 +3,7 @@
 // case file's own form, so that every candidate is exactly what a case file would give: the only
 // place the search converts elevations to case units (`caseElevation`).
 import type { ElementFile, OutletFile } from "../src/case/schema.js";
-import type { Outlet } from "../src/case/model.js";
+import type { Outlet } from "../src/model.js";
 import { CaseError } from "../src/case/errors.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
 import { defaultCoefficients } from "../src/hydraulics/defaults.js";

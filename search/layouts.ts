@@ -3,7 +3,7 @@
 // chosen so far, and only the best few are kept at each level (a beam). Options that cannot meet a
 // target are pruned by a bound: openings only add flow, so if the first level alone already passes
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
-import type { Storm } from "../src/case/model.js";
+import type { Storm } from "../src/model.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
 import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
 import { aimBand } from "./problem.js";
@@ -16,7 +16,7 @@ import { stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
 import { RULES } from "../src/assess/rules/registry.js";
 import type { Check } from "../src/assess/rules/rule.js";
-import type { Outlet } from "../src/case/model.js";
+import type { Outlet } from "../src/model.js";
 
 export interface ScoredLayout {
   layout: Layout;

@@ -1,7 +1,7 @@
 // The pond's part of the cost proxy: excavation and footprint, overridable in the case's `costs` like
 // the outlet's weights (per ft3 and ft2 in US cases, per m3 and m2 in SI). Invented relative efforts
 // for ranking alternatives, not prices.
-import type { Case } from "../src/case/model.js";
+import type { Case } from "../src/model.js";
 import { FOOT } from "../src/units.js";
 import type { SizedPond } from "../src/storage/sizing.js";
 

@@ -9,7 +9,7 @@ import { CAUTION } from "../src/report/caution.js";
 import { pondFile } from "../src/report/pondFile.js";
 import { shortfallLines } from "../src/report/shortfall.js";
 import { storageShortfall } from "../src/assess/storageShortfall.js";
-import type { Case } from "../src/case/model.js";
+import type { Case } from "../src/model.js";
 import type { SizedPond } from "../src/storage/sizing.js";
 import { candidateCase } from "./report.js";
 import { pondCost, pondCostWeights } from "./pondCost.js";

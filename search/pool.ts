@@ -4,7 +4,7 @@
 import { Worker } from "node:worker_threads";
 import type { Layout } from "./layout.js";
 import type { DesignLimits, SearchProblem } from "./problem.js";
-import type { Hydrograph } from "../src/case/model.js";
+import type { Hydrograph } from "../src/model.js";
 import { fitJob, layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";
 import { scoreChunk } from "./layouts.js";

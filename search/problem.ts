@@ -1,6 +1,6 @@
 // What the search works on: the case, the catalogue's part options, the fixed parts, the elevation
 // limits, the stage grid shared by every candidate and the target aims.
-import type { Case, Hydrograph, Outlet, Storm } from "../src/case/model.js";
+import type { Case, Hydrograph, Outlet, Storm } from "../src/model.js";
 import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
 import type { Layout } from "./layout.js";
 import { normalizeOutlet } from "../src/case/normalize.js";

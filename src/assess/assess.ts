@@ -1,5 +1,5 @@
 // A routed outlet judged against the case: checks, warnings, compliance and the binding check.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import { bindingCheck, evaluateChecks, type Check } from "./checks.js";
 import { outletWarnings, type Warning } from "./warnings.js";

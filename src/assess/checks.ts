@@ -3,7 +3,7 @@
 // pond.bottom for elevation checks; negative when the check fails. Each kind of check is one rule
 // in ./rules/; this file runs the registry, routing each variant some rule names once (and the
 // clogged outlet when the case assumes clogging).
-import type { Case, Outlet } from "../case/model.js";
+import type { Case, Outlet } from "../model.js";
 import { routeCase, type StormRouting } from "../routing/routeCase.js";
 import { RULES, ruleOf } from "./rules/registry.js";
 import type { Check, RoutingVariant, RuleInput, VariantOutlet } from "./rules/rule.js";

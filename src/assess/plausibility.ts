@@ -3,7 +3,7 @@
 // riser or taller than the pond, a riser narrower than its barrel, a pond that stores nothing, an
 // inflow cut off far from zero, a routing whose mass balance is off. Each warning names the part,
 // the value and why; the case still routes (the engineer may mean it), but not without a word.
-import type { Case, Outlet } from "../case/model.js";
+import type { Case, Outlet } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import { formatter } from "../format.js";
 import { openingHeight, openingWidth } from "../hydraulics/orifice.js";

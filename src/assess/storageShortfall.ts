@@ -3,7 +3,7 @@
 // most the target at every instant, so it must hold at least the inflow's volume above the target
 // (the constant-release hydrograph difference): that less what the pond holds between its pool and
 // the freeboard level is storage no outlet can do without.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { targetBand } from "./rules/band.js";
 import { storageCurve } from "../storage/curve.js";
 import { hydrographDifference } from "../storage/estimate.js";

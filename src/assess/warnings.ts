@@ -1,6 +1,6 @@
 // Parts used outside the range their formula or coefficient was published for, openings that do not
 // fit their wall, and numerical cautions of the routing. The search prefers designs without them.
-import type { Case, Element, Outlet } from "../case/model.js";
+import type { Case, Element, Outlet } from "../model.js";
 import { drainedStage, type CaseRouting } from "../routing/routeCase.js";
 import { formatter, type Formatter } from "../format.js";
 import { FOOT } from "../units.js";

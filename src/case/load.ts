@@ -5,7 +5,7 @@ import type { z } from "zod";
 import { caseSchema, type CaseFile } from "./schema.js";
 import { CaseError, describeIoError, jsonPath, show, type Problem } from "./errors.js";
 import { normalizeCase } from "./normalize.js";
-import type { Case, Hydrograph } from "./model.js";
+import type { Case, Hydrograph } from "../model.js";
 import { unknownFields } from "./unknownFields.js";
 
 export interface LoadedCase {

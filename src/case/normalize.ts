@@ -2,7 +2,7 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
-import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "./model.js";
+import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";

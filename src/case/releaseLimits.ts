@@ -1,7 +1,7 @@
 // A storm's release limits (the plain `target` and each `releaseLimits` form) resolved to flows in SI;
 // the smallest governs and becomes the storm's target.
 import type { StormFile } from "./schema.js";
-import type { ReleaseLimit } from "./model.js";
+import type { ReleaseLimit } from "../model.js";
 import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { parseArea, parseUnitAreaRate } from "../units.js";

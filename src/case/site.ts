@@ -1,6 +1,6 @@
 // The case file's `site` section in SI, and the pond sized from it when the file gives no pond.
 import type { CaseFile } from "./schema.js";
-import type { Criteria, Pond, Site, SiteSizingSummary, Storm } from "./model.js";
+import type { Criteria, Pond, Site, SiteSizingSummary, Storm } from "../model.js";
 import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { baseLength, baseVolume, FOOT, parseArea } from "../units.js";

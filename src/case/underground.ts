@@ -1,11 +1,11 @@
 // The case file's underground storage forms (pipe gallery, chambers, stone bed) in SI, with the checks
 // that involve several fields: the units sit inside the bed, the bed inside the pond's range.
 import type { Length, StorageFile, StoneFile } from "./schema.js";
-import type { Storage } from "./model.js";
+import type { Storage } from "../model.js";
 import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { baseArea, baseLength } from "../units.js";
-import type { StoneBed, UndergroundUnits } from "./model.js";
+import type { StoneBed, UndergroundUnits } from "../model.js";
 import { systemTop, unitsFootprint } from "../storage/underground.js";
 
 const SLACK = 1e-9;

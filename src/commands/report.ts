@@ -15,7 +15,7 @@ import { renderHtml } from "../report/html/render.js";
 import { renderMarkdown } from "../report/markdown.js";
 import { load, positiveLength, positiveNumber, UsageError } from "./common.js";
 import { loadCase, type LoadedCase } from "../case/load.js";
-import type { Hydrograph } from "../case/model.js";
+import type { Hydrograph } from "../model.js";
 import { Converter } from "../case/normalize.js";
 import { caseHydrology } from "../case/hydrology.js";
 import type { ReportInputs } from "../report/review/caseReport.js";

@@ -10,7 +10,7 @@ import { layoutFor } from "../report/terminal.js";
 import { CaseError } from "../case/errors.js";
 import { printErr, writeFileAtomic } from "../io.js";
 import { basename } from "node:path";
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { emit, load, positiveNumber, safeName, UsageError } from "./common.js";
 
 export interface RouteCommandOptions {

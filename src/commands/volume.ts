@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { caseSchema, type CaseFile } from "../case/schema.js";
 import { Converter } from "../case/normalize.js";
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { caseHydrology } from "../case/hydrology.js";
 import { DISTRIBUTION_TYPES, type DistributionType } from "../hydrology/distributions.js";
 import { tr55Group, type Tr55Group } from "../storage/estimate.js";

@@ -17,7 +17,7 @@
 // Profile types (Chow 1959, sec. 9-3): mild slope (yn > yc) M2 below normal depth, M1 above it;
 // steep slope (yn < yc) S1 from a tailwater above critical depth; horizontal H2 and adverse A2
 // rise upstream until they reach the crown (no normal depth). SI units.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { barrelRise, barrelSlope, emptySection, frictionSlope, froudeSquared, sectionAt } from "./barrelSection.js";
 import { normalDepth } from "./normalDepth.js";
 import { barrelCriticalDepth } from "./criticalDepth.js";

@@ -24,7 +24,7 @@
 // 1.8113 (HDS-5's Ku = 1.811 for SI), and the friction term takes L and R in feet (the same as
 // HDS-5's SI constant 19.63 with L and R in metres). Everything else is dimensionless or SI, g =
 // 9.80665 m/s2.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { FOOT, GRAVITY } from "../units.js";
 import { entrance, type Entrance } from "./entrances.js";
 import { barrelCriticalDepth, circularFlowArea } from "./criticalDepth.js";

@@ -21,7 +21,7 @@
 // exact headwater better at a third and two thirds of it (in ln Q), and is split there until that
 // one misplaces the flow by no more than 0.01 %. The inverse follows the same segments. Beyond the
 // last node the exact functions are used.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { barrelHeadwater, barrelPoint, exactBarrelFlow, flowParameter } from "./barrel.js";
 import { criticalSlopeFlows } from "./normalDepth.js";
 

@@ -3,7 +3,7 @@
 // theta = 4 asin(sqrt(y/D)) has A = D^2 (theta - sin theta)/8, P = D theta/2, T = D sin(theta/2)
 // (Chow 1959, Open-Channel Hydraulics, Table 2-1). A box of span B has A = B y, P = B + 2 y, T = B
 // up to its rise (the lid is not wetted until the box runs full). SI units.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { GRAVITY } from "../units.js";
 import { thetaMinusSine } from "./criticalDepth.js";
 

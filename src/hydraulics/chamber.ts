@@ -10,7 +10,7 @@
 // HW(Q) is the barrel's tabulated curve for the tailwater (barrelCurve.ts), built once per barrel
 // and downstream level; with `exact` it is the pointwise HDS-5 and backwater evaluation instead
 // (for a tailwater that changes with the outflow, where a curve would serve one evaluation only).
-import type { Barrel, Outlet } from "../case/model.js";
+import type { Barrel, Outlet } from "../model.js";
 import { barrelHeadwater, barrelState, type BarrelState } from "./barrel.js";
 import { barrelCurve, curveFlow, curveHeadwater } from "./barrelCurve.js";
 import { lowestOpening, openingsFlow } from "./openings.js";

@@ -5,7 +5,7 @@
 // stage for the same chamber level), so the previous root bounds it from below, and its linear
 // extrapolation over the last three stages, with the previous slope of g, is usually within the
 // tolerance after one evaluation. Accepted within SWEEP_TOLERANCE of the flow.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { barrelCurve, curveFlow, curveHeadwater, type BarrelCurve } from "./barrelCurve.js";
 import { lowestOpening } from "./openings.js";
 import type { OpeningsSweep } from "./openingsSweep.js";

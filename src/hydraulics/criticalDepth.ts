@@ -2,7 +2,7 @@
 // condition of minimum specific energy (Chow 1959, Open-Channel Hydraulics, sec. 3-2; HDS-5 ch. III).
 // Solved, not read from a chart: closed form for a rectangle, Newton's method with a bisection
 // safeguard for a circle. SI units.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { GRAVITY } from "../units.js";
 
 /** Critical depth of a rectangular section of width `span` (m): dc = (q^2/g)^(1/3), q = Q/span. */

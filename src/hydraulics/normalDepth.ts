@@ -4,7 +4,7 @@
 // faster than its area), so a circle carries at most about 1.076 times its full-flow capacity at
 // normal depth (Chow 1959, Fig. 6-3; from memory) and a larger flow has no normal depth in it. A
 // box flowing part full has the section factor of an open rectangle, which rises without bound.
-import type { Barrel } from "../case/model.js";
+import type { Barrel } from "../model.js";
 import { GRAVITY } from "../units.js";
 import { barrelSlope, emptySection, sectionAt, type Section } from "./barrelSection.js";
 import { brentRoot } from "./roots.js";

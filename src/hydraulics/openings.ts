@@ -1,7 +1,7 @@
 // The openings of the riser or headwall (orifices, weirs, regulators) and the riser's rim: the flow
 // in through them for a pond stage and a downstream level (the chamber, or tailwater without a
 // barrel), each part submerged by that level as the case-format contract states.
-import type { Element, Outlet } from "../case/model.js";
+import type { Element, Outlet } from "../model.js";
 import { orificeFlow } from "./orifice.js";
 import { weirFlow } from "./weir.js";
 import { regulatorFlow } from "./regulator.js";

@@ -5,7 +5,7 @@
 // flow); only a circular orifice's flow is approximated when `tabulated` is set: its free flow from
 // the dimensionless table (circleTable.ts), its submerged flow under a water surface that stands
 // over the whole opening from the 8-point rule (orifice.ts), both within 1e-6 of the direct value.
-import type { Outlet } from "../case/model.js";
+import type { Outlet } from "../model.js";
 import { elementBottom, elementFlow } from "./openings.js";
 import { rimDischarge } from "./riser.js";
 import { GRAVITY } from "../units.js";

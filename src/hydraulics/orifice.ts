@@ -3,7 +3,7 @@
 //   Q = Cd sqrt(2g) * integral of width(y) sqrt(WS - max(y, DS)) dy over the opening below WS.
 // The part below the downstream level DS sees the head WS - DS; the part above it WS - y. There is
 // no switch to a centroid formula, so the rating is smooth from a weir-like start to full flow.
-import type { Orifice } from "../case/model.js";
+import type { Orifice } from "../model.js";
 import { GRAVITY } from "../units.js";
 import { gaussLegendre, type Rule } from "./quadrature.js";
 

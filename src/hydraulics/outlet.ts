@@ -2,7 +2,7 @@
 // chamber, which the barrel drains; without a barrel they discharge straight to tailwater. The
 // spillway always discharges straight downstream. No reverse flow: a downstream level above the
 // pond stage gives zero outflow.
-import type { Outlet, Tailwater } from "../case/model.js";
+import type { Outlet, Tailwater } from "../model.js";
 import { rimFlow } from "./riser.js";
 import { spillwayFlow } from "./spillway.js";
 import { tailwaterLevel } from "./tailwater.js";

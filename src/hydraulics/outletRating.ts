@@ -6,7 +6,7 @@
 // differs from a kept rating on the same grid from that rating (sweepReuse.ts, exact). With `direct`
 // every stage is `outletDischarge` on its own, the reference the tests and the bench compare the
 // sweep with.
-import type { Outlet, Tailwater } from "../case/model.js";
+import type { Outlet, Tailwater } from "../model.js";
 import { dischargeAtTailwater, outletDischarge } from "./outlet.js";
 import { lowestOpening } from "./openings.js";
 import { freeColumn, OpeningsSweep } from "./openingsSweep.js";

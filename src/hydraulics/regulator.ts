@@ -2,7 +2,7 @@
 // monotone cubic (Fritsch-Carlson). Above the last point the flow grows as the square root of head
 // from the last point (orifice-like), and the assessment warns. A downstream level above the
 // invert reduces the head to WS - DS (case-format contract).
-import type { Regulator } from "../case/model.js";
+import type { Regulator } from "../model.js";
 import { fritschCarlsonTangents, hermite } from "./monotoneCubic.js";
 
 const tangents = new WeakMap<Regulator, Float64Array>();

@@ -2,7 +2,7 @@
 // the top opening, Cd A sqrt(2 g H) (HEC-22 sec. 8.4.4.2 and Example 8-6). Defaults Cw 3.0 US /
 // 1.66 SI, Cd 0.60 (case-format contract). A chamber level above the rim reduces the weir flow by
 // Villemonte's formula (n = 1.5) and the orifice head to WS - DS.
-import type { Riser } from "../case/model.js";
+import type { Riser } from "../model.js";
 import { GRAVITY } from "../units.js";
 import { villemonte } from "./submergence.js";
 

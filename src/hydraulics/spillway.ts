@@ -2,7 +2,7 @@
 // contract; the first term is HEC-22 eq 8-22 / 8-26, the second the side slopes' share).
 // Default C 2.8 US / 1.55 SI, within HEC-22 Table 8-1 (Brater & King). Villemonte n = 1.5 when the
 // tailwater stands above the crest.
-import type { Spillway } from "../case/model.js";
+import type { Spillway } from "../model.js";
 import { villemonte } from "./submergence.js";
 
 export function spillwayFlow(s: Spillway, ws: number, tw: number): number {

@@ -1,6 +1,6 @@
 // Downstream water level: free outfall, a constant elevation, or a channel rating (elevation by the
 // pond's total outflow, linear between rows, held flat beyond the last row's slope-extended line).
-import type { Tailwater } from "../case/model.js";
+import type { Tailwater } from "../model.js";
 
 /** Tailwater elevation for a total outflow; -Infinity for a free outfall. */
 export function tailwaterLevel(t: Tailwater, flow: number): number {

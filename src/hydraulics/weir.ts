@@ -3,7 +3,7 @@
 //   Francis 1883). Default C 3.33 US / 1.84 SI (HEC-22 eq 8-19, H/Hc < 0.3).
 // V-notch: Q = C tan(angle/2) H^2.5 (HEC-22 eq 8-23), default C 2.50 US / 1.38 SI.
 // Both reduced by Villemonte's formula when the downstream level stands above the crest.
-import type { RectangularWeir, VNotchWeir, Weir } from "../case/model.js";
+import type { RectangularWeir, VNotchWeir, Weir } from "../model.js";
 import { villemonte } from "./submergence.js";
 
 export function weirFlow(w: Weir, ws: number, ds: number): number {

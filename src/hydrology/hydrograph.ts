@@ -1,6 +1,5 @@
 // Small helpers on hydrographs built by the hydrology: from a regular series, and their summary.
-import type { Hydrograph } from "../case/model.js";
-import { hydrographVolume } from "../routing/router.js";
+import type { Hydrograph } from "../model.js";
 
 /**
  * A hydrograph from flows at t = n * step, leaving out the inner points of runs of zero flow (the
@@ -62,4 +61,11 @@ export function summarize(h: Hydrograph): HydrographSummary {
     }
   }
   return { peak, timeOfPeak, volume: hydrographVolume(h) };
+}
+
+/** Exact volume of a piecewise-linear hydrograph (m3). */
+export function hydrographVolume(h: Hydrograph): number {
+  let v = 0;
+  for (let i = 1; i < h.times.length; i++) v += 0.5 * (h.flows[i] + h.flows[i - 1]) * (h.times[i] - h.times[i - 1]);
+  return v;
 }

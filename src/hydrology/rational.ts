@@ -1,5 +1,5 @@
 // Rational method and modified rational hydrographs for small sites. SI inside: m2, m/s, s, m3/s.
-import type { Hydrograph } from "../case/model.js";
+import type { Hydrograph } from "../model.js";
 import { intensity, idfRange, type IdfCurve } from "./idf.js";
 import { summarize, type AreaHydrograph } from "./hydrograph.js";
 

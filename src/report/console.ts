@@ -1,5 +1,5 @@
 // Aligned console tables with a unit on every number.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";

@@ -1,5 +1,5 @@
 // An outlet in words, with sizes and elevations in the case's units.
-import type { Element, Outlet } from "../case/model.js";
+import type { Element, Outlet } from "../model.js";
 import type { Formatter } from "../format.js";
 
 export function describeElement(e: Element, f: Formatter): string {

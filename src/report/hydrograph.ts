@@ -1,6 +1,6 @@
 // Output of `outfit hydrograph`: the areas, each storm's runoff per area, the rational duration sweep,
 // and the hydrographs as CSV, in the case's units.
-import type { Case, Hydrograph } from "../case/model.js";
+import type { Case, Hydrograph } from "../model.js";
 import type { AreaName, CaseHydrology, Catchment, StormHydrology } from "../case/hydrology.js";
 import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 import { dimensionlessShape } from "../hydrology/unitHydrograph.js";

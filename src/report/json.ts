@@ -1,5 +1,5 @@
 // JSON output in the case's units, with the fields the case-format contract names.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";

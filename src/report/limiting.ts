@@ -1,5 +1,5 @@
 // Which part limits the outflow at a stage, in the trade's words, for tables a reviewer reads.
-import type { Outlet } from "../case/model.js";
+import type { Outlet } from "../model.js";
 import { openingsFlow, type OutletDetail } from "../hydraulics/outlet.js";
 
 /**

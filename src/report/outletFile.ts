@@ -1,6 +1,6 @@
 // An outlet written back in the case file's `outlet` form, in the case's units, with every
 // coefficient explicit, so that it can be pasted into a case and routed again.
-import type { Outlet } from "../case/model.js";
+import type { Outlet } from "../model.js";
 import type { OutletFile } from "../case/schema.js";
 import { toCaseUnits, type UnitSystem } from "../units.js";
 import { trimNumber } from "../format.js";

@@ -1,5 +1,5 @@
 // A pond in the case file's own form and units (so that a sized pond can be written into a case).
-import type { Pond } from "../case/model.js";
+import type { Pond } from "../model.js";
 import { toCaseUnits, type UnitSystem } from "../units.js";
 
 const tidy = (x: number) => Number(x.toFixed(6));

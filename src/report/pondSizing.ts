@@ -1,5 +1,5 @@
 // `outfit pond` output: the pond sized from the site limits, as a table or JSON.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { formatter, trimNumber } from "../format.js";
 import { toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";

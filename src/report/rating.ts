@@ -1,5 +1,5 @@
 // The outlet's stage-discharge table for `outfit rate`: every part's flow, storage and the control.
-import type { Case, Outlet } from "../case/model.js";
+import type { Case, Outlet } from "../model.js";
 import { outletDetail, type OutletDetail } from "../hydraulics/outlet.js";
 import { storageCurve } from "../storage/curve.js";
 import { formatter, significant } from "../format.js";

@@ -1,6 +1,6 @@
 // Every storm's routed series (time, inflow, outflow, stage, storage and each part's flow) in the
 // case's units, for `route --csv-dir` (one CSV per storm) and `route --json --series`.
-import type { Case, Outlet } from "../case/model.js";
+import type { Case, Outlet } from "../model.js";
 import type { StormRouting } from "../routing/routeCase.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { storageCurve } from "../storage/curve.js";

@@ -1,5 +1,5 @@
 // A storage shortfall in words, with units.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { formatter } from "../format.js";
 import type { StorageShortfall } from "../assess/storageShortfall.js";
 

@@ -1,5 +1,5 @@
 // `outfit volume` output: every storm's storage estimates side by side, as a table or JSON.
-import type { Case } from "../case/model.js";
+import type { Case } from "../model.js";
 import { formatter } from "../format.js";
 import { toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";

@@ -4,7 +4,7 @@
 // from the rating sweep (`rateOutlet`, as every rating table's do: within 1e-5 of the direct
 // evaluation, tests/routing/drainTime.test.ts and drainTimeKept.test.ts); `direct` evaluates each stage on its own instead.
 // No allocation per stage: the mid-stage grids and the flows are kept between calls.
-import type { Outlet, Pond, Tailwater } from "../case/model.js";
+import type { Outlet, Pond, Tailwater } from "../model.js";
 import { rateOutlet } from "../hydraulics/outletRating.js";
 import type { StorageCurve } from "../storage/curve.js";
 

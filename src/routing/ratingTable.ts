@@ -1,6 +1,6 @@
 // The outlet's rating on a stage grid, with the pond's storage at the same stages: the table that
 // storage-indication routing interpolates in.
-import type { Outlet, Pond, Tailwater } from "../case/model.js";
+import type { Outlet, Pond, Tailwater } from "../model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
 import { RatingSweep } from "../hydraulics/outletRating.js";
 import { openingHeight } from "../hydraulics/orifice.js";

@@ -1,5 +1,5 @@
 // Routes every storm of a case through one outlet: the path shared by `route`, `design` and `report`.
-import type { Case, Outlet, Storm } from "../case/model.js";
+import type { Case, Outlet, Storm } from "../model.js";
 import { buildRatingTable, type RatingTable, type StageGrid } from "./ratingTable.js";
 import { route, type RouteResult } from "./router.js";
 

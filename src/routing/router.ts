@@ -3,9 +3,10 @@
 // with linear interpolation in the (2S/dt + O, O) relation built from the rating table. The step may
 // vary from step to step (the table's 2S/dt + O is formed on the fly), so the router refines it where
 // the inflow or the outflow changes fast, and lands on every inflow point.
-import type { Hydrograph } from "../case/model.js";
+import type { Hydrograph } from "../model.js";
 import type { RatingTable } from "./ratingTable.js";
 import { interpolateAtStage } from "./ratingTable.js";
+import { hydrographVolume } from "../hydrology/hydrograph.js";
 
 export interface RouteOptions {
   /** Fixed time step (s). Without it the router chooses and refines the step itself. */
@@ -108,13 +109,6 @@ function fillIndication(S: Float64Array, O: Float64Array, step: number): void {
     const width = indication[i + 1] - indication[i];
     inverseWidth[i] = width > 0 ? 1 / width : 0;
   }
-}
-
-/** Exact volume of a piecewise-linear hydrograph (m3). */
-export function hydrographVolume(h: Hydrograph): number {
-  let v = 0;
-  for (let i = 1; i < h.times.length; i++) v += 0.5 * (h.flows[i] + h.flows[i - 1]) * (h.times[i] - h.times[i - 1]);
-  return v;
 }
 
 /**

@@ -12,7 +12,7 @@
 // exact volume of the full hydrograph: the volume is conserved, and so is where it arrives to within
 // a cell. The peak's cell spans one point spacing, so the thinned peak is the full peak less an eighth
 // of its second difference.
-import type { Hydrograph } from "../case/model.js";
+import type { Hydrograph } from "../model.js";
 
 export interface ThinOptions {
   /** Fraction of the peak inflow the flow may vary over a merged run (default 0.002). */

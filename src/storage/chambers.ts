@@ -2,7 +2,7 @@
 // and the plan area of water inside one unit there. The area is linear between rows, so the volume of
 // a row interval is exactly its average-end area times its height (to a partial height, with the
 // interpolated area). Above the last row the unit is closed: it holds no more.
-import type { Chambers } from "../case/model.js";
+import type { Chambers } from "../model.js";
 
 export type { Chambers };
 

@@ -1,5 +1,5 @@
 // A pond's stage-storage relation as functions of stage (storage measured above pond.bottom).
-import type { Pond } from "../case/model.js";
+import type { Pond } from "../model.js";
 import { prismoidArea, prismoidVolume } from "./prismoid.js";
 import { stageAreaArea, stageAreaVolume } from "./stageArea.js";
 import { stageStorageArea, stageStorageVolume } from "./stageStorage.js";

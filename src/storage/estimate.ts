@@ -8,7 +8,7 @@
 //   runoff to the target at the inflow's peak and holds it there; and the same with the release at the
 //   target from the start (constant release), which releases more early and so holds less.
 // - Modified rational critical duration for rational-method storms (hydrology/rational.ts).
-import type { Hydrograph } from "../case/model.js";
+import type { Hydrograph } from "../model.js";
 import type { DistributionType } from "../hydrology/distributions.js";
 
 export type Tr55Group = "I/IA" | "II/III";

@@ -3,7 +3,7 @@
 // so the volume of one pipe is the integral of the segment area over its length:
 //   level pipe:  V = L A(z - invert)
 //   slope S > 0: V = (G(z - invert) - G(z - invert - S L)) / S, G the depth integral of the area.
-import type { PipeGallery } from "../case/model.js";
+import type { PipeGallery } from "../model.js";
 
 export type { PipeGallery };
 import { segmentArea, segmentAreaIntegral, segmentWidth } from "./circularSegment.js";

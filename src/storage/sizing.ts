@@ -6,7 +6,7 @@
 // The depth is the site's largest depth (floor to top of embankment): for a given storage the deepest
 // pond has the smallest footprint. A permanent pool is a depth, or a volume whose depth is solved at
 // each size.
-import type { Pond, Site, Storage } from "../case/model.js";
+import type { Pond, Site, Storage } from "../model.js";
 
 export type { Site };
 import { storageCurve } from "./curve.js";

@@ -1,6 +1,6 @@
 // The stage at which a pond holds a volume above its permanent pool (or floor), by bisection on the
 // storage curve (storage grows with stage; above the top the walls are vertical, so any volume has a stage).
-import type { Pond } from "../case/model.js";
+import type { Pond } from "../model.js";
 import { storageCurve } from "./curve.js";
 
 export function stageAtVolume(pond: Pond, volumeAbovePool: number): number {

@@ -4,7 +4,7 @@
 //   V_stone(z) = n (L W (z - bottom) - V_inner,full(z)),  V = V_inner(z) + V_stone(z)
 // where V_inner,full is the space the units take below z, counted full (their walls are not modelled:
 // the inside section stands for the outside one).
-import type { StoneBed } from "../case/model.js";
+import type { StoneBed } from "../model.js";
 
 export type { StoneBed };
 

@@ -1,6 +1,6 @@
 // Every storm's storage estimates side by side, with the stage each reaches in the case's pond and
 // whether it stays below the freeboard level (top of embankment less the freeboard depth).
-import type { Case, Pond, Storm } from "../case/model.js";
+import type { Case, Pond, Storm } from "../model.js";
 import type { CriticalDuration } from "../hydrology/rational.js";
 import {
   hydrographDifference,

@@ -2,7 +2,7 @@
 // measured from the lowest point of the system; above the system's top (the bed's top, or the highest
 // crown or chamber top without stone) storage grows with the system's footprint (vertical walls, as the
 // case format has it above a table), so a stage above pond.top still has a volume to route with.
-import type { UndergroundSystem, UndergroundUnits } from "../case/model.js";
+import type { UndergroundSystem, UndergroundUnits } from "../model.js";
 import { galleryArea, galleryBreaks, galleryTop, galleryVolume } from "./pipeGallery.js";
 import { chambersArea, chambersBreaks, chambersTop, chambersVolume } from "./chambers.js";
 import { stoneArea, stoneVolume } from "./stoneEnvelope.js";

@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { blockedOutlet, BLOCKED_VARIANT, spillwayAlone } from "../../src/assess/rules/blockedOutlet.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import type { Check } from "../../src/assess/rules/rule.js";
-import type { Outlet } from "../../src/case/model.js";
+import type { Outlet } from "../../src/model.js";
 import { parseCase } from "../../src/case/load.js";
 import { routed, storm, testCase } from "./support.js";
 

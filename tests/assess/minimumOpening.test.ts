@@ -6,7 +6,7 @@ import { minimumOpening, smallestOpening } from "../../src/assess/rules/minimumO
 import { minimumOpeningRelease, SMALLEST_VARIANT } from "../../src/assess/rules/minimumOpeningRelease.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import type { Check } from "../../src/assess/rules/rule.js";
-import type { Outlet } from "../../src/case/model.js";
+import type { Outlet } from "../../src/model.js";
 import { routed, storm, testCase } from "./support.js";
 
 const INCH = 0.0254;

@@ -13,7 +13,7 @@ import { RULES, ruleOf, whyNothingComplies } from "../../src/assess/rules/regist
 import type { Check, Rule } from "../../src/assess/rules/rule.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import { withinBand } from "../../src/report/json.js";
-import type { Case, Outlet } from "../../src/case/model.js";
+import type { Case, Outlet } from "../../src/model.js";
 import type { StormRouting } from "../../src/routing/routeCase.js";
 import { NO_SPILLWAY, routed, storm, testCase } from "./support.js";
 

@@ -1,5 +1,5 @@
 // Invented pond and routed results for rule tests: a pond from 100 m to 106 m, two storms.
-import type { Case, Outlet, Storm } from "../../src/case/model.js";
+import type { Case, Outlet, Storm } from "../../src/model.js";
 import type { StormRouting } from "../../src/routing/routeCase.js";
 import type { RouteResult } from "../../src/routing/router.js";
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { createRequire } from "node:module";
-import type { Barrel } from "../../src/case/model.js";
+import type { Barrel } from "../../src/model.js";
 import { backwaterProfile, type Profile } from "../../src/hydraulics/backwater.js";
 import { CIRCLE_MAX_FACTOR_DEPTH_RATIO, criticalSlopeFlows, manningFlow, normalDepth } from "../../src/hydraulics/normalDepth.js";
 import { barrelCriticalDepth } from "../../src/hydraulics/criticalDepth.js";

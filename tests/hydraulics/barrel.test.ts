@@ -19,7 +19,7 @@ import {
 import { barrelCurve, barrelFlow, curveHeadwater } from "../../src/hydraulics/barrelCurve.js";
 import { ENTRANCE_TABLE, entrancesFor, type Entrance, type EntranceName } from "../../src/hydraulics/entrances.js";
 import { ENTRANCES } from "../../src/hydraulics/entrances.js";
-import type { Barrel } from "../../src/case/model.js";
+import type { Barrel } from "../../src/model.js";
 import { FOOT } from "../../src/units.js";
 import { barrelArbitrary, boxBarrel, CFS, circularBarrel, flowAt } from "./barrelFixtures.js";
 

@@ -5,7 +5,7 @@ import { join, resolve } from "node:path";
 import { spawnSync } from "node:child_process";
 import { parseCase } from "../../src/case/load.js";
 import { CaseError } from "../../src/case/errors.js";
-import type { Case, Outlet } from "../../src/case/model.js";
+import type { Case, Outlet } from "../../src/model.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { assess } from "../../src/assess/assess.js";
 import { routeJson } from "../../src/report/json.js";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import type { Barrel, Element, Outlet, Tailwater } from "../../src/case/model.js";
+import type { Barrel, Element, Outlet, Tailwater } from "../../src/model.js";
 import {
   APPROXIMATION_MIN_RATIO,
   barrelHeadwater,

@@ -1,6 +1,6 @@
 // Invented barrels and outlets shared by the barrel and chamber tests (SI values).
 import fc from "fast-check";
-import type { Barrel, CircularOrifice, Outlet, RectangularWeir, Riser } from "../../src/case/model.js";
+import type { Barrel, CircularOrifice, Outlet, RectangularWeir, Riser } from "../../src/model.js";
 import { approximateOutletHeadwater, barrelArea, barrelRise, KU_SI } from "../../src/hydraulics/barrel.js";
 import { entrancesFor } from "../../src/hydraulics/entrances.js";
 import { FOOT } from "../../src/units.js";

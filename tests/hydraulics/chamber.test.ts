@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import type { Barrel, Element, Outlet, Tailwater } from "../../src/case/model.js";
+import type { Barrel, Element, Outlet, Tailwater } from "../../src/model.js";
 import { chamberFlow, chamberLevel } from "../../src/hydraulics/chamber.js";
 import { exactBarrelFlow } from "../../src/hydraulics/barrel.js";
 import { barrelFlow } from "../../src/hydraulics/barrelCurve.js";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { orificeFlow, circularOpeningIntegral, segmentArea } from "../../src/hydraulics/orifice.js";
-import type { CircularOrifice, RectangularOrifice } from "../../src/case/model.js";
+import type { CircularOrifice, RectangularOrifice } from "../../src/model.js";
 import { FOOT, GRAVITY } from "../../src/units.js";
 
 const circular = (diameter: number, invert: number, coefficient = 0.6, count = 1): CircularOrifice => ({

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import type { Barrel } from "../../src/case/model.js";
+import type { Barrel } from "../../src/model.js";
 import {
   APPROXIMATION_MIN_RATIO,
   approximateOutletHeadwater,

@@ -7,7 +7,7 @@
 // the binomial series for the head's variation over the opening.
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import type { Case, Outlet, Tailwater } from "../../src/case/model.js";
+import type { Case, Outlet, Tailwater } from "../../src/model.js";
 import { parseCase } from "../../src/case/load.js";
 import { circularOpeningIntegral, SHORT_RULE, SHORT_RULE_COVER } from "../../src/hydraulics/orifice.js";
 import { CIRCLE_TABLE_TOLERANCE, wettedCircleTabulated } from "../../src/hydraulics/circleTable.js";

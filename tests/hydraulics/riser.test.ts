@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { rimFlow } from "../../src/hydraulics/riser.js";
-import type { Riser } from "../../src/case/model.js";
+import type { Riser } from "../../src/model.js";
 import { FOOT } from "../../src/units.js";
 
 // FHWA HEC-22 (3rd ed., 2009) Example 8-6: a 0.53 m (1.74 ft) riser, crest 10.8 m (35.4 ft); the rim

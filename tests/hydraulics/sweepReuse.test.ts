@@ -4,7 +4,7 @@
 // of the stages, where nothing is kept), whichever part moved. The sweep itself is held to the
 // direct evaluation in ratingSweep.test.ts.
 import { describe, expect, it } from "vitest";
-import type { Outlet } from "../../src/case/model.js";
+import type { Outlet } from "../../src/model.js";
 import { buildRatingTable, stageGrid } from "../../src/routing/ratingTable.js";
 import { lowestDifference, sharedSweep, sortedParts } from "../../src/hydraulics/sweepReuse.js";
 import { sweepContext } from "../../src/hydraulics/outletRating.js";

@@ -1,7 +1,7 @@
 // A tailwater rating makes the downstream level depend on the outflow itself; the solved outflow must
 // satisfy O = discharge(WS, TW(O)). Reference: a brute-force scan of O for the sign change.
 import { describe, expect, it } from "vitest";
-import type { Outlet, Tailwater } from "../../src/case/model.js";
+import type { Outlet, Tailwater } from "../../src/model.js";
 import { dischargeAtTailwater, outletDischarge } from "../../src/hydraulics/outlet.js";
 import { tailwaterLevel } from "../../src/hydraulics/tailwater.js";
 

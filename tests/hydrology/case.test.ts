@@ -4,7 +4,7 @@ import { CaseError, type Problem } from "../../src/case/errors.js";
 import { nrcsHydrograph } from "../../src/hydrology/nrcsHydrograph.js";
 import { distributionMassCurve } from "../../src/hydrology/distributions.js";
 import { runoffDepth } from "../../src/hydrology/runoff.js";
-import { hydrographVolume } from "../../src/routing/router.js";
+import { hydrographVolume } from "../../src/hydrology/hydrograph.js";
 import { AREA_UNITS } from "../../src/units.js";
 
 // An invented site: a 10 ac parcel, pasture before and offices after development.

@@ -15,7 +15,7 @@ import { describe, expect, it } from "vitest";
 import { buildRatingTable } from "../../src/routing/ratingTable.js";
 import { route, type RouteResult } from "../../src/routing/router.js";
 import { GRAVITY } from "../../src/units.js";
-import type { Case } from "../../src/case/model.js";
+import type { Case } from "../../src/model.js";
 import { routeByOde } from "./support/levelPoolOde.js";
 import { caseOf } from "./support/ponds.js";
 

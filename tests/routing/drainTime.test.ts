@@ -5,7 +5,7 @@
 // held to Torricelli's closed form in tests/assess/extendedDetention.test.ts.
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import type { Outlet, Tailwater } from "../../src/case/model.js";
+import type { Outlet, Tailwater } from "../../src/model.js";
 import { loadCase, parseCase } from "../../src/case/load.js";
 import { drainTime } from "../../src/routing/drainTime.js";
 import { storageCurve } from "../../src/storage/curve.js";

@@ -6,7 +6,7 @@
 // evaluation in tests/hydraulics/ratingSweep.test.ts.
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import type { Hydrograph, Outlet } from "../../src/case/model.js";
+import type { Hydrograph, Outlet } from "../../src/model.js";
 import { buildRatingTable, lazyRatingTable, stageGrid } from "../../src/routing/ratingTable.js";
 import { route } from "../../src/routing/router.js";
 import { KEPT_SWEEPS } from "../../src/hydraulics/sweepReuse.js";

@@ -5,7 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { FOOT } from "../../src/units.js";
-import type { Case } from "../../src/case/model.js";
+import type { Case } from "../../src/model.js";
 import { routeByOde } from "./support/levelPoolOde.js";
 import { caseOf, dryMultiStage, stageStorageWithTailwater, steepOrificeOnly, wetPond } from "./support/ponds.js";
 import { randomPonds } from "./support/randomPonds.js";

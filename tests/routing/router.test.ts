@@ -1,8 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { buildRatingTable, tableFromColumns } from "../../src/routing/ratingTable.js";
-import { hydrographVolume, route } from "../../src/routing/router.js";
+import { route } from "../../src/routing/router.js";
+import { hydrographVolume } from "../../src/hydrology/hydrograph.js";
 import { routeCase } from "../../src/routing/routeCase.js";
-import type { Hydrograph } from "../../src/case/model.js";
+import type { Hydrograph } from "../../src/model.js";
 import { routeByOde } from "./support/levelPoolOde.js";
 import { caseOf, dryMultiStage, stageStorageWithTailwater } from "./support/ponds.js";
 

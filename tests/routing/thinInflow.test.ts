@@ -3,11 +3,12 @@
 // on the full record within the stated error (0.5 % of the peak outflow, the routing conventions'
 // tolerance in the case-format contract; the thinning alone, on one grid, within 0.05 %).
 import { describe, expect, it } from "vitest";
-import type { Case, Hydrograph } from "../../src/case/model.js";
+import type { Case, Hydrograph } from "../../src/model.js";
 import { parseCase } from "../../src/case/load.js";
 import { buildRatingTable } from "../../src/routing/ratingTable.js";
 import { drainedStage, routeCase } from "../../src/routing/routeCase.js";
-import { hydrographVolume, route } from "../../src/routing/router.js";
+import { route } from "../../src/routing/router.js";
+import { hydrographVolume } from "../../src/hydrology/hydrograph.js";
 import { SEARCH_THIN_ABOVE, searchInflow, thinInflow } from "../../src/routing/thinInflow.js";
 import { buildProblem } from "../../search/problem.js";
 import { Evaluator } from "../../search/evaluate.js";

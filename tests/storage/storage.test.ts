@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { prismoidArea, prismoidVolume } from "../../src/storage/prismoid.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { routeCase } from "../../src/routing/routeCase.js";
-import type { Pond } from "../../src/case/model.js";
+import type { Pond } from "../../src/model.js";
 import { caseOf, wetPond } from "../routing/support/ponds.js";
 
 describe("prismoid: V = L W d + (L + W) z d^2 + (4/3) z^2 d^3 (HEC-22 eq 8-7)", () => {

@@ -1,6 +1,6 @@
 // The target band of a storm: [target*(1-under), target*(1+over)] (design notes' vocabulary). The
 // only place the band is computed; checks, search aims and reports all call it.
-import type { Storm } from "../../case/model.js";
+import type { Storm } from "../../model.js";
 import { lowerFlowSlack, PASS_TOLERANCE, upperFlowSlack } from "./rule.js";
 
 export interface Tolerance {

@@ -1,6 +1,6 @@
 // Blocked principal outlet: with every opening, the riser and the barrel out of service, the spillway
 // alone passes the named storm with at least the given freeboard below the top of embankment.
-import type { Outlet } from "../../case/model.js";
+import type { Outlet } from "../../model.js";
 import { depthSlack, failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
 
 export const BLOCKED_VARIANT = "principal-outlet-blocked";

@@ -1,7 +1,7 @@
 // Clogging: an assumed blocked share of the open area of the openings under a trash rack. Not a check
 // of its own: checks.ts routes the clogged outlet once and evaluates the named rules on it as well,
 // so each of their checks appears with and without clogging ("clogged" checks, key `kind:storm:clogged`).
-import type { Case, Element, Outlet } from "../../case/model.js";
+import type { Case, Element, Outlet } from "../../model.js";
 
 /**
  * The outlet with `fraction` of every opening's open area blocked: an orifice's discharge coefficient,

@@ -1,6 +1,6 @@
 // Minimum opening: every orifice at least the size the rules permit (a circular orifice's diameter, a
 // rectangular orifice's smaller side), whatever the catalogue lists.
-import type { Outlet } from "../../case/model.js";
+import type { Outlet } from "../../model.js";
 import { makeCheck, type Rule } from "./rule.js";
 
 /** The smallest orifice dimension of an outlet (m); null without orifices. */

@@ -3,7 +3,7 @@
 // the design's barrel, must release no more than the storm's upper band. Openings only add flow, so
 // when this fails no outlet of permitted openings can meet the target: the check says so plainly
 // instead of leaving the search to fail on the peak.
-import type { Case, Outlet } from "../../case/model.js";
+import type { Case, Outlet } from "../../model.js";
 import { limitWords, targetBand } from "./band.js";
 import { failingSubjects, makeCheck, upperFlowSlack, type Rule } from "./rule.js";
 

@@ -1,6 +1,6 @@
 // What one kind of check is: how it is evaluated on a routed case, the slack the search keeps, and its
 // words for tables and explanations. One file per rule in this folder; the registry lists them.
-import type { Case, Outlet, Storm } from "../../case/model.js";
+import type { Case, Outlet, Storm } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { formatter } from "../../format.js";
 

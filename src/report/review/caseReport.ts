@@ -1,6 +1,6 @@
 // The review report of one outlet routed through a case: summary, storage, rating, storms, checks,
 // methods and the caution.
-import type { Case, Hydrograph, Outlet } from "../../case/model.js";
+import type { Case, Hydrograph, Outlet } from "../../model.js";
 import { drainedStage, type CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
 import { formatter } from "../../format.js";

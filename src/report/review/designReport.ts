@@ -1,6 +1,6 @@
 // The review report of a design run: the candidates compared with the binding constraint of each
 // and its explanation, then every candidate routed again from its own case file.
-import type { Case } from "../../case/model.js";
+import type { Case } from "../../model.js";
 import { formatter, significant, trimNumber } from "../../format.js";
 import { CAUTION } from "../caution.js";
 import { percent } from "../console.js";

@@ -5,7 +5,7 @@ import { join, resolve } from "node:path";
 import { z } from "zod";
 import { CaseError, show } from "../../case/errors.js";
 import { fromIssue, loadCase } from "../../case/load.js";
-import type { Case } from "../../case/model.js";
+import type { Case } from "../../model.js";
 
 const stormSchema = z.looseObject({
   name: z.string(),

@@ -1,6 +1,6 @@
 // The report's plots, in the case's units: stage-storage, the outlet's rating with each storm's
 // target and routed peak, each storm's hydrographs and stage, and the candidates of a design run.
-import type { Case, Hydrograph, Outlet } from "../../case/model.js";
+import type { Case, Hydrograph, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
 import { outletDetail } from "../../hydraulics/outlet.js";

@@ -1,6 +1,6 @@
 // The methods behind the numbers and their published sources (the README's Methods table), limited to
 // what the case uses.
-import type { Case, Outlet } from "../../case/model.js";
+import type { Case, Outlet } from "../../model.js";
 import type { TableBlock } from "./model.js";
 
 interface Method {

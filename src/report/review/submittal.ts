@@ -1,9 +1,9 @@
 // Tables a plan reviewer checks by hand: the stage-storage-discharge table at a fine step with a row
 // at every control elevation, each storm's inflow and outflow hydrographs at a readable interval,
 // and the pre- against post-development comparison. Units are in the headings.
-import type { Case, Hydrograph, Outlet } from "../../case/model.js";
+import type { Case, Hydrograph, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
-import { hydrographVolume } from "../../routing/router.js";
+import { hydrographVolume } from "../../hydrology/hydrograph.js";
 import { outletDetail } from "../../hydraulics/outlet.js";
 import { storageCurve } from "../../storage/curve.js";
 import { formatter, significant, trimNumber } from "../../format.js";

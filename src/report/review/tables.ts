@@ -1,8 +1,8 @@
 // The report's tables and summaries, every number with its unit, in the case's units.
-import type { Case, Element, Outlet } from "../../case/model.js";
+import type { Case, Element, Outlet } from "../../model.js";
 import type { CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
-import { hydrographVolume } from "../../routing/router.js";
+import { hydrographVolume } from "../../hydrology/hydrograph.js";
 import { storageCurve } from "../../storage/curve.js";
 import { formatter, trimNumber, type Formatter } from "../../format.js";
 import { checkTitle, checkValue, hours, percent, targetText } from "../console.js";

@@ -2,7 +2,7 @@
 // on the demo pond's elevations, and the fit's pattern of moving one part at a time: the fixtures of
 // the sweep-reuse and lazy-rating checks.
 import seedrandom from "seedrandom";
-import type { Case, Element, Outlet, Tailwater } from "../../../src/case/model.js";
+import type { Case, Element, Outlet, Tailwater } from "../../../src/model.js";
 import { parseCase } from "../../../src/case/load.js";
 import { circularBarrel, demoOutlet } from "../../hydraulics/barrelFixtures.js";
 import { randomPonds } from "./randomPonds.js";

@@ -8,7 +8,7 @@
 // The inflow is linear between its points and has a kink at each, so the integration restarts at
 // every inflow point (piecewise between them). Used by the tests only, never by outfit itself.
 import { Outcome, Solver } from "odex";
-import type { Hydrograph, Outlet, Pond, Tailwater } from "../../../src/case/model.js";
+import type { Hydrograph, Outlet, Pond, Tailwater } from "../../../src/model.js";
 import { outletDischarge } from "../../../src/hydraulics/outlet.js";
 import { storageCurve } from "../../../src/storage/curve.js";
 

@@ -1,7 +1,7 @@
 // Invented ponds for the routing tests (no real site): each is a case file's JSON, loaded through the
 // same `parseCase` path as a file on disk, so the tests route exactly what a user's case would give.
 import { parseCase } from "../../../src/case/load.js";
-import type { Case } from "../../../src/case/model.js";
+import type { Case } from "../../../src/model.js";
 
 export function caseOf(json: unknown): Case {
   return parseCase(json, { label: "test case" }).case;

@@ -1,5 +1,5 @@
 // The case as outfit computes with it: every quantity in SI (m, m2, m3, m3/s, s).
-import type { UnitSystem } from "../units.js";
+import type { UnitSystem } from "./units.js";
 
 /** Identical parallel pipes (SI): inside diameter, length, count, fall per length, low end's invert. */
 export interface PipeGallery {
