@@ -1,5 +1,17 @@
-// Shared pieces of the search tests: invented inflows and a case reduced to its site data.
+// Shared pieces of the search tests: invented inflows, a case reduced to its site data, and the
+// layouts a run's journal holds.
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
 import { parseCase } from "../../src/case/load.js";
+
+/** The keys of the layouts in the journal of the run written to `out` (the lines after its header). */
+export function journalKeys(out: string): string[] {
+  return readFileSync(join(out, "journal.jsonl"), "utf8")
+    .split("\n")
+    .slice(1)
+    .filter((line) => line.trim() !== "")
+    .map((line) => (JSON.parse(line) as { key: string }).key);
+}
 
 /** An invented gamma-shaped inflow hydrograph (NRCS-like shape, m = 3.7) at 5-minute points. */
 export function gammaInflow(peak: number, timeToPeak: number, decimals = 3): [number, number][] {

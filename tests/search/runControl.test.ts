@@ -7,6 +7,7 @@ import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { journalKeys } from "./helpers.js";
 
 const cli = join(process.cwd(), "dist/src/cli.js");
 const CASE = "cases/small-compliant/case.json";
@@ -18,12 +19,6 @@ function outfit(...args: string[]) {
 
 const dir = (name: string) => mkdtempSync(join(tmpdir(), `outfit-${name}-`));
 const ranking = (results: { candidates: { outlet: unknown; cost: number }[] }) => results.candidates.map((c) => JSON.stringify(c.outlet) + " " + c.cost);
-const journalKeys = (out: string) =>
-  readFileSync(join(out, "journal.jsonl"), "utf8")
-    .split("\n")
-    .slice(1)
-    .filter((l) => l.trim() !== "")
-    .map((l) => (JSON.parse(l) as { key: string }).key);
 
 const children: ChildProcess[] = [];
 afterEach(() => {
