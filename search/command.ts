@@ -19,32 +19,7 @@ export const EXIT_INTERRUPTED = 3;
 export const EXIT_NOT_COMPLIANT = 1;
 import { layoutFor } from "../src/report/terminal.js";
 import { pondDesignCommand } from "./pondCommand.js";
-
-export interface DesignCommandOptions {
-  seed?: string;
-  budget?: string;
-  time?: string;
-  top?: string;
-  margin?: string;
-  starts?: string;
-  beam?: string;
-  workers?: string;
-  shard?: string;
-  json?: boolean;
-  out?: string;
-  resume?: boolean;
-  progress?: boolean;
-  quiet?: boolean;
-  check?: boolean;
-  /** `outfit gather`: output directories of shards whose journals are replayed. */
-  gather?: string[];
-  wide?: boolean;
-  sizePond?: boolean;
-  vary?: string;
-  keepRiser?: boolean;
-  keepBarrel?: boolean;
-  rank?: string;
-}
+import type { DesignCommandOptions } from "./commandOptions.js";
 
 /** The value-engineering options: what may change in the existing outlet, and the ranking. */
 export function designLimits(options: DesignCommandOptions): DesignLimits {

@@ -8,9 +8,9 @@ import { route } from "../src/routing/router.js";
 import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
 import { CONTRACTED_WEIR_MAX_HEAD_RATIO, VNOTCH_MAX_HEAD } from "../src/assess/warnings.js";
-import type { SearchProblem } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
 import { ruleOf } from "../src/assess/rules/registry.js";
-import { designOutlet, designOutletFile, elevations, type Layout } from "./layout.js";
+import { designOutlet, designOutletFile, elevations } from "./layout.js";
 
 export interface Evaluation {
   vars: number[];

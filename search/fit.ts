@@ -9,8 +9,8 @@ import type { RouteResult } from "../src/routing/router.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import { hydrographDifference } from "../src/storage/estimate.js";
 import { stageAtVolume } from "../src/storage/stageAtVolume.js";
-import { aimBand, type SearchProblem } from "./problem.js";
-import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount, type Layout } from "./layout.js";
+import { aimBand, type SearchProblem, type Layout } from "./problem.js";
+import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount } from "./layout.js";
 import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
 
 export interface FitOptions {

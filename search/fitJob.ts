@@ -3,8 +3,7 @@
 // number of starts (the evaluator holds counters only), so it is the same in whatever thread it runs.
 import { Evaluator } from "./evaluate.js";
 import { fitLayout } from "./fit.js";
-import type { Layout } from "./layout.js";
-import type { SearchProblem } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
 import type { PackedRoute } from "./candidate.js";
 
 export interface FitSettings {

@@ -8,16 +8,7 @@ import { CaseError } from "../src/case/errors.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
 import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { baseLength } from "../src/units.js";
-import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
-
-export interface Layout {
-  /** Designed control levels, bottom up. The first sits at the floor unless a kept element does. */
-  levels: PartOption[];
-  /** Designed riser size (null: a kept riser or none). */
-  riser: SizeOption | null;
-  /** Size of the site barrel (null: a kept barrel or none). */
-  barrel: SizeOption | null;
-}
+import type { Layout, PartOption, SearchProblem } from "./problem.js";
 
 export function layoutKey(l: Layout): string {
   return [...l.levels.map((p) => p.key), `riser ${l.riser ? String(l.riser.size) : "-"}`, `barrel ${l.barrel ? String(l.barrel.size) : "-"}`].join(" | ");

@@ -5,10 +5,10 @@
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
 import type { Storm } from "../src/model.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
-import type { PartOption, SearchProblem, SizeOption } from "./problem.js";
+import type { PartOption, SearchProblem, SizeOption, Layout } from "./problem.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../src/assess/rules/band.js";
-import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount, type Layout } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount } from "./layout.js";
 import { Evaluator } from "./evaluate.js";
 import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";

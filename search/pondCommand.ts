@@ -6,7 +6,7 @@ import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
 import { designPondAndOutlet } from "./pondDesign.js";
 import { pondDesignCase, pondDesignJson, pondDesignText } from "./pondReport.js";
 import { layoutFor, PLAIN } from "../src/report/terminal.js";
-import type { DesignCommandOptions } from "./command.js";
+import type { DesignCommandOptions } from "./commandOptions.js";
 
 /** File name of the proposal in --out. */
 export const POND_DESIGN_CASE = "pond-and-outlet.json";

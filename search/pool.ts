@@ -2,8 +2,7 @@
 // back in the order of the round's layouts, so what enters the ranking does not depend on the number
 // of workers or on which finished first.
 import { Worker } from "node:worker_threads";
-import type { Layout } from "./layout.js";
-import type { DesignLimits, SearchProblem } from "./problem.js";
+import type { DesignLimits, SearchProblem, Layout } from "./problem.js";
 import type { Hydrograph } from "../src/model.js";
 import { fitJob, layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";

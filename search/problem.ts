@@ -2,7 +2,6 @@
 // limits, the stage grid shared by every candidate and the target aims.
 import type { Case, Hydrograph, Outlet, Storm } from "../src/model.js";
 import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
-import type { Layout } from "./layout.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
 import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { CaseError } from "../src/case/errors.js";
@@ -35,6 +34,16 @@ export interface PartOption {
 export interface SizeOption {
   size: Length;
   sizeM: number;
+}
+
+/** The discrete part of a design (which parts, counts, sizes); its elevations are the fit's variables (layout.ts). */
+export interface Layout {
+  /** Designed control levels, bottom up. The first sits at the floor unless a kept element does. */
+  levels: PartOption[];
+  /** Designed riser size (null: a kept riser or none). */
+  riser: SizeOption | null;
+  /** Size of the site barrel (null: a kept barrel or none). */
+  barrel: SizeOption | null;
 }
 
 export interface SearchOptions {

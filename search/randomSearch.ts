@@ -2,10 +2,10 @@
 // layouts from the same catalogue, random elevations on the elevation step, each evaluated exactly as
 // the optimiser evaluates, the best compliant one routed again through the route path.
 import seedrandom from "seedrandom";
-import type { SearchProblem } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
 import { Evaluator } from "./evaluate.js";
 import { variableBounds, snap } from "./fit.js";
-import { variableCount, type Layout } from "./layout.js";
+import { variableCount } from "./layout.js";
 import { barrelChoices, riserChoices } from "./layouts.js";
 import { compareCandidates, finalizeCandidate, type Candidate } from "./candidate.js";
 

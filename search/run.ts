@@ -7,13 +7,13 @@
 // routings are counted per layout; the round's outcomes enter the ranking and the queue in the
 // round's order. So the same seed and routing budget give the same ranking whatever the number of
 // workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
-import type { SearchProblem } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
 import type { OutletFile } from "../src/case/schema.js";
 import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan } from "./layouts.js";
 import { scoreWith } from "./scoring.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
-import { designOutletFile, layoutKey, type Layout } from "./layout.js";
+import { designOutletFile, layoutKey } from "./layout.js";
 import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";

@@ -3,8 +3,7 @@
 // staged start's memo is shared within the chunk only), so its result depends only on the problem and
 // the chunk: the same in whatever thread, and the same whatever the number of workers.
 import { layoutIndex, type LayoutIndex } from "./fitJob.js";
-import type { Layout } from "./layout.js";
-import type { SearchProblem } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
 
 /** One thing to score: positions in the problem's option lists, so it crosses to a worker intact. */
 export type ScoreItem =

@@ -5,10 +5,10 @@
 // level for within the regula falsi's 1 % of the middle of the aim (routed again through `route`).
 import { describe, expect, it } from "vitest";
 import { parseCase } from "../../src/case/load.js";
-import { buildProblem, aimBand } from "../../search/problem.js";
+import { buildProblem, aimBand, type Layout } from "../../search/problem.js";
 import { Evaluator } from "../../search/evaluate.js";
 import { goalStage, stagedStart } from "../../search/fit.js";
-import { designOutlet, designOutletFile, type Layout } from "../../search/layout.js";
+import { designOutlet, designOutletFile } from "../../search/layout.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 
 const AREA = 40 * 25;
