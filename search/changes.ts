@@ -5,6 +5,10 @@
 import type { Element, Outlet } from "../src/model.js";
 import { formatter, type Formatter } from "../src/format.js";
 import { describeElement } from "../src/report/describe.js";
+import { partOf } from "../src/parts/registry.js";
+import { riserWords } from "../src/parts/riser.js";
+import { barrelSizeWords } from "../src/parts/barrel.js";
+import { spillwayWords } from "../src/parts/spillway.js";
 import type { SearchProblem } from "./problem.js";
 
 export interface Change {
@@ -61,25 +65,23 @@ export function changeList(p: SearchProblem, before: Outlet, after: Outlet): Cha
     else if (a && b) {
       const name = `${elementNoun(a)} at ${f.elevation(level(a))}`;
       resize(name, elementSize(a, f), elementSize(b, f));
-      move(`${elementSize(b, f)} ${elementNoun(b)}`, a.type === "weir" ? "crest" : "invert", level(a), level(b));
+      move(`${elementSize(b, f)} ${elementNoun(b)}`, partOf(a).bottomField, level(a), level(b));
     }
   }
 
-  const riserWords = (r: NonNullable<Outlet["riser"]>) => (r.shape === "circular" ? `${f.length(r.diameter)} riser` : `${f.length(r.length)} x ${f.length(r.width)} box riser`);
-  if (before.riser && !after.riser) removed(`${riserWords(before.riser)} with rim at ${f.elevation(before.riser.crest)}`);
-  else if (!before.riser && after.riser) added(`${riserWords(after.riser)} with rim at ${f.elevation(after.riser.crest)}`);
+  if (before.riser && !after.riser) removed(`${riserWords(before.riser, f)} with rim at ${f.elevation(before.riser.crest)}`);
+  else if (!before.riser && after.riser) added(`${riserWords(after.riser, f)} with rim at ${f.elevation(after.riser.crest)}`);
   else if (before.riser && after.riser) {
-    resize("riser", riserWords(before.riser).replace(/ riser$/, ""), riserWords(after.riser).replace(/ riser$/, ""));
-    move(riserWords(after.riser), "rim", before.riser.crest, after.riser.crest);
+    resize("riser", riserWords(before.riser, f).replace(/ riser$/, ""), riserWords(after.riser, f).replace(/ riser$/, ""));
+    move(riserWords(after.riser, f), "rim", before.riser.crest, after.riser.crest);
   }
 
-  const barrelWords = (b: NonNullable<Outlet["barrel"]>) => (b.shape === "circular" ? f.size(b.diameter) : `${f.length(b.span)} x ${f.length(b.rise)}`);
-  if (before.barrel && !after.barrel) removed(`${barrelWords(before.barrel)} barrel`);
-  else if (!before.barrel && after.barrel) added(`${barrelWords(after.barrel)} barrel`);
-  else if (before.barrel && after.barrel) resize("barrel", barrelWords(before.barrel), barrelWords(after.barrel));
+  if (before.barrel && !after.barrel) removed(`${barrelSizeWords(before.barrel, f)} barrel`);
+  else if (!before.barrel && after.barrel) added(`${barrelSizeWords(after.barrel, f)} barrel`);
+  else if (before.barrel && after.barrel) resize("barrel", barrelSizeWords(before.barrel, f), barrelSizeWords(after.barrel, f));
 
   if (before.spillway && !after.spillway) removed("spillway");
-  else if (!before.spillway && after.spillway) added(`${f.length(after.spillway.length, 1)} spillway at ${f.elevation(after.spillway.crest)}`);
+  else if (!before.spillway && after.spillway) added(spillwayWords(after.spillway, f));
   else if (before.spillway && after.spillway) {
     resize("spillway", `${f.length(before.spillway.length, 1)} long`, `${f.length(after.spillway.length, 1)} long`);
     move("spillway", "crest", before.spillway.crest, after.spillway.crest);
@@ -89,30 +91,21 @@ export function changeList(p: SearchProblem, before: Outlet, after: Outlet): Cha
 
 /** Invert or crest (m). */
 function level(e: Element): number {
-  return e.type === "weir" ? e.crest : e.invert;
+  return partOf(e).bottom(e);
 }
 
 function elementNoun(e: Element): string {
-  if (e.type === "orifice") return e.shape === "circular" ? `orifice${e.count > 1 ? "s" : ""}` : `rectangular orifice${e.count > 1 ? "s" : ""}`;
-  if (e.type === "weir") return e.shape === "rectangular" ? "weir" : "v-notch";
-  return "regulator";
+  return partOf(e).noun(e);
 }
 
 /** The size of a part in words: count and diameter, weir length, notch angle, or a regulator's largest rated flow. */
 function elementSize(e: Element, f: Formatter): string {
-  switch (e.type) {
-    case "orifice":
-      return e.shape === "circular" ? `${e.count} x ${f.size(e.diameter)}` : `${e.count} x ${f.size(e.width)} x ${f.size(e.height)}`;
-    case "weir":
-      return e.shape === "rectangular" ? `${f.length(e.length)}${e.endContractions ? ` (${e.endContractions} end contraction${e.endContractions > 1 ? "s" : ""})` : ""}` : `${e.angle} deg`;
-    case "regulator":
-      return `rated to ${f.flow(e.flows[e.flows.length - 1])}`;
-  }
+  return partOf(e).size(e, f);
 }
 
-/** Whether two parts may be the same part changed: same type and shape. */
+/** Whether two parts may be the same part changed: the same kind. */
 function pairable(a: Element, b: Element): boolean {
-  return a.type === b.type && (a.type === "regulator" || (b.type !== "regulator" && a.shape === b.shape));
+  return partOf(a) === partOf(b);
 }
 
 /** Change measure of pairing a with b. */

@@ -7,10 +7,10 @@ import { buildRatingTable, lazyRatingTable } from "../src/routing/ratingTable.js
 import { route } from "../src/routing/router.js";
 import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
-import { CONTRACTED_WEIR_MAX_HEAD_RATIO, VNOTCH_MAX_HEAD } from "../src/assess/warnings.js";
+import { partOf } from "../src/parts/registry.js";
 import type { SearchProblem, Layout } from "./problem.js";
 import { ruleOf } from "../src/assess/rules/registry.js";
-import { designOutlet, designOutletFile, elevations } from "./layout.js";
+import { designOutlet, designOutletFile, elevations, reachAboveLevel } from "./layout.js";
 
 export interface Evaluation {
   vars: number[];
@@ -126,17 +126,20 @@ const RANGE_WEIGHT = 1;
 
 /**
  * Parts pushed beyond the range their formula covers, as soft residuals so that the fit prefers
- * designs the assessment will not flag: a contracted rectangular weir's head above half its length,
- * a v-notch's head above the coefficient's range (the same limits as the warnings).
+ * designs the assessment will not flag: each kind's `headLimit` (a contracted rectangular weir's half
+ * length, a v-notch's coefficient range: the same limits as the warnings), one residual per designed
+ * part of a kind that has one.
  */
 function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly StormRouting[], residuals: number[]): void {
   const depth = p.case.pond.top - p.case.pond.bottom;
   let maxStage = -Infinity;
   for (const s of storms) if (s.result.maxStage > maxStage) maxStage = s.result.maxStage;
   for (const e of outlet.elements) {
-    if (e.type !== "weir" || e.keep) continue;
-    const head = maxStage - e.crest;
-    const limit = e.shape === "rectangular" ? (e.endContractions > 0 ? CONTRACTED_WEIR_MAX_HEAD_RATIO * e.length : Infinity) : VNOTCH_MAX_HEAD;
+    if (e.keep) continue;
+    const kind = partOf(e);
+    const limit = kind.headLimit(e);
+    if (limit === null) continue;
+    const head = maxStage - kind.bottom(e);
     residuals.push((RANGE_WEIGHT * Math.max(0, head - limit)) / depth);
   }
 }
@@ -170,7 +173,7 @@ function geometryResiduals(p: SearchProblem, layout: Layout, vars: readonly numb
     const rim = z.rim ?? (p.keptRiser ? p.converter.length(p.keptRiser.crest, "outlet.riser.crest") : null);
     if (rim !== null) {
       const part = layout.levels[i];
-      const top = part.kind === "orifice" ? level + part.height : level + step;
+      const top = level + reachAboveLevel(part, step);
       push(top - rim);
     }
   });

@@ -12,9 +12,10 @@ import { closestMaxStage, freeboardStorm } from "../src/assess/rules/rule.js";
 import { baseLength } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
-import { caseElevation, designOutlet, designOutletFile, variableNames, partWords } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, variableNames } from "./layout.js";
 import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
-import type { ElementFile, OutletFile } from "../src/case/schema.js";
+import type { OutletFile } from "../src/case/schema.js";
+import { fileBottom, placed } from "../src/parts/registry.js";
 import { describeElement } from "../src/report/describe.js";
 import { snap, variableBounds } from "./fit.js";
 import type { LayoutPlan } from "./layouts.js";
@@ -75,7 +76,7 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
   // Parts that stay as they are (kept, or held by the limits) are not moved.
   (file.elements ?? []).forEach((e, i) => {
     if (p.keptElements.includes(e)) return;
-    const value = p.converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements");
+    const value = p.converter.length(fileBottom(e), "outlet.elements");
     movables.push({
       name: describeElement(existing.outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
       value,
@@ -84,7 +85,7 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
       moved: (x) => {
         const elements = [...(file.elements ?? [])];
         const at = caseElevation(p, x);
-        elements[i] = (e.type === "weir" ? { ...e, crest: at } : { ...e, invert: at }) as ElementFile;
+        elements[i] = placed(e, at);
         return routedWith({ ...file, elements });
       },
     });
@@ -175,7 +176,7 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
     const file = designOutletFile(p, { levels: [smallest.part], riser: null, barrel: null }, []);
     const flowThere = outletDischarge(designOutlet(p, { ...file, spillway: undefined }), p.case.tailwater, stage);
     lines.push(
-      `The smallest catalogue opening at the pond floor (${partWords(p, smallest.part)}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
+      `The smallest catalogue opening at the pond floor (${smallest.part.words}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
         `the stage where the ${storm.name} storm's volume above its allowable peak (${f.volume(held)} above ${f.flow(limit)}) must be held; ` +
         `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
     );

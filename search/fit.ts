@@ -10,8 +10,9 @@ import { outletDischarge } from "../src/hydraulics/outlet.js";
 import { hydrographDifference } from "../src/storage/estimate.js";
 import { stageAtVolume } from "../src/storage/stageAtVolume.js";
 import { aimBand, type SearchProblem, type Layout } from "./problem.js";
-import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, variableCount } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, reachAboveLevel, variableCount } from "./layout.js";
 import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
+import { fileBottom } from "../src/parts/registry.js";
 
 export interface FitOptions {
   /** Seeded starts of the fit (the first is the staged start). */
@@ -69,7 +70,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
     // Parts still at the placeholder pass nothing at any stage of the grid: routings that differ
     // only by them (the first one of every option the planner tries on a prefix) are the same.
     const placeholder = caseElevation(p, high);
-    const key = `${storm.name} ${JSON.stringify({ ...file, elements: file.elements?.filter((e) => (e.type === "weir" ? e.crest : e.invert) !== placeholder), riser: file.riser?.crest === placeholder ? null : file.riser })}`;
+    const key = `${storm.name} ${JSON.stringify({ ...file, elements: file.elements?.filter((e) => fileBottom(e) !== placeholder), riser: file.riser?.crest === placeholder ? null : file.riser })}`;
     const memo = p.options.referencePath ? null : stagedRoutings(evaluator);
     const known = memo?.get(key);
     if (known) return known;
@@ -155,7 +156,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
   if (l.riser) {
     const index = vars.length;
     vars.push(high);
-    const tops = elevations(p, l, trial()).levels.map((e, i) => e + (l.levels[i].kind === "orifice" ? l.levels[i].height : p.stepM));
+    const tops = elevations(p, l, trial()).levels.map((e, i) => e + reachAboveLevel(l.levels[i], p.stepM));
     place(index, storms[storms.length - 1], Math.max(p.floor + p.stepM, ...tops));
   }
   return vars;

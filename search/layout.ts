@@ -6,9 +6,13 @@ import type { ElementFile, OutletFile } from "../src/case/schema.js";
 import type { Outlet } from "../src/model.js";
 import { CaseError } from "../src/case/errors.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
-import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { baseLength } from "../src/units.js";
-import type { Layout, PartOption, SearchProblem } from "./problem.js";
+import type { PartOption } from "../src/parts/part.js";
+import { explicit, placed } from "../src/parts/registry.js";
+import { designedRiser, explicitRiser } from "../src/parts/riser.js";
+import { resizedBarrel } from "../src/parts/barrel.js";
+import { explicitSpillway } from "../src/parts/spillway.js";
+import type { Layout, SearchProblem } from "./problem.js";
 
 export function layoutKey(l: Layout): string {
   return [...l.levels.map((p) => p.key), `riser ${l.riser ? String(l.riser.size) : "-"}`, `barrel ${l.barrel ? String(l.barrel.size) : "-"}`].join(" | ");
@@ -31,22 +35,18 @@ export function variableCount(p: SearchProblem, l: Layout): number {
 export function variableNames(p: SearchProblem, l: Layout): string[] {
   const names: string[] = [];
   const first = firstLevelFixed(p, l) ? 1 : 0;
-  for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${partWords(p, l.levels[i])})`);
+  for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${l.levels[i].words})`);
   if (l.riser) names.push("riser rim");
   return names;
 }
 
-/** A part in words, its size as the catalogue gives it (a bare number gets the case's length unit). */
-export function partWords(p: SearchProblem, part: PartOption): string {
-  const size = typeof part.size === "number" ? `${part.size} ${p.case.units === "US" ? "ft" : "m"}` : String(part.size);
-  switch (part.kind) {
-    case "orifice":
-      return `${part.count} x ${size} orifice${part.count > 1 ? "s" : ""}`;
-    case "rectangular":
-      return `${size} weir`;
-    case "v-notch":
-      return `${part.angle} deg v-notch`;
-  }
+/**
+ * How far above its level a part reaches on the wall, for the rule that openings stay below the rim: a
+ * closed opening's height; for a notch (open above: height 0) one elevation step, so that its crest
+ * sits at least a step below the rim.
+ */
+export function reachAboveLevel(part: PartOption, step: number): number {
+  return part.height > 0 ? part.height : step;
 }
 
 /** Elevation of the floor in the file's own form (so that it normalizes to exactly pond.pool). */
@@ -88,43 +88,16 @@ export function elevations(p: SearchProblem, l: Layout, vars: readonly number[])
  * planner's quick scoring of options (the openings govern at the small storms it scores on).
  */
 export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly number[], plain = false): OutletFile {
-  const d = defaultCoefficients(p.case.units);
+  const units = p.case.units;
   const z = elevations(p, l, vars);
-  const kept: ElementFile[] = p.keptElements.map((e) => ({ ...e, coefficient: e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d) } as ElementFile));
-  const designed: ElementFile[] = l.levels.map((part, i) => {
-    const at = i === 0 && firstLevelFixed(p, l) ? floorValue(p) : caseElevation(p, z.levels[i]);
-    if (part.template) return movedTemplate(part.template, at, d);
-    switch (part.kind) {
-      case "orifice":
-        return { type: "orifice", shape: "circular", diameter: part.size!, count: part.count, invert: at, coefficient: d.orifice };
-      case "rectangular":
-        return { type: "weir", shape: "rectangular", length: part.size!, crest: at, endContractions: 2, coefficient: d.rectangularWeir };
-      case "v-notch":
-        return { type: "weir", shape: "v-notch", angle: part.angle, crest: at, coefficient: d.vNotchWeir };
-    }
-  });
-  const file: OutletFile = { elements: [...kept.map(stripUndefined), ...designed] };
-  if (p.keptRiser) file.riser = { ...p.keptRiser, coefficient: p.keptRiser.coefficient ?? d.riserWeir, orificeCoefficient: p.keptRiser.orificeCoefficient ?? d.riserOrifice };
-  else if (l.riser) file.riser = { shape: "circular", diameter: l.riser.size, crest: caseElevation(p, z.rim!), coefficient: d.riserWeir, orificeCoefficient: d.riserOrifice };
-  if (p.barrel && !plain) file.barrel = l.barrel && p.barrel.shape === "circular" ? { ...p.barrel, diameter: l.barrel.size } : { ...p.barrel };
-  if (p.spillway) file.spillway = { ...p.spillway, coefficient: p.spillway.coefficient ?? d.spillway };
+  const kept = p.keptElements.map((e) => explicit(e, units));
+  const designed: ElementFile[] = l.levels.map((part, i) => placed(part.file as ElementFile, i === 0 && firstLevelFixed(p, l) ? floorValue(p) : caseElevation(p, z.levels[i])));
+  const file: OutletFile = { elements: [...kept, ...designed] };
+  if (p.keptRiser) file.riser = explicitRiser(p.keptRiser, units);
+  else if (l.riser) file.riser = designedRiser(l.riser.size, caseElevation(p, z.rim!), units);
+  if (p.barrel && !plain) file.barrel = l.barrel ? resizedBarrel(p.barrel, l.barrel.size) : { ...p.barrel };
+  if (p.spillway) file.spillway = explicitSpillway(p.spillway, units);
   return file;
-}
-
-/** A part of the existing outlet at another elevation, its coefficient written out. */
-function movedTemplate(e: ElementFile, at: number | string, d: ReturnType<typeof defaultCoefficients>): ElementFile {
-  const coefficient = e.type === "regulator" ? undefined : e.coefficient ?? keptDefault(e, d);
-  return stripUndefined((e.type === "weir" ? { ...e, crest: at, coefficient } : { ...e, invert: at, coefficient }) as ElementFile);
-}
-
-function keptDefault(e: ElementFile, d: ReturnType<typeof defaultCoefficients>): number | undefined {
-  if (e.type === "orifice") return d.orifice;
-  if (e.type === "weir") return e.shape === "rectangular" ? d.rectangularWeir : d.vNotchWeir;
-  return undefined;
-}
-
-function stripUndefined<T extends object>(o: T): T {
-  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T;
 }
 
 /** The outlet in SI, converted exactly as a case file's outlet is. */

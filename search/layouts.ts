@@ -5,7 +5,10 @@
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
 import type { Storm } from "../src/model.js";
 import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
-import type { PartOption, SearchProblem, SizeOption, Layout } from "./problem.js";
+import type { SearchProblem, Layout } from "./problem.js";
+import type { PartOption, SizeOption } from "../src/parts/part.js";
+import { bottomOf, otherKinds } from "../src/parts/registry.js";
+import { riserPerimeter, riserToSI } from "../src/parts/riser.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../src/assess/rules/band.js";
 import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount } from "./layout.js";
@@ -75,8 +78,7 @@ function fitsSomeRiser(p: SearchProblem, part: PartOption): boolean {
 }
 
 function perimeterOf(p: SearchProblem, r: NonNullable<SearchProblem["keptRiser"]>): number {
-  const L = (x: Parameters<SearchProblem["converter"]["length"]>[0]) => p.converter.length(x, "outlet.riser");
-  return r.shape === "circular" ? Math.PI * L(r.diameter) : 2 * (L(r.length) + L(r.width));
+  return riserPerimeter(riserToSI(r, p.converter, "outlet.riser"));
 }
 
 /**
@@ -386,29 +388,26 @@ export function layoutCost(p: SearchProblem, layout: Layout): number {
 function partFlowAt(p: SearchProblem, part: PartOption, head: number): number {
   const outlet = designOutlet(p, designOutletFile(p, { levels: [part], riser: null, barrel: null }, [0]));
   const e = outlet.elements[outlet.elements.length - 1];
-  const bottom = e.type === "weir" ? e.crest : e.invert;
-  return elementFlow(e, bottom + head, -Infinity);
+  return elementFlow(e, bottomOf(e) + head, -Infinity);
 }
 
 /** Head (m) at which parts of different kinds are compared as neighbours: one foot, whatever the case's units. */
 const NEIGHBOUR_HEAD = 0.3048;
 
 /**
- * Parts one catalogue step away: the next size down or up, one opening more or fewer, and for each
- * other kind of part the one passing the nearest flow at a head of NEIGHBOUR_HEAD.
+ * Parts one catalogue step away: for each other kind of part the one passing the nearest flow at a
+ * head of NEIGHBOUR_HEAD, then the kind's own steps (the next size down or up, one opening more or
+ * fewer).
  */
 function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
-  const same = p.parts.filter((o) => o.kind === part.kind);
   const out: PartOption[] = [];
-  const head = NEIGHBOUR_HEAD;
-  const flow = partFlowAt(p, part, head);
-  for (const kind of ["orifice", "rectangular", "v-notch"] as const) {
-    if (kind === part.kind) continue;
+  const flow = partFlowAt(p, part, NEIGHBOUR_HEAD);
+  for (const kind of otherKinds(part.part)) {
     let nearest: PartOption | undefined;
     let gap = Infinity;
     for (const o of p.parts) {
-      if (o.kind !== kind) continue;
-      const d = Math.abs(Math.log(partFlowAt(p, o, head) / flow));
+      if (o.part !== kind) continue;
+      const d = Math.abs(Math.log(partFlowAt(p, o, NEIGHBOUR_HEAD) / flow));
       if (d < gap) {
         gap = d;
         nearest = o;
@@ -416,23 +415,7 @@ function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
     }
     if (nearest) out.push(nearest);
   }
-  if (part.kind === "orifice") {
-    const sizes = [...new Set(same.map((o) => o.sizeM))].sort((a, b) => a - b);
-    const at = sizes.indexOf(part.sizeM);
-    for (const size of [sizes[at - 1], sizes[at + 1]]) {
-      const o = same.find((x) => x.sizeM === size && x.count === part.count);
-      if (o) out.push(o);
-    }
-    for (const count of [part.count - 1, part.count + 1]) {
-      const o = same.find((x) => x.sizeM === part.sizeM && x.count === count);
-      if (o) out.push(o);
-    }
-  } else {
-    const key = (o: PartOption) => (o.kind === "v-notch" ? o.angle : o.sizeM);
-    const sorted = [...same].sort((a, b) => key(a) - key(b));
-    const at = sorted.findIndex((o) => o.key === part.key);
-    for (const o of [sorted[at - 1], sorted[at + 1]]) if (o) out.push(o);
-  }
+  out.push(...part.part.catalogue!.neighbours(part, p.parts.filter((o) => o.part === part.part)));
   return out;
 }
 

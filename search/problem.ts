@@ -3,38 +3,19 @@
 import type { Case, Hydrograph, Outlet, Storm } from "../src/model.js";
 import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
-import { defaultCoefficients } from "../src/hydraulics/defaults.js";
 import { CaseError } from "../src/case/errors.js";
 import { Converter } from "../src/case/normalize.js";
 import { parseLength } from "../src/units.js";
 import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
 import { searchInflow } from "../src/routing/thinInflow.js";
-import { costWeights, type CostWeights } from "./cost.js";
+import { costWeights } from "./cost.js";
+import type { CostWeights } from "../src/parts/cost.js";
 import { narrowed, targetBand } from "../src/assess/rules/band.js";
 import { aimMargin } from "../src/assess/rules/peakUpper.js";
-
-/** One choice for a control level: an orifice group or a weir, in catalogue sizes. */
-export interface PartOption {
-  key: string;
-  kind: "orifice" | "rectangular" | "v-notch";
-  count: number;
-  /** The catalogue's own value (diameter or weir length), written back as given. */
-  size: Length | null;
-  /** Diameter or weir length (m); 0 for a v-notch. */
-  sizeM: number;
-  angle: number;
-  /** Height of the opening (m): the diameter for orifices, 0 for weirs. */
-  height: number;
-  /** Wall width the part takes (m); a v-notch's at one foot of head. */
-  width: number;
-  /** A part of the existing outlet outside the catalogue's form: written as this element, moved. */
-  template?: ElementFile;
-}
-
-export interface SizeOption {
-  size: Length;
-  sizeM: number;
-}
+import type { OptionContext, PartOption, SizeOption } from "../src/parts/part.js";
+import { catalogueOptions, elementToSI, explicit, fileBottom, inCatalogueForm, partOf, sameElement } from "../src/parts/registry.js";
+import { riserSize } from "../src/parts/riser.js";
+import { barrelSize } from "../src/parts/barrel.js";
 
 /** The discrete part of a design (which parts, counts, sizes); its elevations are the fit's variables (layout.ts). */
 export interface Layout {
@@ -148,8 +129,8 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
   }
   // Parts of the existing outlet the catalogue's form cannot express (rectangular orifices,
   // regulators) stay as they are, like kept parts.
-  const keptElements = (outlet.elements ?? []).filter((e) => e.keep || e.type === "regulator" || (e.type === "orifice" && e.shape === "rectangular"));
-  const keptElevations = keptElements.map((e) => converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements"));
+  const keptElements = (outlet.elements ?? []).filter((e) => e.keep || !inCatalogueForm(e));
+  const keptElevations = keptElements.map((e) => converter.length(fileBottom(e), "outlet.elements"));
   const poolHeldByTailwater = c.pond.pool > c.pond.bottom && c.tailwater.kind === "elevation" && c.tailwater.elevation >= c.pond.pool - 1e-9;
   const floor = poolHeldByTailwater ? c.pond.bottom : c.pond.pool;
   const ceiling = c.pond.top - c.criteria.freeboardDepth;
@@ -159,40 +140,27 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     throw new CaseError([{ where: `${label}: storms`, found: "no storm with a target", expected: "at least one storm with a target for the search to aim at" }]);
   }
 
-  const parts: PartOption[] = [];
-  const diameters = sizes(catFile.orifice?.diameters, c);
-  for (const d of diameters) {
-    for (let count = 1; count <= cat.maxCount; count++) {
-      parts.push({ key: `orifice ${count} x ${show(d.size)}`, kind: "orifice", count, size: d.size, sizeM: d.sizeM, angle: 0, height: d.sizeM, width: count * d.sizeM });
-    }
-  }
-  if (cat.weirShapes.includes("rectangular")) {
-    for (const w of sizes(catFile.weir?.lengths, c)) {
-      parts.push({ key: `weir ${show(w.size)}`, kind: "rectangular", count: 1, size: w.size, sizeM: w.sizeM, angle: 0, height: 0, width: w.sizeM });
-    }
-  }
-  if (cat.weirShapes.includes("v-notch")) {
-    for (const angle of cat.weirAngles) {
-      parts.push({ key: `v-notch ${angle}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle, height: 0, width: notchWidth(angle) });
-    }
-  }
+  const parts = catalogueOptions(optionContext(c, catFile, converter));
   if (parts.length === 0 && keptElements.length === 0) {
     throw new CaseError([{ where: `${label}: catalogue`, found: "no orifice diameters or weir sizes", expected: "at least one orifice diameter or weir size" }]);
   }
 
   const riserHeld = limits.keepRiser || limits.vary === "openings";
-  const riserKept = outlet.riser?.keep === true || (riserHeld && outlet.riser !== undefined) || (limits.vary === "elevations" && outlet.riser?.shape === "box");
-  const existingRiser = outlet.riser?.shape === "circular" ? [{ size: outlet.riser.diameter, sizeM: converter.length(outlet.riser.diameter, "outlet.riser.diameter") }] : [];
+  const riserLength = (value: Length) => converter.length(value, "outlet.riser.diameter");
+  const ownRiser = outlet.riser ? riserSize(outlet.riser, riserLength) : null;
+  // A box riser is not a catalogue size: with only elevations to vary, it stays as it is.
+  const riserKept = outlet.riser?.keep === true || (riserHeld && outlet.riser !== undefined) || (limits.vary === "elevations" && outlet.riser !== undefined && ownRiser === null);
+  const existingRiser = ownRiser ? [ownRiser] : [];
   let riserOptions = riserKept || riserHeld ? [] : limits.vary === "elevations" ? existingRiser : sizes(catFile.riser?.diameters, c);
   if (!riserKept && !riserHeld && riserOptions.length === 0) riserOptions = existingRiser;
   const barrel = outlet.barrel;
-  const barrelKept = barrel?.keep === true || (barrel !== undefined && barrel.shape === "box") || limits.keepBarrel || limits.vary !== "all";
+  const ownBarrel = barrel ? barrelSize(barrel, (value) => converter.length(value, "outlet.barrel.diameter")) : null;
+  // A box barrel is not a catalogue size: it stays as it is.
+  const barrelKept = barrel?.keep === true || (barrel !== undefined && ownBarrel === null) || limits.keepBarrel || limits.vary !== "all";
   let barrelOptions: SizeOption[] = [];
   if (barrel && !barrelKept) {
     barrelOptions = sizes(catFile.barrel?.diameters, c);
-    if (barrelOptions.length === 0 && barrel.shape === "circular") {
-      barrelOptions = [{ size: barrel.diameter, sizeM: converter.length(barrel.diameter, "outlet.barrel.diameter") }];
-    }
+    if (barrelOptions.length === 0 && ownBarrel) barrelOptions = [ownBarrel];
   }
   const depth = c.pond.top - c.pond.bottom;
   // A grid on the elevation lattice: inverts and crests snapped to the step fall on its nodes.
@@ -245,33 +213,21 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
 function existingOutlet(p: SearchProblem, file: OutletFile, label: string): ExistingOutlet {
   const converter = new Converter(p.case.units, label);
   const outlet = normalizeOutlet(file, converter, "outlet");
-  const d = defaultCoefficients(p.case.units);
+  const context = optionContext(p.case, p.file.catalogue!, converter);
   const designed = (file.elements ?? []).filter((e) => !p.keptElements.includes(e));
-  const at = (e: ElementFile) => converter.length(e.type === "weir" ? e.crest : e.invert, "outlet.elements");
+  const at = (e: ElementFile) => converter.length(fileBottom(e), "outlet.elements");
   designed.sort((a, b) => at(a) - at(b));
   const levels = designed.map((e): PartOption => {
-    const sizeM = e.type === "orifice" && e.shape === "circular" ? converter.length(e.diameter, "outlet.elements") : e.type === "weir" && e.shape === "rectangular" ? converter.length(e.length, "outlet.elements") : 0;
-    const inCatalogue = p.parts.find((o) => {
-      if (e.type === "orifice" && e.shape === "circular") return o.kind === "orifice" && Math.abs(o.sizeM - sizeM) < 1e-9 && o.count === (e.count ?? 1) && (e.coefficient ?? d.orifice) === d.orifice;
-      if (e.type === "weir" && e.shape === "rectangular") return o.kind === "rectangular" && Math.abs(o.sizeM - sizeM) < 1e-9 && (e.endContractions ?? 0) === 2 && (e.coefficient ?? d.rectangularWeir) === d.rectangularWeir;
-      if (e.type === "weir" && e.shape === "v-notch") return o.kind === "v-notch" && o.angle === e.angle && (e.coefficient ?? d.vNotchWeir) === d.vNotchWeir;
-      return false;
-    });
+    // A catalogue option when it is one (same kind and sizes, the default coefficient), else the part itself.
+    const own = elementToSI(e, converter, "outlet.elements");
+    const inCatalogue = p.parts.find((o) => o.part === partOf(e) && sameElement(elementToSI(o.file as ElementFile, converter, "outlet.elements"), own));
     if (inCatalogue) return inCatalogue;
-    const template = Object.fromEntries(Object.entries(e).filter(([k]) => k !== "keep")) as ElementFile;
-    if (e.type === "orifice" && e.shape === "circular") {
-      const count = e.count ?? 1;
-      return { key: `existing orifice ${count} x ${show(e.diameter)} Cd ${e.coefficient ?? d.orifice}`, kind: "orifice", count, size: e.diameter, sizeM, angle: 0, height: sizeM, width: count * sizeM, template };
-    }
-    if (e.type === "weir" && e.shape === "rectangular") {
-      return { key: `existing weir ${show(e.length)} n ${e.endContractions ?? 0} C ${e.coefficient ?? d.rectangularWeir}`, kind: "rectangular", count: 1, size: e.length, sizeM, angle: 0, height: 0, width: sizeM, template };
-    }
-    // What is left is a v-notch (rectangular orifices and regulators are among the kept elements).
-    const notch = e as Extract<ElementFile, { shape: "v-notch" }>;
-    return { key: `existing v-notch ${notch.angle} C ${notch.coefficient ?? d.vNotchWeir}`, kind: "v-notch", count: 1, size: null, sizeM: 0, angle: notch.angle, height: 0, width: notchWidth(notch.angle), template };
+    const template = explicit(Object.fromEntries(Object.entries(e).filter(([k]) => k !== "keep")) as ElementFile, p.case.units);
+    return partOf(e).catalogue!.existing(template, context);
   });
-  const riser = !p.keptRiser && file.riser?.shape === "circular" ? { size: file.riser.diameter, sizeM: converter.length(file.riser.diameter, "outlet.riser.diameter") } : null;
-  const barrel = !p.barrelKept && file.barrel?.shape === "circular" ? { size: file.barrel.diameter, sizeM: converter.length(file.barrel.diameter, "outlet.barrel.diameter") } : null;
+  const length = (value: Length) => converter.length(value, "outlet");
+  const riser = !p.keptRiser && file.riser ? riserSize(file.riser, length) : null;
+  const barrel = !p.barrelKept && file.barrel ? barrelSize(file.barrel, length) : null;
   const layout: Layout = { levels, riser, barrel };
   // The existing elevations of the variables (m): the levels that float, then the rim.
   const vars = designed.map(at).filter((_, i) => i > 0 || p.lowestFloats);
@@ -279,21 +235,17 @@ function existingOutlet(p: SearchProblem, file: OutletFile, label: string): Exis
   return { file, outlet, layout, vars };
 }
 
-/** Wall width a v-notch takes at one foot of head (m). */
-function notchWidth(angle: number): number {
-  return 2 * 0.3048 * Math.tan((angle * Math.PI) / 360);
+/** What the parts need to turn the catalogue into options. */
+function optionContext(c: Case, entries: NonNullable<CaseFile["catalogue"]>, converter: Converter): OptionContext {
+  return { entries, catalogue: c.catalogue!, units: c.units, sizes: (values) => sizes(values, c), length: (value) => converter.length(value, "outlet.elements") };
 }
 
-function sizes(values: Length[] | undefined, c: Case): SizeOption[] {
+function sizes(values: readonly Length[] | undefined, c: Case): SizeOption[] {
   const out = (values ?? []).map((size) => {
     const m = parseLength(size, c.units);
     return { size, sizeM: typeof m === "number" ? m : NaN };
   });
   return out.filter((o) => Number.isFinite(o.sizeM)).sort((a, b) => a.sizeM - b.sizeM);
-}
-
-function show(size: Length): string {
-  return typeof size === "number" ? String(size) : size;
 }
 
 /** Lower and upper aim of a storm's peak: the band with a margin of the target inside each edge. */

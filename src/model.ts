@@ -149,56 +149,14 @@ export interface Criteria {
   labels: { freeboard: string | null; drawdown: string | null; spillway: string | null; overtopping: string | null };
 }
 
-export interface CircularOrifice {
-  type: "orifice";
-  shape: "circular";
-  diameter: number;
-  count: number;
-  invert: number;
-  coefficient: number;
-  keep: boolean;
-}
-export interface RectangularOrifice {
-  type: "orifice";
-  shape: "rectangular";
-  width: number;
-  height: number;
-  count: number;
-  invert: number;
-  coefficient: number;
-  keep: boolean;
-}
-export interface RectangularWeir {
-  type: "weir";
-  shape: "rectangular";
-  length: number;
-  crest: number;
-  endContractions: 0 | 1 | 2;
-  /** Francis coefficient, SI (m^0.5/s). */
-  coefficient: number;
-  keep: boolean;
-}
-export interface VNotchWeir {
-  type: "weir";
-  shape: "v-notch";
-  /** Notch angle, degrees. */
-  angle: number;
-  crest: number;
-  /** SI (m^0.5/s). */
-  coefficient: number;
-  keep: boolean;
-}
-export interface Regulator {
-  type: "regulator";
-  invert: number;
-  /** Rating points: head above invert (m) and flow (m3/s). */
-  heads: number[];
-  flows: number[];
-  keep: boolean;
-}
-export type Orifice = CircularOrifice | RectangularOrifice;
-export type Weir = RectangularWeir | VNotchWeir;
-export type Element = Orifice | Weir | Regulator;
+/**
+ * The SI form of each kind of outlet element, by the kind's name. Each kind's file in src/parts/ adds
+ * its own form here (TypeScript's declaration merging: `declare module "../model.js" { interface
+ * ElementKinds { ... } }`), so a new kind needs no edit of this file; `Element` is the union of them
+ * all. Every form has `type` (and `shape` where a type has several), `keep`, and its sizes in m.
+ */
+export interface ElementKinds {}
+export type Element = ElementKinds[keyof ElementKinds];
 
 export type Riser = (
   | { shape: "circular"; diameter: number }
@@ -240,7 +198,8 @@ export interface Outlet {
 export interface Catalogue {
   orificeDiameters: number[];
   maxCount: number;
-  weirShapes: ("rectangular" | "v-notch")[];
+  /** The weir kinds the catalogue lists (`catalogue.weir.shapes`). */
+  weirShapes: string[];
   weirLengths: number[];
   weirAngles: number[];
   riserDiameters: number[];

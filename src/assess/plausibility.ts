@@ -6,8 +6,9 @@
 import type { Case, Outlet } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import { formatter } from "../format.js";
-import { openingHeight, openingWidth } from "../hydraulics/orifice.js";
-import { barrelRise } from "../hydraulics/barrel.js";
+import { partOf } from "../parts/registry.js";
+import { riserAcross } from "../parts/riser.js";
+import { barrelRise } from "../parts/barrel.js";
 import { partLabel, type Warning } from "./warnings.js";
 
 /** Mass balance error above which a routing is flagged: 0.01 % (the project's routing tests hold every
@@ -20,26 +21,28 @@ export function implausibleInputWarnings(c: Case, outlet: Outlet, routing: CaseR
   const f = formatter(c.units);
   const warnings: Warning[] = [];
   const { bottom, top } = c.pond;
-  const riserWidth = outlet.riser ? (outlet.riser.shape === "circular" ? outlet.riser.diameter : Math.max(outlet.riser.length, outlet.riser.width)) : null;
+  const riserWidth = outlet.riser ? riserAcross(outlet.riser).widest : null;
   outlet.elements.forEach((e, i) => {
+    const kind = partOf(e);
     const part = partLabel(e, i, f);
-    const low = e.type === "weir" ? e.crest : e.invert;
-    const what = e.type === "weir" ? "crest" : "invert";
+    const low = kind.bottom(e);
+    const what = kind.bottomField;
     if (low > top + 1e-9) warnings.push({ part, reason: `${what} ${f.elevation(low)} is above the top of embankment ${f.elevation(top)}: it can pass water only when the pond overtops` });
     if (low < bottom - 1e-9) warnings.push({ part, reason: `${what} ${f.elevation(low)} is below the pond floor ${f.elevation(bottom)}: there is no storage below the floor to drain` });
-    if (e.type === "orifice") {
-      if (riserWidth !== null && openingWidth(e) / e.count > riserWidth + 1e-9) {
-        warnings.push({ part, reason: `opening ${f.length(openingWidth(e) / e.count)} wide is wider than the riser (${f.length(riserWidth)}): it cannot be cut in its wall` });
+    const opening = kind.opening(e);
+    if (opening) {
+      if (riserWidth !== null && opening.width > riserWidth + 1e-9) {
+        warnings.push({ part, reason: `opening ${f.length(opening.width)} wide is wider than the riser (${f.length(riserWidth)}): it cannot be cut in its wall` });
       }
-      if (openingHeight(e) > top - bottom + 1e-9) {
-        warnings.push({ part, reason: `opening ${f.length(openingHeight(e))} high is taller than the pond is deep (${f.length(top - bottom)})` });
+      if (opening.height > top - bottom + 1e-9) {
+        warnings.push({ part, reason: `opening ${f.length(opening.height)} high is taller than the pond is deep (${f.length(top - bottom)})` });
       }
     }
   });
   if (outlet.riser) {
     if (outlet.riser.crest > top + 1e-9) warnings.push({ part: "outlet.riser", reason: `rim ${f.elevation(outlet.riser.crest)} is above the top of embankment ${f.elevation(top)}` });
     if (outlet.riser.crest < bottom - 1e-9) warnings.push({ part: "outlet.riser", reason: `rim ${f.elevation(outlet.riser.crest)} is below the pond floor ${f.elevation(bottom)}` });
-    const riserSmallest = outlet.riser.shape === "circular" ? outlet.riser.diameter : Math.min(outlet.riser.length, outlet.riser.width);
+    const riserSmallest = riserAcross(outlet.riser).narrowest;
     if (outlet.barrel && riserSmallest < barrelRise(outlet.barrel) - 1e-9) {
       warnings.push({ part: "outlet.riser", reason: `riser ${f.length(riserSmallest)} across is smaller than the barrel it drains into (${f.length(barrelRise(outlet.barrel))} high)` });
     }

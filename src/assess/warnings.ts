@@ -3,15 +3,13 @@
 import type { Case, Element, Outlet } from "../model.js";
 import { drainedStage, type CaseRouting } from "../routing/routeCase.js";
 import { formatter, type Formatter } from "../format.js";
-import { FOOT } from "../units.js";
-import { openingHeight, openingWidth } from "../hydraulics/orifice.js";
-import { weirWidth } from "../hydraulics/weir.js";
-import { riserPerimeter } from "../hydraulics/riser.js";
-import { regulatorMaxHead } from "../hydraulics/regulator.js";
-import { elementBottom, openingsFlow, outletDetail, outletDischarge } from "../hydraulics/outlet.js";
+import { partOf } from "../parts/registry.js";
+import { riserPerimeter } from "../parts/riser.js";
+import { barrelRise, barrelSizeWords } from "../parts/barrel.js";
+import { openingsFlow, outletDetail, outletDischarge } from "../hydraulics/outlet.js";
 import { chamberFlow } from "../hydraulics/chamber.js";
 import { tailwaterLevel } from "../hydraulics/tailwater.js";
-import { barrelRise, barrelState, outletControlDoubt, type OutletDoubt } from "../hydraulics/barrel.js";
+import { barrelState, outletControlDoubt, type OutletDoubt } from "../hydraulics/barrel.js";
 
 export interface Warning {
   /** Which part: its path in the case file and a short description. */
@@ -19,18 +17,6 @@ export interface Warning {
   reason: string;
 }
 
-/** Smallest head at which sharp-crested weir coefficients were measured: 0.2 ft (USBR Water
- * Measurement Manual ch. 7, lower limit of h1 for standard weirs; from memory). */
-export const WEIR_MIN_HEAD = 0.2 * FOOT;
-/** Fully contracted rectangular weir: h/b <= 0.5 (ISO 1438 practical limits; from memory). */
-export const CONTRACTED_WEIR_MAX_HEAD_RATIO = 0.5;
-/** V-notch (Kindsvater-Shen) heads up to 1.25 ft = 0.38 m (USBR WMM eq 7-3 limits; from memory). */
-export const VNOTCH_MAX_HEAD = 1.25 * FOOT;
-/** Kindsvater-Shen notch angles 20 to 100 degrees (ISO 1438). */
-export const VNOTCH_ANGLES = [20, 100] as const;
-/** Orifice discharge coefficients 0.40 (ragged) to 0.60 (square-edged) (HEC-22 sec. 8.4.4.1) and 0.61-0.62
- * for sharp-edged plates (USBR WMM; from memory). */
-export const ORIFICE_COEFFICIENTS = [0.4, 0.62] as const;
 /** Largest HW/D the HDS-5 inlet-control charts cover: the regression polynomials fitted to them apply
  * for 0.5 <= HW/D <= 3.0 (TxDOT Hydraulic Design Manual, ch. 8 sec. 3, eq 8-4); beyond it the
  * equations are extrapolated. */
@@ -38,20 +24,9 @@ export const BARREL_MAX_HEADWATER_RATIO = 3.0;
 /** Stages scanned below the highest routed stage when looking for a doubtful outlet-control headwater. */
 const BARREL_SCAN_STAGES = 48;
 
+/** An element as a warning's subject: its path in the case file and the part in words. */
 export function partLabel(e: Element, index: number, f: Formatter): string {
-  const where = `outlet.elements[${index}]`;
-  switch (e.type) {
-    case "orifice":
-      return e.shape === "circular"
-        ? `${where} (${e.count} x ${f.size(e.diameter)} circular orifice)`
-        : `${where} (${e.count} x ${f.size(e.width)} x ${f.size(e.height)} rectangular orifice)`;
-    case "weir":
-      return e.shape === "rectangular"
-        ? `${where} (${f.length(e.length)} rectangular weir)`
-        : `${where} (${e.angle} degree v-notch weir)`;
-    case "regulator":
-      return `${where} (regulator)`;
-  }
+  return `outlet.elements[${index}] (${partOf(e).label(e, f)})`;
 }
 
 export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): Warning[] {
@@ -59,29 +34,13 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
   const warnings: Warning[] = [];
   const maxStage = Math.max(...routing.storms.map((s) => s.result.maxStage));
   outlet.elements.forEach((e, i) => {
+    const kind = partOf(e);
     const part = partLabel(e, i, f);
     const add = (reason: string) => warnings.push({ part, reason });
-    if (e.type === "weir") {
-      const head = maxStage - e.crest;
-      if (head > 0 && head < WEIR_MIN_HEAD) {
-        add(`largest head ${f.length(head)} is below ${f.length(WEIR_MIN_HEAD)}, the smallest head weir coefficients were measured at`);
-      }
-      if (e.shape === "rectangular" && e.endContractions > 0 && head > CONTRACTED_WEIR_MAX_HEAD_RATIO * e.length) {
-        add(`head ${f.length(head)} exceeds half the weir length: the end contractions take away more than the Francis formula covers`);
-      }
-      if (e.shape === "v-notch") {
-        if (head > VNOTCH_MAX_HEAD) add(`head ${f.length(head)} exceeds ${f.length(VNOTCH_MAX_HEAD)}, the largest head the v-notch coefficient covers`);
-        if (e.angle < VNOTCH_ANGLES[0] || e.angle > VNOTCH_ANGLES[1]) add(`notch angle ${e.angle} degrees is outside 20 to 100 degrees`);
-      }
-    }
-    if (e.type === "orifice" && (e.coefficient < ORIFICE_COEFFICIENTS[0] || e.coefficient > ORIFICE_COEFFICIENTS[1])) {
-      add(`discharge coefficient ${e.coefficient} is outside the published 0.40 to 0.62`);
-    }
-    if (e.type === "regulator" && maxStage - e.invert > regulatorMaxHead(e)) {
-      add(`head ${f.length(maxStage - e.invert)} is above the rating's last point (${f.length(regulatorMaxHead(e))}); flow extrapolated as the square root of head`);
-    }
-    if (outlet.riser && e.type !== "regulator") {
-      const topOfOpening = e.type === "orifice" ? e.invert + openingHeight(e) : e.crest;
+    // Its own range of validity (the kind's), then whether it is cut in the wall below the rim.
+    kind.warnings(e, maxStage, f).forEach(add);
+    if (outlet.riser && kind.room(e, maxStage) !== null) {
+      const topOfOpening = kind.top(e);
       if (topOfOpening > outlet.riser.crest + 1e-9) {
         add(`opening reaches ${f.elevation(topOfOpening)}, above the riser rim at ${f.elevation(outlet.riser.crest)}`);
       }
@@ -112,10 +71,11 @@ function wallWarnings(outlet: Outlet, maxStage: number, f: Formatter): Warning[]
   const perimeter = riserPerimeter(riser);
   const groups = new Map<number, number>();
   for (const e of outlet.elements) {
-    if (e.type === "regulator") continue;
-    const bottom = Math.round(elementBottom(e) * 1e6) / 1e6;
-    const width = e.type === "orifice" ? openingWidth(e) : weirWidth(e, Math.min(maxStage, riser.crest) - e.crest);
-    groups.set(bottom, (groups.get(bottom) ?? 0) + width);
+    const kind = partOf(e);
+    const room = kind.room(e, Math.min(maxStage, riser.crest));
+    if (room === null) continue;
+    const bottom = Math.round(kind.bottom(e) * 1e6) / 1e6;
+    groups.set(bottom, (groups.get(bottom) ?? 0) + room.width);
   }
   const warnings: Warning[] = [];
   for (const [bottom, width] of groups) {
@@ -133,7 +93,7 @@ function wallWarnings(outlet: Outlet, maxStage: number, f: Formatter): Warning[]
 export function barrelWarnings(c: Case, outlet: Outlet, routing: CaseRouting, f: Formatter): Warning[] {
   const b = outlet.barrel!;
   const rise = barrelRise(b);
-  const part = `outlet.barrel (${b.shape === "circular" ? f.size(b.diameter) : `${f.length(b.span)} x ${f.length(b.rise)}`} barrel)`;
+  const part = `outlet.barrel (${barrelSizeWords(b, f)} barrel)`;
   const warnings: Warning[] = [];
   const fullAgainstTailwater: string[] = [];
   let steepest: { storm: string; ratio: number } | null = null;

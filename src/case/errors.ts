@@ -20,14 +20,8 @@ export function formatProblem(p: Problem): string {
   return `${p.where}: found ${p.found}, expected ${p.expected}`;
 }
 
-/** A short printable form of a value found in the input. */
-export function show(value: unknown): string {
-  if (value === undefined) return "nothing";
-  if (typeof value === "string") return JSON.stringify(value);
-  if (typeof value === "number" || typeof value === "boolean" || value === null) return String(value);
-  const text = JSON.stringify(value);
-  return text.length > 60 ? text.slice(0, 57) + "..." : text;
-}
+/** A short printable form of a value found in the input (src/fields.ts, shared with the parts). */
+export { show } from "../fields.js";
 
 /** Formats a JSON path such as ["storms", 0, "inflow"] as storms[0].inflow. */
 export function jsonPath(path: readonly PropertyKey[]): string {

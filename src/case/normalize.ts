@@ -1,16 +1,18 @@
 // Turns a schema-valid case file into the SI model, checking what spans several fields.
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import type { CaseFile, ElementFile, Length, OutletFile } from "./schema.js";
-import type { Case, Catalogue, Criteria, Element, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
+import type { CaseFile, Length, OutletFile } from "./schema.js";
+import type { Case, Catalogue, Criteria, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";
-import { baseLength, baseVolume, baseWeirCoefficient, FOOT, parseArea, parseDepth, parsePondArea } from "../units.js";
-import { defaultCoefficients } from "../hydraulics/defaults.js";
+import { baseLength, baseVolume, FOOT, parseArea, parseDepth, parsePondArea } from "../units.js";
 import { caseHydrology, type StormHydrology } from "./hydrology.js";
 import { stormLimits } from "./releaseLimits.js";
-import { ENTRANCE_TABLE, entrancesFor } from "../hydraulics/entrances.js";
+import { DEFAULT_LISTED_SHAPES, elementToSI } from "../parts/registry.js";
+import { riserToSI } from "../parts/riser.js";
+import { barrelToSI } from "../parts/barrel.js";
+import { spillwayToSI } from "../parts/spillway.js";
 import { normalizeUnderground } from "./underground.js";
 import { normalizeSite, siteSizing, sitePond, sizingSummary, type SiteSizing } from "./site.js";
 
@@ -93,7 +95,7 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
     const values = s.stageArea
       ? s.stageArea.map((r, i) => cv.quantity(parsePondArea, r[1], `pond.storage.stageArea[${i}][1]`))
       : s.stageStorage!.map((r) => r[1] * baseVolume(file.units));
-    if (s.stageArea) increasing(values, false, "area", (i) => ({ path: `pond.storage.stageArea[${i}][1]`, found: s.stageArea![i][1] }), cv);
+    if (s.stageArea) cv.increasing(values, false, "area", (i) => ({ path: `pond.storage.stageArea[${i}][1]`, found: s.stageArea![i][1] }));
     if (elevations[0] > bottom + 1e-9) {
       cv.problem(`pond.storage.${kind}[0][0]`, show(rows[0][0]), `a first elevation at or below pond.bottom (${show(p.bottom)})`);
     }
@@ -117,7 +119,7 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
   const rows = t.rating!;
   return {
     kind: "rating",
-    flows: increasing(rows.map((r, i) => cv.flowOf(r[0], `tailwater.rating[${i}][0]`)), true, "flow", (i) => ({ path: `tailwater.rating[${i}][0]`, found: rows[i][0] }), cv),
+    flows: cv.increasing(rows.map((r, i) => cv.flowOf(r[0], `tailwater.rating[${i}][0]`)), true, "flow", (i) => ({ path: `tailwater.rating[${i}][0]`, found: rows[i][0] })),
     elevations: rows.map((r) => r[1] * baseLength(file.units)),
   };
 }
@@ -241,103 +243,13 @@ function waterQualityVolume(depth: number | string, area: number | string, cv: C
   return typeof d === "number" && typeof a === "number" ? d * a : NaN;
 }
 
-/** Converts an `outlet` section (also used for outlets written by the search). */
+/** Converts an `outlet` section (also used for outlets written by the search): each part by its kind. */
 export function normalizeOutlet(o: OutletFile, cv: Converter, path: string): Outlet {
-  const d = defaultCoefficients(cv.units);
-  const k = baseWeirCoefficient(cv.units);
-  const elements = (o.elements ?? []).map((e, i) => normalizeElement(e, cv, `${path}.elements[${i}]`));
-  const outlet: Outlet = { elements };
-  if (o.riser) {
-    const r = o.riser;
-    const common = {
-      crest: cv.length(r.crest, `${path}.riser.crest`),
-      coefficient: (r.coefficient ?? d.riserWeir) * k,
-      orificeCoefficient: r.orificeCoefficient ?? d.riserOrifice,
-      keep: r.keep ?? false,
-    };
-    outlet.riser =
-      r.shape === "circular"
-        ? { shape: "circular", diameter: cv.length(r.diameter, `${path}.riser.diameter`), ...common }
-        : { shape: "box", length: cv.length(r.length, `${path}.riser.length`), width: cv.length(r.width, `${path}.riser.width`), ...common };
-  }
-  if (o.barrel) {
-    const b = o.barrel;
-    const common = {
-      length: cv.length(b.length, `${path}.barrel.length`),
-      inletInvert: cv.length(b.inletInvert, `${path}.barrel.inletInvert`),
-      outletInvert: cv.length(b.outletInvert, `${path}.barrel.outletInvert`),
-      manningN: b.manningN,
-      entrance: b.entrance,
-      keep: b.keep ?? false,
-    };
-    const row = ENTRANCE_TABLE[b.entrance];
-    if (row.shape !== b.shape) {
-      cv.problem(`${path}.barrel.entrance`, show(b.entrance), `an entrance for a ${b.shape} barrel (${entrancesFor(b.shape).join(", ")})`);
-    }
-    outlet.barrel =
-      b.shape === "circular"
-        ? { shape: "circular", diameter: cv.length(b.diameter, `${path}.barrel.diameter`), ...common }
-        : { shape: "box", span: cv.length(b.span, `${path}.barrel.span`), rise: cv.length(b.rise, `${path}.barrel.rise`), ...common };
-  }
-  if (o.spillway) {
-    const s = o.spillway;
-    outlet.spillway = {
-      crest: cv.length(s.crest, `${path}.spillway.crest`),
-      length: cv.length(s.length, `${path}.spillway.length`),
-      sideSlope: s.sideSlope,
-      coefficient: (s.coefficient ?? d.spillway) * k,
-      keep: s.keep ?? false,
-    };
-  }
+  const outlet: Outlet = { elements: (o.elements ?? []).map((e, i) => elementToSI(e, cv, `${path}.elements[${i}]`)) };
+  if (o.riser) outlet.riser = riserToSI(o.riser, cv, `${path}.riser`);
+  if (o.barrel) outlet.barrel = barrelToSI(o.barrel, cv, `${path}.barrel`);
+  if (o.spillway) outlet.spillway = spillwayToSI(o.spillway, cv, `${path}.spillway`);
   return outlet;
-}
-
-function normalizeElement(e: ElementFile, cv: Converter, path: string): Element {
-  const d = defaultCoefficients(cv.units);
-  const k = baseWeirCoefficient(cv.units);
-  const keep = e.keep ?? false;
-  if (e.type === "orifice") {
-    const common = { count: e.count ?? 1, invert: cv.length(e.invert, `${path}.invert`), coefficient: e.coefficient ?? d.orifice, keep };
-    return e.shape === "circular"
-      ? { type: "orifice", shape: "circular", diameter: cv.length(e.diameter, `${path}.diameter`), ...common }
-      : {
-          type: "orifice",
-          shape: "rectangular",
-          width: cv.length(e.width, `${path}.width`),
-          height: cv.length(e.height, `${path}.height`),
-          ...common,
-        };
-  }
-  if (e.type === "weir") {
-    if (e.shape === "rectangular") {
-      return {
-        type: "weir",
-        shape: "rectangular",
-        length: cv.length(e.length, `${path}.length`),
-        crest: cv.length(e.crest, `${path}.crest`),
-        endContractions: e.endContractions ?? 0,
-        coefficient: (e.coefficient ?? d.rectangularWeir) * k,
-        keep,
-      };
-    }
-    return {
-      type: "weir",
-      shape: "v-notch",
-      angle: e.angle,
-      crest: cv.length(e.crest, `${path}.crest`),
-      coefficient: (e.coefficient ?? d.vNotchWeir) * k,
-      keep,
-    };
-  }
-  const L = baseLength(cv.units);
-  if (e.rating[0][0] < 0) cv.problem(`${path}.rating[0][0]`, show(e.rating[0][0]), "a head of zero or more");
-  return {
-    type: "regulator",
-    invert: cv.length(e.invert, `${path}.invert`),
-    heads: e.rating.map((r) => r[0] * L),
-    flows: increasing(e.rating.map((r, i) => cv.flowOf(r[1], `${path}.rating[${i}][1]`)), false, "flow", (i) => ({ path: `${path}.rating[${i}][1]`, found: e.rating[i][1] }), cv),
-    keep,
-  };
 }
 
 function normalizeCatalogue(file: CaseFile, cv: Converter): Catalogue {
@@ -347,7 +259,7 @@ function normalizeCatalogue(file: CaseFile, cv: Converter): Catalogue {
   return {
     orificeDiameters: lengths(c.orifice?.diameters, "catalogue.orifice.diameters"),
     maxCount: c.orifice?.maxCount ?? 1,
-    weirShapes: c.weir?.shapes ?? (c.weir ? ["rectangular", "v-notch"] : []),
+    weirShapes: c.weir?.shapes ?? (c.weir ? [...DEFAULT_LISTED_SHAPES] : []),
     weirLengths: lengths(c.weir?.lengths, "catalogue.weir.lengths"),
     weirAngles: [...(c.weir?.angles ?? [])].sort((a, b) => a - b),
     riserDiameters: lengths(c.riser?.diameters, "catalogue.riser.diameters"),
@@ -355,21 +267,6 @@ function normalizeCatalogue(file: CaseFile, cv: Converter): Catalogue {
     maxStages: c.maxStages ?? 3,
     elevationStep: cv.optionalLength(c.elevationStep, "catalogue.elevationStep", file.units === "US" ? 0.05 * FOOT : 0.01),
   };
-}
-
-/** Checks SI values of a table column (rows may carry different units) for order; returns them. */
-function increasing(values: number[], strictly: boolean, name: string, at: (i: number) => { path: string; found: unknown }, cv: Converter): number[] {
-  for (let i = 1; i < values.length; i++) {
-    // Rounding of unit factors aside (0.1 ac and 4356 ft2 are the same area).
-    const bad = strictly ? !(values[i] > values[i - 1]) : values[i] < values[i - 1] - 1e-12 * Math.abs(values[i - 1]);
-    if (bad && !Number.isNaN(values[i]) && !Number.isNaN(values[i - 1])) {
-      const { path, found } = at(i);
-      if (!cv.problems.some((p) => p.where === `${cv.label}: ${path}`)) {
-        cv.problem(path, show(found), `${name} ${strictly ? "strictly increasing" : "not decreasing"} (row before has ${show(at(i - 1).found)})`);
-      }
-    }
-  }
-  return values;
 }
 
 /** Longest inflow a storm may span: routing goes on until 10 days after the last point, and a

@@ -1,105 +1,24 @@
-// The case file's schema: the single source of the file's types (see the case-format contract).
-// Numbers are in the case's units here; `normalize.ts` turns a parsed case into SI.
-import { ENTRANCES } from "../hydraulics/entrances.js";
+// The case file's schema: the single source of the file's types (see the case-format contract), built
+// from the field schemas (src/fields.ts) and the outlet parts' fragments (src/parts/). Numbers are in
+// the case's units here; `normalize.ts` turns a parsed case into SI.
 import { z } from "zod";
-import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, isUsableNumber, splitQuantity, UNIT_AREA_RATE_UNITS, USABLE_NUMBER } from "../units.js";
+import { AREA_UNITS, FLOW_UNITS, INTENSITY_UNITS, LENGTH_UNITS, UNIT_AREA_RATE_UNITS } from "../units.js";
+import { count, exactlyOne, finite, flowSchema, lengthSchema, nonNegative, positive, positiveLength, positiveQuantity, quantityNumber, quantitySchema, table } from "../fields.js";
+import { elementSchema, listedShapeSchema } from "../parts/registry.js";
+import { riserSchema } from "../parts/riser.js";
+import { barrelSchema } from "../parts/barrel.js";
+import { spillwaySchema } from "../parts/spillway.js";
+import { COST_KEYS } from "../parts/cost.js";
 
-const LENGTH_EXPECTED = `a length: a number, or a number and a unit (${Object.keys(LENGTH_UNITS).join(", ")}) such as "6 in"`;
+// The outlet parts' file types are the parts' own (src/parts/); named here with the rest of the file's.
+export type { ElementFile } from "../parts/registry.js";
+export type { RiserFile } from "../parts/riser.js";
+export type { BarrelFile } from "../parts/barrel.js";
+export type { SpillwayFile } from "../parts/spillway.js";
+export type { Length } from "../fields.js";
 
-const finite = z.number({ error: USABLE_NUMBER }).refine(isUsableNumber, { message: USABLE_NUMBER });
-
-/** A number, or a string of a number and one of `units`; `expected` says what in messages. */
-function quantitySchema(units: Readonly<Record<string, number>>, expected: string, noun: string) {
-  return z.union([finite, z.string()], { error: expected }).superRefine((value, ctx) => {
-    if (typeof value === "number") return;
-    const parts = splitQuantity(value, units);
-    if ("error" in parts) {
-      const example = expected.slice(expected.lastIndexOf("such as ") + 8);
-      const message = parts.error.startsWith("a unit") ? `a ${noun} ${parts.error.slice(2)}, such as ${example}` : `${expected}; the number ${USABLE_NUMBER}`;
-      ctx.addIssue({ code: "custom", message, input: value });
-    }
-  });
-}
-/** The number of a valid quantity (its sign is all the checks below need). */
-function quantityNumber(value: number | string, units: Readonly<Record<string, number>> | undefined): number {
-  if (typeof value === "number") return value;
-  if (!units) return NaN;
-  const parts = splitQuantity(value, units);
-  return "error" in parts ? NaN : parts.number;
-}
-/** The same, greater than zero. */
-function positiveQuantity(schema: ReturnType<typeof quantitySchema>, units: Readonly<Record<string, number>>, what: string) {
-  return schema.superRefine((value, ctx) => {
-    const n = quantityNumber(value, units);
-    if (!Number.isNaN(n) && !(n > 0)) ctx.addIssue({ code: "custom", message: `${what} greater than zero`, input: value });
-  });
-}
-
-/** A length: a bare number in the case's base unit or a string with a unit ("6 in", "150 mm"). */
-export const lengthSchema = quantitySchema(LENGTH_UNITS, LENGTH_EXPECTED, "length");
-const positiveLength = positiveQuantity(lengthSchema, LENGTH_UNITS, "a length");
-/** A flow: a bare number in cfs (US) or m3/s (SI), or "6.5 cfs", "184 L/s", "0.18 m3/s". */
-export const flowSchema = quantitySchema(FLOW_UNITS, `a flow: a number, or a number and a unit (${Object.keys(FLOW_UNITS).join(", ")}) such as "6.5 cfs"`, "flow");
 /** A pond surface area: a bare number in ft2 (US) or m2 (SI), or "0.56 ac", "0.2 ha", "2300 m2". */
 export const pondAreaSchema = quantitySchema(AREA_UNITS, `an area: a number, or a number and a unit (${Object.keys(AREA_UNITS).join(", ")}) such as "0.56 ac"`, "area");
-type Quantity = number | string;
-const positive = finite.refine((v) => v > 0, { message: "a number greater than zero" });
-const nonNegative = finite.refine((v) => v >= 0, { message: "a number of zero or more" });
-
-/** Rows [x, y] strictly increasing in x, non-decreasing (unless `yAnyOrder`; optionally >= 0) in y; x or y may be a
- * quantity with units (`xUnits`, `yUnits`: a flow "184 L/s", an area "0.56 ac"). Two rows are
- * compared here when their cells carry the same unit; `normalize.ts` compares the SI values of
- * rows in different units, which need the case's base units. */
-function table<X extends z.ZodType<Quantity>, Y extends z.ZodType<Quantity>>(
-  xName: string,
-  yName: string,
-  xCell: X,
-  yCell: Y,
-  options: { yNonNegative?: boolean; minRows?: number; yAnyOrder?: boolean; xUnits?: Readonly<Record<string, number>>; yUnits?: Readonly<Record<string, number>> } = {},
-) {
-  const minRows = options.minRows ?? 2;
-  const row = z.tuple([xCell, yCell], { error: `a pair [${xName}, ${yName}]` });
-  return z.array(row, { error: `a table of [${xName}, ${yName}] rows` }).superRefine((rows, ctx) => {
-    if (rows.length < minRows) {
-      ctx.addIssue({ code: "custom", message: `at least ${minRows} rows of [${xName}, ${yName}]`, input: rows.length });
-      return;
-    }
-    for (let i = 0; i < rows.length; i++) {
-      const [x, y] = rows[i] as [Quantity, Quantity];
-      if (options.yNonNegative && quantityNumber(y, options.yUnits) < 0) {
-        ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} of zero or more`, input: y });
-      }
-      if (i === 0) continue;
-      const [px, py] = rows[i - 1] as [Quantity, Quantity];
-      if (sameUnit(x, px) && !(quantityNumber(x, options.xUnits) > quantityNumber(px, options.xUnits))) {
-        ctx.addIssue({ code: "custom", path: [i, 0], message: `${xName} strictly increasing (row before has ${px})`, input: x });
-      }
-      if (!options.yAnyOrder && sameUnit(y, py) && quantityNumber(y, options.yUnits) < quantityNumber(py, options.yUnits)) {
-        ctx.addIssue({ code: "custom", path: [i, 1], message: `${yName} not decreasing (row before has ${py})`, input: y });
-      }
-    }
-  });
-}
-
-/** Whether two cells are both bare numbers or carry the same unit text. */
-function sameUnit(a: Quantity, b: Quantity): boolean {
-  const unit = (v: Quantity) => (typeof v === "number" ? "" : v.replace(/^[\s\d.eE+-]*/, "").trim().toLowerCase());
-  return unit(a) === unit(b);
-}
-
-/** Exactly one of the listed keys must be present. */
-function exactlyOne<T extends Record<string, unknown>>(keys: string[], what: string) {
-  return (value: T, ctx: z.RefinementCtx) => {
-    const present = keys.filter((k) => value[k] !== undefined);
-    if (present.length !== 1) {
-      ctx.addIssue({
-        code: "custom",
-        message: `exactly one of ${keys.join(", ")} for the ${what}`,
-        input: present.length === 0 ? "none of them" : present.join(" and "),
-      });
-    }
-  };
-}
 
 const unitCount = z.number({ error: "a whole number of 1 or more" }).int({ message: "a whole number of 1 or more" }).min(1, { message: "a whole number of 1 or more" });
 const voidRatio = finite.refine((v) => v > 0 && v < 1, { message: "a void ratio (porosity) greater than 0 and less than 1, e.g. 0.4" });
@@ -391,115 +310,6 @@ export const criteriaSchema = z.object({
   overtopping: z.object({ source: sourceLabel }).optional(),
 });
 
-const keep = z.boolean({ error: "true or false" }).optional();
-const count = z.number().int({ message: "a whole number of 1 or more" }).min(1, { message: "a whole number of 1 or more" });
-
-const circularOrificeSchema = z.object({
-  type: z.literal("orifice"),
-  shape: z.literal("circular"),
-  diameter: positiveLength,
-  count: count.optional(),
-  invert: lengthSchema,
-  coefficient: positive.optional(),
-  keep,
-});
-const rectangularOrificeSchema = z.object({
-  type: z.literal("orifice"),
-  shape: z.literal("rectangular"),
-  width: positiveLength,
-  height: positiveLength,
-  count: count.optional(),
-  invert: lengthSchema,
-  coefficient: positive.optional(),
-  keep,
-});
-const rectangularWeirSchema = z.object({
-  type: z.literal("weir"),
-  shape: z.literal("rectangular"),
-  length: positiveLength,
-  crest: lengthSchema,
-  endContractions: z.union([z.literal(0), z.literal(1), z.literal(2)], { error: "0, 1 or 2" }).optional(),
-  coefficient: positive.optional(),
-  keep,
-});
-const vNotchWeirSchema = z.object({
-  type: z.literal("weir"),
-  shape: z.literal("v-notch"),
-  angle: finite.refine((a) => a > 0 && a < 180, { message: "an angle in degrees between 0 and 180" }),
-  crest: lengthSchema,
-  coefficient: positive.optional(),
-  keep,
-});
-const regulatorSchema = z.object({
-  type: z.literal("regulator"),
-  invert: lengthSchema,
-  rating: table("head", "flow", finite, flowSchema, { yNonNegative: true, yUnits: FLOW_UNITS }),
-  keep,
-});
-
-export const elementSchema = z.discriminatedUnion(
-  "type",
-  [
-    z.discriminatedUnion("shape", [circularOrificeSchema, rectangularOrificeSchema], {
-      error: 'an orifice shape: "circular" or "rectangular"',
-    }),
-    z.discriminatedUnion("shape", [rectangularWeirSchema, vNotchWeirSchema], {
-      error: 'a weir shape: "rectangular" or "v-notch"',
-    }),
-    regulatorSchema,
-  ],
-  { error: 'an element type: "orifice", "weir" or "regulator"' },
-);
-
-export const riserSchema = z.discriminatedUnion(
-  "shape",
-  [
-    z.object({
-      shape: z.literal("circular"),
-      diameter: positiveLength,
-      crest: lengthSchema,
-      coefficient: positive.optional(),
-      orificeCoefficient: positive.optional(),
-      keep,
-    }),
-    z.object({
-      shape: z.literal("box"),
-      length: positiveLength,
-      width: positiveLength,
-      crest: lengthSchema,
-      coefficient: positive.optional(),
-      orificeCoefficient: positive.optional(),
-      keep,
-    }),
-  ],
-  { error: 'a riser shape: "circular" or "box"' },
-);
-
-const barrelCommon = {
-  length: positiveLength,
-  inletInvert: lengthSchema,
-  outletInvert: lengthSchema,
-  manningN: positive,
-  entrance: z.enum(ENTRANCES, { error: `an entrance among ${ENTRANCES.join(", ")}` }),
-  keep,
-};
-export const barrelSchema = z.discriminatedUnion(
-  "shape",
-  [
-    z.object({ shape: z.literal("circular"), diameter: positiveLength, ...barrelCommon }),
-    z.object({ shape: z.literal("box"), span: positiveLength, rise: positiveLength, ...barrelCommon }),
-  ],
-  { error: 'a barrel shape: "circular" or "box"' },
-);
-
-export const spillwaySchema = z.object({
-  crest: lengthSchema,
-  length: positiveLength,
-  sideSlope: nonNegative,
-  coefficient: positive.optional(),
-  keep,
-});
-
 export const outletSchema = z.object({
   elements: z.array(elementSchema).optional(),
   riser: riserSchema.optional(),
@@ -513,7 +323,7 @@ export const catalogueSchema = z.object({
     .optional(),
   weir: z
     .object({
-      shapes: z.array(z.enum(["rectangular", "v-notch"], { error: '"rectangular" or "v-notch"' })).optional(),
+      shapes: z.array(listedShapeSchema).optional(),
       lengths: z.array(positiveLength).optional(),
       angles: z.array(finite.refine((a) => a > 0 && a < 180, { message: "an angle between 0 and 180 degrees" })).optional(),
     })
@@ -542,10 +352,9 @@ export const siteSchema = z.object({
 });
 
 
-/** The cost proxy's weights (search/cost.ts holds their defaults and meaning); each optional. */
-export const COST_WEIGHT_NAMES = ["opening", "orificeDiameter", "weir", "weirLength", "level", "riser", "riserPerimeter", "barrel"] as const;
+/** The cost proxy's weights (parts/cost.ts holds their defaults and meaning); each optional. */
 export const costsSchema = z.object(
-  Object.fromEntries(COST_WEIGHT_NAMES.map((name) => [name, nonNegative.optional()])) as Record<(typeof COST_WEIGHT_NAMES)[number], z.ZodOptional<typeof nonNegative>>,
+  Object.fromEntries(COST_KEYS.map((name) => [name, nonNegative.optional()])) as Record<(typeof COST_KEYS)[number], z.ZodOptional<typeof nonNegative>>,
   { error: "an object of cost weights (numbers)" },
 );
 
@@ -582,14 +391,9 @@ export const caseSchema = z.object({
 });
 
 export type CaseFile = z.infer<typeof caseSchema>;
-export type ElementFile = z.infer<typeof elementSchema>;
 export type OutletFile = z.infer<typeof outletSchema>;
-export type RiserFile = z.infer<typeof riserSchema>;
-export type BarrelFile = z.infer<typeof barrelSchema>;
-export type SpillwayFile = z.infer<typeof spillwaySchema>;
 export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
-export type Length = z.infer<typeof lengthSchema>;
 export type StorageFile = z.infer<typeof storageSchema>;
 export type StoneFile = z.infer<typeof stoneSchema>;
 export type SiteFile = z.infer<typeof siteSchema>;

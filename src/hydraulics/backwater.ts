@@ -18,7 +18,8 @@
 // steep slope (yn < yc) S1 from a tailwater above critical depth; horizontal H2 and adverse A2
 // rise upstream until they reach the crown (no normal depth). SI units.
 import type { Barrel } from "../model.js";
-import { barrelRise, barrelSlope, emptySection, frictionSlope, froudeSquared, sectionAt } from "./barrelSection.js";
+import { barrelSlope, emptySection, frictionSlope, froudeSquared, sectionAt } from "./barrelSection.js";
+import { barrelRise } from "../parts/barrel.js";
 import { normalDepth } from "./normalDepth.js";
 import { barrelCriticalDepth } from "./criticalDepth.js";
 

@@ -26,10 +26,11 @@
 // 9.80665 m/s2.
 import type { Barrel } from "../model.js";
 import { FOOT, GRAVITY } from "../units.js";
-import { entrance, type Entrance } from "./entrances.js";
+import { entrance, type Entrance } from "../parts/entrances.js";
 import { barrelCriticalDepth, circularFlowArea } from "./criticalDepth.js";
 import { brentRoot } from "./roots.js";
-import { barrelArea, barrelRise, barrelSlope, emptySection, fullHydraulicRadius, sectionAt } from "./barrelSection.js";
+import { barrelSlope, emptySection, sectionAt } from "./barrelSection.js";
+import { barrelArea, barrelRise, fullHydraulicRadius } from "../parts/barrel.js";
 import { backwaterProfile, type Profile } from "./backwater.js";
 
 /** Largest x = Ku Q/(A D^0.5) of the unsubmerged forms, smallest of the submerged form (HDS-5 App. A). */

@@ -2,25 +2,11 @@
 // a depth y, exactly (no chart). A circle of diameter D filled to the central angle
 // theta = 4 asin(sqrt(y/D)) has A = D^2 (theta - sin theta)/8, P = D theta/2, T = D sin(theta/2)
 // (Chow 1959, Open-Channel Hydraulics, Table 2-1). A box of span B has A = B y, P = B + 2 y, T = B
-// up to its rise (the lid is not wetted until the box runs full). SI units.
+// up to its rise (the lid is not wetted until the box runs full). SI units. Rise, full area and
+// full hydraulic radius are the barrel part's (src/parts/barrel.ts).
 import type { Barrel } from "../model.js";
 import { GRAVITY } from "../units.js";
 import { thetaMinusSine } from "./criticalDepth.js";
-
-/** Barrel rise D (m). */
-export function barrelRise(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter : b.rise;
-}
-
-/** Full cross-section area A (m2). */
-export function barrelArea(b: Barrel): number {
-  return b.shape === "circular" ? (Math.PI * b.diameter * b.diameter) / 4 : b.span * b.rise;
-}
-
-/** Hydraulic radius of the full barrel (m). */
-export function fullHydraulicRadius(b: Barrel): number {
-  return b.shape === "circular" ? b.diameter / 4 : (b.span * b.rise) / (2 * (b.span + b.rise));
-}
 
 /** Barrel slope S = (inlet invert - outlet invert) / length. */
 export function barrelSlope(b: Barrel): number {

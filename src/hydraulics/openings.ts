@@ -1,21 +1,13 @@
-// The openings of the riser or headwall (orifices, weirs, regulators) and the riser's rim: the flow
-// in through them for a pond stage and a downstream level (the chamber, or tailwater without a
-// barrel), each part submerged by that level as the case-format contract states.
+// The openings of the riser or headwall (the outlet's elements: orifices, weirs, regulators) and the
+// riser's rim: the flow in through them for a pond stage and a downstream level (the chamber, or
+// tailwater without a barrel), each part submerged by that level as the case-format contract states.
+// Each element's flow is its kind's (src/parts/).
 import type { Element, Outlet } from "../model.js";
-import { orificeFlow } from "./orifice.js";
-import { weirFlow } from "./weir.js";
-import { regulatorFlow } from "./regulator.js";
-import { rimDischarge } from "./riser.js";
+import { bottomOf, partOf } from "../parts/registry.js";
+import { rimDischarge } from "../parts/riser.js";
 
 export function elementFlow(e: Element, ws: number, ds: number): number {
-  switch (e.type) {
-    case "orifice":
-      return orificeFlow(e, ws, ds);
-    case "weir":
-      return weirFlow(e, ws, ds);
-    case "regulator":
-      return regulatorFlow(e, ws, ds);
-  }
+  return partOf(e).flow(e, ws, ds);
 }
 
 /** Flow in through every opening and the rim for a downstream (chamber or tailwater) level. */
@@ -27,17 +19,12 @@ export function openingsFlow(outlet: Outlet, ws: number, ds: number): number {
   return q;
 }
 
-/** Lowest point of an element's opening (invert or crest). */
-export function elementBottom(e: Element): number {
-  return e.type === "weir" ? e.crest : e.invert;
-}
-
 /** The lowest level at which a downstream level starts to reduce the flow through some opening or the rim. */
 export function lowestOpening(outlet: Outlet): number {
   let lowest = outlet.riser ? outlet.riser.crest : Infinity;
   const elements = outlet.elements;
   for (let i = 0; i < elements.length; i++) {
-    const bottom = elementBottom(elements[i]);
+    const bottom = bottomOf(elements[i]);
     if (bottom < lowest) lowest = bottom;
   }
   return lowest;

@@ -2,17 +2,13 @@
 // each element's free flow (downstream level at or below its bottom) is computed once per stage,
 // and only the elements a downstream level reaches are evaluated again for that level. The values
 // are those of `openingsFlow` exactly (a part the downstream level does not reach passes its free
-// flow); only a circular orifice's flow is approximated when `tabulated` is set: its free flow from
-// the dimensionless table (circleTable.ts), its submerged flow under a water surface that stands
-// over the whole opening from the 8-point rule (orifice.ts), both within 1e-6 of the direct value.
-import type { Outlet } from "../model.js";
-import { elementBottom, elementFlow } from "./openings.js";
-import { rimDischarge } from "./riser.js";
-import { GRAVITY } from "../units.js";
-import { wettedCircleTabulated } from "./circleTable.js";
-import { circularOpeningIntegral, SHORT_RULE, SHORT_RULE_COVER } from "./orifice.js";
-
-const SQRT_2G = Math.sqrt(2 * GRAVITY);
+// flow); with `tabulated` set, a kind that has faster forms of its flow for the sweep (its `sweep`:
+// the circular orifice's free flow from a dimensionless table, its submerged flow by a shorter rule)
+// is rated by them, within 1e-6 of the direct value.
+import type { Element, Outlet } from "../model.js";
+import { partOf, type AnyElementPart } from "../parts/registry.js";
+import type { SweepFlow } from "../parts/part.js";
+import { rimDischarge } from "../parts/riser.js";
 
 /** Columns kept per stage grid (each a Float64Array of the grid's length), least recently used dropped. */
 export const FREE_COLUMNS_KEPT = 256;
@@ -48,8 +44,9 @@ export class OpeningsSweep {
   /** Free flow of each element at the present stage, then the rim's. */
   private readonly free: Float64Array;
   private readonly bottoms: Float64Array;
-  /** Cd count sqrt(2g) for a circular orifice whose free flow is tabulated, 0 otherwise. */
-  private readonly circleFactor: Float64Array;
+  /** Each element's kind, and its sweep's forms of the flow where `tabulated` takes them (else null). */
+  private readonly kinds: AnyElementPart[];
+  private readonly fast: (SweepFlow<Element> | null)[];
   private readonly rimCrest: number;
   private ws = NaN;
   /** Sum of the free flows at the present stage (m3/s). */
@@ -61,10 +58,10 @@ export class OpeningsSweep {
     const n = outlet.elements.length;
     this.free = new Float64Array(n + 1);
     this.bottoms = new Float64Array(n);
-    this.circleFactor = new Float64Array(n);
+    this.kinds = outlet.elements.map(partOf);
+    this.fast = this.kinds.map((k) => (tabulated ? k.sweep : null));
     outlet.elements.forEach((e, i) => {
-      this.bottoms[i] = elementBottom(e);
-      if (tabulated && e.type === "orifice" && e.shape === "circular") this.circleFactor[i] = e.count * e.coefficient * SQRT_2G;
+      this.bottoms[i] = this.kinds[i].bottom(e);
     });
     this.rimCrest = outlet.riser ? outlet.riser.crest : Infinity;
   }
@@ -74,8 +71,8 @@ export class OpeningsSweep {
     const elements = this.outlet.elements;
     if (i === elements.length) return this.outlet.riser ? rimDischarge(this.outlet.riser, ws, -Infinity) : 0;
     const e = elements[i];
-    if (this.circleFactor[i] > 0 && e.type === "orifice" && e.shape === "circular") return ws > e.invert ? this.circleFactor[i] * wettedCircleTabulated(e.diameter, ws - e.invert) : 0;
-    return elementFlow(e, ws, -Infinity);
+    const fast = this.fast[i];
+    return fast ? fast.free(e, ws) : this.kinds[i].flow(e, ws, -Infinity);
   }
 
   private columns: Float64Array[] = [];
@@ -94,7 +91,7 @@ export class OpeningsSweep {
     this.partBottoms = [];
     for (let i = 0; i <= elements.length; i++) {
       const part = i < elements.length ? elements[i] : (this.outlet.riser ?? null);
-      const how = i < elements.length && this.circleFactor[i] > 0 ? "table" : "direct";
+      const how = i < elements.length && this.fast[i] ? "table" : "direct";
       const key = `${how} ${JSON.stringify(part)}`;
       this.partKeys.push(key);
       this.partBottoms.push(i < elements.length ? this.bottoms[i] : this.rimCrest);
@@ -133,11 +130,8 @@ export class OpeningsSweep {
   /** Flow of element i at a stage for a downstream level above its bottom. */
   private drowned(i: number, ws: number, ds: number): number {
     const e = this.outlet.elements[i];
-    const factor = this.circleFactor[i];
-    if (factor > 0 && e.type === "orifice" && e.shape === "circular" && ws >= e.invert + (1 + SHORT_RULE_COVER) * e.diameter) {
-      return ds < ws ? factor * circularOpeningIntegral(e.diameter, e.invert, ws, ds, SHORT_RULE) : 0;
-    }
-    return elementFlow(e, ws, ds);
+    const fast = this.fast[i];
+    return fast ? fast.drowned(e, ws, ds) : this.kinds[i].flow(e, ws, ds);
   }
 
   /**

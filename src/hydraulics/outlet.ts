@@ -3,14 +3,15 @@
 // spillway always discharges straight downstream. No reverse flow: a downstream level above the
 // pond stage gives zero outflow.
 import type { Outlet, Tailwater } from "../model.js";
-import { rimFlow } from "./riser.js";
-import { spillwayFlow } from "./spillway.js";
+import { rimFlow } from "../parts/riser.js";
+import { spillwayFlow } from "../parts/spillway.js";
+import { bottomOf } from "../parts/registry.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { chamberFlow, chamberLevel, type ChamberSolution } from "./chamber.js";
-import { elementBottom, elementFlow, lowestOpening, openingsFlow } from "./openings.js";
+import { elementFlow, lowestOpening, openingsFlow } from "./openings.js";
 import { brentRoot } from "./roots.js";
 
-export { elementBottom, elementFlow, openingsFlow } from "./openings.js";
+export { elementFlow, openingsFlow } from "./openings.js";
 
 /** Total outflow for a given tailwater level (-Infinity for a free outfall); `exact`: the barrel
  * by pointwise evaluation instead of its tabulated curve (for a tailwater that keeps changing). */
@@ -100,7 +101,7 @@ export function outletDetail(outlet: Outlet, tail: Tailwater, ws: number): Outle
   else if (spillway > openings) control = "spillway";
   else if (chamber && chamber.control !== "openings free") control = chamber.control;
   else if (rim.flow > 0 && rim.flow >= 0.5 * openings) control = rim.orificeControls ? "rim orifice flow" : "rim weir flow";
-  else if (!chamber && tw !== null && outlet.elements.some((e) => elementBottom(e) < tw)) control = "openings submerged by tailwater";
+  else if (!chamber && tw !== null && outlet.elements.some((e) => bottomOf(e) < tw)) control = "openings submerged by tailwater";
   else control = "openings free";
   return {
     stage: ws,

@@ -13,7 +13,7 @@ import { freeColumn, OpeningsSweep } from "./openingsSweep.js";
 import { ChamberSweep, extrapolate, sweepTolerance } from "./chamberSweep.js";
 import { keepSweep, sharedSweep, sortedParts, sweepColumns, type SweepColumns } from "./sweepReuse.js";
 import { valueKey } from "./barrelCurve.js";
-import { spillwayFlow } from "./spillway.js";
+import { spillwayFlow } from "../parts/spillway.js";
 import { tailwaterLevel } from "./tailwater.js";
 import { warmRoot, type WarmStart } from "./roots.js";
 

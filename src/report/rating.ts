@@ -1,5 +1,5 @@
 // The outlet's stage-discharge table for `outfit rate`: every part's flow, storage and the control.
-import type { Case, Outlet } from "../model.js";
+import type { Case, Element, Outlet } from "../model.js";
 import { outletDetail, type OutletDetail } from "../hydraulics/outlet.js";
 import { storageCurve } from "../storage/curve.js";
 import { formatter, significant } from "../format.js";
@@ -8,7 +8,8 @@ import { limitingPart, NOTICEABLE_REDUCTION, throttling } from "./limiting.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout } from "./terminal.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
-import { barrelRise } from "../hydraulics/barrel.js";
+import { barrelRise } from "../parts/barrel.js";
+import { partOf } from "../parts/registry.js";
 
 export interface RatingRow {
   detail: OutletDetail;
@@ -42,9 +43,14 @@ export function ratingRows(c: Case, outlet: Outlet, step: number): RatingRow[] {
   return rows;
 }
 
+/** An element by its number and kind's short name: "E2 v-notch". */
+export function elementName(e: Element, index: number): string {
+  return `E${index + 1} ${partOf(e).column}`;
+}
+
 /** One name per part, in the order of `partFlows`: "E1 orifice", ..., "rim", "barrel", "spillway". */
 export function partColumns(outlet: Outlet): string[] {
-  const names = outlet.elements.map((e, i) => `E${i + 1} ${e.type === "weir" ? (e.shape === "v-notch" ? "v-notch" : "weir") : e.type}`);
+  const names = outlet.elements.map(elementName);
   if (outlet.riser) names.push("rim");
   if (outlet.barrel) names.push("barrel");
   if (outlet.spillway) names.push("spillway");
@@ -76,7 +82,7 @@ export function ratingGrid(c: Case, outlet: Outlet, rows: readonly RatingRow[]):
   const columns: Column[] = [
     { head: `Stage\n(${L.length})`, align: "right" },
     { head: `Storage\n(${L.volume})`, align: "right" },
-    ...outlet.elements.map((e, i): Column => ({ head: `E${i + 1} ${e.type === "weir" ? (e.shape === "v-notch" ? "v-notch" : "weir") : e.type}\n(${L.flow})`, align: "right", narrow: "drop" })),
+    ...outlet.elements.map((e, i): Column => ({ head: `${elementName(e, i)}\n(${L.flow})`, align: "right", narrow: "drop" })),
     ...(outlet.elements.length ? [{ head: `Openings\n(${L.flow})`, align: "right" } as Column] : []),
     ...(outlet.riser ? [{ head: `Rim\n(${L.flow})`, align: "right" } as Column] : []),
     ...(outlet.barrel ? [{ head: `Barrel\n(${L.flow})`, align: "right", narrow: "drop" } as Column] : []),

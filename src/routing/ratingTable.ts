@@ -3,7 +3,7 @@
 import type { Outlet, Pond, Tailwater } from "../model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
 import { RatingSweep } from "../hydraulics/outletRating.js";
-import { openingHeight } from "../hydraulics/orifice.js";
+import { bottomOf, partOf } from "../parts/registry.js";
 
 export interface RatingTable {
   /** Stage (m), strictly increasing. */
@@ -80,11 +80,7 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
 /** Elevations where an outlet's rating has a kink: inverts, opening tops, crests, rim, pool, top. */
 export function ratingBreaks(pond: Pond, outlet: Outlet): number[] {
   const breaks = [pond.pool, pond.top];
-  for (const e of outlet.elements) {
-    if (e.type === "orifice") breaks.push(e.invert, e.invert + openingHeight(e));
-    else if (e.type === "weir") breaks.push(e.crest);
-    else breaks.push(e.invert, ...e.heads.map((h) => e.invert + h));
-  }
+  for (const e of outlet.elements) partOf(e).breaks(e, breaks);
   if (outlet.riser) breaks.push(outlet.riser.crest);
   if (outlet.spillway) breaks.push(outlet.spillway.crest);
   return breaks;
@@ -96,7 +92,7 @@ export function ratingBreaks(pond: Pond, outlet: Outlet): number[] {
  */
 export function ratingOnsets(outlet: Outlet, tail: Tailwater): number[] {
   const onsets: number[] = [];
-  for (const e of outlet.elements) onsets.push(e.type === "weir" ? e.crest : e.invert);
+  for (const e of outlet.elements) onsets.push(bottomOf(e));
   if (outlet.riser) onsets.push(outlet.riser.crest);
   if (outlet.spillway) onsets.push(outlet.spillway.crest);
   if (tail.kind === "elevation") onsets.push(tail.elevation);

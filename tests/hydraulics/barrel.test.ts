@@ -17,8 +17,8 @@ import {
   barrelRise,
 } from "../../src/hydraulics/barrel.js";
 import { barrelCurve, barrelFlow, curveHeadwater } from "../../src/hydraulics/barrelCurve.js";
-import { ENTRANCE_TABLE, entrancesFor, type Entrance, type EntranceName } from "../../src/hydraulics/entrances.js";
-import { ENTRANCES } from "../../src/hydraulics/entrances.js";
+import { ENTRANCE_TABLE, entrancesFor, type Entrance, type EntranceName } from "../../src/parts/entrances.js";
+import { ENTRANCES } from "../../src/parts/entrances.js";
 import type { Barrel } from "../../src/model.js";
 import { FOOT } from "../../src/units.js";
 import { barrelArbitrary, boxBarrel, CFS, circularBarrel, flowAt } from "./barrelFixtures.js";

@@ -1,8 +1,10 @@
 // Invented barrels and outlets shared by the barrel and chamber tests (SI values).
 import fc from "fast-check";
-import type { Barrel, CircularOrifice, Outlet, RectangularWeir, Riser } from "../../src/model.js";
+import type { Barrel, Outlet, Riser } from "../../src/model.js";
+import type { CircularOrifice } from "../../src/parts/circularOrifice.js";
+import type { RectangularWeir } from "../../src/parts/rectangularWeir.js";
 import { approximateOutletHeadwater, barrelArea, barrelRise, KU_SI } from "../../src/hydraulics/barrel.js";
-import { entrancesFor } from "../../src/hydraulics/entrances.js";
+import { entrancesFor } from "../../src/parts/entrances.js";
 import { FOOT } from "../../src/units.js";
 
 export const CFS = FOOT ** 3;

@@ -6,7 +6,7 @@ import { exactBarrelFlow } from "../../src/hydraulics/barrel.js";
 import { barrelFlow } from "../../src/hydraulics/barrelCurve.js";
 import { openingsFlow, outletDetail, outletDischarge } from "../../src/hydraulics/outlet.js";
 import { tailwaterLevel } from "../../src/hydraulics/tailwater.js";
-import { entrancesFor } from "../../src/hydraulics/entrances.js";
+import { entrancesFor } from "../../src/parts/entrances.js";
 import { FOOT } from "../../src/units.js";
 import { boxBarrel, circularBarrel, circularRiser, demoOutlet, orifice, weir } from "./barrelFixtures.js";
 

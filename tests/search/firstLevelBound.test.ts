@@ -13,7 +13,7 @@ import { designOutlet, designOutletFile, layoutKey } from "../../search/layout.j
 import { drainTime, stageOfVolume } from "../../src/routing/drainTime.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { drainedStage } from "../../src/routing/routeCase.js";
-import type { PartOption } from "../../search/problem.js";
+import type { PartOption } from "../../src/parts/part.js";
 
 describe("first-level bound from the extended-detention rule", () => {
   const loaded = loadCase(fileURLToPath(new URL("../../cases/ordinance-mix/case.json", import.meta.url)));

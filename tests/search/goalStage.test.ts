@@ -10,6 +10,7 @@ import { Evaluator } from "../../search/evaluate.js";
 import { goalStage, stagedStart } from "../../search/fit.js";
 import { designOutlet, designOutletFile } from "../../search/layout.js";
 import { routeCase } from "../../src/routing/routeCase.js";
+import { circularOrifice } from "../../src/parts/circularOrifice.js";
 
 const AREA = 40 * 25;
 const triangle = (peak: number, tp: number, tb: number): [number, number][] => [[0, 0], [tp, peak], [tb, 0]];
@@ -52,8 +53,8 @@ describe("storage-needed estimate of the staged start", () => {
   });
 
   it("a level lowered for a storm its levels below under-release lands that storm within 1 % of the aim's middle", () => {
-    const small = p.parts.find((o) => o.kind === "orifice" && o.sizeM === 0.1 && o.count === 1)!;
-    const orifice = p.parts.find((o) => o.kind === "orifice" && o.sizeM === 0.2 && o.count === 1)!;
+    const small = p.parts.find((o) => o.part === circularOrifice && o.sizeM === 0.1 && o.count === 1)!;
+    const orifice = p.parts.find((o) => o.part === circularOrifice && o.sizeM === 0.2 && o.count === 1)!;
     const layout: Layout = { levels: [small, orifice], riser: null, barrel: null };
     const evaluator = new Evaluator(p);
     const vars = stagedStart(p, layout, evaluator);

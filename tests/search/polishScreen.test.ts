@@ -9,6 +9,7 @@ import { buildProblem } from "../../search/problem.js";
 import { Evaluator } from "../../search/evaluate.js";
 import { planLayouts } from "../../search/layouts.js";
 import { polish, snap, stagedStart } from "../../search/fit.js";
+import { reachAboveLevel } from "../../search/layout.js";
 
 describe("polish screens steps by the geometric rules", () => {
   it("ordinance-mix: the same polished designs as routing every step, in fewer evaluations", () => {
@@ -22,7 +23,7 @@ describe("polish screens steps by the geometric rules", () => {
       // Start with the rim on the lattice just over the top opening, so that a step down breaks the rule that openings stay below it.
       const start = stagedStart(p, layout, new Evaluator(p)).map((x) => snap(p, x));
       const top = layout.levels[layout.levels.length - 1];
-      const topOf = start[start.length - 2] + (top.kind === "orifice" ? top.height : p.stepM);
+      const topOf = start[start.length - 2] + reachAboveLevel(top, p.stepM);
       start[start.length - 1] = Math.ceil(topOf / p.stepM - 1e-9) * p.stepM;
       const a = new Evaluator(p);
       const b = new Evaluator(p);

@@ -163,7 +163,7 @@ describe("design with an existing outlet (value engineering)", () => {
     const json = JSON.parse(readFileSync("cases/wet-value/case.json", "utf8"));
     json.outlet.elements[1] = { type: "orifice", shape: "circular", diameter: "7 in", count: 2, invert: 311, coefficient: 0.6 };
     const { p, run } = await search(parseCase(json), 1500, { vary: "elevations" });
-    expect(p.existing!.layout.levels[0].template).toBeDefined();
+    expect(p.existing!.layout.levels[0].existing).toBe(true);
     expect(run.candidates.length).toBeGreaterThan(0);
     for (const c of run.candidates) {
       expect(c.file.elements![1]).toMatchObject({ type: "orifice", shape: "circular", diameter: "7 in", count: 2, coefficient: 0.6 });

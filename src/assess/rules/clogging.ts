@@ -1,7 +1,8 @@
 // Clogging: an assumed blocked share of the open area of the openings under a trash rack. Not a check
 // of its own: checks.ts routes the clogged outlet once and evaluates the named rules on it as well,
 // so each of their checks appears with and without clogging ("clogged" checks, key `kind:storm:clogged`).
-import type { Case, Element, Outlet } from "../../model.js";
+import type { Case, Outlet } from "../../model.js";
+import { partOf } from "../../parts/registry.js";
 
 /**
  * The outlet with `fraction` of every opening's open area blocked: an orifice's discharge coefficient,
@@ -12,7 +13,7 @@ import type { Case, Element, Outlet } from "../../model.js";
  */
 export function cloggedOutlet(outlet: Outlet, fraction: number): Outlet {
   const open = 1 - fraction;
-  const elements = outlet.elements.map((e): Element => (e.type === "regulator" ? { ...e, flows: e.flows.map((q) => q * open) } : { ...e, coefficient: e.coefficient * open }));
+  const elements = outlet.elements.map((e) => partOf(e).clogged(e, open));
   return { ...outlet, elements };
 }
 

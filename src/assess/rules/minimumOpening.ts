@@ -1,14 +1,15 @@
 // Minimum opening: every orifice at least the size the rules permit (a circular orifice's diameter, a
-// rectangular orifice's smaller side), whatever the catalogue lists.
+// rectangular orifice's smaller side: each kind's `openingSize`), whatever the catalogue lists.
 import type { Outlet } from "../../model.js";
+import { partOf } from "../../parts/registry.js";
 import { makeCheck, type Rule } from "./rule.js";
 
-/** The smallest orifice dimension of an outlet (m); null without orifices. */
+/** The smallest opening size of an outlet (m) among the kinds the rule binds; null without any. */
 export function smallestOpening(outlet: Outlet): number | null {
   let smallest: number | null = null;
   for (const e of outlet.elements) {
-    if (e.type !== "orifice") continue;
-    const size = e.shape === "circular" ? e.diameter : Math.min(e.width, e.height);
+    const size = partOf(e).openingSize(e);
+    if (size === null) continue;
     if (smallest === null || size < smallest) smallest = size;
   }
   return smallest;
@@ -21,8 +22,9 @@ export const minimumOpening: Rule = {
   routings: ["design"],
   evaluate({ case: c, outlet }, out) {
     const rule = c.criteria.minimumOpening;
+    if (!rule) return;
     const size = smallestOpening(outlet);
-    if (!rule || size === null) return;
+    if (size === null) return;
     out.push(makeCheck("minimum-opening", "outlet", "smallest orifice at least the minimum opening", size, rule.size, (size - rule.size) / rule.size, rule.label));
   },
   aim: () => 0,

@@ -4,6 +4,8 @@
 // when this fails no outlet of permitted openings can meet the target: the check says so plainly
 // instead of leaving the search to fail on the peak.
 import type { Case, Outlet } from "../../model.js";
+import { partOf } from "../../parts/registry.js";
+import { circularOrifice } from "../../parts/circularOrifice.js";
 import { limitWords, targetBand } from "./band.js";
 import { failingSubjects, makeCheck, upperFlowSlack, type Rule } from "./rule.js";
 
@@ -11,7 +13,15 @@ export const SMALLEST_VARIANT = "smallest-permitted-opening";
 
 /** The smallest permitted orifice alone at the lowest level, draining through the design's barrel. */
 export function smallestPermittedOutlet(c: Case, outlet: Outlet, diameter: number): Outlet {
-  const coefficient = outlet.elements.find((e) => e.type === "orifice")?.coefficient ?? 0.61; // Cd 0.61: the contract's default
+  // The design's own orifice coefficient, else the kind's default (Cd 0.61: the contract's).
+  let coefficient = circularOrifice.defaultCoefficient(c.units)!;
+  for (const e of outlet.elements) {
+    const cd = partOf(e).dischargeCoefficient(e);
+    if (cd !== null) {
+      coefficient = cd;
+      break;
+    }
+  }
   return { elements: [{ type: "orifice", shape: "circular", diameter, count: 1, invert: c.pond.pool, coefficient, keep: false }], barrel: outlet.barrel };
 }
 

@@ -9,6 +9,8 @@ import { storageCurve } from "../../storage/curve.js";
 import { formatter, significant, trimNumber } from "../../format.js";
 import { baseLength } from "../../units.js";
 import { limitingPart } from "../limiting.js";
+import { elementName } from "../rating.js";
+import { partOf } from "../../parts/registry.js";
 import { hydrographWindow } from "./figures.js";
 import type { TableBlock } from "./model.js";
 
@@ -27,8 +29,8 @@ export function controlLevels(c: Case, outlet: Outlet): ControlLevel[] {
   const levels: ControlLevel[] = [{ stage: c.pond.bottom, label: "pond bottom" }];
   if (c.pond.pool > c.pond.bottom) levels.push({ stage: c.pond.pool, label: "permanent pool" });
   outlet.elements.forEach((e, i) => {
-    const name = `E${i + 1} ${e.type === "weir" ? (e.shape === "v-notch" ? "v-notch" : "weir") : e.type}`;
-    levels.push(e.type === "weir" ? { stage: e.crest, label: `${name} crest` } : { stage: e.invert, label: `${name} invert` });
+    const kind = partOf(e);
+    levels.push({ stage: kind.bottom(e), label: `${elementName(e, i)} ${kind.bottomField}` });
   });
   if (outlet.riser) levels.push({ stage: outlet.riser.crest, label: "riser rim" });
   if (outlet.spillway) levels.push({ stage: outlet.spillway.crest, label: "spillway crest" });

@@ -1,5 +1,5 @@
 // The report's tables and summaries, every number with its unit, in the case's units.
-import type { Case, Element, Outlet } from "../../model.js";
+import type { Case, Outlet } from "../../model.js";
 import type { CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
 import { hydrographVolume } from "../../hydrology/hydrograph.js";
@@ -12,6 +12,10 @@ import { ruleOf } from "../../assess/rules/registry.js";
 import { describeOutlet } from "../describe.js";
 import { niceStep, ratingGrid, ratingRows } from "../rating.js";
 import { baseLength } from "../../units.js";
+import { partOf } from "../../parts/registry.js";
+import { riserRow } from "../../parts/riser.js";
+import { barrelRow } from "../../parts/barrel.js";
+import { spillwayRow } from "../../parts/spillway.js";
 import type { Cell, FactsBlock, ListBlock, NoteBlock, TableBlock } from "./model.js";
 
 /** A percentage that prints no negative zero. */
@@ -21,11 +25,6 @@ function signedPercent(fraction: number, digits: number): string {
 }
 
 const hoursText = (seconds: number) => `${(seconds / 3600).toFixed(2)} h`;
-
-/** Weir-type coefficients carry the unit length^0.5 / time. */
-function weirCoefficient(f: Formatter, si: number): string {
-  return `${trimNumber(f.raw.weirCoefficient(si), 3)} ${f.labels.length}^0.5/s`;
-}
 
 function storageText(c: Case, f: Formatter): string {
   const s = c.pond.storage;
@@ -103,40 +102,13 @@ export function stormsTable(c: Case): TableBlock {
   };
 }
 
-function elementRow(e: Element, i: number, f: Formatter): string[] {
-  const name = `E${i + 1}`;
-  switch (e.type) {
-    case "orifice": {
-      const size = e.shape === "circular" ? `${f.size(e.diameter)} diameter` : `${f.size(e.width)} wide x ${f.size(e.height)} high`;
-      return [name, `${e.shape} orifice`, `${e.count} x ${size}`, `invert ${f.elevation(e.invert)}`, `Cd ${trimNumber(e.coefficient, 3)} (dimensionless)`];
-    }
-    case "weir":
-      return e.shape === "rectangular"
-        ? [name, "rectangular weir", `${f.length(e.length)} long, ${e.endContractions} end contraction${e.endContractions === 1 ? "" : "s"}`, `crest ${f.elevation(e.crest)}`, `C ${weirCoefficient(f, e.coefficient)}`]
-        : [name, "v-notch weir", `${trimNumber(e.angle, 2)} degree notch`, `crest ${f.elevation(e.crest)}`, `C ${weirCoefficient(f, e.coefficient)}`];
-    case "regulator":
-      return [name, "flow regulator", `rating of ${e.heads.length} points to ${f.length(e.heads[e.heads.length - 1])} of head`, `invert ${f.elevation(e.invert)}`, "maker's rating"];
-  }
-}
-
 /** Every part of the outlet with its size, elevation and coefficient. */
 export function partsTable(c: Case, outlet: Outlet): TableBlock {
   const f = formatter(c.units);
-  const rows = outlet.elements.map((e, i) => elementRow(e, i, f));
-  if (outlet.riser) {
-    const r = outlet.riser;
-    const size = r.shape === "circular" ? `${f.length(r.diameter)} diameter` : `${f.length(r.length)} x ${f.length(r.width)} box`;
-    rows.push(["rim", "riser rim", size, `rim ${f.elevation(r.crest)}`, `weir C ${weirCoefficient(f, r.coefficient)}; top opening Cd ${trimNumber(r.orificeCoefficient, 3)} (dimensionless)`]);
-  }
-  if (outlet.barrel) {
-    const b = outlet.barrel;
-    const size = b.shape === "circular" ? `${f.size(b.diameter)} diameter` : `${f.length(b.span)} span x ${f.length(b.rise)} rise`;
-    rows.push(["barrel", `barrel (${b.entrance})`, `${size}, ${f.length(b.length, 1)} long`, `inlet ${f.elevation(b.inletInvert)}, outlet ${f.elevation(b.outletInvert)}`, `Manning n ${trimNumber(b.manningN, 4)} (s/m^(1/3))`]);
-  }
-  if (outlet.spillway) {
-    const s = outlet.spillway;
-    rows.push(["spillway", "trapezoidal spillway", `${f.length(s.length, 1)} bottom, side slopes ${trimNumber(s.sideSlope, 3)} H : 1 V`, `crest ${f.elevation(s.crest)}`, `C ${weirCoefficient(f, s.coefficient)}`]);
-  }
+  const rows = outlet.elements.map((e, i) => [`E${i + 1}`, ...partOf(e).row(e, f)]);
+  if (outlet.riser) rows.push(["rim", ...riserRow(outlet.riser, f)]);
+  if (outlet.barrel) rows.push(["barrel", ...barrelRow(outlet.barrel, f)]);
+  if (outlet.spillway) rows.push(["spillway", ...spillwayRow(outlet.spillway, f)]);
   return { kind: "table", caption: `Outlet: ${describeOutlet(outlet, f)}`, head: ["Part", "Kind", "Size", "Elevation", "Coefficient"], numeric: [false, false, false, true, false], rows };
 }
 

@@ -3,15 +3,15 @@
 //   I(D, h) = integral of width(y) sqrt(h - y) dy over the wetted circle = D^2.5 Phi(h / D),
 // and G(eta) = Phi(eta) / eta^2 = I / (D^0.5 h^2) is smooth from G(0) = pi/4 (the bottom of the
 // circle is a parabola, width 2 sqrt(D y): 2 sqrt(D) h^2 B(3/2, 3/2) = pi sqrt(D) h^2 / 4) to
-// eta = 1.5, where the series of orifice.ts takes over. G is tabulated at CIRCLE_TABLE_POINTS even
+// eta = 1.5, where the series of orificeIntegral.ts takes over. G is tabulated at CIRCLE_TABLE_POINTS even
 // steps of eta (with the node at eta = 1, the top of the opening) from the direct integral
 // (`circularOpeningIntegral`) and interpolated linearly; the tests hold it within
 // CIRCLE_TABLE_TOLERANCE of the direct integral.
-import { circularOpeningIntegral, wettedCircleIntegral } from "./orifice.js";
+import { circularOpeningIntegral, wettedCircleIntegral } from "./orificeIntegral.js";
 
 /** Table intervals on eta = h / D from 0 to 1.5 (a multiple of 3, so that eta = 1 is a node). */
 export const CIRCLE_TABLE_POINTS = 3072;
-/** Head over diameter from which the direct series is used (as in orifice.ts, h - r >= 2r). */
+/** Head over diameter from which the direct series is used (as in orificeIntegral.ts, h - r >= 2r). */
 export const CIRCLE_TABLE_END = 1.5;
 /** Stated error of the table: relative to the direct integral. */
 export const CIRCLE_TABLE_TOLERANCE = 1e-6;

@@ -1,7 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { orificeFlow, circularOpeningIntegral, segmentArea } from "../../src/hydraulics/orifice.js";
-import type { CircularOrifice, RectangularOrifice } from "../../src/model.js";
+import { circularOpeningIntegral, segmentArea } from "../../src/parts/orificeIntegral.js";
+import type { CircularOrifice } from "../../src/parts/circularOrifice.js";
+import type { RectangularOrifice } from "../../src/parts/rectangularOrifice.js";
+import { partOf } from "../../src/parts/registry.js";
 import { FOOT, GRAVITY } from "../../src/units.js";
+
+/** An orifice's flow, by its kind (src/parts/). */
+const orificeFlow = (o: CircularOrifice | RectangularOrifice, ws: number, ds: number) => partOf(o).flow(o, ws, ds);
 
 const circular = (diameter: number, invert: number, coefficient = 0.6, count = 1): CircularOrifice => ({
   type: "orifice", shape: "circular", diameter, invert, coefficient, count, keep: false,

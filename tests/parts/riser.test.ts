@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { rimFlow } from "../../src/hydraulics/riser.js";
+import { rimFlow } from "../../src/parts/riser.js";
 import type { Riser } from "../../src/model.js";
 import { FOOT } from "../../src/units.js";
 

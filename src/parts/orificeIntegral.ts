@@ -1,13 +1,13 @@
-// Orifices: the orifice equation (HEC-22 eq 8-17, Q = Cd A sqrt(2 g H)) integrated over the wetted
-// opening, as the case-format contract defines it:
+// The orifice equation (HEC-22 eq 8-17, Q = Cd A sqrt(2 g H)) integrated over a wetted opening, as
+// the case-format contract defines an orifice's flow:
 //   Q = Cd sqrt(2g) * integral of width(y) sqrt(WS - max(y, DS)) dy over the opening below WS.
 // The part below the downstream level DS sees the head WS - DS; the part above it WS - y. There is
-// no switch to a centroid formula, so the rating is smooth from a weir-like start to full flow.
-import type { Orifice } from "../model.js";
+// no switch to a centroid formula, so the rating is smooth from a weir-like start to full flow. The
+// integrals of a rectangle and a circle, shared by the orifice kinds and the sweep's circle table.
 import { GRAVITY } from "../units.js";
 import { gaussLegendre, type Rule } from "./quadrature.js";
 
-const SQRT_2G = Math.sqrt(2 * GRAVITY);
+export const SQRT_2G = Math.sqrt(2 * GRAVITY);
 const RULE = gaussLegendre(24);
 /** The short rule a rating sweep may use where the water stands over the whole opening (see
  * `circularOpeningIntegral`); the tests hold it within 1e-6 of the 24-point rule there. */
@@ -17,16 +17,6 @@ export const SHORT_RULE_COVER = 0.05;
 // The rule mapped to the whole circle (theta from 0 to pi): the common case of a wetted, free opening.
 const FULL_SIN2 = RULE.nodes.map((u) => Math.sin(Math.PI * u) ** 2);
 const FULL_COS = RULE.nodes.map((u) => Math.cos(Math.PI * u));
-
-/** Flow through all openings of an orifice element (m3/s). */
-export function orificeFlow(o: Orifice, ws: number, ds: number): number {
-  if (ws <= o.invert || ds >= ws) return 0;
-  const one =
-    o.shape === "circular"
-      ? circularOpeningIntegral(o.diameter, o.invert, ws, ds)
-      : rectangularOpeningIntegral(o.width, o.height, o.invert, ws, ds);
-  return o.count * o.coefficient * SQRT_2G * one;
-}
 
 /** Integral of width(y) sqrt(WS - max(y, DS)) dy over a rectangle (closed form). */
 export function rectangularOpeningIntegral(width: number, height: number, invert: number, ws: number, ds: number): number {
@@ -118,21 +108,6 @@ export function segmentArea(r: number, h: number): number {
   if (h >= 2 * r) return Math.PI * r * r;
   const c = r - h;
   return r * r * Math.acos(c / r) - c * Math.sqrt(2 * r * h - h * h);
-}
-
-/** Area of one opening. */
-export function openingArea(o: Orifice): number {
-  return o.shape === "circular" ? (Math.PI * o.diameter * o.diameter) / 4 : o.width * o.height;
-}
-
-/** Height of one opening. */
-export function openingHeight(o: Orifice): number {
-  return o.shape === "circular" ? o.diameter : o.height;
-}
-
-/** Wall width taken by all openings of an element side by side. */
-export function openingWidth(o: Orifice): number {
-  return o.count * (o.shape === "circular" ? o.diameter : o.width);
 }
 
 function clampUnit(x: number): number {
