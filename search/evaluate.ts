@@ -137,7 +137,7 @@ function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly Storm
   for (const e of outlet.elements) {
     if (e.keep) continue;
     const kind = partOf(e);
-    const limit = kind.headLimit(e);
+    const limit = kind.headLimit(e, p.case.pond.bottom);
     if (limit === null) continue;
     const head = maxStage - kind.bottom(e);
     residuals.push((RANGE_WEIGHT * Math.max(0, head - limit)) / depth);

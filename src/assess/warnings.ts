@@ -38,7 +38,7 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
     const part = partLabel(e, i, f);
     const add = (reason: string) => warnings.push({ part, reason });
     // Its own range of validity (the kind's), then whether it is cut in the wall below the rim.
-    kind.warnings(e, maxStage, f).forEach(add);
+    kind.warnings(e, { maxStage, floor: c.pond.bottom }, f).forEach(add);
     if (outlet.riser && kind.room(e, maxStage) !== null) {
       const topOfOpening = kind.top(e);
       if (topOfOpening > outlet.riser.crest + 1e-9) {

@@ -44,6 +44,12 @@ export interface Room {
   height: number;
 }
 
+/** What a part's range of validity is judged against: the highest stage routed and the pond's floor (m). */
+export interface Routed {
+  maxStage: number;
+  floor: number;
+}
+
 /** One choice the search has for a control level: a catalogue size of one kind (or a part of the existing outlet). */
 export interface PartOption {
   /** Its identity in layout keys, journals and the fit's seed: "orifice 2 x 6 in", "weir 2", "v-notch 45". */
@@ -163,10 +169,10 @@ export interface ElementPart<E extends Element = Element, F extends ElementFileB
   /** Elevations where its rating has a kink (bottom, an opening's top, a rating's points), pushed into `out`. */
   breaks(e: E, out: number[]): void;
 
-  /** Where it is used outside the range its formula or coefficient was published for, at the highest stage routed (reasons in words). */
-  warnings(e: E, maxStage: number, f: Formatter): string[];
-  /** Largest head its formula covers (m; Infinity when unlimited), for the search's soft residuals; null when it has none. */
-  headLimit(e: E): number | null;
+  /** Where it is used outside the range its formula or coefficient was published for (reasons in words). */
+  warnings(e: E, at: Routed, f: Formatter): string[];
+  /** Largest head its formula covers (m; Infinity when unlimited) with the pond's floor at `floor`, for the search's soft residuals; null when it has none. */
+  headLimit(e: E, floor: number): number | null;
 
   /** The part in words for a warning's subject ("1 x 6 in circular orifice"). */
   label(e: E, f: Formatter): string;

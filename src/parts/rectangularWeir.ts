@@ -101,7 +101,7 @@ export const rectangularWeir: ElementPart<RectangularWeir, RectangularWeirFile> 
     out.push(e.crest);
   },
 
-  warnings(e, maxStage, f) {
+  warnings(e, { maxStage }, f) {
     const head = maxStage - e.crest;
     const out = lowHeadWarnings(head, f);
     if (e.endContractions > 0 && head > CONTRACTED_WEIR_MAX_HEAD_RATIO * e.length) {

@@ -94,7 +94,7 @@ export const regulator: ElementPart<Regulator, RegulatorFile> = {
     out.push(e.invert, ...e.heads.map((h) => e.invert + h));
   },
 
-  warnings(e, maxStage, f) {
+  warnings(e, { maxStage }, f) {
     const head = maxStage - e.invert;
     return head > regulatorMaxHead(e) ? [`head ${f.length(head)} is above the rating's last point (${f.length(regulatorMaxHead(e))}); flow extrapolated as the square root of head`] : [];
   },

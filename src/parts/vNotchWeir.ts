@@ -85,7 +85,7 @@ export const vNotchWeir: ElementPart<VNotchWeir, VNotchWeirFile> = {
     out.push(e.crest);
   },
 
-  warnings(e, maxStage, f) {
+  warnings(e, { maxStage }, f) {
     const head = maxStage - e.crest;
     const out = lowHeadWarnings(head, f);
     if (head > VNOTCH_MAX_HEAD) out.push(`head ${f.length(head)} exceeds ${f.length(VNOTCH_MAX_HEAD)}, the largest head the v-notch coefficient covers`);
