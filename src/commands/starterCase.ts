@@ -110,7 +110,7 @@ export function starterCase(units: UnitSystem): unknown {
     catalogue: {
       "//": "What outfit design may use: standard sizes only. maxStages: most distinct opening elevations; elevationStep: inverts and crests are multiples of it.",
       orifice: { diameters: n.catalogue.orifices, maxCount: 2 },
-      weir: { shapes: ["rectangular", "v-notch"], lengths: n.catalogue.weirLengths, angles: [30, 45, 60, 90] },
+      weir: { "//": "shapes: rectangular (contracted at both ends), v-notch, cipolletti (a trapezoid with sides 1 H : 4 V); lengths serve the rectangular and Cipolletti weirs, angles the v-notches.", shapes: ["rectangular", "v-notch"], lengths: n.catalogue.weirLengths, angles: [30, 45, 60, 90] },
       riser: { diameters: n.catalogue.risers },
       barrel: { diameters: n.catalogue.barrels },
       maxStages: 3,

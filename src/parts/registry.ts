@@ -10,9 +10,10 @@ import { circularOrifice } from "./circularOrifice.js";
 import { rectangularOrifice } from "./rectangularOrifice.js";
 import { rectangularWeir } from "./rectangularWeir.js";
 import { vNotchWeir } from "./vNotchWeir.js";
+import { cipollettiWeir } from "./cipollettiWeir.js";
 import { regulator } from "./regulator.js";
 
-export const ELEMENT_PARTS = [circularOrifice, rectangularOrifice, rectangularWeir, vNotchWeir, regulator] as const;
+export const ELEMENT_PARTS = [circularOrifice, rectangularOrifice, rectangularWeir, vNotchWeir, cipollettiWeir, regulator] as const;
 
 type FileOf<P> = P extends ElementPart<Element, infer F> ? F : never;
 /** An element in the case file's form: the union of the kinds' forms. */
