@@ -37,7 +37,7 @@ function code(text: string): string {
 }
 
 /** Every match of the patterns in a text, as "path:line: what: the code". */
-export function partSwitches(path: string, text: string, barrelSection: boolean): string[] {
+function partSwitches(path: string, text: string, barrelSection: boolean): string[] {
   const body = code(text);
   const found: string[] = [];
   for (const { what, pattern } of PATTERNS) {
