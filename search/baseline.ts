@@ -3,6 +3,7 @@
 import type { SearchProblem } from "./problem.js";
 import { routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
 import { explainExisting } from "./explain.js";
+import { complianceWords } from "../src/report/console.js";
 
 export interface Baseline extends RoutedOutlet {
   explanation: string[];
@@ -33,16 +34,18 @@ export function saving(baseline: RoutedOutlet, c: RoutedOutlet): Saving {
  */
 export function baselineVerdict(baseline: Baseline, candidates: readonly Candidate[], stoppedBecause: string): string {
   const compliant = candidates.filter((c) => c.assessment.compliant);
+  // "The existing outlet is compliant, 2 warnings; ...": its warnings beside the word.
+  const is = `The existing outlet is ${complianceWords(baseline.assessment)}`;
   if (!baseline.assessment.compliant) {
-    if (compliant.length === 0) return `The existing outlet is not compliant, and the search found no compliant fix in the catalogue (it stopped because ${stoppedBecause}).`;
+    if (compliant.length === 0) return `${is}, and the search found no compliant fix in the catalogue (it stopped because ${stoppedBecause}).`;
     const smallest = [...compliant].sort((a, b) => (a.changes?.score ?? 0) - (b.changes?.score ?? 0) || a.cost - b.cost)[0];
-    return `The existing outlet is not compliant; ${compliant.length} compliant fix${compliant.length > 1 ? "es were" : " was"} found, the smallest change with ${smallest.changes?.changes.length ?? 0} part change${smallest.changes?.changes.length === 1 ? "" : "s"} (${describeSaving(saving(baseline, smallest))}).`;
+    return `${is}; ${compliant.length} compliant fix${compliant.length > 1 ? "es were" : " was"} found, the smallest change with ${smallest.changes?.changes.length ?? 0} part change${smallest.changes?.changes.length === 1 ? "" : "s"} (${describeSaving(saving(baseline, smallest))}).`;
   }
   const cheaper = compliant.filter((c) => c.cost < baseline.cost - 1e-9).sort((a, b) => a.cost - b.cost);
   if (cheaper.length === 0) {
-    return `The existing outlet is compliant, and the catalogue holds no compliant outlet cheaper than it (cost ${baseline.cost.toFixed(1)} units) among the layouts the search reached (it stopped because ${stoppedBecause}).`;
+    return `${is}, and the catalogue holds no compliant outlet cheaper than it (cost ${baseline.cost.toFixed(1)} units) among the layouts the search reached (it stopped because ${stoppedBecause}).`;
   }
-  return `The existing outlet is compliant; ${cheaper.length} compliant alternative${cheaper.length > 1 ? "s are" : " is"} cheaper, the cheapest ${describeSaving(saving(baseline, cheaper[0]))}.`;
+  return `${is}; ${cheaper.length} compliant alternative${cheaper.length > 1 ? "s are" : " is"} cheaper, the cheapest ${describeSaving(saving(baseline, cheaper[0]))}.`;
 }
 
 /** "saves 2.4 units (12.0 %)" or "costs 1.1 units more (5.0 %)". */

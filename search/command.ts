@@ -118,7 +118,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const onSignal = (signal: NodeJS.Signals) => {
     if (stopReason !== null) process.exit(EXIT_INTERRUPTED);
     stopReason = `it was interrupted by ${signal}`;
-    if (!options.quiet) process.stderr.write(`\noutfit: ${signal}: finishing the layouts in flight, then writing the results (again to stop at once)\n`);
+    if (!options.quiet) printErr(`\noutfit: ${signal}: finishing the layouts in flight, then writing the results (again to stop at once)\n`);
   };
   process.on("SIGINT", onSignal);
   process.on("SIGTERM", onSignal);

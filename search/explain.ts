@@ -18,17 +18,14 @@ import type { OutletFile } from "../src/case/schema.js";
 import { fileBottom, placed } from "../src/parts/registry.js";
 import { describeElement } from "../src/report/describe.js";
 import { snap, variableBounds } from "./fit.js";
+import { slackText } from "../src/report/console.js";
 import type { LayoutPlan } from "./layouts.js";
 
 function checkText(p: SearchProblem, check: Check): string {
   const f = formatter(p.case.units);
   const rule = ruleOf(check);
   const source = check.label === null ? "" : ` (${check.label})`;
-  return `${check.name}${source}: ${quantityText(f, rule.quantity, check.value)} against ${rule.comparison} ${quantityText(f, rule.quantity, check.limit)}, slack ${pct(check.slack)}`;
-}
-
-function pct(x: number): string {
-  return `${(100 * x).toFixed(1)} %`;
+  return `${check.name}${source}: ${quantityText(f, rule.quantity, check.value)} against ${rule.comparison} ${quantityText(f, rule.quantity, check.limit)}, slack ${slackText(p.case.units, check)}`;
 }
 
 /** How a check's value moved, in words: "-3.1 %" for flows, "+0.04 ft" for stages. */
@@ -119,15 +116,18 @@ function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): s
       const moved = m.moved(to);
       const after = moved.assessment.checks.find((check) => check.key === binding.key)!;
       const gain = after.slack - binding.slack;
-      if (gain <= 1e-6) continue;
+      const before = slackText(p.case.units, binding);
+      const now = slackText(p.case.units, after);
+      // A move that relaxes the check by less than its words show ("-22.6 % -> -22.6 %") is no remedy.
+      if (gain <= 1e-6 || now === before) continue;
       const next = moved.assessment.binding!;
       const breaks = c.assessment.compliant && !moved.assessment.compliant;
-      const cost = breaks ? `; but then ${next.name} fails (slack ${pct(next.slack)})` : next.key !== binding.key ? `; then ${next.name} binds at ${pct(next.slack)}` : "";
+      const cost = breaks ? `; but then ${next.name} fails, slack ${slackText(p.case.units, next)}` : next.key !== binding.key ? `; then ${next.name} binds at ${slackText(p.case.units, next)}` : "";
       const by = Number((Math.abs(to - m.value) / baseLength(p.case.units)).toFixed(6));
       moves.push({
         gain,
         breaks,
-        text: `${direction > 0 ? "raise" : "lower"} ${m.name} by ${by} ${unit} to ${formatter(p.case.units).elevation(to)}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${pct(binding.slack)} -> ${pct(after.slack)}${cost}`,
+        text: `${direction > 0 ? "raise" : "lower"} ${m.name} by ${by} ${unit} to ${formatter(p.case.units).elevation(to)}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${before} -> ${now}${cost}`,
       });
     }
   }

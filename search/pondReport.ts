@@ -2,7 +2,7 @@
 // smaller that failed; as text and JSON, and the case file of the proposal.
 import { formatter, trimNumber } from "../src/format.js";
 import { toCaseUnits } from "../src/units.js";
-import { stormTable, checksTable, verdictText, cautionText } from "../src/report/console.js";
+import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount } from "../src/report/console.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { routeJson } from "../src/report/json.js";
 import { CAUTION } from "../src/report/caution.js";
@@ -22,7 +22,7 @@ function sizeWords(c: Case, p: SizedPond): string {
 }
 
 function outcome(t: SizeTrial): string {
-  if (t.best) return t.how === "routed again" ? "compliant (outlet of the size above, routed again)" : "compliant outlet found";
+  if (t.best) return t.how === "routed again" ? `compliant${warningCount(t.best.assessment)} (outlet of the size above, routed again)` : `compliant outlet found${warningCount(t.best.assessment)}`;
   return "no compliant outlet";
 }
 
@@ -77,7 +77,9 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
       "",
       checksTable(d.chosen.problem.case, best.assessment.checks, layout),
       "",
-      verdictText(best.assessment, layout),
+      warningsText(best.assessment, layout),
+      "",
+      verdictText(d.chosen.problem.case, best.assessment, layout),
     );
   } else {
     lines.push(p(`No compliant pond and outlet: ${d.stoppedBecause}.`));

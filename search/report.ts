@@ -6,8 +6,8 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { percent, checkValue, governingLimitLines } from "../src/report/console.js";
-import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
+import { checkValue, complianceWords, governingLimitLines, slackText } from "../src/report/console.js";
+import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
 import { baselineVerdict, describeSaving, saving, type Baseline } from "./baseline.js";
@@ -102,6 +102,10 @@ export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, out
   return copy;
 }
 
+/** The narrowest the status becomes in a narrowed table: "compliant, 2 warnings" stays on one line
+ * (longer ones, "not compliant, 2 warnings, variant of #3", wrap) before other columns get room. */
+const STATUS_WIDTH = "compliant, 2 warnings".length;
+
 export function designText(p: SearchProblem, run: SearchRun, top: number, layout: Layout = PLAIN): string {
   const f = formatter(p.case.units);
   const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
@@ -113,18 +117,18 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   const columns: Column[] = [
     { head: "#", align: "right" },
     { head: "Outlet", narrow: "detail" },
-    ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right" })),
+    ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right", wrap: STORM_NAME_WIDTH })),
     { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: "Cost\n(units)", align: "right" },
     ...(baseline ? [{ head: "Saving\n(units, %)", align: "right", narrow: "detail" } as Column] : []),
     { head: "Binding check", narrow: "detail" },
-    { head: "Status" },
+    { head: "Status", wrap: STATUS_WIDTH },
   ];
   const row = (c: RoutedOutlet, label: string, pareto: boolean, variantOf: number | null): Row => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
     const fb = storms.get(freeboardStorm);
-    const status = (c.assessment.compliant ? (c.assessment.warnings.length ? "compliant, flagged" : "compliant") : "not compliant") + (variantOf !== null ? `, variant of #${variantOf}` : "");
+    const status = complianceWords(c.assessment) + (variantOf !== null ? `, variant of #${variantOf}` : "");
     return [
       label,
       wrapParts(c.description, 58),
@@ -136,7 +140,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
       fb ? f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2) : "-",
       `${c.cost.toFixed(1)}${pareto ? " *" : ""}`,
       ...(baseline ? [label === "0" ? "-" : savingCell(saving(baseline, c))] : []),
-      c.assessment.binding ? `${c.assessment.binding.name} (${percent(c.assessment.binding.slack)})` : "-",
+      c.assessment.binding ? `${c.assessment.binding.name}, slack ${slackText(p.case.units, c.assessment.binding)}` : "-",
       { text: status, tone: c.assessment.compliant ? "pass" : "fail" },
     ];
   };

@@ -14,6 +14,8 @@ import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
 import { designCommand } from "../search/command.js";
 import { CAUTION } from "./report/caution.js";
+import { formatHelpText, MIN_WIDTH } from "./report/terminal.js";
+import { streamWidth } from "./terminalText.js";
 
 // A reader that closes the pipe early (`outfit design --help | head`) has what it wanted: stop quietly,
 // without a stack trace. Files are written whole (io.ts), so nothing is left half-written.
@@ -54,14 +56,25 @@ function withDefault(flags: string, description: string, value: string): Option 
 const WIDE = "keep every table whole whatever the terminal's width (the full form that piped output gets)";
 const FITS = "Tables fit the terminal's width (COLUMNS, else the terminal); piped output keeps the full layout.";
 
+/** Help is as wide as the terminal (or COLUMNS); piped, 80 columns, as commander's own help. */
+function helpWidth(): number {
+  return Math.max(MIN_WIDTH, streamWidth(process.stdout) ?? 80);
+}
+
+/** Text after a command's help, its paragraphs and examples fitted to the help's width when shown. */
+function helpAfter(text: string): () => string {
+  return () => formatHelpText(text, helpWidth());
+}
+
 const program = new Command();
 program
+  .configureOutput({ getOutHelpWidth: helpWidth, getErrHelpWidth: helpWidth })
   .name("outfit")
   .version(version)
   .description("Designs, checks and explains the outlet structures of stormwater detention ponds.")
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 Examples:
   outfit design cases/demo/case.json      # propose outlets from the case's catalogue
   outfit route cases/demo/case.json       # route and check the case's own outlet
@@ -75,7 +88,7 @@ Examples:
 Exit codes: 0 done; 1 not compliant (route --check) or no pond fits (pond); ${EXIT_CODES.slice(8)}.
 
 Caution: ${CAUTION}
-`,
+`),
   )
   .showHelpAfterError()
   .exitOverride();
@@ -94,7 +107,7 @@ program
   .option("--check", "exit with code 1 when the outlet is not compliant")
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 ${FITS}
 Colour only on a terminal, never when NO_COLOR is set.
 
@@ -104,7 +117,7 @@ Examples:
   outfit route cases/demo/case.json --csv-dir results/series
   outfit route cases/demo/case.json --step 1 --verbose
 
-Exit codes: 0 done; 1 not compliant (only with --check); ${EXIT_CODES.slice(8)}.`,
+Exit codes: 0 done; 1 not compliant (only with --check); ${EXIT_CODES.slice(8)}.`),
   )
   .action((file: string, options) => run(() => routeCommand(file, options)));
 
@@ -119,7 +132,7 @@ program
   .option("--wide", WIDE)
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 Narrow terminals get the parts grouped (openings, rim, spillway, total, the limiting part); --wide or
 --csv adds each opening's flow, the barrel's, the chamber level and the barrel's HW/D.
 
@@ -127,7 +140,7 @@ Examples:
   outfit rate cases/demo/case.json
   outfit rate cases/demo/case.json --stage-step 0.5 --csv --out rating.csv
 
-Exit codes: ${EXIT_CODES}.`,
+Exit codes: ${EXIT_CODES}.`),
   )
   .action((file: string, options) => run(() => rateCommand(file, options)));
 
@@ -168,7 +181,7 @@ searchOptions(
 )
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 With an outlet in the case, design first routes and assesses it as row 0 (the baseline) and gives
 each alternative its saving (cost proxy) and part-by-part changes against it.
 
@@ -186,7 +199,7 @@ Examples:
 
 Exit codes: 0 done; 1 no compliant design (with --check); 2 bad input or a bad option (nothing is
 written); 3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on);
-4 internal error (a bug; OUTFIT_DEBUG=1 shows its stack).`,
+4 internal error (a bug; OUTFIT_DEBUG=1 shows its stack).`),
   )
   .action((file: string, options) => run(() => designCommand(file, options)));
 
@@ -200,14 +213,14 @@ searchOptions(
 )
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 The shards' journals are replayed into the single run's schedule; a layout no shard reached is fitted
 here (the summary says how many came from the journals).
 
 Examples:
   outfit gather cases/demo/case.json out/shard-1 out/shard-2 out/shard-3 --budget 90000 --out out/all
 
-Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input, 3 interrupted, 4 internal error.`,
+Exit codes: 0 done, 1 no compliant design (with --check), 2 bad input, 3 interrupted, 4 internal error.`),
   )
   .action((file: string, shards: string[], options) => run(() => designCommand(file, { ...options, gather: shards })));
 
@@ -222,7 +235,7 @@ program
   .option("--wide", WIDE)
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 For each storm given by its rainfall (storms[].rainfall) and each area of the hydrology section, prints
 the rainfall, runoff depth, peak flow, time to peak, volume, the Tc used and the time step, and what the
 routed case uses it for. The CSV files can be read back as a storm's inflow file.
@@ -237,7 +250,7 @@ Examples:
   outfit hydrograph cases/demo-rainfall/case.json --storm 10-yr --area post --out inflow-10yr.csv
   outfit hydrograph cases/demo-rainfall/case.json --json
 
-Exit codes: ${EXIT_CODES}.`,
+Exit codes: ${EXIT_CODES}.`),
   )
   .action((file: string, options) => run(() => hydrographCommand(file, options)));
 
@@ -251,7 +264,7 @@ program
   .option("--wide", WIDE)
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 For every storm with a target: the TR-55 ch. 6 estimate (Figure 6-1, storm types I/IA or II/III), the
 volume of the inflow above a release rising linearly to the target at the inflow's peak, the same with
 the release at the target throughout, and for rational-method storms the modified rational
@@ -267,7 +280,7 @@ Examples:
   outfit volume cases/demo-rainfall/case.json --json
   outfit volume cases/demo/case.json --type II --out volume.txt
 
-Exit codes: ${EXIT_CODES}.`,
+Exit codes: ${EXIT_CODES}.`),
   )
   .action((file: string, options) => run(() => volumeCommand(file, options)));
 
@@ -282,7 +295,7 @@ program
   .option("--wide", WIDE)
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 The required storage is the largest estimate of \`outfit volume\` over every storm and method. The pond
 is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or the site's stage-area
 shape scaled in plan, as deep as site.maxDepth, the smallest on the size step (site.step) that holds
@@ -297,7 +310,7 @@ Examples:
   outfit pond cases/site-only/case.json --json
   outfit pond cases/site-only/case.json --write sized.json && outfit volume sized.json
 
-Exit codes: 0 a pond fits; 1 no pond within the limits holds the storage; ${EXIT_CODES.slice(8)}.`,
+Exit codes: 0 a pond fits; 1 no pond within the limits holds the storage; ${EXIT_CODES.slice(8)}.`),
   )
   .action((file: string, options) => run(() => pondCommand(file, options)));
 
@@ -312,7 +325,7 @@ program
   .option("--hydrograph-interval <minutes>", "time interval of the hydrograph tables (default: the shortest of 5, 10, 15, 30, 60 or 120 min that keeps each table within 60 rows)")
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 The report holds the case summary, stage-storage, the outlet's rating part by part with each
 storm's target band and routed peak, every storm's hydrographs and stage, the checks with their
 slack, the methods with their sources and the caution. For a design run it compares the candidates
@@ -325,7 +338,7 @@ Examples:
   outfit report cases/demo/case.json --format md --out review/demo.md
   outfit report results/                                   # a design run: writes results/report.html
 
-Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`,
+Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`),
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
 
@@ -335,13 +348,13 @@ program
   .option("--out <file>", "write the schema to a file instead of the terminal")
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 Name the written file in a case's "$schema" field and an editor that reads JSON Schemas completes
 and checks the case's fields as you type:
 
 Examples:
   outfit schema --out case.schema.json
-  { "$schema": "./case.schema.json", "name": "...", ... }`,
+  { "$schema": "./case.schema.json", "name": "...", ... }`),
   )
   .action((options: { out?: string }) => run(() => schemaCommand(options)));
 
@@ -353,7 +366,7 @@ program
   .option("--force", "overwrite the file if it exists")
   .addHelpText(
     "after",
-    `
+    helpAfter(`
 Comments in the file are fields whose name starts with "//"; outfit ignores them. The pond, storms
 and outlet are an invented example: replace them with the site's own.
 
@@ -362,7 +375,7 @@ Examples:
   outfit starter my-pond-si.json --units SI
   outfit route my-pond.json
 
-Exit codes: ${EXIT_CODES}.`,
+Exit codes: ${EXIT_CODES}.`),
   )
   .action((file: string, options) => run(() => starterCommand(file, options)));
 

@@ -4,6 +4,10 @@
 import { appendFileSync, mkdirSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { CaseError, describeIoError } from "./case/errors.js";
+import { colourAllowed, forTerminal, streamWidth } from "./terminalText.js";
+import { MIN_WIDTH, wrapLines } from "./report/terminal.js";
+
+export { terminalSafe } from "./terminalText.js";
 
 export function writeFileAtomic(path: string, content: string): void {
   makeDirectory(dirname(path));
@@ -61,19 +65,15 @@ function unwritable(path: string, found: string, expected = "a path where a file
   return new CaseError([{ where: path, found, expected }]);
 }
 
-/** Text with control characters (ANSI escapes, carriage returns, bells...) from user input shown
- * escaped (`\u001b`), so a case or storm name cannot drive the terminal; newlines and tabs stay. */
-export function terminalSafe(text: string): string {
-  // eslint-disable-next-line no-control-regex
-  return text.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u2028\u2029]/g, (ch) => `\\u${ch.charCodeAt(0).toString(16).padStart(4, "0")}`);
-}
-
-/** Writes to standard output, control characters escaped. */
+/** Writes to standard output: control characters in user text escaped, outfit's styling as colour
+ * only where colour is allowed (terminalText.ts). */
 export function printOut(text: string): void {
-  process.stdout.write(terminalSafe(text));
+  process.stdout.write(forTerminal(text, colourAllowed(process.stdout)));
 }
 
-/** Writes to standard error, control characters escaped. */
+/** Writes to standard error like printOut; on a terminal each line is wrapped to its width
+ * (continuation lines indented two more than the line), piped messages stay whole. */
 export function printErr(text: string): void {
-  process.stderr.write(terminalSafe(text));
+  const width = process.stderr.isTTY ? streamWidth(process.stderr) : null;
+  process.stderr.write(forTerminal(width === null ? text : wrapLines(text, Math.max(MIN_WIDTH, width)), colourAllowed(process.stderr)));
 }

@@ -3,7 +3,8 @@ import { loadCase, type LoadedCase } from "../case/load.js";
 import { CaseError } from "../case/errors.js";
 import { RULE_KINDS } from "../assess/rules/registry.js";
 import { basename } from "node:path";
-import { printErr, printOut, terminalSafe, writeFileAtomic } from "../io.js";
+import { printErr, printOut, writeFileAtomic } from "../io.js";
+import { forTerminal } from "../terminalText.js";
 import { parseLength, type UnitSystem } from "../units.js";
 
 /** A bad command-line value: reported like a case error (exit 2). */
@@ -49,7 +50,7 @@ export function positiveLength(option: string, text: string | undefined, units: 
 /** Prints to stdout, or writes a file whole when --out is given. */
 export function emit(text: string, out: string | undefined): void {
   if (out) {
-    writeFileAtomic(out, terminalSafe(text.endsWith("\n") ? text : text + "\n"));
+    writeFileAtomic(out, forTerminal(text.endsWith("\n") ? text : text + "\n", false));
     printErr(`outfit: wrote ${out}\n`);
   } else printOut(text.endsWith("\n") ? text : text + "\n");
 }

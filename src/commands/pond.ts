@@ -6,7 +6,7 @@ import { governingVolume } from "../storage/stormEstimates.js";
 import type { SiteSizing } from "../case/site.js";
 import { sizingJson, sizingText } from "../report/pondSizing.js";
 import { pondFile } from "../report/pondFile.js";
-import { writeFileAtomic } from "../io.js";
+import { printErr, writeFileAtomic } from "../io.js";
 import { rebaseCase } from "../case/rebase.js";
 import { caseEstimates, typeOption } from "./volume.js";
 import { layoutFor } from "../report/terminal.js";
@@ -37,7 +37,7 @@ export function pondCommand(path: string, options: PondCommandOptions): number {
       copy.pond = pondFile(chosen.pond, c.units);
       rebaseCase(copy, dirname(path), dirname(options.write));
       writeFileAtomic(options.write, JSON.stringify(copy, null, 2) + "\n");
-      process.stderr.write(`outfit: wrote ${options.write} (the case with the sized pond)\n`);
+      printErr(`outfit: wrote ${options.write} (the case with the sized pond)\n`);
     }
   }
   const layout = layoutFor({ wide: options.wide, toFile: options.out !== undefined });

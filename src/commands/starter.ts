@@ -1,6 +1,6 @@
 // `outfit starter FILE`: writes the starter case (every field explained) for a new pond.
 import { existsSync } from "node:fs";
-import { writeFileAtomic } from "../io.js";
+import { printErr, writeFileAtomic } from "../io.js";
 import { starterCase } from "./starterCase.js";
 import { UsageError } from "./common.js";
 
@@ -15,6 +15,6 @@ export function starterCommand(file: string, options: StarterCommandOptions): nu
   if (!file.toLowerCase().endsWith(".json")) throw new UsageError("<file>", file, "a file name ending in .json");
   if (existsSync(file) && !options.force) throw new UsageError("<file>", file, "a file that does not exist yet (or --force to overwrite it)");
   writeFileAtomic(file, JSON.stringify(starterCase(units), null, 2) + "\n");
-  process.stderr.write(`outfit: wrote ${file} (${units} units); next: outfit route ${file}\n`);
+  printErr(`outfit: wrote ${file} (${units} units); next: outfit route ${file}\n`);
   return 0;
 }

@@ -10,7 +10,7 @@ import { withinBand } from "./json.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { limitingPart } from "./limiting.js";
-import { paint, PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
+import { paint, PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 export function hours(h: number | null): string {
   return h === null ? "not drained" : `${h.toFixed(1)} h`;
@@ -25,7 +25,7 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
   const f = formatter(c.units);
   const L = f.labels;
   const columns: Column[] = [
-    { head: "Storm" },
+    { head: "Storm", wrap: STORM_NAME_WIDTH },
     { head: `Peak out\n(${L.flow})`, align: "right" },
     { head: `Target\n(${L.flow})`, align: "right" },
     { head: "Out/target\n(%)", align: "right" },
@@ -54,11 +54,37 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
   });
   const table = renderTable(layout, columns, rows);
   const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
-  return [table.text + marks, ...governingLimitLines(c)].join("\n");
+  return [table.text + marks, ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
   return quantityText(formatter(c.units), ruleOf(check).quantity, value);
+}
+
+/**
+ * A check's slack in words: the fraction of its limit as a percentage, and for an elevation check
+ * first the distance to its limit in ft or m ("0.52 ft (10.5 %)"), which is what an engineer
+ * compares with a freeboard or a crest.
+ */
+export function slackText(units: Case["units"], check: Check): string {
+  const rule = ruleOf(check);
+  if (rule.quantity !== "elevation" || check.value === null) return percent(check.slack);
+  const margin = rule.comparison === "at least" ? check.value - check.limit : check.limit - check.value;
+  const digits = units === "US" ? 2 : 3;
+  const text = formatter(units).length(margin, digits);
+  // No negative zero: a margin that rounds to nothing is shown as none.
+  return `${Number(text.split(" ")[0]) === 0 ? formatter(units).length(0, digits) : text} (${percent(check.slack)})`;
+}
+
+/** How many warnings, to stand beside the word "compliant": ", 2 warnings" (nothing when none). */
+export function warningCount(assessment: { warnings: readonly unknown[] }): string {
+  const n = assessment.warnings.length;
+  return n === 0 ? "" : `, ${n} warning${n > 1 ? "s" : ""}`;
+}
+
+/** The verdict with its warnings beside it: "compliant", "compliant, 2 warnings", "not compliant, 1 warning". */
+export function complianceWords(assessment: Pick<Assessment, "compliant" | "warnings">): string {
+  return `${assessment.compliant ? "compliant" : "not compliant"}${warningCount(assessment)}`;
 }
 
 /** A check's name with its rule's source label, if any. */
@@ -81,20 +107,26 @@ export function governingLimitLines(c: Case): string[] {
   return ["Governing release limit (the smallest of each storm's limits):", ...stated.map((s) => `  ${s.name}: ${targetText(c, s)}`)];
 }
 
+/** The narrowest a check's name becomes in a narrowed checks table (its longest word if wider). */
+const CHECK_NAME_WIDTH = 22;
+
 /** Every check with its value, limit, slack and result (values carry their units: the rows mix quantities). */
 export function checksTable(c: Case, checks: readonly Check[], layout: Layout = PLAIN): string {
+  // Narrow: the check's name and source wrap within their column; value and limit go below the row
+  // only when even that leaves too little room (60 columns), never the slack or the result.
   const columns: Column[] = [
-    { head: "Check" },
-    { head: "Value", align: "right" },
-    { head: "Limit", align: "right" },
-    { head: "Slack", align: "right" },
+    { head: "Check", wrap: CHECK_NAME_WIDTH },
+    { head: "Value", align: "right", narrow: "detail", unit: "" },
+    { head: "Limit", align: "right", narrow: "detail", unit: "" },
+    // An elevation check's slack "0.52 ft (10.5 %)" may go on two lines.
+    { head: "Slack", align: "right", wrap: 8 },
     { head: "Result" },
   ];
   const rows: Row[] = checks.map((check) => [
     checkTitle(check),
     checkValue(c, check, check.value),
     `${limitWord(check)} ${checkValue(c, check, check.limit)}`,
-    percent(check.slack),
+    slackText(c.units, check),
     { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
   ]);
   return renderTable(layout, columns, rows).text;
@@ -109,10 +141,10 @@ export function warningsText(assessment: Assessment, layout: Layout = PLAIN): st
   return ["Warnings:", ...assessment.warnings.map((w) => wrap(`  - ${w.part}: ${w.reason}`, layout.width, 4))].join("\n");
 }
 
-export function verdictText(assessment: Assessment, layout: Layout = PLAIN): string {
+export function verdictText(c: Case, assessment: Assessment, layout: Layout = PLAIN): string {
   const b = assessment.binding;
-  const binding = b ? `binding check: ${checkTitle(b)} (slack ${percent(b.slack)})` : "no checks";
-  return wrap(`${assessment.compliant ? paint(layout, "pass", "Compliant") : paint(layout, "fail", "NOT compliant")}; ${binding}`, layout.width);
+  const binding = b ? `binding check: ${checkTitle(b)}, slack ${slackText(c.units, b)}` : "no checks";
+  return wrap(`${assessment.compliant ? paint(layout, "pass", "Compliant") : paint(layout, "fail", "NOT compliant")}${warningCount(assessment)}; ${binding}`, layout.width);
 }
 
 /** The caution, wrapped to the layout. */
@@ -134,7 +166,7 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     warningsText(assessment, layout),
     ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),
     "",
-    verdictText(assessment, layout),
+    verdictText(c, assessment, layout),
     "",
     cautionText(layout),
   ];

@@ -8,7 +8,7 @@ import { formatter, trimNumber } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";
 import { CAUTION } from "./caution.js";
-import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
+import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 /** Which of a storm's inflow and target the case file gives explicitly (explicit values win). */
 export interface GivenValues {
@@ -94,7 +94,7 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     ]);
   }
   const stormColumns: Column[] = [
-    { head: "Storm" },
+    { head: "Storm", wrap: STORM_NAME_WIDTH },
     { head: "Rainfall", narrow: "detail", rank: 6 },
     { head: "Area" },
     { head: "Runoff", align: "right", narrow: "detail", rank: 1 },

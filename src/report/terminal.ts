@@ -1,6 +1,11 @@
 // Console layout: how wide the output may be, whether to colour it, and tables that fit the width.
-// A table that does not fit keeps its leading columns in a compact row and moves the rest to indented
-// detail lines below the row (or drops them, for columns a table names as droppable).
+// Tables are laid out by cli-table3 (cells, wrapping within a column, alignment); what is outfit's own
+// is the narrow-terminal policy: which columns stay on the row, which go to indented detail lines below
+// it, which are dropped, and how narrow a wrapping column may become.
+import Table from "cli-table3";
+import { ansiAsStyle, colourAllowed, streamWidth, styleAsAnsi, styled, terminalSafe, visibleWidth, type Tone } from "../terminalText.js";
+
+export { visibleWidth, type Tone };
 
 /** How the console output is laid out. */
 export interface Layout {
@@ -31,35 +36,23 @@ export interface LayoutRequest {
  */
 export function layoutFor(request: LayoutRequest, env: NodeJS.ProcessEnv = process.env, stream: { isTTY?: boolean; columns?: number } = process.stdout): Layout {
   if (request.toFile) return PLAIN;
-  const fromEnv = env.COLUMNS !== undefined && /^\s*\d+\s*$/.test(env.COLUMNS) ? Number(env.COLUMNS) : null;
-  const fromTerminal = stream.isTTY && stream.columns ? stream.columns : null;
-  const raw = fromEnv ?? fromTerminal;
+  const raw = streamWidth(stream, env);
   const width = raw === null ? null : Math.max(MIN_WIDTH, raw);
-  const colour = stream.isTTY === true && !(env.NO_COLOR !== undefined && env.NO_COLOR !== "") && env.TERM !== "dumb";
-  return { width, wide: request.wide === true, colour };
+  return { width, wide: request.wide === true, colour: colourAllowed(stream, env) };
 }
-
-const ANSI = /\u001b\[[0-9;]*m/g;
-
-/** Visible length of a string (ANSI colour codes take no room). */
-export function visibleLength(text: string): number {
-  return text.replace(ANSI, "").length;
-}
-
-export type Tone = "pass" | "fail" | "strong" | "muted";
-
-const CODES: Record<Tone, [string, string]> = {
-  pass: ["\u001b[32m", "\u001b[39m"],
-  fail: ["\u001b[31;1m", "\u001b[39;22m"],
-  strong: ["\u001b[1m", "\u001b[22m"],
-  muted: ["\u001b[2m", "\u001b[22m"],
-};
 
 /** Text in a tone when the layout allows colour, else unchanged. */
 export function paint(layout: Layout, tone: Tone, text: string): string {
-  if (!layout.colour || text === "") return text;
-  const [on, off] = CODES[tone];
-  return `${on}${text}${off}`;
+  return layout.colour ? styled(tone, text) : text;
+}
+
+// A number and its unit ("1 %", "3.0 ft") stay on one line, and so does a slope ("3 H : 1 V"): the
+// spaces between them become no-break spaces.
+function keepTogether(text: string): string {
+  return text
+    .replace(/(\d) H : (\d+(?:\.\d+)?) V\b/g, "$1\u00a0H\u00a0:\u00a0$2\u00a0V")
+    .replace(/(\d) (%|ft|in|m|mm|h|min|s|ac|ha|cfs|m3\/s|ft2|ft3|m2|m3|yr)\b/g, "$1\u00a0$2")
+    .replace(/(\d) %/g, "$1\u00a0%");
 }
 
 /**
@@ -69,11 +62,7 @@ export function paint(layout: Layout, tone: Tone, text: string): string {
 export function wrap(text: string, width: number | null, indent: number | string = 2): string {
   if (width === null) return text;
   const pad = typeof indent === "number" ? " ".repeat(indent) : indent;
-  // A number and its unit ("1 %", "3.0 ft") stay on one line, and so does a slope ("3 H : 1 V").
-  return text
-    .replace(/(\d) H : (\d+(?:\.\d+)?) V\b/g, "$1\u00a0H\u00a0:\u00a0$2\u00a0V")
-    .replace(/(\d) (%|ft|in|m|mm|h|min|s|ac|ha|cfs|m3\/s|ft2|ft3|m2|m3|yr)\b/g, "$1\u00a0$2")
-    .replace(/(\d) %/g, "$1\u00a0%")
+  return keepTogether(text)
     .split("\n")
     .map((paragraph) => {
       const lead = /^\s*/.exec(paragraph)![0];
@@ -83,7 +72,7 @@ export function wrap(text: string, width: number | null, indent: number | string
       for (const word of words) {
         const start = lines.length === 0 ? lead : pad;
         if (line.trim() === "") line = start + word;
-        else if (visibleLength(line) + 1 + visibleLength(word) <= width) line += ` ${word}`;
+        else if (visibleWidth(line) + 1 + visibleWidth(word) <= width) line += ` ${word}`;
         else {
           lines.push(line);
           line = pad + word;
@@ -116,6 +105,11 @@ export interface Column {
   unit?: string;
   /** How a detail line names the column ("Tc used"); defaults to the heading's first line in lower case. */
   label?: string;
+  /**
+   * A column of words (a check's name and source) that may be narrowed to this many cells (or its
+   * longest word, if wider) when the table is too wide, its cells wrapped at spaces within it.
+   */
+  wrap?: number;
 }
 
 export interface Cell {
@@ -127,68 +121,86 @@ export type Row = (string | Cell)[];
 
 export interface RenderedTable {
   text: string;
-  /** Whether columns were moved below the rows or dropped. */
+  /** Whether the table was narrowed to the width (columns wrapped, moved below the rows or dropped). */
   compact: boolean;
   /** Headings of dropped columns. */
   dropped: string[];
 }
 
-const GAP = "  ";
+/** The narrowest a column of storm names becomes in a narrowed table (its longest word if wider):
+ * a user's storm names may be long, or hold wide characters. */
+export const STORM_NAME_WIDTH = 8;
 
-function cellText(c: string | Cell): string {
-  return typeof c === "string" ? c : c.text;
+/** Between two columns. */
+const GAP = "  ";
+/** A space that must not break inside a wrapping cell (cli-table3 breaks at any white space, no-break spaces too). */
+const GLUE = "\uFDEF";
+
+/** cli-table3 without borders: columns apart by GAP, no padding, no colours of its own. */
+const CHARS = {
+  top: "", "top-mid": "", "top-left": "", "top-right": "",
+  bottom: "", "bottom-mid": "", "bottom-left": "", "bottom-right": "",
+  left: "", "left-mid": "", mid: "", "mid-mid": "",
+  right: "", "right-mid": "", middle: GAP,
+};
+
+function cellText(c: string | Cell | undefined): string {
+  return c === undefined ? "" : typeof c === "string" ? c : c.text;
 }
 
 function headLines(column: Column): string[] {
   return column.head.split("\n");
 }
 
-/** Width of a column over its heading lines and the lines of its cells. */
-function columnWidth(column: Column, rows: readonly Row[], index: number): number {
-  let w = 0;
-  for (const line of headLines(column)) w = Math.max(w, line.length);
-  for (const row of rows) for (const line of cellText(row[index] ?? "").split("\n")) w = Math.max(w, line.length);
-  return w;
+/** What cli-table3 is given for a cell: control characters escaped (so widths are what the terminal
+ * shows), a number and its unit glued, outfit's styling as the SGR codes cli-table3 knows. */
+function content(layout: Layout, text: string, tone: Tone | undefined): string {
+  const glued = keepTogether(terminalSafe(text)).replace(/\u00a0/g, GLUE);
+  return styleAsAnsi(tone ? paint(layout, tone, glued) : glued);
 }
 
-function pad(text: string, width: number, align: "left" | "right"): string {
-  const room = width - visibleLength(text);
-  if (room <= 0) return text;
-  return align === "right" ? " ".repeat(room) + text : text + " ".repeat(room);
+/** Widest unbreakable word of a wrapping column (its heading and cells). */
+function longestWord(column: Column, rows: readonly Row[], index: number): number {
+  const texts = [column.head, ...rows.map((row) => cellText(row[index]))];
+  let widest = 0;
+  for (const text of texts) for (const word of keepTogether(text).split(/[ \n]+/)) widest = Math.max(widest, visibleWidth(word));
+  return widest;
 }
 
-function renderColumns(layout: Layout, columns: readonly Column[], indices: readonly number[], rows: readonly Row[], detail: (row: Row) => string[]): string {
-  const widths = indices.map((i) => columnWidth(columns[i], rows, i));
-  const headHeight = Math.max(...indices.map((i) => headLines(columns[i]).length));
-  const lines: string[] = [];
-  for (let h = 0; h < headHeight; h++) {
-    const cells = indices.map((i, k) => {
-      const parts = headLines(columns[i]);
-      // Headings sit at the bottom: a one-line heading beside two-line ones is on the second line.
-      const line = parts[h - (headHeight - parts.length)] ?? "";
-      return pad(line, widths[k], columns[i].align ?? "left");
-    });
-    lines.push(paint(layout, "strong", cells.join(GAP).trimEnd()));
-  }
+interface Drawn {
+  lines: string[];
+  /** Lines of each row, the heading's first. */
+  heights: number[];
+  /** Cells of each column, as cli-table3 measured them (no width given: its natural width). */
+  widths: number[];
+}
+
+/** The heading and the rows of the given columns, drawn by cli-table3 (widths given for some columns: those wrap). */
+function draw(layout: Layout, columns: readonly Column[], indices: readonly number[], rows: readonly Row[], fixed: ReadonlyMap<number, number> = new Map()): Drawn {
+  const table = new Table({
+    chars: CHARS,
+    style: { "padding-left": 0, "padding-right": 0, head: [], border: [] },
+    colAligns: indices.map((i) => columns[i].align ?? "left"),
+    colWidths: indices.map((i) => fixed.get(i) ?? null),
+    // The heading's lines sit at the bottom: a one-line heading beside two-line ones is on the second.
+    rowAligns: ["bottom"],
+  });
+  const cell = (i: number, text: string) => (fixed.has(i) ? { content: text, wordWrap: true } : text);
+  table.push(indices.map((i) => cell(i, content(layout, columns[i].head, "strong"))));
   for (const row of rows) {
-    const cellLines = indices.map((i) => cellText(row[i] ?? "").split("\n"));
-    const height = Math.max(...cellLines.map((l) => l.length));
-    for (let h = 0; h < height; h++) {
-      const cells = indices.map((i, k) => {
-        const raw = cellLines[k][h] ?? "";
-        const c = row[i];
-        const toned = typeof c !== "string" && c?.tone ? paint(layout, c.tone, raw) : raw;
-        return pad(toned, widths[k], columns[i].align ?? "left");
-      });
-      lines.push(cells.join(GAP).trimEnd());
-    }
-    lines.push(...detail(row));
+    table.push(indices.map((i) => {
+      const c = row[i];
+      return cell(i, content(layout, cellText(c), typeof c === "string" ? undefined : c?.tone));
+    }));
   }
-  return lines.join("\n");
+  const text = table.toString();
+  const glue = new RegExp(GLUE, "g");
+  const lines = text.split("\n").map((line) => ansiAsStyle(line).replace(glue, " ").trimEnd());
+  return { lines, heights: table.options.rowHeights.map(Number), widths: table.options.colWidths.map(Number) };
 }
 
-function tableWidth(columns: readonly Column[], indices: readonly number[], rows: readonly Row[]): number {
-  return indices.reduce((sum, i) => sum + columnWidth(columns[i], rows, i), 0) + GAP.length * Math.max(0, indices.length - 1);
+function spanOf(widths: readonly number[]): number {
+  return widths.reduce((sum, w) => sum + w, 0) + GAP.length * Math.max(0, widths.length - 1);
 }
 
 function unitOf(column: Column): string {
@@ -199,21 +211,36 @@ function unitOf(column: Column): string {
 
 /**
  * A table in the layout: whole when it fits (or with `--wide`, or without a width); otherwise the
- * compact row holds the "keep" columns and as many of the others, in order of rank, as fit (shown
- * in their own order), and the rest go to the detail lines (or are dropped).
+ * compact row holds the "keep" columns, wrapping columns at their narrowest, and as many of the
+ * others, in order of rank, as fit (shown in their own order); the rest go to the detail lines (or
+ * are dropped), and the wrapping columns share the room left, up to their whole width.
  */
 export function renderTable(layout: Layout, columns: readonly Column[], rows: readonly Row[]): RenderedTable {
   const all = columns.map((_, i) => i);
-  if (layout.wide || layout.width === null || tableWidth(columns, all, rows) <= layout.width) {
-    return { text: renderColumns(layout, columns, all, rows, () => []), compact: false, dropped: [] };
+  const whole = draw(layout, columns, all, rows);
+  if (layout.wide || layout.width === null || spanOf(whole.widths) <= layout.width) {
+    return { text: whole.lines.join("\n"), compact: false, dropped: [] };
   }
   const width = layout.width;
+  const natural = whole.widths;
+  const narrowest = all.map((i) => (columns[i].wrap === undefined ? natural[i] : Math.min(natural[i], Math.max(columns[i].wrap!, longestWord(columns[i], rows, i)))));
+  const span = (indices: readonly number[]) => spanOf(indices.map((i) => narrowest[i]));
   const shown = all.filter((i) => (columns[i].narrow ?? "keep") === "keep");
   const offered = [...all].sort((a, b) => (columns[a].rank ?? a) - (columns[b].rank ?? b));
   for (const i of offered) {
     if (shown.includes(i)) continue;
     const trial = [...shown, i].sort((a, b) => a - b);
-    if (tableWidth(columns, trial, rows) <= width) shown.splice(0, shown.length, ...trial);
+    if (span(trial) <= width) shown.splice(0, shown.length, ...trial);
+  }
+  // The room left makes whole first the wrapping columns that lack least (a slack on two lines
+  // for a few cells more is a poor trade), then widens the others, each up to its whole width.
+  const fixed = new Map<number, number>();
+  let room = Math.max(0, width - span(shown));
+  const wrapping = shown.filter((i) => columns[i].wrap !== undefined).sort((a, b) => natural[a] - narrowest[a] - (natural[b] - narrowest[b]) || a - b);
+  for (const i of wrapping) {
+    const w = Math.min(natural[i], narrowest[i] + room);
+    room -= w - narrowest[i];
+    if (w < natural[i]) fixed.set(i, w);
   }
   const hidden = all.filter((i) => !shown.includes(i));
   const details = hidden.filter((i) => columns[i].narrow === "detail");
@@ -222,7 +249,7 @@ export function renderTable(layout: Layout, columns: readonly Column[], rows: re
     if (details.length === 0) return [];
     const items = details
       .map((i) => {
-        const value = cellText(row[i] ?? "").replace(/\n/g, " ").trim();
+        const value = cellText(row[i]).replace(/\n/g, " ").trim();
         if (value === "" || value === "-") return "";
         const unit = unitOf(columns[i]);
         const numeric = /^-?[\d.,]+( %)?$/.test(value);
@@ -233,5 +260,73 @@ export function renderTable(layout: Layout, columns: readonly Column[], rows: re
       .filter((s) => s !== "");
     return items.length ? [wrap(`    ${items.join("; ")}`, width, 6)] : [];
   };
-  return { text: renderColumns(layout, columns, shown, rows, detail), compact: true, dropped };
+  const drawn = draw(layout, columns, shown, rows, fixed);
+  const lines: string[] = [];
+  let at = 0;
+  drawn.heights.forEach((height, r) => {
+    lines.push(...drawn.lines.slice(at, at + height));
+    at += height;
+    if (r > 0) lines.push(...detail(rows[r - 1]));
+  });
+  return { text: lines.join("\n"), compact: true, dropped };
+}
+
+/** Each line too wide wrapped on its own, continuation lines indented two more than it (messages: notes, errors). */
+export function wrapLines(text: string, width: number): string {
+  return text
+    .split("\n")
+    .map((line) => (visibleWidth(line) <= width ? line : wrap(line, width, `${/^ */.exec(line)![0]}  `)))
+    .join("\n");
+}
+
+/** A shell command too wide for a line, continued with backslashes (an option stays with its value). */
+function wrapCommand(line: string, width: number): string {
+  const lead = /^\s*/.exec(line)![0];
+  const tokens = line.trim().split(/ +/);
+  const words: string[] = [];
+  for (let i = 0; i < tokens.length; i++) {
+    const withValue = tokens[i].startsWith("-") && i + 1 < tokens.length && !tokens[i + 1].startsWith("-");
+    words.push(withValue ? `${tokens[i]} ${tokens[++i]}` : tokens[i]);
+  }
+  const lines: string[] = [];
+  let current = lead + words[0];
+  for (const word of words.slice(1)) {
+    // Room for the " \\" that continues the line.
+    if (visibleWidth(current) + 1 + visibleWidth(word) + 2 <= width) current += ` ${word}`;
+    else {
+      lines.push(`${current} \\`);
+      current = `${lead}    ${word}`;
+    }
+  }
+  lines.push(current);
+  return lines.join("\n");
+}
+
+/**
+ * Help text (commands' --help) to a width: prose lines run together into paragraphs and wrap;
+ * indented lines (examples) stay as written when they fit, else an example's "# comment" goes on
+ * the line below it, and what is still too wide wraps with a deeper indent.
+ */
+export function formatHelpText(text: string, width: number): string {
+  const out: string[] = [];
+  let paragraph: string[] = [];
+  const flush = () => {
+    if (paragraph.length) out.push(wrap(paragraph.join(" "), width, 0));
+    paragraph = [];
+  };
+  for (const line of text.split("\n")) {
+    if (line.trim() === "" || /^\s/.test(line)) {
+      flush();
+      if (line.trim() === "" || visibleWidth(line) <= width) {
+        out.push(line);
+        continue;
+      }
+      const lead = /^\s*/.exec(line)![0];
+      const comment = /^(.*?\S)\s+(# .*)$/.exec(line);
+      const pieces = comment ? [comment[1], `${lead}    ${comment[2]}`] : [line];
+      for (const piece of pieces) out.push(visibleWidth(piece) <= width ? piece : /^\s*outfit /.test(piece) ? wrapCommand(piece, width) : wrap(piece, width, `${lead}    `));
+    } else paragraph.push(line);
+  }
+  flush();
+  return out.join("\n");
 }

@@ -4,7 +4,7 @@ import { formatter } from "../format.js";
 import { toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";
 import { CAUTION } from "./caution.js";
-import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
+import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 import { availableStorage, freeboardLevel, METHOD_SOURCES, type StormEstimate } from "../storage/stormEstimates.js";
 
 /**
@@ -15,7 +15,7 @@ import { availableStorage, freeboardLevel, METHOD_SOURCES, type StormEstimate } 
 export function volumeText(c: Case, estimates: readonly StormEstimate[], pondNote: string | null, layout: Layout = PLAIN): string {
   const f = formatter(c.units);
   const columns: Column[] = [
-    { head: "Storm" },
+    { head: "Storm", wrap: STORM_NAME_WIDTH },
     { head: "Target", align: "right", narrow: "detail", rank: 3 },
     { head: "Peak in", align: "right", narrow: "detail", rank: 4 },
     { head: "Method" },

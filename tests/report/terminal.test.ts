@@ -2,7 +2,8 @@
 // terminal and never with NO_COLOR (https://no-color.org); tables that do not fit keep their
 // leading columns and move the rest below each row.
 import { describe, expect, it } from "vitest";
-import { layoutFor, renderTable, visibleLength, wrap, type Column } from "../../src/report/terminal.js";
+import { layoutFor, renderTable, visibleWidth, wrap, type Column } from "../../src/report/terminal.js";
+import { forTerminal } from "../../src/terminalText.js";
 
 const tty = { isTTY: true, columns: 100 };
 const pipe = { isTTY: false };
@@ -47,7 +48,7 @@ describe("renderTable", () => {
     const table = renderTable({ width: 26, wide: false, colour: false }, columns, rows);
     const lines = table.text.split("\n");
     expect(table.compact).toBe(true);
-    for (const l of lines) expect(visibleLength(l)).toBeLessThanOrEqual(26);
+    for (const l of lines) expect(visibleWidth(l)).toBeLessThanOrEqual(26);
     const row = lines.findIndex((l) => l.startsWith("100-yr"));
     const next = lines.findIndex((l) => l.startsWith("2-yr"));
     expect(lines[row]).toMatch(/^100-yr\s+19\.64$/);
@@ -95,8 +96,11 @@ describe("renderTable", () => {
   it("colour codes take no room in the layout", () => {
     const coloured = renderTable({ width: 80, wide: false, colour: true }, columns, [[{ text: "2-yr", tone: "fail" }, "1.769", "3.65", "openings"]]).text;
     const plain = renderTable({ width: 80, wide: false, colour: false }, columns, [["2-yr", "1.769", "3.65", "openings"]]).text;
-    expect(coloured).toMatch(/\u001b\[31;1m2-yr/);
-    expect(coloured.split("\n").map(visibleLength)).toEqual(plain.split("\n").map((l) => l.length));
+    // Styled as markers in the text, as SGR codes only when printed to a colour terminal.
+    expect(coloured).not.toMatch(/\u001b/);
+    expect(forTerminal(coloured, true)).toMatch(/\u001b\[31m\u001b\[1m2-yr\u001b\[22m\u001b\[39m/);
+    expect(forTerminal(coloured, false)).toBe(plain);
+    expect(coloured.split("\n").map((l) => visibleWidth(l))).toEqual(plain.split("\n").map((l) => l.length));
   });
 });
 

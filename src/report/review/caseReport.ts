@@ -81,7 +81,7 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     return section(`${prefix}storm-${i + 1}`, `${sr.storm.name} storm (${sr.storm.returnPeriod} yr)`, blocks);
   });
   const storms = section(`${prefix}storms`, "Storms routed", [resultsTable(c, routing)], stormSections);
-  const checks = section(`${prefix}checks`, "Checks", [verdictNote(assessment), checksTable(c, assessment), { kind: "text", text: "Warnings:" }, warningsList(assessment)]);
+  const checks = section(`${prefix}checks`, "Checks", [verdictNote(c, assessment), checksTable(c, assessment), { kind: "text", text: "Warnings:" }, warningsList(assessment)]);
   return [rating, storms, checks];
 }
 
@@ -99,7 +99,7 @@ export function caseReport(c: Case, routed: RoutedOutlet, source: string, inputs
   return {
     title: `Review report: ${c.name}`,
     subtitle: `The outlet of case file ${source}, routed and checked by outfit.`,
-    verdict: verdictNote(routed.assessment),
+    verdict: verdictNote(c, routed.assessment),
     project: projectFacts(inputs.project, inputs.run),
     caution: CAUTION,
     sections: [

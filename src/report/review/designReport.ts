@@ -3,7 +3,7 @@
 import type { Case } from "../../model.js";
 import { formatter, significant, trimNumber } from "../../format.js";
 import { CAUTION } from "../caution.js";
-import { percent } from "../console.js";
+import { percent, slackText, warningCount } from "../console.js";
 import { withinBand } from "../json.js";
 import { toCaseUnits } from "../../units.js";
 import { candidatesChart } from "./figures.js";
@@ -59,7 +59,8 @@ function comparisonTable(c: Case, routed: readonly RoutedCandidate[]): TableBloc
         return { text: percent(s.result.peakOutflow / storm.target!), tone: inBand ? "pass" : "fail" };
       });
       const maxStage = Math.max(...r.routing.storms.map((s) => s.result.maxStage));
-      const binding = reported.binding ? `${reported.binding.name} (slack ${percent(reported.binding.slack)})` : "none";
+      const b = r.assessment.binding;
+      const binding = b ? `${b.name}, slack ${slackText(c.units, b)}` : "none";
       return [
         `#${reported.rank}`,
         reported.description,
@@ -67,10 +68,15 @@ function comparisonTable(c: Case, routed: readonly RoutedCandidate[]): TableBloc
         f.elevation(maxStage),
         reported.cost === null || reported.cost === undefined ? "not given" : `${trimNumber(reported.cost, 2)} cost units`,
         binding,
-        { text: reported.compliant ? "yes" : "no", tone: reported.compliant ? "pass" : "fail" },
+        yes(reported.compliant, reported.warnings),
       ];
     }),
   };
+}
+
+/** Whether a design complies, its warnings beside the answer ("yes, 2 warnings"). */
+function yes(compliant: boolean, warnings: readonly unknown[] = []): Cell {
+  return { text: `${compliant ? "yes" : "no"}${warningCount({ warnings })}`, tone: compliant ? "pass" : "fail" };
 }
 
 /** "2.40 cost units (12.0 %)"; negative when the alternative costs more. */
@@ -87,21 +93,20 @@ function baselineBlocks(run: DesignRun, routed: readonly RoutedCandidate[]): Blo
   if (!b) return [];
   const targeted = b.storms.filter((s) => s.target !== null);
   const binding = (k: { binding: { name: string; slack: number } | null }) => (k.binding ? `${k.binding.name} (slack ${percent(k.binding.slack)})` : "none");
-  const yes = (compliant: boolean): Cell => ({ text: compliant ? "yes" : "no", tone: compliant ? "pass" : "fail" });
   const table: TableBlock = {
     kind: "table",
     caption: "Against the existing outlet (row 0: the case's outlet as given; saving: its cost proxy less the alternative's)",
     head: ["Row", "Description", ...targeted.map((s) => `${s.name} out / target`), "Cost", "Saving", "Changes", "Binding check", "Compliant"],
     numeric: [true, false, ...targeted.map(() => true), true, true, true, false, false],
     rows: [
-      ["0 (existing)", b.description, ...targeted.map((s) => percent(s.peakOutflow / s.target!)), `${trimNumber(b.cost, 2)} cost units`, "-", "-", binding(b), yes(b.compliant)],
+      ["0 (existing)", b.description, ...targeted.map((s) => percent(s.peakOutflow / s.target!)), `${trimNumber(b.cost, 2)} cost units`, "-", "-", binding(b), yes(b.compliant, b.warnings)],
       ...routed.map((r) => {
         const k = r.candidate.reported;
         const ratios = targeted.map((s) => {
           const own = k.storms.find((x) => x.name === s.name);
           return own ? percent(own.peakOutflow / s.target!) : "-";
         });
-        return [`#${k.rank}`, k.description, ...ratios, k.cost === null || k.cost === undefined ? "not given" : `${trimNumber(k.cost, 2)} cost units`, k.saving ? savingText(k.saving) : "not given", k.changes ? String(k.changes.length) : "not given", binding(k), yes(k.compliant)];
+        return [`#${k.rank}`, k.description, ...ratios, k.cost === null || k.cost === undefined ? "not given" : `${trimNumber(k.cost, 2)} cost units`, k.saving ? savingText(k.saving) : "not given", k.changes ? String(k.changes.length) : "not given", binding(k), yes(k.compliant, k.warnings)];
       }),
     ],
   };
@@ -153,10 +158,10 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
     const prefix = `c${rank}-`;
     return section(`candidate-${rank}`, `Candidate ${rank}`, [
       { kind: "text", text: `${r.candidate.reported.description} (case file ${r.candidate.reported.caseFile}).` },
-      verdictNote(r.assessment),
+      verdictNote(c, r.assessment),
     ], outletSections(c, r, figures, inputs, prefix));
   });
-  const verdict: NoteBlock = { ...verdictNote(best.assessment) };
+  const verdict: NoteBlock = { ...verdictNote(c, best.assessment) };
   verdict.text = `Candidate ${best.candidate.reported.rank}: ${verdict.text}`;
   return {
     title: `Design report: ${run.results.case}`,

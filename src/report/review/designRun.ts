@@ -15,10 +15,14 @@ const stormSchema = z.looseObject({
 
 const changeSchema = z.looseObject({ kind: z.string(), text: z.string() });
 
+/** A part used outside its formula's range (and other warnings), as the run wrote them. */
+const warningsSchema = z.array(z.looseObject({ part: z.string(), reason: z.string() })).optional();
+
 const candidateSchema = z.looseObject({
   rank: z.number().int().positive(),
   description: z.string(),
   compliant: z.boolean(),
+  warnings: warningsSchema,
   cost: z.number().nullable().optional(),
   binding: z.looseObject({ name: z.string(), slack: z.number() }).nullable(),
   explanation: z.array(z.string()),
@@ -33,6 +37,7 @@ const candidateSchema = z.looseObject({
 const baselineSchema = z.looseObject({
   description: z.string(),
   compliant: z.boolean(),
+  warnings: warningsSchema,
   cost: z.number(),
   binding: z.looseObject({ name: z.string(), slack: z.number() }).nullable(),
   explanation: z.array(z.string()),

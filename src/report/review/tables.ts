@@ -5,7 +5,7 @@ import type { Assessment } from "../../assess/assess.js";
 import { hydrographVolume } from "../../hydrology/hydrograph.js";
 import { storageCurve } from "../../storage/curve.js";
 import { formatter, trimNumber, type Formatter } from "../../format.js";
-import { checkTitle, checkValue, hours, percent, targetText } from "../console.js";
+import { checkTitle, checkValue, hours, percent, slackText, targetText, warningCount } from "../console.js";
 import { withinBand } from "../json.js";
 import { targetBand } from "../../assess/rules/band.js";
 import { ruleOf } from "../../assess/rules/registry.js";
@@ -184,7 +184,7 @@ export function checksTable(c: Case, assessment: Assessment): TableBlock {
         binding ? { text: `${checkTitle(check)} (binding)`, tone: "binding" } : checkTitle(check),
         checkValue(c, check, check.value),
         `${ruleOf(check).comparison} ${checkValue(c, check, check.limit)}`,
-        { text: percent(check.slack), tone: check.passed ? "pass" : "fail" },
+        { text: slackText(c.units, check), tone: check.passed ? "pass" : "fail" },
         { text: check.passed ? "pass" : "FAIL", tone: check.passed ? "pass" : "fail" },
       ];
     }),
@@ -196,10 +196,12 @@ export function warningsList(assessment: Assessment): ListBlock | NoteBlock {
   return { kind: "list", items: assessment.warnings.map((w) => `${w.part}: ${w.reason}`) };
 }
 
-export function verdictNote(assessment: Assessment): NoteBlock {
+/** The verdict, with the warnings beside it (a compliant outlet with parts outside their formulas' range says so in the banner). */
+export function verdictNote(c: Case, assessment: Assessment): NoteBlock {
   const b = assessment.binding;
-  const binding = b ? `binding check: ${b.name} (slack ${percent(b.slack)})` : "no checks apply";
+  const binding = b ? `binding check: ${b.name}, slack ${slackText(c.units, b)}` : "no checks apply";
+  const warned = assessment.warnings.length === 0 ? "" : ` (see the warnings: ${assessment.warnings.map((w) => w.part).join("; ")})`;
   return assessment.compliant
-    ? { kind: "note", tone: "pass", text: `Compliant: every check passes; ${binding}.` }
-    : { kind: "note", tone: "fail", text: `Not compliant: ${assessment.checks.filter((k) => !k.passed).length} of ${assessment.checks.length} checks fail; ${binding}.` };
+    ? { kind: "note", tone: "pass", text: `Compliant${warningCount(assessment)}: every check passes${warned}; ${binding}.` }
+    : { kind: "note", tone: "fail", text: `Not compliant${warningCount(assessment)}: ${assessment.checks.filter((k) => !k.passed).length} of ${assessment.checks.length} checks fail${warned}; ${binding}.` };
 }
