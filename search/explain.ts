@@ -9,7 +9,7 @@ import { formatter, quantityText } from "../src/format.js";
 import { ruleOf, whyNothingComplies } from "../src/assess/rules/registry.js";
 import { targetBand } from "../src/assess/rules/band.js";
 import { closestMaxStage, freeboardStorm } from "../src/assess/rules/rule.js";
-import { baseLength } from "../src/units.js";
+import { baseLength, type UnitSystem } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, variableNames } from "./layout.js";
@@ -36,6 +36,14 @@ function change(p: SearchProblem, before: Check, after: Check): string {
   if (quantity === "hours") return `${after.value >= before.value ? "+" : ""}${(after.value - before.value).toFixed(1)} h`;
   const L = baseLength(p.case.units);
   return `${after.value >= before.value ? "+" : ""}${((after.value - before.value) / L).toFixed(2)} ${p.case.units === "US" ? "ft" : "m"}`;
+}
+
+/**
+ * Whether a move relaxes a check by something its words show: the slack grows and its text changes
+ * (a step that takes "slack -22.6 %" to "-22.6 %", or "0.52 ft (10.5 %)" to itself, is no remedy).
+ */
+export function relaxesVisibly(units: UnitSystem, before: Check, after: Check): boolean {
+  return after.slack - before.slack > 1e-6 && slackText(units, after) !== slackText(units, before);
 }
 
 /** A floating elevation of an outlet (m) and the outlet routed again with it moved. */
@@ -115,11 +123,10 @@ function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): s
       if (to < m.min - 1e-9 || to > m.max + 1e-9) continue;
       const moved = m.moved(to);
       const after = moved.assessment.checks.find((check) => check.key === binding.key)!;
+      if (!relaxesVisibly(p.case.units, binding, after)) continue;
       const gain = after.slack - binding.slack;
       const before = slackText(p.case.units, binding);
       const now = slackText(p.case.units, after);
-      // A move that relaxes the check by less than its words show ("-22.6 % -> -22.6 %") is no remedy.
-      if (gain <= 1e-6 || now === before) continue;
       const next = moved.assessment.binding!;
       const breaks = c.assessment.compliant && !moved.assessment.compliant;
       const cost = breaks ? `; but then ${next.name} fails, slack ${slackText(p.case.units, next)}` : next.key !== binding.key ? `; then ${next.name} binds at ${slackText(p.case.units, next)}` : "";

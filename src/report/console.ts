@@ -16,8 +16,10 @@ export function hours(h: number | null): string {
   return h === null ? "not drained" : `${h.toFixed(1)} h`;
 }
 
+/** A fraction as a percentage, no negative zero ("-0.0 %" reads as a failure that is not one). */
 export function percent(x: number, digits = 1): string {
-  return `${(100 * x).toFixed(digits)} %`;
+  const text = (100 * x).toFixed(digits);
+  return `${Number(text) === 0 ? (0).toFixed(digits) : text} %`;
 }
 
 /** Per-storm table of a routed outlet: units in the headings, compact rows when narrow. */

@@ -2,8 +2,11 @@
 // terminal shows holds no literal escape text ("\u001b[1m" printed instead of done), no control
 // character but outfit's own colour codes, and no line wider than the terminal; tables and verdicts
 // reach it in colour. The design runs are in pseudoTerminalDesign.test.ts.
-import { describe, expect, it } from "vitest";
-import { checkAtWidth, haveScript } from "./pseudoTerminal.js";
+import { afterAll, describe, expect, it } from "vitest";
+import { readFileSync, rmSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { checkAtWidth, hasColour, haveScript, inTerminal, overwide, scratch, screenProblems, strayControls } from "./pseudoTerminal.js";
+import { outfit, ROOT } from "./run.js";
 import { caseCommands, otherCommands, WIDTHS } from "./terminalCommands.js";
 
 describe("the pseudo-terminal", () => {
@@ -22,4 +25,59 @@ describe.skipIf(!haveScript())("every command under a pseudo-terminal", () => {
       expect(checkAtWidth(command, columns).problems).toEqual([]);
     }, 120_000);
   }
+});
+
+/** cases/demo with its names in user text of the given kind, its inflow files by absolute path. */
+function renamedDemo(dir: string, name: string, storms: string[]): string {
+  const json = JSON.parse(readFileSync(join(ROOT, "cases/demo/case.json"), "utf8"));
+  json.name = name;
+  json.storms.forEach((s: { name: string; inflow: { file?: string } }, i: number) => {
+    s.name = storms[i];
+    if (s.inflow.file) s.inflow.file = join(ROOT, "cases/demo", s.inflow.file);
+  });
+  if (json.criteria?.freeboard?.storm) json.criteria.freeboard.storm = storms[storms.length - 1];
+  delete json.$schema;
+  const file = join(dir, "case.json");
+  writeFileSync(file, JSON.stringify(json, null, 2));
+  return file;
+}
+
+describe.skipIf(!haveScript())("colour and user text under a pseudo-terminal", () => {
+  const dir = scratch();
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it("colour on a terminal; none with NO_COLOR, with TERM=dumb, or through a pipe", () => {
+    expect(hasColour(inTerminal(80, ["route", "cases/demo/case.json"]).screen)).toBe(true);
+    for (const vars of [{ NO_COLOR: "1" }, { TERM: "dumb" }]) {
+      const run = inTerminal(80, ["route", "cases/demo/case.json"], vars);
+      expect(hasColour(run.screen)).toBe(false);
+      expect(screenProblems(run, 80)).toEqual([]);
+    }
+    expect(outfit("route", "cases/demo/case.json").stdout).not.toMatch(/[\u001b\uFDD0-\uFDEF]/);
+  });
+
+  it("an escape in a case or storm name is shown escaped, while outfit's own colour is colour", () => {
+    const file = renamedDemo(dir, "Pond \u001b[31mred\u001b[0m", ["2-yr\u001b[2J", "10-yr\u0007", "100-yr\u001b]0;title\u0007"]);
+    const run = inTerminal(80, ["route", file]);
+    expect(run.status).toBe(0);
+    expect(run.screen).toContain("Pond \\u001b[31mred\\u001b[0m");
+    expect(run.screen).toContain("2-yr\\u001b[2J");
+    expect(run.screen).toContain("100-yr\\u001b]0;title\\u0007");
+    expect(hasColour(run.screen)).toBe(true);
+    expect(strayControls(run.screen)).toEqual([]);
+    expect(overwide(run.screen, 80)).toEqual([]);
+    // The user's own codes never reach the terminal as codes.
+    expect(run.screen).not.toMatch(/\u001b\[2J|\u001b\[0m|\u001b\]0;|\u001b\[31mred/);
+  });
+
+  it.each([60, 80, 120])("names in wide characters (CJK, emoji) fit %i columns in route, volume and design", (columns) => {
+    const file = renamedDemo(dir, "雨水調整池 北区 業務団地 調整池B (架空) 🌧️", ["2年確率 小雨 🌦️", "10年確率 中雨 🌧️", "100年確率 大雨 ⛈️"]);
+    const commands = [["route", file], ["volume", file, "--type", "II"], ...(columns === 60 ? [] : [["design", file, "--budget", "600", "--top", "3", "--quiet"]])];
+    for (const args of commands) {
+      const run = inTerminal(columns, args);
+      expect(run.status, run.screen).toBe(0);
+      expect(run.screen).toContain("年確率");
+      expect(screenProblems(run, columns), args[0]).toEqual([]);
+    }
+  }, 120_000);
 });

@@ -3,7 +3,7 @@
 // piped without COLUMNS the tables are whole, one row per storm or stage.
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { outfitWith, ROOT, type Run } from "./run.js";
+import { outfit, outfitWith, ROOT, type Run } from "./run.js";
 
 function outfitAt(columns: number | null, ...args: string[]): Run {
   return outfitWith({ COLUMNS: columns === null ? undefined : String(columns) }, ...args);
@@ -90,6 +90,54 @@ describe("a reader that closes the pipe early", () => {
       const r = spawnSync("sh", ["-c", `"${process.execPath}" dist/src/cli.js ${args.join(" ")} | head -1 >/dev/null`], { cwd: ROOT, encoding: "utf8", timeout: 120_000 });
       expect(r.stderr).not.toMatch(/EPIPE|at .*\(node:|Unhandled/);
       expect(r.status).toBe(0);
+    }
+  });
+});
+
+describe("route's checks table at 80 and 60 columns (cases/ordinance-mix: every rule form, source labels)", () => {
+  /** The checks table's rows: each row's name (its wrapped lines joined) and its first line; detail lines apart. */
+  function checkRows(text: string): { name: string; first: string; details: string[] }[] {
+    const lines = text.split("\n");
+    const start = lines.findIndex((l) => /^Check {2,}/.test(l));
+    const rows: { name: string; first: string; details: string[] }[] = [];
+    for (const line of lines.slice(start + 1)) {
+      if (line === "") break;
+      if (/ {2}(pass|FAIL)$/.test(line)) rows.push({ name: line.split(/ {2,}/)[0], first: line, details: [] });
+      else if (line.startsWith("    ")) rows[rows.length - 1].details.push(line.trim());
+      else rows[rows.length - 1].name += ` ${line.trim()}`;
+    }
+    return rows;
+  }
+
+  it.each([80, 60])("at %i columns: every check whole, with its source label, its value, limit, slack and result", (columns) => {
+    const json = JSON.parse(outfit("route", "cases/ordinance-mix/case.json", "--json").stdout);
+    const run = outfitAt(columns, "route", "cases/ordinance-mix/case.json");
+    expect(longest(run.stdout)).toBeLessThanOrEqual(columns);
+    const rows = checkRows(run.stdout);
+    // Every rule form of the case is there (release limits by rate per area and by share of the
+    // pre-development peak, the smallest opening, clogging, the blocked outlet, extended detention).
+    const titles = json.checks.map((c: { name: string; label: string | null }) => (c.label === null ? c.name : `${c.name} [${c.label}]`));
+    expect(rows.map((r) => r.name)).toEqual(titles);
+    for (const kind of ["peak-upper", "minimum-opening-release", "freeboard", "spillway-dry", "drawdown", "overtopping", "blocked-outlet", "extended-detention", "minimum-opening"]) {
+      expect(json.checks.some((c: { kind: string }) => c.kind === kind), kind).toBe(true);
+    }
+    expect(json.checks.some((c: { condition: string }) => c.condition === "clogged")).toBe(true);
+    json.checks.forEach((check: { passed: boolean; value: number; unit: string }, i: number) => {
+      const row = rows[i];
+      expect(row.first).toMatch(check.passed ? / {2}pass$/ : / {2}FAIL$/);
+      const everything = [row.first, ...row.details].join(" ");
+      expect(everything).toMatch(/(<=|>=) \d/);
+      // At 80 columns the value and limit are on the row; at 60 the limit goes below it.
+      if (columns === 80) expect(row.details).toEqual([]);
+      else expect(row.details).toEqual([expect.stringMatching(/^limit: (<=|>=) \d/)]);
+    });
+  });
+
+  it("route's whole output fits 60 columns on every bundled case with an outlet", () => {
+    for (const name of ["demo", "demo-rainfall", "infeasible", "ordinance-mix", "si-wet-barrel", "site-only", "small-compliant", "underground", "wet-value"]) {
+      const run = outfitAt(60, "route", `cases/${name}/case.json`);
+      expect(run.status, name).toBe(0);
+      expect(longest(run.stdout), name).toBeLessThanOrEqual(60);
     }
   });
 });

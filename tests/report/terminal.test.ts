@@ -2,7 +2,7 @@
 // terminal and never with NO_COLOR (https://no-color.org); tables that do not fit keep their
 // leading columns and move the rest below each row.
 import { describe, expect, it } from "vitest";
-import { layoutFor, renderTable, visibleWidth, wrap, type Column } from "../../src/report/terminal.js";
+import { formatHelpText, layoutFor, paint, renderTable, visibleWidth, wrap, wrapLines, type Column } from "../../src/report/terminal.js";
 import { forTerminal } from "../../src/terminalText.js";
 
 const tty = { isTTY: true, columns: 100 };
@@ -135,5 +135,104 @@ describe("niceStep", () => {
     expect(niceStep(4)).toBeCloseTo(0.2, 12);
     expect(niceStep(2.5)).toBeCloseTo(0.2, 12);
     expect(niceStep(10)).toBeCloseTo(0.5, 12);
+  });
+});
+
+describe("renderTable with columns of words (cli-table3 wraps them)", () => {
+  const columns: Column[] = [
+    { head: "Check", wrap: 12 },
+    { head: "Value", align: "right", narrow: "detail", unit: "" },
+    { head: "Slack", align: "right" },
+    { head: "Result" },
+  ];
+  const name = "10-yr target reachable with the minimum opening (75 % of the given pre-development peak 19 cfs) [county ordinance 5.5]";
+  const rows = [[name, "0.482 cfs", "96.6 %", "pass"], ["2-yr drawdown", "37.7 h", "47.7 %", "pass"]];
+
+  it("wraps the name within the width; the row's numbers stay on its first line; a number keeps its unit", () => {
+    const table = renderTable({ width: 60, wide: false, colour: false }, columns, rows);
+    const lines = table.text.split("\n");
+    expect(table.compact).toBe(true);
+    for (const l of lines) expect(visibleWidth(l)).toBeLessThanOrEqual(60);
+    expect(lines[1]).toMatch(/^10-yr target reachable with the\s+0\.482 cfs\s+96\.6 %\s+pass$/);
+    const next = lines.findIndex((l) => l.startsWith("2-yr drawdown"));
+    // The name's other lines hold nothing but its words, which read as the name again.
+    const continued = lines.slice(2, next);
+    for (const l of continued) expect(l).not.toMatch(/ {2}\S/);
+    expect([lines[1].split(/ {2,}/)[0], ...continued].join(" ")).toBe(name);
+    expect(continued.some((l) => l.endsWith(" 19") || l.startsWith("cfs"))).toBe(false);
+    expect(lines[next]).toMatch(/^2-yr drawdown\s+37\.7 h\s+47\.7 %\s+pass$/);
+  });
+
+  it("narrows a column of words no further than its wrap width or longest word: the others go below the row first", () => {
+    const lines = renderTable({ width: 38, wide: false, colour: false }, columns, rows).text.split("\n");
+    expect(lines[1]).toBe("10-yr target reachable  96.6 %  pass");
+    expect(lines).toContain("    value: 0.482 cfs");
+    // "pre-development" (15) is wider than the wrap width (12): at 31 columns the name is 15 wide.
+    const narrowest = renderTable({ width: 31, wide: false, colour: false }, columns, rows).text.split("\n");
+    expect(narrowest).toContain("pre-development");
+    expect(Math.max(...narrowest.map((l) => visibleWidth(l)))).toBe(31);
+  });
+
+  it("is the whole table, unwrapped, when it fits", () => {
+    const text = renderTable({ width: 200, wide: false, colour: false }, columns, rows).text;
+    expect(text.split("\n")[1]).toBe(`${name}  0.482 cfs  96.6 %  pass`);
+  });
+});
+
+describe("widths as a terminal shows them", () => {
+  const columns: Column[] = [{ head: "Storm", wrap: 8 }, { head: "Peak\n(cfs)", align: "right" }, { head: "Note" }];
+
+  it("counts wide characters (CJK, emoji) as two cells, so the columns line up on the screen", () => {
+    const rows = [["2年確率 🌧️", "1.769", "x"], ["100-yr", "19.64", "y"], ["洪水 100年", "20.10", "z"]];
+    const lines = renderTable({ width: 80, wide: false, colour: false }, columns, rows).text.split("\n");
+    // The peak ends in the same screen column on every line.
+    const ends = lines.slice(1).map((l) => visibleWidth(l.replace(/ {2}\S+$/, "")));
+    expect(new Set(ends).size).toBe(1);
+    expect(visibleWidth("2年確率 🌧️")).toBe(10);
+  });
+
+  it("measures a control character in user text as the escape the terminal will show", () => {
+    const rows = [["2-yr\u001b[2J", "1.769", "x"], ["100-yr", "19.64", "y"]];
+    const lines = renderTable({ width: 80, wide: false, colour: false }, columns, rows).text.split("\n");
+    expect(lines[2]).toBe("2-yr\\u001b[2J  1.769  x");
+    expect(lines[3]).toBe("100-yr         19.64  y");
+  });
+});
+
+describe("text for the terminal", () => {
+  it("escapes the user's control characters and turns only outfit's own styling into colour codes", () => {
+    const text = `${paint({ width: null, wide: false, colour: true }, "pass", "pass")} storm "2-yr\u001b[31m"`;
+    expect(forTerminal(text, true)).toBe('\u001b[32mpass\u001b[39m storm "2-yr\\u001b[31m"');
+    expect(forTerminal(text, false)).toBe('pass storm "2-yr\\u001b[31m"');
+    expect(visibleWidth(text)).toBe('pass storm "2-yr\\u001b[31m"'.length);
+  });
+
+  it("wraps messages line by line to the width, continuation lines two deeper, lines that fit as they are", () => {
+    const text = "outfit: note: inflow-100yr.csv: read with separator comma, decimal point, times in minutes, flows in cfs\n  a   short line";
+    expect(wrapLines(text, 60).split("\n")).toEqual([
+      "outfit: note: inflow-100yr.csv: read with separator comma,",
+      "  decimal point, times in minutes, flows in cfs",
+      "  a   short line",
+    ]);
+  });
+
+  it("fits help to the width: prose runs together and wraps, a long example keeps its options whole and continues with a backslash", () => {
+    const help = [
+      "Narrow terminals keep each method's volume on its row, and the stage and the fit as room allows;",
+      "the rest go on indented lines below the row.",
+      "",
+      "Examples:",
+      "  outfit design cases/demo/case.json --budget 90000 --shard 2/3 --out out/shard-2",
+      "  outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first",
+      "  outfit route cases/demo/case.json",
+    ].join("\n");
+    const lines = formatHelpText(help, 60).split("\n");
+    for (const l of lines) expect(l.length).toBeLessThanOrEqual(60);
+    expect(lines.slice(0, 3).join(" ")).toBe(help.split("\n").slice(0, 2).join(" "));
+    expect(lines).toContain("  outfit design cases/demo/case.json --budget 90000 \\");
+    expect(lines).toContain("      --shard 2/3 --out out/shard-2");
+    expect(lines).toContain("  outfit design cases/wet-value/case.json --rank change");
+    expect(lines).toContain("      # fixes of the existing outlet, smallest first");
+    expect(lines[lines.length - 1]).toBe("  outfit route cases/demo/case.json");
   });
 });

@@ -116,6 +116,19 @@ describe("design --size-pond as text", () => {
     expect(sizes(narrow).length).toBeGreaterThan(1);
   });
 
+  it("the chosen outlet's warnings stand beside the word compliant, as its results.json lists them, and are listed", () => {
+    const results = JSON.parse(readFileSync(join(out, "results.json"), "utf8"));
+    const n = results.chosen.routing.warnings.length;
+    const count = n === 0 ? "" : `, ${n} warning${n > 1 ? "s" : ""}`;
+    for (const text of [narrow, piped, readFileSync(join(out, "summary.txt"), "utf8")]) {
+      expect(text).toMatch(new RegExp(`\\nCompliant${count}; binding check: `));
+      expect(text).toMatch(new RegExp(`compliant( outlet found)?${count}( \\(outlet of the size above, routed again\\))?\\s+<- chosen`));
+      const listed = text.split("\nWarnings:")[1].split("\n\n")[0];
+      if (n === 0) expect(listed.trim()).toBe("none");
+      else expect(listed.split("\n").filter((line) => line.startsWith("  - "))).toHaveLength(n);
+    }
+  });
+
   it("piped and in summary.txt: the whole table on one line per size (the control: wider than 80)", () => {
     expect(piped).toMatch(/^Steps {2}Pond .*freeboard level {2}Footprint {2}Excavation .*Pond cost .*Outlet {2}Result$/m);
     expect(piped).toMatch(/^ +\d+ {2}[\d.]+ ft x [\d.]+ ft floor +[\d,]+ ft3 +[\d,]+ ft2 +[\d,]+ ft3 +[\d.]+ units +(-|[\d.]+ units) {2}\S/m);

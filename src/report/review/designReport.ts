@@ -92,7 +92,7 @@ function baselineBlocks(run: DesignRun, routed: readonly RoutedCandidate[]): Blo
   const b = run.results.baseline;
   if (!b) return [];
   const targeted = b.storms.filter((s) => s.target !== null);
-  const binding = (k: { binding: { name: string; slack: number } | null }) => (k.binding ? `${k.binding.name} (slack ${percent(k.binding.slack)})` : "none");
+  const binding = (k: { binding: { name: string; slack: number } | null }) => (k.binding ? `${k.binding.name}, slack ${percent(k.binding.slack)}` : "none");
   const table: TableBlock = {
     kind: "table",
     caption: "Against the existing outlet (row 0: the case's outlet as given; saving: its cost proxy less the alternative's)",

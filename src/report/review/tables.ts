@@ -18,12 +18,6 @@ import { barrelRow } from "../../parts/barrel.js";
 import { spillwayRow } from "../../parts/spillway.js";
 import type { Cell, FactsBlock, ListBlock, NoteBlock, TableBlock } from "./model.js";
 
-/** A percentage that prints no negative zero. */
-function signedPercent(fraction: number, digits: number): string {
-  const text = (100 * fraction).toFixed(digits);
-  return `${Number(text) === 0 ? (0).toFixed(digits) : text} %`;
-}
-
 const hoursText = (seconds: number) => `${(seconds / 3600).toFixed(2)} h`;
 
 function storageText(c: Case, f: Formatter): string {
@@ -168,7 +162,7 @@ export function stormSummary(c: Case, sr: CaseRouting["storms"][number]): string
   const target = sr.storm.target;
   const ratio = target === null ? "no target" : `${percent(r.peakOutflow / target)} of the target ${f.flow(target)}, ${bandWords(c, r.peakOutflow, target)}`;
   const drawdown = r.drawdownTime === null ? "not drained within the simulation" : `drained ${hours(r.drawdownTime / 3600)} after the peak stage`;
-  return `Peak inflow ${f.flow(r.peakInflow)}; peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)} (${ratio}); maximum stage ${f.elevation(r.maxStage)} at ${hoursText(r.timeOfMaxStage)}, ${f.length(c.pond.top - r.maxStage)} below the top of embankment, storing ${f.volume(r.maxStorage)}; ${drawdown}; mass balance error ${signedPercent(r.massBalanceError, 3)}.`;
+  return `Peak inflow ${f.flow(r.peakInflow)}; peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)} (${ratio}); maximum stage ${f.elevation(r.maxStage)} at ${hoursText(r.timeOfMaxStage)}, ${f.length(c.pond.top - r.maxStage)} below the top of embankment, storing ${f.volume(r.maxStorage)}; ${drawdown}; mass balance error ${percent(r.massBalanceError, 3)}.`;
 }
 
 /** Every check with value, limit and slack; the binding check marked. */
