@@ -65,10 +65,10 @@ export function designCommands(): TerminalCommand[] {
     const file = caseFile(name);
     const commands: TerminalCommand[] = [];
     if (file.catalogue !== undefined) {
-      commands.push({ label: `design ${name}`, args: ["design", path, "--budget", "800", "--top", "3", "--out", "<tmp>"], codes: [0], coloured: true, then: [["report", "<tmp>"]] });
+      commands.push({ label: `design ${name}`, args: ["design", path, "--budget", "300", "--top", "3", "--out", "<tmp>"], codes: [0], coloured: true, then: [["report", "<tmp>"]] });
     }
     if (file.site !== undefined && file.catalogue !== undefined) {
-      commands.push({ label: `design --size-pond ${name}`, args: ["design", path, "--size-pond", "--budget", "600", "--top", "2", "--out", "<tmp>"], codes: [0], coloured: true });
+      commands.push({ label: `design --size-pond ${name}`, args: ["design", path, "--size-pond", "--budget", "300", "--top", "2", "--out", "<tmp>"], codes: [0], coloured: true });
     }
     return commands;
   });

@@ -179,7 +179,8 @@ describe("HTML report of the demo case, in Chromium", () => {
       }),
     );
     expect(cells.length).toBeGreaterThan(50);
-    const unit = /(ft|ft3|cfs|in|h|%|yr)(, (in|below|above) band)?$/;
+    // An elevation check's slack carries both units: "0.52 ft (10.5 %)".
+    const unit = /(ft|ft3|cfs|in|h|%|yr)(, (in|below|above) band)?$|^-?[\d.]+ ft \(-?[\d.]+ %\)$/;
     const headUnit = /\((ft|ft2|ft3|cfs|min|h)\)|HW\/D/;
     for (const { text, head } of cells) if (/\d/.test(text)) expect(unit.test(text) || headUnit.test(head), `${head}: ${text}`).toBe(true);
   });
