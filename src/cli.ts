@@ -109,7 +109,8 @@ program
     "after",
     helpAfter(`
 ${FITS}
-Colour only on a terminal, never when NO_COLOR is set.
+Colour only on a terminal, never when NO_COLOR is set, with TERM=dumb or through a pipe; control
+characters in a case's names are shown escaped.
 
 Examples:
   outfit route cases/demo/case.json
