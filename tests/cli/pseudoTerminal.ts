@@ -38,7 +38,8 @@ export function scratch(): string {
  * environment variables on top of a terminal's usual ones (TERM=xterm-256color, no NO_COLOR, no COLUMNS).
  */
 export function inTerminal(columns: number, args: readonly string[], vars: Record<string, string | undefined> = {}): TerminalRun {
-  const env: NodeJS.ProcessEnv = { ...process.env, TERM: "xterm-256color" };
+  // script runs the command with $SHELL -c: a POSIX shell, whatever the caller's login shell.
+  const env: NodeJS.ProcessEnv = { ...process.env, TERM: "xterm-256color", SHELL: "/bin/sh" };
   for (const name of ["COLUMNS", "LINES", "NO_COLOR", "FORCE_COLOR", "OUTFIT_DEBUG"]) delete env[name];
   for (const [name, value] of Object.entries(vars)) {
     if (value === undefined) delete env[name];
