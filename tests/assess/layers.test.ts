@@ -17,7 +17,7 @@ const SEARCH = join(ROOT, "search");
  * case/ because its errors are the loader's `CaseError`.
  */
 const FLOORS: readonly (readonly string[])[] = [
-  ["src/own", "src/units", "src/model", "src/fields", "src/format"],
+  ["src/own", "src/units", "src/model", "src/fields", "src/format", "src/terminalText"],
   ["src/hydrology"],
   ["src/storage"],
   ["src/parts"],
@@ -25,8 +25,8 @@ const FLOORS: readonly (readonly string[])[] = [
   ["src/routing"],
   ["src/assess"],
   ["src/case"],
-  ["src/io"],
   ["src/report"],
+  ["src/io"],
   ["src/commands"],
   ["search"],
   ["src/cli"],
