@@ -8,7 +8,6 @@ import type { Check } from "../src/assess/checks.js";
 import { formatter, quantityText } from "../src/format.js";
 import { ruleOf, whyNothingComplies } from "../src/assess/rules/registry.js";
 import { targetBand } from "../src/assess/rules/band.js";
-import { closestMaxStage, freeboardStorm } from "../src/assess/rules/rule.js";
 import { baseLength, type UnitSystem } from "../src/units.js";
 import { outletDischarge } from "../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
@@ -191,7 +190,6 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
   const routings = closest.map((c) => c.routing.storms);
   lines.push(...whyNothingComplies({ case: p.case, closest: routings, firstLevelBound: plan.viableFirst === 0 }, closest.map((c) => c.assessment.checks)));
   if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
-  const closestStage = closestMaxStage(routings, freeboardStorm(p.case));
-  lines.push(...shortfallLines(p.case, storageShortfall(p.case, Number.isFinite(closestStage) ? closestStage : null)));
+  lines.push(...shortfallLines(p.case, storageShortfall(p.case, routings[0] ?? null)));
   return lines;
 }

@@ -176,6 +176,8 @@ export function goalStage(p: SearchProblem, storm: Storm, goal: number): number 
   let stage = byGoal.get(key);
   if (stage === undefined) {
     stage = stageAtVolume(p.case.pond, hydrographDifference(storm.inflow, goal, "rising"));
+    // More than an underground system holds: the top is as high as its storage goes.
+    if (!Number.isFinite(stage)) stage = p.case.pond.top;
     byGoal.set(key, stage);
   }
   return stage;

@@ -1,16 +1,18 @@
-// Pond and outlet designed together: an outer loop over pond sizes (on the site's size step) around
-// the outlet search. The storage estimate seeds the size; the size grows until the search finds a
-// compliant outlet, then is trimmed one step at a time while a compliant outlet remains (the design
-// of the size above, routed again, or a new search), so the pond is the smallest compliant one found.
+// Pond and outlet designed together: the depth (and a first footprint) from the site's trade-off of
+// depths for the routed estimates (src/sizing/pondChoice.ts), then an outer loop over footprints at
+// that depth (on the site's size step) around the outlet search. The size grows until the search finds
+// a compliant outlet, then is trimmed one step at a time while a compliant outlet remains (the design
+// of the size above, routed again, or a new search), so the pond is the smallest compliant one found
+// at the chosen depth.
 import { parseCase, type LoadedCase } from "../src/case/load.js";
 import { CaseError } from "../src/case/errors.js";
-import { pondOfSize, sizePond, type SizedPond } from "../src/storage/sizing.js";
-import { governingVolume, stormVolumes } from "../src/storage/stormEstimates.js";
+import { pondOfSize, type PondLevels, type SizedPond } from "../src/storage/sizing.js";
 import { pondFile } from "../src/report/pondFile.js";
+import { choosePond, type PondChoice } from "../src/sizing/pondChoice.js";
+import { pondCost, pondCostWeights } from "../src/sizing/pondCost.js";
 import { buildProblem, type SearchProblem } from "./problem.js";
 import { runSearch, type RunOptions, type SearchRun } from "./run.js";
 import { finalizeCandidate, type Candidate } from "./candidate.js";
-import { pondCost, pondCostWeights } from "./pondCost.js";
 
 export interface SizeTrial {
   steps: number;
@@ -29,6 +31,8 @@ export interface SizeTrial {
 }
 
 export interface PondDesign {
+  /** The depths compared for the routed estimates (the trade-off), and the one chosen. */
+  choice: PondChoice;
   /** Every size tried, in the order tried. */
   trials: SizeTrial[];
   /** The smallest compliant size, or null. */
@@ -49,12 +53,18 @@ export async function designPondAndOutlet(loaded: LoadedCase, margin: number | u
     throw new CaseError([{ where: `${label}: site`, found: "nothing (the field is missing)", expected: "site limits to size the pond within (floor, maxDepth, ...), for --size-pond" }]);
   }
   const site = c.site;
-  const weights = pondCostWeights(c);
+  const weights = pondCostWeights(c.units, c.costs);
+  const choice = choosePond({ site, criteria: c.criteria, spillway: c.outlet?.spillway, tailwater: c.tailwater, storms: c.storms, costs: weights });
+  const depthOption = choice.chosen ?? choice.options.find((o) => o.blocked?.kind === "site limits" && o.blocked.largest) ?? null;
+  if (!depthOption?.levels) {
+    return { choice, trials: [], chosen: null, smaller: null, stoppedBecause: "no pond of any depth compared can be built within the site limits" };
+  }
+  const levels: PondLevels = depthOption.levels;
   const trials = new Map<number, SizeTrial>();
   const order: SizeTrial[] = [];
 
   const caseAt = (steps: number) => {
-    const sized = pondOfSize(site, c.criteria.freeboardDepth, steps);
+    const sized = pondOfSize(site, levels, steps);
     const json = JSON.parse(JSON.stringify(loaded.json)) as Record<string, unknown>;
     json.pond = pondFile(sized.pond, c.units);
     const at = parseCase(json, { file: c.file || undefined, label });
@@ -82,13 +92,14 @@ export async function designPondAndOutlet(loaded: LoadedCase, margin: number | u
     return search(steps);
   };
 
-  let steps = Math.max(1, c.sizing?.steps ?? seedSteps(loaded));
+  const seeded = depthOption.sized ?? (depthOption.blocked?.kind === "site limits" ? depthOption.blocked.largest : null);
+  let steps = Math.max(1, seeded?.steps ?? 1);
   let stoppedBecause = "";
   // Grow from the estimate until a compliant outlet exists (10 % or one step at a time).
   let current = await search(steps);
   while (!current.best) {
     const next = Math.max(steps + 1, Math.ceil(steps * 1.1));
-    if (pondOfSize(site, c.criteria.freeboardDepth, next).exceeds !== null) {
+    if (pondOfSize(site, levels, next).exceeds !== null) {
       stoppedBecause = `no compliant outlet up to the largest pond within the site limits (${steps} steps)`;
       break;
     }
@@ -99,7 +110,7 @@ export async function designPondAndOutlet(loaded: LoadedCase, margin: number | u
     steps = next;
     current = await search(steps);
   }
-  if (!current.best) return { trials: order, chosen: null, smaller: null, stoppedBecause };
+  if (!current.best) return { choice, trials: order, chosen: null, smaller: null, stoppedBecause };
   // Trim while a compliant outlet remains one step smaller.
   let smaller: SizeTrial | null = null;
   while (steps > 1 && order.length < MAX_TRIALS) {
@@ -112,14 +123,5 @@ export async function designPondAndOutlet(loaded: LoadedCase, margin: number | u
     current = below;
   }
   stoppedBecause = smaller ? "one step smaller no compliant outlet was found" : steps === 1 ? "the smallest size step is compliant" : `${MAX_TRIALS} sizes tried`;
-  return { trials: order, chosen: current, smaller, stoppedBecause };
-}
-
-/** A first size when the file gives a pond as well as a site: the hydrograph-difference estimates. */
-function seedSteps(loaded: LoadedCase): number {
-  const c = loaded.case;
-  const governing = governingVolume(c.storms.map((s) => stormVolumes(s, { group: null, rational: null })));
-  if (!governing || !c.site) return 1;
-  const s = sizePond(c.site, c.criteria.freeboardDepth, governing.volume);
-  return (s.pond ?? s.largest)?.steps ?? 1;
+  return { choice, trials: order, chosen: current, smaller, stoppedBecause };
 }

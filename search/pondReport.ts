@@ -2,7 +2,7 @@
 // smaller that failed; as text and JSON, and the case file of the proposal.
 import { formatter, trimNumber } from "../src/format.js";
 import { toCaseUnits } from "../src/units.js";
-import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount } from "../src/report/console.js";
+import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount, storageLines } from "../src/report/console.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { routeJson } from "../src/report/json.js";
 import { CAUTION } from "../src/report/caution.js";
@@ -12,7 +12,9 @@ import { storageShortfall } from "../src/assess/storageShortfall.js";
 import type { Case } from "../src/model.js";
 import type { SizedPond } from "../src/storage/sizing.js";
 import { candidateCase } from "./report.js";
-import { pondCost, pondCostWeights } from "./pondCost.js";
+import { pondCost, pondCostWeights } from "../src/sizing/pondCost.js";
+import { availableStorage } from "../src/sizing/stormEstimates.js";
+import { blockedWords, tradeOffTable } from "../src/report/pondSizing.js";
 import type { PondDesign, SizeTrial } from "./pondDesign.js";
 
 function sizeWords(c: Case, p: SizedPond): string {
@@ -31,13 +33,13 @@ function outcome(t: SizeTrial): string {
  * cell carries its unit. */
 function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
   const f = formatter(c.units);
-  const w = pondCostWeights(c);
+  const w = pondCostWeights(c.units, c.costs);
   const columns: Column[] = [
     { head: "Steps", align: "right" },
     { head: "Pond" },
-    { head: "Storage below\nfreeboard level", align: "right", unit: "", label: "storage below freeboard level" },
+    { head: "Storage below\nlimit level", align: "right", unit: "", label: "storage below limit level" },
     { head: "Footprint", align: "right", narrow: "detail" },
-    { head: "Excavation", align: "right", narrow: "detail" },
+    { head: "Earthwork", align: "right", narrow: "detail", label: "earthwork (cut + fill)" },
     { head: "Pond cost", align: "right", narrow: "detail" },
     { head: "Outlet", align: "right", narrow: "detail", rank: 0, label: "outlet cost" },
     { head: "Result" },
@@ -48,9 +50,9 @@ function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
       .map((t) => [
         String(t.steps),
         sizeWords(c, t.sized),
-        f.volume(t.sized.provided),
+        f.volume(availableStorage(t.problem.case)),
         `${Math.round(f.raw.area(t.sized.topArea)).toLocaleString("en-US")} ${f.labels.length}2`,
-        f.volume(t.sized.excavation),
+        f.volume(t.sized.cut + t.sized.fill),
         `${pondCost(t.sized, w).toFixed(1)} units`,
         t.best ? `${t.best.cost.toFixed(1)} units` : "-",
         outcome(t) + (t === d.chosen ? mark : ""),
@@ -62,9 +64,21 @@ function sizesTable(c: Case, d: PondDesign, layout: Layout): string {
 
 export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): string {
   const f = formatter(c.units);
-  const w = pondCostWeights(c);
+  const w = pondCostWeights(c.units, c.costs);
   const p = (text: string) => wrap(text, layout.width);
-  const lines = [p(`outfit design --size-pond: ${c.name} (${c.units} units)`), "", p("Pond sizes tried (from the storage estimate, grown until an outlet complies, then trimmed):"), sizesTable(c, d, layout), ""];
+  const depth = d.choice.chosen ?? d.choice.options.find((o) => o.blocked?.kind === "site limits") ?? null;
+  const lines = [
+    p(`outfit design --size-pond: ${c.name} (${c.units} units)`),
+    "",
+    p("Depths compared for the routed estimates (the pond at each depth the smallest holding every storm's routed estimate; cost proxy: excavation, fill and land):"),
+    tradeOffTable(c, d.choice, layout),
+    "",
+    p(depth ? `Depth: ${f.length(depth.depth)}${d.choice.chosen ? ", the cheapest" : ""}; the footprint is then found by routing catalogue outlets.` : "No depth compared can be built within the site limits."),
+    "",
+    p("Pond sizes tried at that depth (from the routed estimate, grown until an outlet complies, then trimmed):"),
+    sizesTable(c, d, layout),
+    "",
+  ];
   if (d.chosen) {
     const best = d.chosen.best!;
     lines.push(
@@ -74,6 +88,7 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
       p(`Outlet: ${best.description}`),
       "",
       stormTable(d.chosen.problem.case, best.routing, layout),
+      ...storageLines(d.chosen.problem.case, best.routing, layout),
       "",
       checksTable(d.chosen.problem.case, best.assessment.checks, layout),
       "",
@@ -86,8 +101,7 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
     const last = [...d.trials].sort((a, b) => b.steps - a.steps)[0];
     const closest = last?.run?.candidates[0];
     if (last) {
-      const stage = closest?.routing.storms.find((s) => s.storm.name === c.criteria.freeboardStorm)?.result.maxStage ?? null;
-      lines.push(...shortfallLines(last.problem.case, storageShortfall(last.problem.case, stage)).map(p));
+      lines.push(...shortfallLines(last.problem.case, storageShortfall(last.problem.case, closest?.routing.storms ?? null)).map(p));
     }
   }
   lines.push("", cautionText(layout));
@@ -96,13 +110,15 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
 
 export function pondDesignJson(c: Case, d: PondDesign) {
   const u = toCaseUnits(c.units);
-  const w = pondCostWeights(c);
+  const w = pondCostWeights(c.units, c.costs);
   const trial = (t: SizeTrial) => ({
     steps: t.steps,
     pond: pondFile(t.sized.pond, c.units),
-    provided: u.volume(t.sized.provided),
+    provided: u.volume(availableStorage(t.problem.case)),
     footprint: u.area(t.sized.topArea),
-    excavation: u.volume(t.sized.excavation),
+    excavation: u.volume(t.sized.cut),
+    fill: u.volume(t.sized.fill),
+    land: u.area(t.sized.land),
     pondCost: pondCost(t.sized, w),
     how: t.how,
     compliant: t.best !== null,
@@ -117,6 +133,14 @@ export function pondDesignJson(c: Case, d: PondDesign) {
     units: c.units,
     caution: CAUTION,
     stoppedBecause: d.stoppedBecause,
+    tradeOff: d.choice.options.map((o) => ({
+      depth: u.length(o.depth),
+      possible: o.blocked === null,
+      chosen: o === d.choice.chosen,
+      ...(o.levels ? { floor: u.length(o.levels.floor), top: u.length(o.levels.top) } : {}),
+      ...(o.blocked ? { why: blockedWords(c, o.blocked) } : {}),
+      ...(o.cost ? { cost: o.cost.total } : {}),
+    })),
     sizes: d.trials.map(trial),
     chosen: d.chosen ? { ...trial(d.chosen), routing: routeJson(d.chosen.problem.case, d.chosen.best!.routing, d.chosen.best!.assessment) } : null,
     smaller: d.smaller ? trial(d.smaller) : null,

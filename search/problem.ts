@@ -1,13 +1,14 @@
 // What the search works on: the case, the catalogue's part options, the fixed parts, the elevation
 // limits, the stage grid shared by every candidate and the target aims.
-import type { Case, Hydrograph, Outlet, Storm } from "../src/model.js";
+import type { Case, Outlet, Storm } from "../src/model.js";
 import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
 import { normalizeOutlet } from "../src/case/normalize.js";
 import { CaseError } from "../src/case/errors.js";
 import { Converter } from "../src/case/normalize.js";
 import { parseLength } from "../src/units.js";
 import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
-import { searchInflow } from "../src/routing/thinInflow.js";
+import { searchInflows } from "./durations.js";
+import type { SearchInflow } from "../src/routing/durations.js";
 import { costWeights } from "./cost.js";
 import type { CostWeights } from "../src/parts/cost.js";
 import { narrowed, targetBand } from "../src/assess/rules/band.js";
@@ -105,9 +106,10 @@ export interface SearchProblem {
   grid: StageGrid;
   /**
    * The inflow each storm is routed on in the search (a long fine record thinned, volume kept: see
-   * `src/routing/thinInflow.ts`); reported candidates are routed on the full inflow.
+   * `src/routing/thinInflow.ts`), or a few durations of a modified rational storm (`durations.ts`);
+   * reported candidates are routed on the full inflow and every duration.
    */
-  inflows: ReadonlyMap<Storm, Hydrograph>;
+  inflows: ReadonlyMap<Storm, SearchInflow>;
   costs: CostWeights;
   options: SearchOptions;
 }
@@ -188,7 +190,7 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     parts,
     maxLevels: Math.max(0, cat.maxStages - new Set(keptElevations.map((z) => Math.round(z * 1e6))).size),
     grid: stageGrid(c.pond, [], gridStepOnLattice),
-    inflows: new Map(c.storms.map((s) => [s, searchInflow(s.inflow)])),
+    inflows: searchInflows(c),
     costs: costWeights(c),
     options: { margin: options.margin ?? 0.02, referencePath: options.referencePath ?? false },
     existing: null,

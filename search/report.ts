@@ -8,6 +8,7 @@ import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
 import { checkValue, complianceWords, governingLimitLines, slackText } from "../src/report/console.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
+import { storageSummary } from "../src/report/storageNotes.js";
 import { CAUTION } from "../src/report/caution.js";
 import { formatter } from "../src/format.js";
 import { baselineVerdict, describeSaving, saving, type Baseline } from "./baseline.js";
@@ -169,6 +170,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     }
     for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
     for (const warning of c.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
+    for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
     for (const line of c.explanation) lines.push(w(`  ${line}`));
   });
   if (!run.success) {

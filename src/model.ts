@@ -32,16 +32,51 @@ export interface StoneBed {
 
 export type UndergroundUnits = { kind: "pipeGallery"; gallery: PipeGallery } | { kind: "chambers"; chambers: Chambers };
 
+/** A structure that reaches above an underground system's top (a manhole, inlet or riser): the plan area of
+ * water inside it (m2) and its rim (m), where the water reaches the surface. */
+export interface RisingStructure {
+  name: string;
+  area: number;
+  rim: number;
+}
+
+/** Surface ponding declared above an underground system: its own stage-area rows (m, m2; conic between
+ * rows, vertical walls above the last), and the highest ponding level permitted (m; null: none). */
+export interface SurfacePonding {
+  elevations: number[];
+  areas: number[];
+  limit: number | null;
+}
+
 export interface UndergroundSystem {
   units: UndergroundUnits;
   stone: StoneBed | null;
+  /** Structures above the system's top (none: nothing is counted there). */
+  structures: RisingStructure[];
+  /** Surface ponding above the system's top, reached through the structures; null when none is declared. */
+  ponding: SurfacePonding | null;
+}
+
+/**
+ * Exfiltration: water leaving the storage into the ground at a design infiltration rate (m/s) over the
+ * wetted bottom, and the wetted sides when `sides` is true. `drainHours` limits the time to drain after a
+ * storm's peak stage (the drain-time check).
+ */
+export interface Exfiltration {
+  rate: number;
+  sides: boolean;
+  drainHours: number;
+  label: string | null;
 }
 
 /** Site limits from which a pond is sized (SI). */
 export interface Site {
-  /** Pond floor elevation (m). */
-  floor: number;
-  /** Largest depth, floor to top of embankment (m). */
+  /**
+   * Pond floor elevation (m). With `existingGrade` the floor is chosen with the depth, and this (if
+   * given) is the lowest floor allowed; null then when not given.
+   */
+  floor: number | null;
+  /** Largest depth, floor to top of embankment (m): a limit, not the answer. */
   maxDepth: number;
   /** Prismoid: side slopes (H:V) and floor length-to-width ratio. */
   sideSlope: number;
@@ -55,17 +90,32 @@ export interface Site {
   shape: { depths: number[]; areas: number[] } | null;
   /** Size step: floor width (m) for a prismoid, scale factor for a shape. */
   step: number;
+  /** Existing ground elevation (m); null when not given. */
+  existingGrade: number | null;
+  /** Embankment above the existing grade: its highest allowed height (m; null: not limited), crest width and outside slope (H:V). */
+  embankment: { maxHeight: number | null; topWidth: number; outsideSlope: number };
+  /** Seasonal high groundwater (m) and the separation the floor keeps above it (m); null when not given. */
+  groundwater: { seasonalHigh: number; separation: number } | null;
+  /** Invert at the outfall (m): the floor drains by gravity through the barrel, so it stands at least `outfallFall` above it; null when not given. */
+  outfallInvert: number | null;
+  outfallFall: number;
+  /** Step of the depths compared (m). */
+  depthStep: number;
+  /** Exfiltration of the sized pond (an infiltration basin); absent when none. */
+  exfiltration?: Exfiltration;
 }
 
 /** How a pond was sized from the site when the file gives none. */
 export interface SiteSizingSummary {
-  /** m3 above the pool below the freeboard level. */
+  /** m3 above the pool below the limit level, for the governing storm. */
   required: number;
-  /** Storm and estimate method that govern. */
+  /** Storm and estimate that govern (the routed estimate's notional outlet). */
   storm: string;
   method: string;
   /** Size steps of the pond used. */
   steps: number;
+  /** Depth chosen (m). */
+  depth: number;
   /** False when no pond within the limits holds the estimate (the largest that fits is used). */
   withinLimits: boolean;
 }
@@ -83,6 +133,8 @@ export interface Pond {
   /** Normal water level; equals `bottom` for a dry pond. */
   pool: number;
   storage: Storage;
+  /** Exfiltration into the ground (an infiltration basin or underground system); absent when none. */
+  exfiltration?: Exfiltration;
 }
 
 export type Tailwater =
@@ -98,6 +150,20 @@ export interface Hydrograph {
   flows: Float64Array;
 }
 
+/**
+ * The storm durations routed for one design storm of the modified rational method: every storm from
+ * `shortest` (Tc) to `longest` is a candidate, and the one that raises the pond highest governs.
+ */
+export interface DurationRange {
+  /** Shortest and longest storm durations (s). */
+  shortest: number;
+  longest: number;
+  /** The critical duration of the modified rational storage formula (s), whose hydrograph is `Storm.inflow`. */
+  critical: number;
+  /** The inflow hydrograph of a storm of this duration (s). */
+  inflow(duration: number): Hydrograph;
+}
+
 export interface Storm {
   name: string;
   returnPeriod: number;
@@ -108,6 +174,8 @@ export interface Storm {
   /** The release limit that governs (the smallest); null when the storm has no target. */
   governingLimit: ReleaseLimit | null;
   inflow: Hydrograph;
+  /** A modified rational storm: the range of durations routed (the one that governs gives the storm's result). */
+  durations?: DurationRange;
   /** The outflow must stay under this hydrograph at every instant of its span (a release-limit form); null when not asked. */
   ceiling: { hydrograph: Hydrograph; statement: string; label: string | null } | null;
 }

@@ -9,9 +9,10 @@ import { FOOT, parseArea, parseDepth, parseIntensity } from "../units.js";
 import { distributionMassCurve, type DistributionType, type MassCurve } from "../hydrology/distributions.js";
 import { compositeCurveNumber, weightedMean, type AbstractionRatio } from "../hydrology/runoff.js";
 import { MAX_SHEET_LENGTH, tcFromLag, travelTime, watershedLag, type FlowSegment } from "../hydrology/timeOfConcentration.js";
-import { idfRange, type IdfCurve } from "../hydrology/idf.js";
+import { idfRange, intensity, type IdfCurve } from "../hydrology/idf.js";
 import { nrcsHydrograph, type NrcsOptions } from "../hydrology/nrcsHydrograph.js";
-import { criticalDuration, MIN_TC_RATIONAL, rationalAreaHydrograph, type CriticalDuration } from "../hydrology/rational.js";
+import { criticalDuration, MIN_TC_RATIONAL, modifiedRationalHydrograph, rationalAreaHydrograph, rationalPeak, type CriticalDuration } from "../hydrology/rational.js";
+import type { DurationRange } from "../model.js";
 import { STANDARD_PEAK_RATE_FACTOR } from "../hydrology/unitHydrograph.js";
 import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 
@@ -48,6 +49,8 @@ export interface StormHydrology {
   allowable: number | null;
   /** Rational method: the duration sweep of the post-development area (null without an allowable release). */
   sweep: CriticalDuration | null;
+  /** Rational method: the range of storm durations routed for the post-development area (null without a sweep). */
+  durations: DurationRange | null;
 }
 
 export interface CaseHydrology {
@@ -113,7 +116,7 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
 
 function nrcsStorm(rainfall: Exclude<StormRainfall, { kind: "idf" }>, catchments: Record<AreaName, Catchment | null>, options: NrcsOptions): StormHydrology {
   const area = (c: Catchment | null) => (c ? nrcsHydrograph(c.area, c.curveNumber!, c.tc, rainfall.curve, options) : null);
-  return { method: "nrcs", rainfall, pre: area(catchments.pre), post: area(catchments.post), allowable: null, sweep: null };
+  return { method: "nrcs", rainfall, pre: area(catchments.pre), post: area(catchments.post), allowable: null, sweep: null, durations: null };
 }
 
 function rationalStorm(rainfall: Extract<StormRainfall, { kind: "idf" }>, catchments: Record<AreaName, Catchment | null>, explicitTarget: number | null): StormHydrology {
@@ -124,13 +127,32 @@ function rationalStorm(rainfall: Extract<StormRainfall, { kind: "idf" }>, catchm
   const post = catchments.post;
   let postHydrograph: AreaHydrograph | null = null;
   let sweep: CriticalDuration | null = null;
+  let durations: DurationRange | null = null;
   if (post) {
     const tc = tcOf(post);
     // Without an allowable release the storm of duration Tc (the largest peak) is the inflow.
-    if (allowable !== null) sweep = criticalDuration(post.runoffCoefficient!, post.area, tc, rainfall.curve, allowable);
+    if (allowable !== null) {
+      sweep = criticalDuration(post.runoffCoefficient!, post.area, tc, rainfall.curve, allowable);
+      durations = durationRange(post, tc, rainfall.curve, sweep.critical.duration);
+    }
     postHydrograph = rationalAreaHydrograph(post.area, post.runoffCoefficient!, tc, rainfall.curve, sweep ? sweep.critical.duration : tc);
   }
-  return { method: "rational", rainfall, pre: preHydrograph, post: postHydrograph, allowable, sweep };
+  return { method: "rational", rainfall, pre: preHydrograph, post: postHydrograph, allowable, sweep, durations };
+}
+
+/**
+ * The storm durations routed: from Tc to well past the critical duration of the storage formula
+ * (three times it, at least an hour past it), within the IDF curve's range and 24 hours.
+ */
+function durationRange(post: Catchment, tc: number, curve: IdfCurve, critical: number): DurationRange {
+  const longest = Math.min(idfRange(curve)[1], 24 * 3600, Math.max(3 * critical, critical + 3600));
+  const c = post.runoffCoefficient!;
+  return {
+    shortest: tc,
+    longest: Math.max(tc, longest),
+    critical,
+    inflow: (td) => modifiedRationalHydrograph(rationalPeak(c, intensity(curve, td), post.area), tc, td),
+  };
 }
 
 function checkIdfRange(rainfall: Extract<StormRainfall, { kind: "idf" }>, c: Catchment, name: AreaName, cv: Converter): void {

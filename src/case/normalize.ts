@@ -3,6 +3,7 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import type { CaseFile, Length, OutletFile } from "./schema.js";
 import type { Case, Catalogue, Criteria, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
+import { normalizeExfiltration } from "./exfiltration.js";
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";
@@ -14,7 +15,8 @@ import { riserToSI } from "../parts/riser.js";
 import { barrelToSI } from "../parts/barrel.js";
 import { spillwayToSI } from "../parts/spillway.js";
 import { normalizeUnderground } from "./underground.js";
-import { normalizeSite, siteSizing, sitePond, sizingSummary, type SiteSizing } from "./site.js";
+import { normalizeSite, siteSizing, sitePond, sizingSummary } from "./site.js";
+import type { PondChoice } from "../sizing/pondChoice.js";
 
 export { Converter } from "./converter.js";
 
@@ -39,14 +41,16 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
   });
   const criteria = normalizeCriteria(file, cv);
   const site = file.site ? normalizeSite(file, cv) : undefined;
+  const tailwater = normalizeTailwater(file, cv);
+  const outlet = file.outlet ? normalizeOutlet(file.outlet, cv, "outlet") : undefined;
   let pond: Pond | null = file.pond ? normalizePond(file, cv) : null;
-  let sizing: SiteSizing | undefined;
+  let sizing: PondChoice | null = null;
   if (!file.pond && !site) cv.problem("pond", "nothing (the field is missing)", "a pond (bottom, top, storage), or a site section to size one from");
   else if (!pond && site && cv.problems.length === 0) {
-    // No pond given: the pond sized from the site limits for the largest storage estimate.
-    sizing = siteSizing(site, storms, hydrology.storms, criteria) ?? undefined;
+    // No pond given: the pond chosen from the site limits for the routed estimates.
+    sizing = siteSizing(file, site, storms, criteria, tailwater, outlet?.spillway);
     pond = sizing ? sitePond(sizing) : null;
-    if (!pond) cv.problem("site", sizing ? "limits that admit no pond of one size step" : "no storm with a target", sizing ? "site limits (maxTopLength, maxTopWidth, maxTopArea) that admit at least one size step" : "at least one storm with a target, to size the pond from");
+    if (!pond) cv.problem("site", sizing ? "limits that admit no pond at any depth" : "no storm with a target", sizing ? "site limits (depth, floor, grade, embankment, maxTopLength, maxTopWidth, maxTopArea) that admit at least one pond (outfit pond shows why each depth fails)" : "at least one storm with a target, to size the pond from");
   }
   if (cv.problems.length > 0) throw new CaseError(cv.problems);
   const result: Case = {
@@ -56,10 +60,10 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     pond: pond!,
     site,
     sizing: sizing ? sizingSummary(sizing) : undefined,
-    tailwater: normalizeTailwater(file, cv),
+    tailwater,
     storms,
     criteria,
-    outlet: file.outlet ? normalizeOutlet(file.outlet, cv, "outlet") : undefined,
+    outlet,
     catalogue: file.catalogue ? normalizeCatalogue(file, cv) : undefined,
     costs: file.costs ?? {},
   };
@@ -109,7 +113,9 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
       ? { kind: "stageArea", elevations, areas: values }
       : { kind: "stageStorage", elevations, volumes: values };
   }
-  return { bottom, top, pool, storage };
+  const pond: Pond = { bottom, top, pool, storage };
+  if (p.exfiltration) pond.exfiltration = normalizeExfiltration(p.exfiltration, pond, cv, "pond.exfiltration", pond.pool > bottom);
+  return pond;
 }
 
 function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
@@ -133,6 +139,8 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
     returnPeriod: storm.returnPeriod,
     ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
     inflow,
+    // A rational storm whose inflow is derived is routed over its range of durations.
+    ...(!storm.inflow && derived?.durations ? { durations: derived.durations } : {}),
     ceiling: stormCeiling(storm, path, cv, context, derived),
   };
 }

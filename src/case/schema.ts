@@ -9,6 +9,7 @@ import { riserSchema } from "../parts/riser.js";
 import { barrelSchema } from "../parts/barrel.js";
 import { spillwaySchema } from "../parts/spillway.js";
 import { COST_KEYS } from "../parts/cost.js";
+import { POND_COST_NAMES } from "../sizing/pondCost.js";
 
 // The outlet parts' file types are the parts' own (src/parts/); named here with the rest of the file's.
 export type { ElementFile } from "../parts/registry.js";
@@ -32,6 +33,25 @@ export const stoneSchema = z.object({
   top: lengthSchema.optional(),
 });
 
+/** A structure rising above an underground system's top: the plan area of water inside it and its rim. */
+export const risingStructureSchema = z.object({
+  name: z.string({ error: "a name for the structure (text), e.g. \"MH-1\"" }).min(1, { message: "a non-empty name" }),
+  area: positiveQuantity(pondAreaSchema, AREA_UNITS, "an area"),
+  rim: lengthSchema,
+});
+
+/** Surface ponding above an underground system: its own stage-area rows and the highest level permitted. */
+export const surfacePondingSchema = z.object({
+  stageArea: table("elevation", "area", finite, pondAreaSchema, { yNonNegative: true, yUnits: AREA_UNITS }),
+  limit: lengthSchema.optional(),
+});
+
+/** What an underground system holds above its top: nothing unless declared. */
+const aboveTop = {
+  structures: z.array(risingStructureSchema, { error: "a list of structures (name, area, rim)" }).optional(),
+  surfacePonding: surfacePondingSchema.optional(),
+};
+
 /** Parallel pipes: inside diameter, length and count; `invert` (low end) defaults to pond.bottom. */
 export const pipeGallerySchema = z.object({
   diameter: positiveLength,
@@ -40,6 +60,7 @@ export const pipeGallerySchema = z.object({
   slope: nonNegative.refine((v) => v < 1, { message: "a slope in ft/ft or m/m of 0 or more and less than 1" }).optional(),
   invert: lengthSchema.optional(),
   stone: stoneSchema.optional(),
+  ...aboveTop,
 });
 
 /** Identical chambers from one unit's [height above its base, plan area of water inside] rows. */
@@ -48,6 +69,7 @@ export const chambersSchema = z.object({
   stageArea: table("height", "area", finite, finite, { yNonNegative: true, yAnyOrder: true }),
   base: lengthSchema.optional(),
   stone: stoneSchema.optional(),
+  ...aboveTop,
 });
 
 export const storageSchema = z
@@ -62,12 +84,6 @@ export const storageSchema = z
   })
   .superRefine(exactlyOne(["prismoid", "stageArea", "stageStorage", "pipeGallery", "chambers"], "storage"));
 
-export const pondSchema = z.object({
-  bottom: lengthSchema,
-  top: lengthSchema,
-  permanentPool: lengthSchema.optional(),
-  storage: storageSchema,
-});
 
 export const tailwaterSchema = z
   .object({
@@ -206,6 +222,22 @@ export const rainfallSchema = z
 /** Free-text source of a rule (an ordinance clause, a design manual section), shown with its checks. */
 const sourceLabel = z.string({ error: "a free-text source label such as \"county ordinance 4.2\"" }).min(1, { message: "a non-empty source label" }).optional();
 
+/** Exfiltration into the ground at a design infiltration rate over the wetted bottom (and sides when asked). */
+export const exfiltrationSchema = z.object({
+  rate: positiveIntensity,
+  sides: z.boolean({ error: "true or false" }).optional(),
+  drainHours: positive.optional(),
+  source: sourceLabel,
+});
+
+export const pondSchema = z.object({
+  bottom: lengthSchema,
+  top: lengthSchema,
+  permanentPool: lengthSchema.optional(),
+  storage: storageSchema,
+  exfiltration: exfiltrationSchema.optional(),
+});
+
 const nonNegativeFlow = flowSchema.superRefine((value, ctx) => {
   const n = quantityNumber(value, FLOW_UNITS);
   if (!Number.isNaN(n) && !(n >= 0)) ctx.addIssue({ code: "custom", message: "a flow of zero or more", input: value });
@@ -336,8 +368,15 @@ export const catalogueSchema = z.object({
 
 /** Site limits from which outfit sizes a pond (the pond field may then be left out). */
 export const siteSchema = z.object({
-  floor: lengthSchema,
+  floor: lengthSchema.optional(),
   maxDepth: positiveLength,
+  existingGrade: lengthSchema.optional(),
+  embankment: z.object({ maxHeight: lengthSchema.optional(), topWidth: lengthSchema.optional(), outsideSlope: nonNegative.optional() }).optional(),
+  groundwater: z.object({ seasonalHigh: lengthSchema, separation: lengthSchema.optional() }).optional(),
+  outfallInvert: lengthSchema.optional(),
+  outfallFall: lengthSchema.optional(),
+  depthStep: positiveLength.optional(),
+  exfiltration: exfiltrationSchema.optional(),
   sideSlope: nonNegative.optional(),
   lengthToWidth: positive.optional(),
   maxTopLength: positiveLength.optional(),
@@ -354,7 +393,7 @@ export const siteSchema = z.object({
 
 /** The cost proxy's weights (parts/cost.ts holds their defaults and meaning); each optional. */
 export const costsSchema = z.object(
-  Object.fromEntries(COST_KEYS.map((name) => [name, nonNegative.optional()])) as Record<(typeof COST_KEYS)[number], z.ZodOptional<typeof nonNegative>>,
+  Object.fromEntries([...COST_KEYS, ...POND_COST_NAMES].map((name) => [name, nonNegative.optional()])) as Record<(typeof COST_KEYS)[number] | (typeof POND_COST_NAMES)[number], z.ZodOptional<typeof nonNegative>>,
   { error: "an object of cost weights (numbers)" },
 );
 
@@ -396,6 +435,7 @@ export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type StorageFile = z.infer<typeof storageSchema>;
 export type StoneFile = z.infer<typeof stoneSchema>;
+export type ExfiltrationFile = z.infer<typeof exfiltrationSchema>;
 export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;

@@ -1,10 +1,11 @@
 // The case file's underground storage forms (pipe gallery, chambers, stone bed) in SI, with the checks
 // that involve several fields: the units sit inside the bed, the bed inside the pond's range.
 import type { Length, StorageFile, StoneFile } from "./schema.js";
+import type { RisingStructure, SurfacePonding } from "../model.js";
 import type { Storage } from "../model.js";
 import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
-import { baseArea, baseLength } from "../units.js";
+import { baseArea, baseLength, parsePondArea } from "../units.js";
 import type { StoneBed, UndergroundUnits } from "../model.js";
 import { systemTop, unitsFootprint } from "../storage/underground.js";
 
@@ -14,6 +15,7 @@ export function normalizeUnderground(s: StorageFile, cv: Converter, bottom: numb
   const at = (path: string, value: Length | undefined, fallback: number) => cv.optionalLength(value, `pond.storage.${path}`, fallback);
   let units: UndergroundUnits;
   let stoneFile: StoneFile | undefined;
+  const form = (s.pipeGallery ?? s.chambers)!;
   let where: string;
   let lowest: number;
   if (s.pipeGallery) {
@@ -69,5 +71,33 @@ export function normalizeUnderground(s: StorageFile, cv: Converter, bottom: numb
       cv.problem(`pond.storage.${path}`, "a bed smaller in plan than the units it holds", "length x width at least the units' footprint (pipes: count x diameter x length)");
     }
   }
-  return { kind: "underground", units, stone };
+  const systemTopAt = systemTop({ units, stone });
+  const structures = (form.structures ?? []).map((x, i): RisingStructure => {
+    const path = `pond.storage.${where}.structures[${i}]`;
+    const rim = cv.length(x.rim, `${path}.rim`);
+    if (rim <= systemTopAt + SLACK) cv.problem(`${path}.rim`, show(x.rim), `a rim above the system's top (${show(systemTopAt / baseLength(cv.units))}): a structure counts only where it rises above the system`);
+    return { name: x.name, area: cv.quantity(parsePondArea, x.area, `${path}.area`), rim };
+  });
+  const names = new Set<string>();
+  structures.forEach((x, i) => {
+    if (names.has(x.name)) cv.problem(`pond.storage.${where}.structures[${i}].name`, show(x.name), "a name not used by another structure");
+    names.add(x.name);
+  });
+  let ponding: SurfacePonding | null = null;
+  const p = form.surfacePonding;
+  if (p) {
+    const path = `pond.storage.${where}.surfacePonding`;
+    const elevations = p.stageArea.map((r) => r[0] * baseLength(cv.units));
+    const areas = p.stageArea.map((r, i) => cv.quantity(parsePondArea, r[1], `${path}.stageArea[${i}][1]`));
+    ponding = { elevations, areas, limit: p.limit === undefined ? null : cv.length(p.limit, `${path}.limit`) };
+    const lowestRim = Math.min(...structures.map((x) => x.rim));
+    if (elevations[0] < systemTopAt - SLACK) cv.problem(`${path}.stageArea[0][0]`, show(p.stageArea[0][0]), `a first elevation at or above the system's top (${show(systemTopAt / baseLength(cv.units))})`);
+    if (structures.length === 0) cv.problem(path, "surface ponding without a structure", `at least one structure (pond.storage.${where}.structures: an inlet or manhole) through which the water reaches the surface`);
+    else if (elevations[0] > lowestRim + SLACK) cv.problem(`${path}.stageArea[0][0]`, show(p.stageArea[0][0]), `a first elevation at or below the lowest rim (${show(lowestRim / baseLength(cv.units))}), where the water reaches the surface`);
+    if (ponding.limit !== null && ponding.limit < elevations[0] - SLACK) cv.problem(`${path}.limit`, show(p.limit!), `an elevation at or above the ponding's first row (${show(p.stageArea[0][0])})`);
+    for (let i = 1; i < areas.length; i++) {
+      if (areas[i] < areas[i - 1] - 1e-12 * areas[i - 1]) cv.problem(`${path}.stageArea[${i}][1]`, show(p.stageArea[i][1]), `area not decreasing (row before has ${show(p.stageArea[i - 1][1])})`);
+    }
+  }
+  return { kind: "underground", units, stone, structures, ponding };
 }

@@ -5,7 +5,7 @@ import { RULE_KINDS } from "../assess/rules/registry.js";
 import { basename } from "node:path";
 import { printErr, printOut, writeFileAtomic } from "../io.js";
 import { forTerminal } from "../terminalText.js";
-import { parseLength, type UnitSystem } from "../units.js";
+import { baseLength, parseLength, type UnitSystem } from "../units.js";
 
 /** A bad command-line value: reported like a case error (exit 2). */
 export class UsageError extends Error {
@@ -26,7 +26,8 @@ export function load(path: string, quiet = false): LoadedCase {
   if (quiet) return loaded;
   for (const notice of loaded.notices) printErr(`outfit: note: ${notice}\n`);
   if (loaded.case.sizing) {
-    printErr(`outfit: note: no pond given: using the pond sized from the site limits for the ${loaded.case.sizing.storm} storm's largest storage estimate (outfit pond shows it; design --size-pond sizes pond and outlet together)\n`);
+    const s = loaded.case.sizing;
+    printErr(`outfit: note: no pond given: using the pond chosen from the site limits, ${(s.depth / baseLength(loaded.case.units)).toFixed(2)} ${loaded.case.units === "US" ? "ft" : "m"} deep, for the ${s.storm} storm's routed estimate${s.withinLimits ? "" : " (the largest the site allows: it holds less)"} (outfit pond shows the depths compared; design --size-pond sizes pond and outlet together)\n`);
   }
   return loaded;
 }

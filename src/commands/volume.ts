@@ -7,7 +7,7 @@ import type { Case } from "../model.js";
 import { caseHydrology } from "../case/hydrology.js";
 import { DISTRIBUTION_TYPES, type DistributionType } from "../hydrology/distributions.js";
 import { tr55Group, type Tr55Group } from "../storage/estimate.js";
-import { estimateStorm, type StormEstimate } from "../storage/stormEstimates.js";
+import { caseEstimates, type StormEstimateInputs } from "../sizing/stormEstimates.js";
 import { volumeJson, volumeText } from "../report/volume.js";
 import { layoutFor } from "../report/terminal.js";
 import { emit, load, UsageError } from "./common.js";
@@ -27,27 +27,26 @@ export function typeOption(text: string | undefined): Tr55Group | null {
   return tr55Group(text as DistributionType);
 }
 
-/** Every storm's estimates; a storm's own rainfall distribution wins over `--type`. */
-export function caseEstimates(path: string, c: Case, type: Tr55Group | null): StormEstimate[] {
+/** What each storm's published estimates need: its TR-55 group (a storm's own rainfall distribution wins over `--type`) and a rational storm's duration sweep. */
+export function estimateInputs(path: string, c: Case, type: Tr55Group | null): StormEstimateInputs[] {
   // The case is valid now; read its file once more for the hydrology behind each storm.
   const file: CaseFile = caseSchema.parse(JSON.parse(readFileSync(path, "utf8")));
   const hydrology = caseHydrology(file, new Converter(file.units, basename(path)));
-  return c.storms.map((storm, i) => {
+  return c.storms.map((_, i) => {
     const h = hydrology.storms[i];
-    const group = h?.rainfall.kind === "distribution" ? tr55Group(h.rainfall.distribution) : type;
-    return estimateStorm(c, storm, { group, rational: h?.method === "rational" ? h.sweep : null });
+    return { group: h?.rainfall.kind === "distribution" ? tr55Group(h.rainfall.distribution) : type, rational: h?.method === "rational" ? h.sweep : null };
   });
 }
 
 /** Where a pond sized from the site comes from. */
 function sizedPondNote(c: Case): string {
-  return `none given; sized from the site limits for the ${c.sizing!.storm} storm's largest estimate (see outfit pond), bottom ${(c.pond.bottom / baseLength(c.units)).toFixed(2)}, top ${(c.pond.top / baseLength(c.units)).toFixed(2)} ${c.units === "US" ? "ft" : "m"}`;
+  return `none given; chosen from the site limits for the ${c.sizing!.storm} storm's routed estimate (see outfit pond), bottom ${(c.pond.bottom / baseLength(c.units)).toFixed(2)}, top ${(c.pond.top / baseLength(c.units)).toFixed(2)} ${c.units === "US" ? "ft" : "m"}`;
 }
 
 export function volumeCommand(path: string, options: VolumeCommandOptions): number {
   const type = typeOption(options.type);
   const { case: c } = load(path);
-  const estimates = caseEstimates(path, c, type);
+  const estimates = caseEstimates(c, estimateInputs(path, c, type));
   const layout = layoutFor({ wide: options.wide, toFile: options.out !== undefined });
   emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null, layout), options.out);
   return 0;

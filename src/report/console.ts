@@ -10,6 +10,7 @@ import { withinBand } from "./json.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { limitingPart } from "./limiting.js";
+import { storageTable } from "./storageNotes.js";
 import { paint, PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 export function hours(h: number | null): string {
@@ -57,6 +58,12 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
   const table = renderTable(layout, columns, rows);
   const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
   return [table.text + marks, ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
+}
+
+/** The storage table (exfiltration, surcharge, governing durations) with the line before it, or nothing. */
+export function storageLines(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string[] {
+  const table = storageTable(c, routing, layout);
+  return table === null ? [] : ["", table];
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {
@@ -162,6 +169,7 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     wrap(`Pond: bottom ${f.elevation(c.pond.bottom)}, top ${f.elevation(c.pond.top)}${c.pond.pool > c.pond.bottom ? `, permanent pool ${f.elevation(c.pond.pool)}` : ""}`, layout.width),
     "",
     stormTable(c, routing, layout),
+    ...storageLines(c, routing, layout),
     "",
     checksTable(c, assessment.checks, layout),
     "",

@@ -9,6 +9,7 @@ import { ruleOf } from "../assess/rules/registry.js";
 import { CAUTION } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
 import { outletDetail } from "../hydraulics/outlet.js";
+import { storageJsonFields } from "./storageNotes.js";
 
 export interface StormJson {
   name: string;
@@ -31,6 +32,8 @@ export interface StormJson {
   drawdownHours: number | null;
   timeOfMaxStage: number;
   steps: number;
+  /** Where they apply (report/storageNotes.ts): governingDuration, durationsRouted, volumeExfiltrated, peakExfiltration, aboveSystemTop, surchargeWhere. */
+  [storage: string]: unknown;
 }
 
 /** Whether a peak lies inside its target band (band edges count as inside). */
@@ -61,6 +64,7 @@ export function stormJson(c: Case, s: StormRouting): StormJson {
     drawdownHours: r.drawdownTime === null ? null : r.drawdownTime / 3600,
     timeOfMaxStage: r.timeOfMaxStage / 60,
     steps: r.steps,
+    ...storageJsonFields(c, s),
   };
 }
 

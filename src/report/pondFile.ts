@@ -1,6 +1,6 @@
 // A pond in the case file's own form and units (so that a sized pond can be written into a case).
 import type { Pond } from "../model.js";
-import { toCaseUnits, type UnitSystem } from "../units.js";
+import { hydrologyUnits, toCaseUnits, type UnitSystem } from "../units.js";
 
 const tidy = (x: number) => Number(x.toFixed(6));
 
@@ -26,5 +26,15 @@ export function pondFile(pond: Pond, units: UnitSystem): Record<string, unknown>
     top: tidy(u.length(pond.top)),
     ...(pond.pool > pond.bottom ? { permanentPool: tidy(u.length(pond.pool)) } : {}),
     storage,
+    ...(pond.exfiltration
+      ? {
+          exfiltration: {
+            rate: tidy(hydrologyUnits(units).intensity(pond.exfiltration.rate)),
+            sides: pond.exfiltration.sides,
+            drainHours: pond.exfiltration.drainHours,
+            ...(pond.exfiltration.label !== null ? { source: pond.exfiltration.label } : {}),
+          },
+        }
+      : {}),
   };
 }

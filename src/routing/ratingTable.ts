@@ -2,6 +2,7 @@
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
+import { exfiltrationRate } from "../storage/exfiltration.js";
 import { RatingSweep } from "../hydraulics/outletRating.js";
 import { bottomOf, partOf } from "../parts/registry.js";
 
@@ -10,8 +11,10 @@ export interface RatingTable {
   stage: Float64Array;
   /** Storage above pond.bottom (m3) at each stage. */
   storage: Float64Array;
-  /** Total outflow (m3/s) at each stage, non-decreasing. */
+  /** Total outflow through the outlet (m3/s) at each stage, non-decreasing. */
   outflow: Float64Array;
+  /** Exfiltration into the ground (m3/s) at each stage, when the pond has it (a property of the storage, rated whole). */
+  exfiltration?: Float64Array;
   /** Nodes where the computed outflow fell below the one beneath it and was held level. */
   heldNodes: number;
   /**
@@ -27,6 +30,8 @@ export interface RatingTable {
 export interface StageGrid {
   stage: Float64Array;
   storage: Float64Array;
+  /** Exfiltration (m3/s) at each stage, when the pond has it. */
+  exfiltration?: Float64Array;
 }
 
 /** Default number of grid intervals between pond.bottom and pond.top. */
@@ -63,6 +68,9 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
   const inside = (z: number) => z > pond.bottom + tolerance && z < points[n] - tolerance;
   for (const b of breaks) if (inside(b)) points.push(b);
   for (const z of storageBreaks(pond)) if (inside(z)) points.push(z);
+  // The wetted bottom starts to exfiltrate just above the floor: a node there keeps the step of the
+  // rate inside the first millimetre.
+  if (pond.exfiltration) points.push(pond.bottom + h * GRADING_SMALLEST);
   const gradedSpan = (h * GRADING_RATIO) / (GRADING_RATIO - 1);
   for (const b of onsets) {
     if (!(b > pond.bottom - tolerance && b < points[n])) continue;
@@ -74,7 +82,8 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
   const curve = storageCurve(pond);
   const stage = Float64Array.from(unique);
   const storage = stage.map((z) => curve.volume(z));
-  return { stage, storage };
+  if (!pond.exfiltration) return { stage, storage };
+  return { stage, storage, exfiltration: stage.map((z) => exfiltrationRate(pond, z)) };
 }
 
 /** Elevations where an outlet's rating has a kink: inverts, opening tops, crests, rim, pool, top. */
@@ -113,7 +122,7 @@ export interface RatingOptions {
 export function buildRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, options: RatingOptions = {}): RatingTable {
   const lazy = lazyRatingTable(pond, outlet, tail, options);
   lazy.extend!(lazy.stage.length);
-  return { stage: lazy.stage, storage: lazy.storage, outflow: lazy.outflow, heldNodes: lazy.heldNodes };
+  return { stage: lazy.stage, storage: lazy.storage, outflow: lazy.outflow, exfiltration: lazy.exfiltration, heldNodes: lazy.heldNodes };
 }
 
 /** Stages a lazy table rates beyond the count asked for (one call per few intervals the router climbs). */
@@ -132,7 +141,7 @@ export function lazyRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, opt
   const n = grid.stage.length;
   const outflow = new Float64Array(n);
   const sweep = new RatingSweep(outlet, tail, grid.stage, outflow, options.direct === true);
-  const table: RatingTable = { stage: grid.stage, storage: grid.storage, outflow, heldNodes: 0, rated: 0 };
+  const table: RatingTable = { stage: grid.stage, storage: grid.storage, outflow, exfiltration: grid.exfiltration, heldNodes: 0, rated: 0 };
   table.extend = (count: number) => {
     const done = table.rated as number;
     if (count <= done) return done;

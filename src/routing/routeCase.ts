@@ -1,7 +1,8 @@
 // Routes every storm of a case through one outlet: the path shared by `route`, `design` and `report`.
 import type { Case, Outlet, Storm } from "../model.js";
 import { buildRatingTable, type RatingTable, type StageGrid } from "./ratingTable.js";
-import { route, type RouteResult } from "./router.js";
+import type { RouteResult } from "./router.js";
+import { routeStorm } from "./durations.js";
 
 export interface StormRouting {
   storm: Storm;
@@ -39,7 +40,7 @@ export function routeTable(c: Case, outlet: Outlet, table: RatingTable, options:
   const drained = drainedStage(c);
   const storms = c.storms.map((storm) => ({
     storm,
-    result: route(table, storm.inflow, {
+    result: routeStorm(table, storm, {
       step: options.step,
       drainedStage: drained,
       startStage: c.pond.pool,

@@ -2,7 +2,9 @@
 //   (I1 + I2) + (2 S1/dt - O1) = (2 S2/dt + O2),
 // with linear interpolation in the (2S/dt + O, O) relation built from the rating table. The step may
 // vary from step to step (the table's 2S/dt + O is formed on the fly), so the router refines it where
-// the inflow or the outflow changes fast, and lands on every inflow point.
+// the inflow or the outflow changes fast, and lands on every inflow point. With exfiltration (a column
+// of the table) O is the outlet's outflow plus the exfiltration at the same stage; the outlet's outflow
+// and the exfiltration are kept apart in the result (peakOutflow is the outlet's).
 import type { Hydrograph } from "../model.js";
 import type { RatingTable } from "./ratingTable.js";
 import { interpolateAtStage } from "./ratingTable.js";
@@ -37,12 +39,16 @@ export interface RouteOptions {
 export interface RouteSeries {
   time: number[];
   inflow: number[];
+  /** Outflow through the outlet. */
   outflow: number[];
   stage: number[];
+  /** Exfiltration, when the pond has it. */
+  exfiltration?: number[];
 }
 
 export interface RouteResult {
   peakInflow: number;
+  /** Peak outflow through the outlet (spillway included; exfiltration not). */
   peakOutflow: number;
   /** Seconds. */
   timeOfPeakOutflow: number;
@@ -52,8 +58,14 @@ export interface RouteResult {
   /** Above pond.bottom (m3). */
   maxStorage: number;
   volumeIn: number;
+  /** Volume through the outlet (m3). */
   volumeOut: number;
+  /** Volume exfiltrated into the ground (m3; 0 without exfiltration). */
+  volumeExfiltrated: number;
+  /** Largest exfiltration rate (m3/s; 0 without). */
+  peakExfiltration: number;
   storageChange: number;
+  /** (volumeIn - volumeOut - volumeExfiltrated - storageChange) / volumeIn. */
   massBalanceError: number;
   /** Seconds from the peak stage until drained; null when not drained in the simulated time. */
   drawdownTime: number | null;
@@ -73,6 +85,9 @@ export interface RouteResult {
   series?: RouteSeries;
   /** With `options.ceiling`: the least of ceiling - outflow (m3/s) over its span, where and what. */
   ceiling?: CeilingApproach;
+  /** A storm of several durations (modified rational): the duration that governs (s), and how many were routed. */
+  governingDuration?: number;
+  durationsRouted?: number;
 }
 
 export interface CeilingApproach {
@@ -96,15 +111,22 @@ const REDO_FACTOR = 1.5;
 // that each step compares against a stored value and multiplies instead of dividing.
 let indication = new Float64Array(0);
 let inverseWidth = new Float64Array(0);
+/** The exfiltration column of a table without exfiltration: zeros, grown as tables grow (never per step). */
+let noExfiltration = new Float64Array(0);
 
-function fillIndication(S: Float64Array, O: Float64Array, step: number): void {
+function zeros(n: number): Float64Array {
+  if (noExfiltration.length < n) noExfiltration = new Float64Array(n);
+  return noExfiltration;
+}
+
+function fillIndication(S: Float64Array, O: Float64Array, X: Float64Array, step: number): void {
   const n = S.length;
   if (indication.length < n) {
     indication = new Float64Array(n);
     inverseWidth = new Float64Array(n);
   }
   const twoOverDt = 2 / step;
-  for (let i = 0; i < n; i++) indication[i] = twoOverDt * S[i] + O[i];
+  for (let i = 0; i < n; i++) indication[i] = twoOverDt * S[i] + O[i] + X[i];
   for (let i = 0; i + 1 < n; i++) {
     const width = indication[i + 1] - indication[i];
     inverseWidth[i] = width > 0 ? 1 / width : 0;
@@ -124,6 +146,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const S = table.storage;
   const O = table.outflow;
   const Z = table.stage;
+  const X = table.exfiltration ?? zeros(Z.length);
   const last = Z.length - 1;
   const times = inflow.times;
   const flows = inflow.flows;
@@ -153,15 +176,20 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   if (k + 2 > rated) rated = extend!(k + 2);
   let u = (options.startStage - Z[k]) / (Z[k + 1] - Z[k]);
   let S1 = S[k] + u * (S[k + 1] - S[k]);
-  let O1 = O[k] + u * (O[k + 1] - O[k]);
+  // O1: everything leaving the pond (outlet and exfiltration); Q1 the outlet's share, E1 the ground's.
+  let Q1 = O[k] + u * (O[k + 1] - O[k]);
+  let E1 = X[k] + u * (X[k + 1] - X[k]);
+  let O1 = Q1 + E1;
   let H1 = options.startStage;
   const S0 = S1;
   let t = tFirst;
   let j = 0; // inflow segment: times[j] <= t < times[j+1]
   let I1 = flows[0];
 
-  let peakOutflow = O1;
+  let peakOutflow = Q1;
   let timeOfPeakOutflow = t;
+  let peakExfiltration = E1;
+  let volumeExfiltrated = 0;
   let maxStage = H1;
   let timeOfMaxStage = t;
   let maxStorage = S1;
@@ -175,7 +203,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   let beyond = false;
   let drainedAt = H1 <= drained ? t : NaN;
 
-  if (fixed !== undefined) fillIndication(S, O, fixed);
+  if (fixed !== undefined) fillIndication(S, O, X, fixed);
   const F = indication;
   const G = inverseWidth;
   const fixedTwoOverDt = fixed !== undefined ? 2 / fixed : 0;
@@ -202,10 +230,11 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       cTime = tt;
     }
   };
-  compareCeiling(t, O1);
+  compareCeiling(t, Q1);
 
   const record = options.record === true;
-  const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [O1], stage: [H1] } : undefined;
+  const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [Q1], stage: [H1] } : undefined;
+  if (series && table.exfiltration) series.exfiltration = [E1];
 
   while (true) {
     let dt: number;
@@ -235,7 +264,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         const slope = Math.abs(flows[j + 1] - flows[j]) / (times[j + 1] - times[j]);
         if (slope > 0 && inflowChange / slope < dt) dt = inflowChange / slope;
         const byInflow = dt;
-        const dO = O[k + 1] - O[k];
+        const dO = O[k + 1] + X[k + 1] - O[k] - X[k];
         if (dO > 0) {
           const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
           if (tau < dt) dt = tau;
@@ -245,7 +274,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         if (t + dt > next) dt = next - t;
         else if (t + 1.5 * dt > next) dt = 0.5 * (next - t);
       } else {
-        const dO = O[k + 1] - O[k];
+        const dO = O[k + 1] + X[k + 1] - O[k] - X[k];
         if (dO > 0) {
           const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
           if (tau < dt) {
@@ -268,13 +297,13 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         N = I1 + I2 + twoOverDt * S1 - O1;
         if (N < 0) N = 0;
         // Walk the cursor to the table interval holding N.
-        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] < N) {
+        while (k < last - 1 && twoOverDt * S[k + 1] + O[k + 1] + X[k + 1] < N) {
           k++;
           if (k + 2 > rated) rated = extend!(k + 2);
         }
-        while (k > 0 && twoOverDt * S[k] + O[k] > N) k--;
+        while (k > 0 && twoOverDt * S[k] + O[k] + X[k] > N) k--;
         if (dt <= minStep) break;
-        const dO = O[k + 1] - O[k];
+        const dO = O[k + 1] + X[k + 1] - O[k] - X[k];
         if (!(dO > 0)) break;
         const tau = (tauFraction * (S[k + 1] - S[k])) / dO;
         if (dt <= REDO_FACTOR * tau) break;
@@ -282,23 +311,27 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
         redone++;
       }
       if (I1 + I2 + twoOverDt * S1 - O1 < 0) clamped++;
-      const f0 = twoOverDt * S[k] + O[k];
-      const f1 = twoOverDt * S[k + 1] + O[k + 1];
+      const f0 = twoOverDt * S[k] + O[k] + X[k];
+      const f1 = twoOverDt * S[k + 1] + O[k + 1] + X[k + 1];
       u = f1 > f0 ? (N - f0) / (f1 - f0) : 0;
     }
     if (u > 1) beyond = true;
     else if (u < 0) u = 0;
     const S2 = S[k] + u * (S[k + 1] - S[k]);
-    const O2 = O[k] + u * (O[k + 1] - O[k]);
+    const Q2 = O[k] + u * (O[k + 1] - O[k]);
+    const E2 = X[k] + u * (X[k + 1] - X[k]);
+    const O2 = Q2 + E2;
     const H2 = Z[k] + u * (Z[k + 1] - Z[k]);
 
     // 5. Bookkeeping.
-    volumeOut += 0.5 * (O1 + O2) * dt;
+    volumeOut += 0.5 * (Q1 + Q2) * dt;
+    volumeExfiltrated += 0.5 * (E1 + E2) * dt;
+    if (E2 > peakExfiltration) peakExfiltration = E2;
     steps++;
     if (dt < smallest) smallest = dt;
     if (dt > largest) largest = dt;
-    if (O2 > peakOutflow) {
-      peakOutflow = O2;
+    if (Q2 > peakOutflow) {
+      peakOutflow = Q2;
       timeOfPeakOutflow = t2;
     }
     if (H2 > maxStage) {
@@ -309,18 +342,21 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     }
     if (H2 <= drained && !(H1 <= drained)) drainedAt = t2 - (dt * (drained - H2)) / (H1 - H2);
     else if (H2 > drained) drainedAt = NaN;
-    if (ceiling) compareCeiling(t2, O2);
+    if (ceiling) compareCeiling(t2, Q2);
     if (record) {
       series!.time.push(t2);
       series!.inflow.push(I2);
-      series!.outflow.push(O2);
+      series!.outflow.push(Q2);
       series!.stage.push(H2);
+      series!.exfiltration?.push(E2);
     }
     t = t2;
     // After the last inflow point the inflow is zero: a hydrograph that ends above zero drops there.
     I1 = t >= tLast ? 0 : I2;
     S1 = S2;
     O1 = O2;
+    Q1 = Q2;
+    E1 = E2;
     H1 = H2;
     if (t >= tLast) {
       if (H2 <= drained || t >= tEnd) break;
@@ -348,8 +384,10 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     maxStorage,
     volumeIn: exactIn,
     volumeOut,
+    volumeExfiltrated,
+    peakExfiltration,
     storageChange,
-    massBalanceError: reference > 0 ? (reference - volumeOut - storageChange) / reference : 0,
+    massBalanceError: reference > 0 ? (reference - volumeOut - volumeExfiltrated - storageChange) / reference : 0,
     drawdownTime,
     duration: t - tFirst,
     steps,

@@ -23,6 +23,7 @@ const FLOORS: readonly (readonly string[])[] = [
   ["src/parts"],
   ["src/hydraulics"],
   ["src/routing"],
+  ["src/sizing"],
   ["src/assess"],
   ["src/case"],
   ["src/report"],

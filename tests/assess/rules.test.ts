@@ -127,7 +127,7 @@ describe("registry", () => {
   it("lists one rule per kind, each with its words", () => {
     const kinds = RULES.map((r) => r.kind);
     expect(new Set(kinds).size).toBe(kinds.length);
-    expect(kinds.sort()).toEqual(["below-pre-hydrograph", "blocked-outlet", "drawdown", "extended-detention", "freeboard", "minimum-opening", "minimum-opening-release", "overtopping", "peak-lower", "peak-upper", "spillway-dry"]);
+    expect(kinds.sort()).toEqual(["below-pre-hydrograph", "blocked-outlet", "drawdown", "exfiltration-drain", "extended-detention", "freeboard", "minimum-opening", "minimum-opening-release", "overtopping", "peak-lower", "peak-upper", "spillway-dry", "surcharge"]);
     const c = testCase([two], { drawdownHours: 24 });
     for (const check of evaluateChecks(c, NO_SPILLWAY, [routed(two, 1, 101)])) {
       const rule = ruleOf(check);

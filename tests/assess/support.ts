@@ -13,7 +13,7 @@ export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = 
     name: "rule test pond",
     units: "SI",
     file: "",
-    pond: { bottom: 100, top: 106, pool: 100 } as Case["pond"],
+    pond: { bottom: 100, top: 106, pool: 100, storage: { kind: "prismoid", length: 60, width: 30, sideSlope: 3 } },
     tailwater: { kind: "free" } as Case["tailwater"],
     storms,
     criteria: { over: 0, under: 0.1, freeboardDepth: 0.3, freeboardStorm: storms[storms.length - 1].name, drawdownHours: null, drawdownDepth: 0.03, spillwayDryThrough: 100, blockedOutlet: null, clogging: null, extendedDetention: [], minimumOpening: null, labels: { freeboard: null, drawdown: null, spillway: null, overtopping: null }, ...criteria },

@@ -73,20 +73,20 @@ describe("the compact rows keep the values below them", () => {
     const whole = at(null, "volume", "cases/demo/case.json").stdout;
     const narrow = at(80, "volume", "cases/demo/case.json").stdout;
     for (const storm of ["2-yr", "10-yr", "100-yr"]) {
-      const [, target, peakIn, method, volume, , , note] = cells(rowWithDetails(whole, new RegExp(`^${storm} `)).row);
+      const [, target, peakIn, method, volume, stage, , note] = cells(rowWithDetails(whole, new RegExp(`^${storm} `)).row);
       expect(target).toMatch(/^[\d.]+ cfs$/);
       const { row, details } = rowWithDetails(narrow, new RegExp(`^${storm} `));
-      expect(cells(row).slice(0, 3)).toEqual([storm, method, volume]);
-      expect(details).toBe(`target: ${target}; peak in: ${peakIn}; note: ${note}`);
+      expect(cells(row)).toEqual([storm, target, method, volume, stage]);
+      expect(details).toBe(`peak in: ${peakIn}; note: ${note}`);
     }
-    expect(narrow).toContain("target: 6.500 cfs; peak in: 22.00 cfs");
+    expect(narrow).toContain("peak in: 22.00 cfs; note: storm type unknown");
   });
 
-  it("volume at 60: the fit below the freeboard level moves below the row too", () => {
+  it("volume at 60: the fit below the limit level moves below the row too", () => {
     const narrow = at(60, "volume", "cases/demo/case.json").stdout;
     const { row, details } = rowWithDetails(narrow, /^ +rising release /);
-    expect(cells(row)).toEqual(["rising release", expect.stringMatching(/^[\d,]+ ft3$/), expect.stringMatching(/^\d+\.\d\d ft$/)]);
-    expect(details).toBe("below freeboard level: yes");
+    expect(cells(row)).toEqual(["rising release (lower bound)", expect.stringMatching(/^[\d,]+ ft3$/)]);
+    expect(details).toMatch(/^stage reached: \d+\.\d\d ft; below limit level: yes$/);
   });
 
   it("hydrograph at 80: the rainfall, Tc and step of each hydrograph are below its row, as in the whole table", () => {
@@ -136,8 +136,8 @@ describe("piped output, --out files, --wide and --json", () => {
   // also dropped the spaces that ended some lines).
   const lines = (text: string) => text.split("\n").map((line) => line.trimEnd());
   const WHOLE: [string, string[], string][] = [
-    ["volume", ["volume", "cases/demo/case.json"], "Storm      Target    Peak in  Method                 Volume  Stage reached  Below freeboard level  Note"],
-    ["pond", ["pond", "cases/site-only/case.json"], "Pond                                    prismoid, floor 32.0 ft x 16.0 ft, side slopes 3 H : 1 V; floor 20.00 ft, top of embankment 24.00 ft"],
+    ["volume", ["volume", "cases/demo/case.json"], "Storm      Target    Peak in  Method                               Volume  Stage reached  Below limit level  Note"],
+    ["pond", ["pond", "cases/site-only/case.json"], "Pond                                    prismoid, floor 58.0 ft x 29.0 ft, side slopes 3 H : 1 V; floor 20.00 ft, top of embankment 23.70 ft"],
     ["hydrograph", ["hydrograph", "cases/demo-rainfall/case.json"], "Storm   Rainfall               Area   Runoff       Peak  Time to peak       Volume   Tc used     Step  Used as"],
   ];
 

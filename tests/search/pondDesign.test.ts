@@ -24,10 +24,13 @@ describe("design --size-pond on cases/site-only (no pond given)", () => {
     const routed = JSON.parse(run.stdout);
     expect(routed.compliant).toBe(true);
     for (const storm of routed.storms) expect(storm.withinTolerance, storm.name).toBe(true);
-    // The written pond is the chosen one (floor twice as long as wide on 1 ft steps, the site's depth).
+    // The written pond is the chosen one (floor twice as long as wide on 1 ft steps, at the depth the
+    // trade-off chose: 3.70 ft, the spillway crest 23.20 ft plus the 0.5 ft freeboard, no deeper, since
+    // the crest limits the storage and a deeper pond only digs more).
     const written = JSON.parse(readFileSync(join(dir, "pond-and-outlet.json"), "utf8"));
     expect(written.pond).toEqual(results.chosen.pond);
-    expect(written.pond.top - written.pond.bottom).toBe(4);
+    expect(written.pond.top - written.pond.bottom).toBeCloseTo(results.tradeOff.find((t: { chosen: boolean }) => t.chosen).depth, 9);
+    expect(written.pond.top).toBeCloseTo(23.7, 9);
     expect(written.pond.storage.prismoid.length).toBe(2 * written.pond.storage.prismoid.width);
   });
 
@@ -45,13 +48,13 @@ describe("design --size-pond on cases/site-only (no pond given)", () => {
     expect(routed.checks.some((c: { passed: boolean }) => !c.passed)).toBe(true);
   });
 
-  it("the storage estimate seeds the size, and every size tried is costed with its excavation and footprint", () => {
+  it("the routed estimate seeds the size, and every size tried is costed with its excavation and land", () => {
     const pond = outfit("pond", "cases/site-only/case.json", "--json");
     const seeded = JSON.parse(pond.stdout).pond.storage.prismoid.width;
     expect(results.sizes[0].pond.storage.prismoid.width).toBe(seeded);
     for (const s of results.sizes) {
-      // Default weights 0.001 per ft3 excavated and 0.002 per ft2 of footprint (search/pondCost.ts).
-      expect(s.pondCost).toBeCloseTo(0.001 * s.excavation + 0.002 * s.footprint, 9);
+      // Default weights 0.001 per ft3 excavated, 0.002 per ft3 of fill and per ft2 of land (src/sizing/pondCost.ts).
+      expect(s.pondCost).toBeCloseTo(0.001 * s.excavation + 0.002 * s.fill + 0.002 * s.land, 9);
     }
     expect(results.chosen.totalCost).toBeCloseTo(results.chosen.outletCost + results.chosen.pondCost, 9);
   });
@@ -75,7 +78,8 @@ describe("infeasible for lack of storage: the shortfall in volume, with units", 
     }
     const run = outfit("design", "cases/infeasible/case.json", "--budget", "2000");
     expect(run.status).toBe(0);
-    expect(run.stdout).toContain("the pond holds 10,509 ft3 between the floor and the freeboard level");
+    // The limit level is the spillway crest, 83 ft, which the freeboard level (84 - 1 ft) equals here.
+    expect(run.stdout).toContain("the pond holds 10,509 ft3 between the floor and the 2-yr storm's limit level (83.00 ft, spillway crest)");
     const m = /at least ([\d,]+) ft3 more storage is needed/.exec(run.stdout);
     expect(m).not.toBeNull();
     expect(Math.abs(Number(m![1].replace(/,/g, "")) - (above - 10509))).toBeLessThanOrEqual(2);
@@ -90,7 +94,7 @@ describe("infeasible for lack of storage: the shortfall in volume, with units", 
     const run = outfit("design", file, "--size-pond", "--budget", "1500");
     expect(run.status).toBe(0);
     expect(run.stdout).toContain("No compliant pond and outlet: no compliant outlet up to the largest pond within the site limits");
-    expect(run.stdout).toMatch(/Add about [\d,]+ ft3 of storage below the freeboard level/);
+    expect(run.stdout).toMatch(/Add about [\d,]+ ft3 of storage below the limit level/);
   });
 });
 
@@ -106,9 +110,9 @@ describe("design --size-pond as text", () => {
     piped = outfit("design", "cases/site-only/case.json", "--size-pond", "--budget", "3000", "--quiet").stdout;
   });
 
-  it("fits 80 columns: the sizes' footprint, excavation and costs go below each row, with their units", () => {
+  it("fits 80 columns: the sizes' earthwork and costs go below each row, with their units", () => {
     expect(widest(narrow)).toBeLessThanOrEqual(80);
-    expect(narrow).toMatch(/^ {4}footprint: [\d,]+ ft2; excavation: [\d,]+ ft3; pond cost: [\d.]+ units/m);
+    expect(narrow).toMatch(/^ {4}earthwork \(cut \+ fill\): [\d,]+ ft3; pond cost: [\d.]+ units/m);
     expect(narrow).toContain("<- chosen");
     // The same pond sizes as the full table.
     const sizes = (text: string) => [...text.matchAll(/(\d+\.\d ft x \d+\.\d ft floor) +([\d,]+ ft3)/g)].map((m) => `${m[1]} ${m[2]}`);
@@ -130,7 +134,7 @@ describe("design --size-pond as text", () => {
   });
 
   it("piped and in summary.txt: the whole table on one line per size (the control: wider than 80)", () => {
-    expect(piped).toMatch(/^Steps {2}Pond .*freeboard level {2}Footprint {2}Excavation .*Pond cost .*Outlet {2}Result$/m);
+    expect(piped).toMatch(/^Steps {2}Pond .*limit level {2}Footprint +Earthwork +Pond cost +Outlet {2}Result$/m);
     expect(piped).toMatch(/^ +\d+ {2}[\d.]+ ft x [\d.]+ ft floor +[\d,]+ ft3 +[\d,]+ ft2 +[\d,]+ ft3 +[\d.]+ units +(-|[\d.]+ units) {2}\S/m);
     expect(widest(piped)).toBeGreaterThan(80);
     expect(readFileSync(join(out, "summary.txt"), "utf8").trimEnd()).toBe(piped.trimEnd());

@@ -11,8 +11,10 @@ import { belowPreHydrograph } from "./belowPreHydrograph.js";
 import { extendedDetention } from "./extendedDetention.js";
 import { minimumOpening } from "./minimumOpening.js";
 import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
+import { surcharge } from "./surcharge.js";
+import { exfiltrationDrain } from "./exfiltrationDrain.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, exfiltrationDrain, surcharge, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 

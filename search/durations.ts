@@ -1,0 +1,36 @@
+// What the search routes for each storm: the inflow (a long fine record thinned), or for a storm of
+// the modified rational method a few of its durations. Routing every duration of the range (about 25
+// routings a storm, `routing/durations.ts`) for every evaluation would multiply the search's work, so
+// the search routes the durations that govern for the routed estimate's notional outlets (one orifice,
+// one weir, the staged outlets) and the critical duration of the storage formula: the outlets the
+// search tries lie between those shapes. Every candidate is then routed over the whole range through
+// the `route` path (`candidate.ts`), which decides compliance and names the governing duration.
+import type { Case, Storm } from "../src/model.js";
+import { searchInflow } from "../src/routing/thinInflow.js";
+import type { SearchInflow } from "../src/routing/durations.js";
+import { routedEstimates } from "../src/sizing/routedEstimate.js";
+
+/** Durations (s) the search routes for each storm of a range: the critical one and those governing the notional outlets. */
+export function searchDurations(c: Case): Map<Storm, number[]> {
+  const ranged = c.storms.filter((s) => s.durations);
+  const found = new Map<Storm, number[]>();
+  if (ranged.length === 0) return found;
+  const estimates = routedEstimates({ pond: c.pond, tailwater: c.tailwater, storms: c.storms, drawdownDepth: c.criteria.drawdownDepth, over: c.criteria.over, under: c.criteria.under });
+  for (const storm of ranged) {
+    const range = storm.durations!;
+    const set = new Set<number>([Math.round(range.critical / 60) * 60]);
+    for (const r of estimates.find((e) => e.storm === storm)?.results ?? []) if (r.governingDuration !== null) set.add(r.governingDuration);
+    found.set(storm, [...set].sort((a, b) => a - b));
+  }
+  return found;
+}
+
+export function searchInflows(c: Case): Map<Storm, SearchInflow> {
+  const durations = searchDurations(c);
+  return new Map(
+    c.storms.map((s): [Storm, SearchInflow] => {
+      const list = durations.get(s);
+      return [s, list ? { durations: list, inflows: list.map((d) => s.durations!.inflow(d)) } : searchInflow(s.inflow)];
+    }),
+  );
+}
