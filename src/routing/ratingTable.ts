@@ -2,7 +2,7 @@
 // storage-indication routing interpolates in.
 import type { Outlet, Pond, Tailwater } from "../model.js";
 import { storageBreaks, storageCurve } from "../storage/curve.js";
-import { exfiltrationRate } from "../storage/exfiltration.js";
+import { exfiltrationRate, WETTING_DEPTH } from "../storage/exfiltration.js";
 import { RatingSweep } from "../hydraulics/outletRating.js";
 import { bottomOf, partOf } from "../parts/registry.js";
 
@@ -68,9 +68,8 @@ export function stageGrid(pond: Pond, breaks: readonly number[] = [], step?: num
   const inside = (z: number) => z > pond.bottom + tolerance && z < points[n] - tolerance;
   for (const b of breaks) if (inside(b)) points.push(b);
   for (const z of storageBreaks(pond)) if (inside(z)) points.push(z);
-  // The wetted bottom starts to exfiltrate just above the floor: a node there keeps the step of the
-  // rate inside the first millimetre.
-  if (pond.exfiltration) points.push(pond.bottom + h * GRADING_SMALLEST);
+  // The wetted bottom takes up its rate over the first millimetre: a node where it is complete.
+  if (pond.exfiltration && inside(pond.bottom + WETTING_DEPTH)) points.push(pond.bottom + WETTING_DEPTH);
   const gradedSpan = (h * GRADING_RATIO) / (GRADING_RATIO - 1);
   for (const b of onsets) {
     if (!(b > pond.bottom - tolerance && b < points[n])) continue;

@@ -12,6 +12,9 @@
 //   without stone, the chambers' open bottoms (their area at height 0) and no sides (their walls are
 //   solid). Nothing exfiltrates above the system's top.
 // Darcy flow under a unit gradient (the design-rate convention): the rate does not grow with depth.
+// The wetted bottom takes up its full rate over the first millimetre of water (WETTING_DEPTH), so that
+// the rate is continuous in the stage (a pond does not go from dry to full exfiltration in no depth,
+// and neither the router's table nor an ODE solver meets a jump at the floor).
 import type { Pond } from "../model.js";
 import { stageAreaArea } from "./stageArea.js";
 import { stageStorageArea } from "./stageStorage.js";
@@ -44,9 +47,15 @@ export function wettedSides(pond: Pond, stage: number): number {
       return 2 * (s.length + s.width + 2 * z * d) * d * Math.sqrt(1 + z * z);
     }
     case "stageArea":
-      return squareFrustumSides(pond.bottom, stage, (z) => stageAreaArea(s.elevations, s.areas, z), s.elevations);
-    case "stageStorage":
-      return squareFrustumSides(pond.bottom, stage, (z) => stageStorageArea(s.elevations, s.volumes, z), s.elevations);
+      return squareFrustumSides(pond.bottom, stage, (z0, z1) => [stageAreaArea(s.elevations, s.areas, z0), stageAreaArea(s.elevations, s.areas, z1)], s.elevations);
+    case "stageStorage": {
+      // The table's area is constant on each interval: vertical walls there.
+      const mid = (z0: number, z1: number): [number, number] => {
+        const a = stageStorageArea(s.elevations, s.volumes, 0.5 * (z0 + z1));
+        return [a, a];
+      };
+      return squareFrustumSides(pond.bottom, stage, mid, s.elevations);
+    }
     case "underground": {
       if (!s.stone) return 0;
       const h = Math.min(stage, systemTop(s), s.stone.top) - s.stone.bottom;
@@ -55,27 +64,34 @@ export function wettedSides(pond: Pond, stage: number): number {
   }
 }
 
-/** Side area of the squares of equal plan area from `bottom` to `stage`, row interval by row interval. */
-function squareFrustumSides(bottom: number, stage: number, area: (z: number) => number, rows: readonly number[]): number {
+/**
+ * Side area of the squares of equal plan area from `bottom` to `stage`, row interval by row interval;
+ * `ends` gives the plan areas at an interval's two ends.
+ */
+function squareFrustumSides(bottom: number, stage: number, ends: (z0: number, z1: number) => [number, number], rows: readonly number[]): number {
   const levels = [bottom, ...rows.filter((z) => z > bottom && z < stage), stage];
   let sides = 0;
   for (let i = 1; i < levels.length; i++) {
     const dh = levels[i] - levels[i - 1];
     if (dh <= 0) continue;
-    // Just inside the interval: a stage-storage table's area is constant on each interval.
-    const s0 = Math.sqrt(Math.max(0, area(levels[i - 1] + 1e-9 * dh)));
-    const s1 = Math.sqrt(Math.max(0, area(levels[i] - 1e-9 * dh)));
+    const [a0, a1] = ends(levels[i - 1], levels[i]);
+    const s0 = Math.sqrt(Math.max(0, a0));
+    const s1 = Math.sqrt(Math.max(0, a1));
     const offset = (s1 - s0) / (2 * dh);
     sides += 2 * (s0 + s1) * dh * Math.sqrt(1 + offset * offset);
   }
   return sides;
 }
 
+/** Depth of water (m) over which the wetted bottom takes up its full rate. */
+export const WETTING_DEPTH = 0.001;
+
 /** Wetted area (m2) through which the water exfiltrates at a stage. */
 export function exfiltrationArea(pond: Pond, stage: number): number {
   const x = pond.exfiltration;
-  if (!x || stage <= pond.bottom) return 0;
-  return wettedBottom(pond) + (x.sides ? wettedSides(pond, stage) : 0);
+  const d = stage - pond.bottom;
+  if (!x || d <= 0) return 0;
+  return wettedBottom(pond) * Math.min(1, d / WETTING_DEPTH) + (x.sides ? wettedSides(pond, stage) : 0);
 }
 
 /** Exfiltration (m3/s) at a stage; 0 for a pond without it. */

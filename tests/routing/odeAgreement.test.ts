@@ -7,7 +7,7 @@ import { routeCase } from "../../src/routing/routeCase.js";
 import { FOOT } from "../../src/units.js";
 import type { Case } from "../../src/model.js";
 import { routeByOde } from "./support/levelPoolOde.js";
-import { caseOf, dryMultiStage, stageStorageWithTailwater, steepOrificeOnly, wetPond } from "./support/ponds.js";
+import { caseOf, dryMultiStage, exfiltratingChambers, infiltrationBasin, stageStorageWithTailwater, steepOrificeOnly, wetPond } from "./support/ponds.js";
 import { randomPonds } from "./support/randomPonds.js";
 
 const PEAK_TOLERANCE = 0.005;
@@ -37,6 +37,9 @@ describe("router (automatic step) against the odex solution of dS/dt = I - O", (
     ["steep orifice-only rating: small tank, one large orifice (SI)", steepOrificeOnly],
     ["wet pond: permanent pool, orifice at the pool, v-notch and weir (SI)", wetPond],
     ["stage-storage table with a fixed tailwater over the orifice (US)", stageStorageWithTailwater],
+    // Exfiltration in the outflow term: dS/dt = I - O(h) - X(h), peakOutflow the outlet's.
+    ["infiltration basin: exfiltration over floor and slopes, orifice above the floor (US)", infiltrationBasin],
+    ["chambers in stone exfiltrating through base and walls, rising into a manhole above the bed (SI)", exfiltratingChambers],
   ];
   it.each(named)("%s", (_name, json) => {
     const c = caseOf(json);

@@ -4,12 +4,10 @@ import { segmentArea, segmentAreaIntegral } from "../../src/storage/circularSegm
 import { galleryVolume } from "../../src/storage/pipeGallery.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { routeCase } from "../../src/routing/routeCase.js";
-import { parseCase } from "../../src/case/load.js";
-import { CaseError } from "../../src/case/errors.js";
+import { caseOf, caseProblems } from "./support.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import { surchargeWhere } from "../../src/report/storageNotes.js";
 
-const caseOf = (json: unknown) => parseCase(json, { label: "test case" }).case;
 
 /** The circular segment in its central-angle form, A = (D^2/8)(theta - sin theta), theta = 2 acos(1 - 2y/D). */
 const segmentByAngle = (d: number, y: number) => {
@@ -179,15 +177,7 @@ describe("chambers from a per-unit stage-area table (area linear between rows: a
 });
 
 describe("case file: underground forms are checked like the rest", () => {
-  const problems = (json: unknown) => {
-    try {
-      caseOf(json);
-      return "";
-    } catch (e) {
-      if (e instanceof CaseError) return e.message;
-      throw e;
-    }
-  };
+  const problems = caseProblems;
   it("a bed whose top is below the pipes' crown names the field and what was expected", () => {
     const bad = structuredClone(bedCase) as typeof bedCase;
     (bad.pond.storage.pipeGallery.stone as Record<string, unknown>).top = 20.5;

@@ -1,7 +1,8 @@
 // Reference solution of level-pool routing with a general-purpose ODE solver (odex 2.0.4: Hairer and
 // Wanner's ODEX, a Gragg-Bulirsch-Stoer extrapolation integrator), in storage form:
-//   dS/dt = I(t) - O(h(S)),
-// with O from the project's pure hydraulics (`outletDischarge`) and S(h) from `src/storage` (h(S) by
+//   dS/dt = I(t) - O(h(S)) - X(h(S)),
+// with O from the project's pure hydraulics (`outletDischarge`), X the exfiltration of a pond that has
+// it (`src/storage/exfiltration.ts`) and S(h) from `src/storage` (h(S) by
 // bisection on that curve). The storage form is used rather than dh/dt = (I - O)/A(h) because the
 // case-format contract defines a stage-area pond by its volume (the conic formula with the linearly
 // interpolated area), whose derivative is not exactly the interpolated area inside a row interval.
@@ -11,6 +12,7 @@ import { Outcome, Solver } from "odex";
 import type { Hydrograph, Outlet, Pond, Tailwater } from "../../../src/model.js";
 import { outletDischarge } from "../../../src/hydraulics/outlet.js";
 import { storageCurve } from "../../../src/storage/curve.js";
+import { exfiltrationRate, WETTING_DEPTH } from "../../../src/storage/exfiltration.js";
 
 export interface OdeRouting {
   /** Highest stage (m) and when (s). */
@@ -50,6 +52,16 @@ export function routeByOde(pond: Pond, outlet: Outlet, tail: Tailwater, inflow: 
   const stageOf = stageFromStorage(curve.volume, curve.area, pond.bottom, pond.top);
   solver.maxSteps = 1_000_000;
 
+  // Exfiltration over the first millimetre, where the floor takes up its rate: the stage's round-off
+  // there (about 1e-15 m at a stage of tens of metres) is a large part of the depth, and a rate read
+  // at that stage is noise that stalls odex at the first instant. Over that millimetre the storage and
+  // the rate are both linear in the depth to 1e-3 (the sides' area is), so the rate is taken linear in
+  // the storage there; above it, the rate at the stage.
+  const wetted = pond.bottom + WETTING_DEPTH;
+  const wettedStorage = curve.volume(wetted);
+  const wettedRate = exfiltrationRate(pond, wetted);
+  const exfiltrationAt = (storage: number, stage: number) =>
+    storage < wettedStorage ? (wettedRate * Math.max(0, storage)) / wettedStorage : exfiltrationRate(pond, stage);
   const sampleTimes: number[] = [];
   const sampleStages: number[] = [];
   let evaluations = 0;
@@ -69,7 +81,8 @@ export function routeByOde(pond: Pond, outlet: Outlet, tail: Tailwater, inflow: 
     const inflowAt = (t: number) => Math.max(0, q0 + slope * (t - t0));
     const rhs = (t: number, y: number[]): number[] => {
       evaluations++;
-      return [inflowAt(t) - outletDischarge(outlet, tail, stageOf(y[0]))];
+      const h = stageOf(y[0]);
+      return [inflowAt(t) - outletDischarge(outlet, tail, h) - exfiltrationAt(y[0], h)];
     };
     const result = solver.solve(rhs, t0, [storage], t1, (_step, xOld, x, y, dense) => {
       while (nextSample <= x + 1e-9 && nextSample <= t1) {
@@ -79,7 +92,7 @@ export function routeByOde(pond: Pond, outlet: Outlet, tail: Tailwater, inflow: 
         nextSample += sampleStep;
       }
     });
-    if (result.outcome !== Outcome.Converged) throw new Error(`odex did not converge on [${t0}, ${t1}] s`);
+    if (result.outcome !== Outcome.Converged) throw new Error(`odex did not converge on [${t0}, ${t1}] s (${Outcome[result.outcome]})`);
     storage = result.y[0];
   }
   let best = 0;

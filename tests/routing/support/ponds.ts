@@ -83,3 +83,50 @@ export const stageStorageWithTailwater = {
     riser: { shape: "box", length: 3, width: 3, crest: 303.2 },
   },
 };
+
+/**
+ * An infiltration basin (US): a prismoid exfiltrating 0.5 in/h over its floor and side slopes, with a
+ * 6-in orifice 0.5 ft above the floor (the water below it leaves only into the ground) and a weir.
+ */
+export const infiltrationBasin = {
+  name: "Infiltration basin (invented)",
+  units: "US",
+  pond: {
+    bottom: 40,
+    top: 45,
+    storage: { prismoid: { length: 140, width: 70, sideSlope: 3 } },
+    exfiltration: { rate: "0.5 in/h", sides: true },
+  },
+  storms: [{ name: "10-yr", returnPeriod: 10, inflow: { series: [[0, 0], [20, 6], [40, 22], [60, 30], [90, 15], [150, 5], [300, 0]] } }],
+  outlet: {
+    elements: [
+      { type: "orifice", shape: "circular", diameter: "6 in", invert: 40.5 },
+      { type: "weir", shape: "rectangular", length: 2, crest: 42.5, endContractions: 2 },
+    ],
+  },
+};
+
+/**
+ * Chambers in a stone bed (SI) exfiltrating 20 mm/h through the bed's base and walls, an orifice 0.25 m
+ * above the base, and a manhole above the bed's top into which the storm rises.
+ */
+export const exfiltratingChambers = {
+  name: "Chambers in stone, exfiltrating (invented)",
+  units: "SI",
+  pond: {
+    bottom: 30,
+    top: 32,
+    storage: {
+      chambers: {
+        count: 30,
+        base: 30.15,
+        stageArea: [[0, 2.2], [0.5, 2.0], [0.9, 0.8], [1.0, 0]],
+        stone: { voidRatio: 0.4, length: 26, width: 9, top: 31.3 },
+        structures: [{ name: "MH-1", area: 1.5, rim: 32 }],
+      },
+    },
+    exfiltration: { rate: "20 mm/h", sides: true },
+  },
+  storms: [{ name: "25-yr", returnPeriod: 25, inflow: { series: [[0, 0], [10, 0.025], [25, 0.085], [40, 0.06], [70, 0.02], [120, 0]] } }],
+  outlet: { elements: [{ type: "orifice", shape: "circular", diameter: "100 mm", invert: 30.25 }] },
+};
