@@ -122,9 +122,8 @@ export function pondDesignJson(c: Case, d: PondDesign) {
     pondCost: pondCost(t.sized, w),
     how: t.how,
     compliant: t.best !== null,
-    outlet: t.best ? t.best.file : null,
-    outletCost: t.best ? t.best.cost : null,
-    totalCost: t.totalCost,
+    // Present only with a compliant outlet (no null where a number belongs).
+    ...(t.best ? { outlet: t.best.file, outletCost: t.best.cost, totalCost: t.totalCost! } : {}),
   });
   return {
     tool: "outfit",
@@ -142,8 +141,9 @@ export function pondDesignJson(c: Case, d: PondDesign) {
       ...(o.cost ? { cost: o.cost.total } : {}),
     })),
     sizes: d.trials.map(trial),
-    chosen: d.chosen ? { ...trial(d.chosen), routing: routeJson(d.chosen.problem.case, d.chosen.best!.routing, d.chosen.best!.assessment) } : null,
-    smaller: d.smaller ? trial(d.smaller) : null,
+    found: d.chosen !== null,
+    ...(d.chosen ? { chosen: { ...trial(d.chosen), routing: routeJson(d.chosen.problem.case, d.chosen.best!.routing, d.chosen.best!.assessment) } } : {}),
+    ...(d.smaller ? { smaller: trial(d.smaller) } : {}),
   };
 }
 

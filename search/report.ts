@@ -41,10 +41,10 @@ export function candidateJson(p: SearchProblem, c: Candidate, rank: number, base
     rank,
     ...routedJson(p, c, c.explanation),
     pareto: c.pareto,
-    variantOf: c.variantOf,
+    ...(c.variantOf !== null ? { variantOf: c.variantOf } : {}),
     caseFile: candidateCaseName(rank),
     ...(baseline && c.changes
-      ? { saving: { cost: saved!.cost, percent: saved!.fraction === null ? null : 100 * saved!.fraction }, changes: c.changes.changes, changeScore: c.changes.score }
+      ? { saving: { cost: saved!.cost, ...(saved!.fraction === null ? {} : { percent: 100 * saved!.fraction }) }, changes: c.changes.changes, changeScore: c.changes.score }
       : {}),
   };
 }
@@ -79,12 +79,13 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       routings: run.routings,
       evaluations: run.evaluations,
       seconds: run.seconds,
-      secondsToFirstCompliant: run.secondsToFirstCompliant,
+      // Keys without a value are left out (no null where a number belongs).
+      ...(run.secondsToFirstCompliant !== null ? { secondsToFirstCompliant: run.secondsToFirstCompliant } : {}),
       seed: run.seed,
-      budget: run.budget === Infinity ? null : run.budget,
-      timeBudget: run.timeBudget,
+      ...(run.budget !== Infinity ? { budget: run.budget } : {}),
+      ...(run.timeBudget !== null ? { timeBudget: run.timeBudget } : {}),
       workers: run.workers,
-      shard: run.shard ? `${run.shard.index}/${run.shard.count}` : null,
+      ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}` } : {}),
       layoutsFromJournal: run.layoutsFromJournal,
       layoutsOtherShards: run.layoutsOtherShards,
       margin: p.options.margin,

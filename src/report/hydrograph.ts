@@ -7,6 +7,7 @@ import { dimensionlessShape } from "../hydrology/unitHydrograph.js";
 import { formatter, trimNumber } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";
+import { withoutNulls } from "./withoutNulls.js";
 import { CAUTION } from "./caution.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
@@ -217,7 +218,8 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
     ];
   });
   const labels = formatter(c.units).labels;
-  return {
+  // Fields without a value (a rational area's curve number, an NRCS storm's sweep) are left out.
+  return withoutNulls({
     tool: "outfit",
     command: "hydrograph",
     case: c.name,
@@ -227,5 +229,5 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
     nrcs: { initialAbstractionRatio: h.nrcs.ratio, peakRateFactor: h.nrcs.peakRateFactor, unitHydrograph: dimensionlessShape(h.nrcs.peakRateFactor).source },
     areas: { pre: catchment(h.catchments.pre), post: catchment(h.catchments.post) },
     storms,
-  };
+  });
 }

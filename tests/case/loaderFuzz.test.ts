@@ -1,9 +1,11 @@
-// Seeded loader fuzz (issue 11, acceptance): 5,000 mutated case files through the loader and the
-// `route` command's own output path, in process. For every file: no internal error (only a
-// CaseError or UsageError may be thrown, which the CLI prints with exit 2); a user error names a
-// field or file:line for every problem; an exit-0 output holds no NaN, Infinity or undefined and
-// no null where a number belongs; and no file takes longer than a generous bound (a hang detector,
-// not a speed test: `npm run bench` measures speed).
+// Seeded loader fuzz: 5,000 mutated case files through the loader and the `route` command's own
+// output path, in process (a share of them also through the storage commands' JSON: volume, and pond
+// for a site). For every file: no internal error (only a CaseError or UsageError may be thrown, which
+// the CLI prints with exit 2); a user error names a field or file:line for every problem; an exit-0
+// output holds no NaN, Infinity or undefined and no null but where the format documents one; and no
+// file takes longer than a generous bound (a hang detector, not a speed test: `npm run bench`
+// measures speed). The bases cover ponds, hydrology, a pond chosen from its site, an underground
+// system with exfiltration and modified rational storms.
 import { readFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import seedrandom from "seedrandom";
@@ -12,6 +14,13 @@ import { parseCase } from "../../src/case/load.js";
 import { CaseError } from "../../src/case/errors.js";
 import { isUserError } from "../../src/commands/common.js";
 import { routeOutput } from "../../src/commands/route.js";
+import type { Case } from "../../src/model.js";
+import { caseEstimates } from "../../src/sizing/stormEstimates.js";
+import { volumeJson } from "../../src/report/volume.js";
+import { choosePond } from "../../src/sizing/pondChoice.js";
+import { pondCostWeights } from "../../src/sizing/pondCost.js";
+import { sitePond } from "../../src/case/site.js";
+import { sizingJson } from "../../src/report/pondSizing.js";
 
 const MUTATIONS = 5000;
 /** Seconds any one file may take (hang detector; a typical file takes milliseconds). */
@@ -45,6 +54,45 @@ hydrologyBase.storms = [
   { name: "10-yr", returnPeriod: 10, rainfall: { idf: "10-yr" } },
 ];
 BASES.push({ name: "hydrology", file: BASES[0].file, json: hydrologyBase, weight: 1 });
+// The storage forms: a pond chosen from its site (no pond given), an underground system with
+// structures above its top and exfiltration, and modified rational storms routed over their durations.
+const SITE_BASE = {
+  name: "Site base (invented)",
+  units: "US",
+  site: { floor: 20, maxDepth: 4, maxTopLength: 150, existingGrade: 23, embankment: { maxHeight: 2 }, groundwater: { seasonalHigh: 16, separation: 2 }, step: 2 },
+  criteria: { freeboard: { depth: "0.5 ft" } },
+  storms: [
+    { name: "2-yr", returnPeriod: 2, target: 1.0, inflow: { series: [[0, 0], [15, 1.6], [30, 3.2], [50, 1.8], [80, 0.5], [120, 0]] } },
+    { name: "25-yr", returnPeriod: 25, target: 6, inflow: { series: [[0, 0], [15, 3.7], [30, 7.5], [50, 4.2], [80, 1.2], [120, 0]] } },
+  ],
+  outlet: { elements: [{ type: "orifice", shape: "circular", diameter: "4 in", invert: 20 }], spillway: { crest: 23.2, length: 8, sideSlope: 3 } },
+};
+const UNDERGROUND_BASE = {
+  name: "Underground base (invented)",
+  units: "SI",
+  pond: {
+    bottom: 30,
+    top: 32,
+    storage: {
+      chambers: {
+        count: 30,
+        stageArea: [[0, 2.2], [0.5, 2.0], [0.9, 0.8], [1.0, 0]],
+        stone: { voidRatio: 0.4, length: 26, width: 9, top: 31.3 },
+        structures: [{ name: "MH-1", area: 1.5, rim: 32 }],
+        surfacePonding: { stageArea: [[32, 0], [32.2, 80]], limit: 32.1 },
+      },
+    },
+    exfiltration: { rate: "20 mm/h", sides: true },
+  },
+  storms: [{ name: "25-yr", returnPeriod: 25, target: 0.03, inflow: { series: [[0, 0], [10, 0.025], [25, 0.085], [40, 0.06], [70, 0.02], [120, 0]] } }],
+  outlet: { elements: [{ type: "orifice", shape: "circular", diameter: "100 mm", invert: 30.25 }] },
+};
+const RATIONAL_BASE = JSON.parse(readFileSync("cases/rational/case.json", "utf8"));
+BASES.push(
+  { name: "site", file: BASES[0].file, json: SITE_BASE, weight: 1 },
+  { name: "underground", file: BASES[0].file, json: UNDERGROUND_BASE, weight: 1 },
+  { name: "rational", file: resolve("cases/rational/case.json"), json: RATIONAL_BASE, weight: 1 },
+);
 
 const STRANGE_VALUES: unknown[] = [
   0, -1, 1, 0.5, -0.0, 1e308, -1e308, 5e-324, 1e-300, 1e15, 123456789, 2 ** 53, 3.7,
@@ -106,38 +154,38 @@ function mutate(json: Json, rng: () => number): Json {
   return copy;
 }
 
-/** Keys that hold numbers in the unmutated bases' outputs: where a null would be a lost number. */
-const NUMERIC_KEYS = new Set<string>();
-function collectNumericKeys(value: Json): void {
-  if (Array.isArray(value)) value.forEach(collectNumericKeys);
-  else if (value && typeof value === "object") {
-    for (const [k, v] of Object.entries(value)) {
-      if (typeof v === "number") NUMERIC_KEYS.add(k);
-      collectNumericKeys(v);
-    }
-  }
-}
-for (const base of BASES) {
-  const loaded = parseCase(base.json, { file: base.file });
-  collectNumericKeys(JSON.parse(routeOutput(loaded.case, "base", { json: true }).text));
-}
+/**
+ * Keys whose null the formats document: "none" in the contract (no target, no ratio or band without
+ * one, never drained; a check value not reached), and text or objects that may be absent (a source
+ * label, the governing limit, the binding check). A null anywhere else is a lost number.
+ */
+const NULLABLE = new Set(["target", "ratio", "withinTolerance", "drawdownHours", "value", "label", "governingLimit", "binding"]);
 
-/** Keys whose null means "none" in the contract (no target, no ratio without one, never drained). */
-const NULLABLE = new Set(["target", "ratio", "withinTolerance", "drawdownHours", "limit", "slack", "value", "cost", "bestCost", "part", "storm", "binding"]);
-
-/** Problems with an exit-0 JSON output: non-finite numbers or nulls where numbers belong. */
-function badJson(value: Json, path: string, into: string[]): string[] {
+/** Problems with an exit-0 JSON output: non-finite numbers, or nulls where the format promises a number. */
+function badJson(value: Json, path: string, into: string[], nullable: ReadonlySet<string> = NULLABLE): string[] {
   if (typeof value === "number" && !Number.isFinite(value)) into.push(`${path}: ${value}`);
-  else if (Array.isArray(value)) value.forEach((v, i) => badJson(v, `${path}[${i}]`, into));
+  else if (Array.isArray(value)) value.forEach((v, i) => badJson(v, `${path}[${i}]`, into, nullable));
   else if (value && typeof value === "object") {
     const record = value as Record<string, Json>;
     for (const [k, v] of Object.entries(record)) {
-      if (v === null && NUMERIC_KEYS.has(k) && !NULLABLE.has(k)) into.push(`${path}.${k}: null`);
-      else badJson(v, `${path}.${k}`, into);
+      if (v === null && !nullable.has(k)) into.push(`${path}.${k}: null`);
+      else badJson(v, `${path}.${k}`, into, nullable);
     }
     if ("ratio" in record && record.ratio === null && record.target !== null) into.push(`${path}.ratio: null with a target of ${String(record.target)}`);
   }
   return into;
+}
+
+/** The estimates (`volume --json`) and, for a site, the chosen pond (`pond --json`) of a loaded case: no null at all. */
+function storageOutputs(c: Case): Json[] {
+  const inputs = c.storms.map(() => ({ group: "II/III" as const, rational: null }));
+  const outputs: Json[] = [volumeJson(c, caseEstimates(c, inputs))];
+  if (c.site && c.storms.some((s) => s.target !== null)) {
+    const choice = choosePond({ site: c.site, criteria: c.criteria, spillway: c.outlet?.spillway, tailwater: c.tailwater, storms: c.storms, costs: pondCostWeights(c.units, c.costs) });
+    const pond = sitePond(choice);
+    outputs.push(sizingJson(c, choice, pond ? caseEstimates({ ...c, pond }, inputs) : []));
+  }
+  return outputs.map((o) => JSON.parse(JSON.stringify(o)) as Json);
 }
 
 /** The text with the file's own strings (a case named "NaN") taken out. */
@@ -174,6 +222,8 @@ describe(`seeded loader fuzz: ${MUTATIONS} mutated case files`, () => {
         tally.routed++;
         if (n % 2 === 0) {
           const bad = badJson(JSON.parse(text), "", []);
+          // Every fourth routed case also through the storage commands' JSON (volume; pond for a site).
+          if (tally.routed % 4 === 0) for (const out of storageOutputs(loaded.case)) badJson(out, "(storage)", bad, new Set());
           if (bad.length > 0) failures.push(`#${n} (${base.name}): ${bad.slice(0, 3).join("; ")}\n${JSON.stringify(json).slice(0, 400)}`);
         } else if (/\bNaN\b|Infinity|undefined/.test(withoutUserText(text, json))) {
           failures.push(`#${n} (${base.name}): text output with ${/\bNaN\b|Infinity|undefined/.exec(text)![0]}: ${/.*(\bNaN\b|Infinity|undefined).*/.exec(text)![0]}\n${JSON.stringify(json).slice(0, 600)}`);
