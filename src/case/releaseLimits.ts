@@ -50,6 +50,9 @@ export function stormLimits(storm: StormFile, index: number, cv: Converter, deri
   });
   let governing: ReleaseLimit | null = null;
   for (const limit of limits) if (!governing || limit.flow < governing.flow) governing = limit;
+  // A limit that resolves to no flow at all (a derived pre-development peak of zero: an IDF curve that
+  // gives no rain at Tc) is no allowable release: every outlet would fail it.
+  if (governing && !(governing.flow > 0)) cv.problem(path, `an allowable release of ${String(governing.flow)} (${governing.statement})`, "a release limit greater than zero; check the hydrology that derives it");
   return { target: governing?.flow ?? null, releaseLimits: limits, governingLimit: governing };
 }
 

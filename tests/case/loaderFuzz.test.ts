@@ -21,6 +21,7 @@ import { choosePond } from "../../src/sizing/pondChoice.js";
 import { pondCostWeights } from "../../src/sizing/pondCost.js";
 import { sitePond } from "../../src/case/site.js";
 import { sizingJson } from "../../src/report/pondSizing.js";
+import { exfiltratingChambers } from "../routing/support/ponds.js";
 
 const MUTATIONS = 5000;
 /** Seconds any one file may take (hang detector; a typical file takes milliseconds). */
@@ -67,26 +68,10 @@ const SITE_BASE = {
   ],
   outlet: { elements: [{ type: "orifice", shape: "circular", diameter: "4 in", invert: 20 }], spillway: { crest: 23.2, length: 8, sideSlope: 3 } },
 };
-const UNDERGROUND_BASE = {
-  name: "Underground base (invented)",
-  units: "SI",
-  pond: {
-    bottom: 30,
-    top: 32,
-    storage: {
-      chambers: {
-        count: 30,
-        stageArea: [[0, 2.2], [0.5, 2.0], [0.9, 0.8], [1.0, 0]],
-        stone: { voidRatio: 0.4, length: 26, width: 9, top: 31.3 },
-        structures: [{ name: "MH-1", area: 1.5, rim: 32 }],
-        surfacePonding: { stageArea: [[32, 0], [32.2, 80]], limit: 32.1 },
-      },
-    },
-    exfiltration: { rate: "20 mm/h", sides: true },
-  },
-  storms: [{ name: "25-yr", returnPeriod: 25, target: 0.03, inflow: { series: [[0, 0], [10, 0.025], [25, 0.085], [40, 0.06], [70, 0.02], [120, 0]] } }],
-  outlet: { elements: [{ type: "orifice", shape: "circular", diameter: "100 mm", invert: 30.25 }] },
-};
+// The exfiltrating chambers of the routing tests, with surface ponding above their manhole and a target.
+const UNDERGROUND_BASE = structuredClone(exfiltratingChambers) as Record<string, any>;
+UNDERGROUND_BASE.pond.storage.chambers.surfacePonding = { stageArea: [[32, 0], [32.2, 80]], limit: 32.1 };
+UNDERGROUND_BASE.storms[0].target = 0.03;
 const RATIONAL_BASE = JSON.parse(readFileSync("cases/rational/case.json", "utf8"));
 BASES.push(
   { name: "site", file: BASES[0].file, json: SITE_BASE, weight: 1 },
