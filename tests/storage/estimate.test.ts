@@ -137,3 +137,17 @@ describe("outfit volume", () => {
     expect(run.stderr).toMatch(/--type: found "IV", expected an NRCS storm type/);
   });
 });
+
+describe("the TR-55 range flag follows its value (cases/site-only: the 25-yr storm's qo/qi is 6.25 / 7.5 = 0.83, beyond the chart's 0.8)", () => {
+  it.each([["volume"], ["pond"]])("`%s --type II`: the table's note and the JSON's outsideRange say it, beside the value", (command) => {
+    const text = outfit(command, "cases/site-only/case.json", "--type", "II").stdout;
+    expect(text).toMatch(/TR-55 ch\. 6 chart +[\d,]+ ft3 .* qo\/qi 0\.83 outside the chart's 0\.1-0\.8: extrapolated/);
+    const json = JSON.parse(outfit(command, "cases/site-only/case.json", "--type", "II", "--json").stdout);
+    const storms = command === "volume" ? json.storms : json.estimates;
+    const tr55 = (name: string) => storms.find((s: { name: string }) => s.name === name).methods.find((m: { method: string }) => m.method === "tr55");
+    expect(tr55("25-yr")).toMatchObject({ outsideRange: true, note: expect.stringContaining("outside the chart") });
+    expect(tr55("25-yr").volume).toBeGreaterThan(0);
+    // The 2-yr storm (qo/qi 0.32) is inside the range.
+    expect(tr55("2-yr")).toMatchObject({ outsideRange: false });
+  });
+});
