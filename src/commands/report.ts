@@ -19,6 +19,7 @@ import type { Hydrograph } from "../model.js";
 import { Converter } from "../case/normalize.js";
 import { caseHydrology } from "../case/hydrology.js";
 import type { ReportInputs } from "../report/review/caseReport.js";
+import { estimateInputs } from "./volume.js";
 import type { RunFacts } from "../report/review/project.js";
 
 export interface ReportCommandOptions {
@@ -56,6 +57,7 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
     preDevelopment: preDevelopment(loaded),
     stageStep: positiveLength("--stage-step", options.stageStep, loaded.case.units),
     hydrographInterval: positiveNumber("--hydrograph-interval", options.hydrographInterval),
+    estimates: loaded.case.file ? estimateInputs(loaded.case.file, loaded.case, null) : undefined,
   });
   let doc: ReportDocument;
   if (directory) {

@@ -71,6 +71,11 @@ function goldenSection(a: number, b: number, at: (minutes: number) => RouteResul
   for (let m = lo; m <= hi; m++) at(m);
 }
 
+/** The inflow a routed storm's result comes from: its own, or its governing duration's. */
+export function routedInflow(storm: Storm, result: RouteResult): Hydrograph {
+  return storm.durations && result.governingDuration !== undefined ? storm.durations.inflow(result.governingDuration) : storm.inflow;
+}
+
 /** One storm routed: its inflow, or the range of its durations (the governing one's result). */
 export function routeStorm(table: RatingTable, storm: Storm, options: RouteOptions): RouteResult {
   return storm.durations ? routeDurationRange(table, storm.durations, options) : route(table, storm.inflow, options);

@@ -147,6 +147,8 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const O = table.outflow;
   const Z = table.stage;
   const X = table.exfiltration ?? zeros(Z.length);
+  // Without exfiltration its column is zeros: the indication reads it, the bookkeeping skips it.
+  const exfiltrates = table.exfiltration !== undefined;
   const last = Z.length - 1;
   const times = inflow.times;
   const flows = inflow.flows;
@@ -319,14 +321,16 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     else if (u < 0) u = 0;
     const S2 = S[k] + u * (S[k + 1] - S[k]);
     const Q2 = O[k] + u * (O[k + 1] - O[k]);
-    const E2 = X[k] + u * (X[k + 1] - X[k]);
+    const E2 = exfiltrates ? X[k] + u * (X[k + 1] - X[k]) : 0;
     const O2 = Q2 + E2;
     const H2 = Z[k] + u * (Z[k + 1] - Z[k]);
 
     // 5. Bookkeeping.
     volumeOut += 0.5 * (Q1 + Q2) * dt;
-    volumeExfiltrated += 0.5 * (E1 + E2) * dt;
-    if (E2 > peakExfiltration) peakExfiltration = E2;
+    if (exfiltrates) {
+      volumeExfiltrated += 0.5 * (E1 + E2) * dt;
+      if (E2 > peakExfiltration) peakExfiltration = E2;
+    }
     steps++;
     if (dt < smallest) smallest = dt;
     if (dt > largest) largest = dt;

@@ -14,6 +14,8 @@ import type { ProjectFile } from "../../case/schema.js";
 import { methodsTable } from "./methods.js";
 import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, warningsList } from "./tables.js";
 import { FigureCounter, section, type Block, type ReportDocument, type Section } from "./model.js";
+import { storageBlocks } from "./storage.js";
+import type { StormEstimateInputs } from "../../sizing/stormEstimates.js";
 
 export interface RoutedOutlet {
   outlet: Outlet;
@@ -31,13 +33,16 @@ export interface ReportInputs {
   stageStep?: number;
   /** Interval of the hydrograph tables (minutes); default chosen per storm. */
   hydrographInterval?: number;
+  /** What each storm's published estimates need (TR-55 group, rational sweep), in storm order; default none. */
+  estimates?: readonly StormEstimateInputs[];
 }
 
-/** Stage-storage figure and the pond facts. */
-export function storageSection(c: Case, outlet: Outlet | undefined, figures: FigureCounter): Section {
+/** Stage-storage figure, the storms' limit levels, the estimates beside the routed outlet's storage and the sizing trade-off. */
+export function storageSection(c: Case, outlet: Outlet | undefined, figures: FigureCounter, routing?: CaseRouting, estimates?: readonly StormEstimateInputs[]): Section {
   const f = formatter(c.units);
   return section("storage", "Pond and stage-storage", [
     figures.figure("stage-storage", "Stage-storage", `Storage above the pond bottom (${f.elevation(c.pond.bottom)}) against stage, up to the top of embankment (${f.elevation(c.pond.top)}).`, (id) => storageChart(id, c, outlet)),
+    ...(routing ? storageBlocks(c, routing, estimates ?? c.storms.map(() => ({ group: null, rational: null }))) : []),
   ]);
 }
 
@@ -104,7 +109,7 @@ export function caseReport(c: Case, routed: RoutedOutlet, source: string, inputs
     caution: CAUTION,
     sections: [
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
-      storageSection(c, routed.outlet, figures),
+      storageSection(c, routed.outlet, figures, routed.routing, inputs.estimates),
       ...outletSections(c, routed, figures, inputs),
       methodsSection(c, [routed.outlet]),
       cautionSection(),

@@ -152,7 +152,7 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
       (id) => candidatesChart(id, c, routed.map((r) => ({ rank: r.candidate.reported.rank, outlet: r.outlet, storms: r.routing.storms })))),
   ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));
   // Built in the order they are shown, so that figures are numbered in document order.
-  const storage = storageSection(c, best.outlet, figures);
+  const storage = storageSection(c, best.outlet, figures, best.routing, inputs.estimates);
   const candidateSections: Section[] = routed.map((r) => {
     const rank = r.candidate.reported.rank;
     const prefix = `c${rank}-`;

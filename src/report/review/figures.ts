@@ -1,5 +1,6 @@
 // The report's plots, in the case's units: stage-storage, the outlet's rating with each storm's
 // target and routed peak, each storm's hydrographs and stage, and the candidates of a design run.
+import { routedInflow } from "../../routing/durations.js";
 import type { Case, Hydrograph, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
@@ -193,7 +194,8 @@ export interface TimeWindow {
 export function hydrographWindow(sr: StormRouting): TimeWindow {
   const series = sr.result.series!;
   const simulated = series.time[series.time.length - 1] / 3600;
-  const inflowEnd = sr.storm.inflow.times[sr.storm.inflow.times.length - 1] / 3600;
+  const inflow = routedInflow(sr.storm, sr.result);
+  const inflowEnd = inflow.times[inflow.times.length - 1] / 3600;
   return { end: Math.min(simulated, HYDROGRAPH_SPAN * inflowEnd), simulated };
 }
 

@@ -1,6 +1,7 @@
 // Tables a plan reviewer checks by hand: the stage-storage-discharge table at a fine step with a row
 // at every control elevation, each storm's inflow and outflow hydrographs at a readable interval,
 // and the pre- against post-development comparison. Units are in the headings.
+import { routedInflow } from "../../routing/durations.js";
 import type { Case, Hydrograph, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { hydrographVolume } from "../../hydrology/hydrograph.js";
@@ -151,7 +152,7 @@ export function hydrographTable(c: Case, sr: StormRouting, intervalMinutes?: num
     const before = times.get(key);
     times.set(key, before ? `${before}, ${note}` : note);
   };
-  mark(peakOf(sr.storm.inflow).time, "peak inflow");
+  mark(peakOf(routedInflow(sr.storm, sr.result)).time, "peak inflow");
   mark(sr.result.timeOfPeakOutflow, "peak outflow");
   mark(sr.result.timeOfMaxStage, "maximum stage");
   const digits = c.units === "US" ? 2 : 3;
@@ -188,7 +189,7 @@ export function prePostTable(c: Case, sr: StormRouting, pre: Hydrograph | null):
   const u = f.raw;
   const r = sr.result;
   const hours = (s: number) => (s / 3600).toFixed(2);
-  const post = peakOf(sr.storm.inflow);
+  const post = peakOf(routedInflow(sr.storm, sr.result));
   const rows: string[][] = [];
   if (pre) {
     const p = peakOf(pre);
