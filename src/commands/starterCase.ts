@@ -75,8 +75,10 @@ export function starterCase(units: UnitSystem): unknown {
       engineer: "Your name",
       revision: "A",
     },
+    "//site": `Instead of "pond", a "site" section lets outfit choose the pond's depth and footprint (outfit pond): {"maxDepth", "floor" or "existingGrade", "embankment": {"maxHeight"}, "groundwater": {"seasonalHigh", "separation"}, "outfallInvert", "maxTopLength", "maxTopWidth", "step"}.`,
     pond: {
-      "//": `bottom: lowest elevation of the storage (${L}); top: top of embankment. storage: exactly one of prismoid (floor length x width, side slope H:1V), stageArea [[elevation, area]] or stageStorage [[elevation, volume]]. Add "permanentPool" for a wet pond.`,
+      "//": `bottom: lowest elevation of the storage (${L}); top: top of embankment. storage: exactly one of prismoid (floor length x width, side slope H:1V), stageArea [[elevation, area]] or stageStorage [[elevation, volume]], or an underground pipeGallery or chambers (which hold nothing above their top unless "structures" or "surfacePonding" are declared). Add "permanentPool" for a wet pond.`,
+      "//exfiltration": `Optional, for an infiltration basin (a dry pond): {"rate": "${units === "US" ? "0.5 in/h" : "12 mm/h"}", "sides": true, "drainHours": 72}, the design infiltration rate over the wetted floor (and sides), and the hours allowed to drain.`,
       bottom: n.bottom,
       top: n.top,
       storage: { prismoid: { length: n.length, width: n.width, sideSlope: 3 } },
