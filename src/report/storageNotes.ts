@@ -7,7 +7,7 @@ import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
 import { formatter } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
 import { surchargeAt, systemTop } from "../storage/underground.js";
-import { renderTable, type Column, type Layout, type Row } from "./terminal.js";
+import { renderTable, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 /** Where the water stands at a stage above an underground system's top, in words ("" when not above it). */
 export function surchargeWhere(c: Case, stage: number): string {
@@ -64,11 +64,12 @@ export function storageTable(c: Case, routing: CaseRouting, layout: Layout): str
     ];
   });
   const lines = ["Storage:", renderTable(layout, columns, rows).text];
-  if (durations) lines.push("Governing duration: the modified rational storm duration that raises the pond highest (every duration from Tc to well past the critical one is routed).");
+  const notes: string[] = [];
+  if (durations) notes.push("Governing duration: the modified rational storm duration that raises the pond highest (every duration from Tc to well past the critical one is routed).");
   const h = hydrologyUnits(c.units);
-  if (x) lines.push(`Exfiltration: ${Number(h.intensity(x.rate).toPrecision(3))} ${h.labels.intensity} over the wetted bottom${x.sides ? " and sides" : ""}; the drain time is the drawdown column above (limit ${x.drainHours} h).`);
-  if (underground) lines.push(`System top ${f.elevation(systemTop(s))}: above it only the declared structures${s.ponding ? " and surface ponding" : ""} hold water${s.structures.length === 0 && !s.ponding ? " (none is declared)" : ""}.`);
-  return lines.join("\n");
+  if (x) notes.push(`Exfiltration: ${Number(h.intensity(x.rate).toPrecision(3))} ${h.labels.intensity} over the wetted bottom${x.sides ? " and sides" : ""}; the drain time is the drawdown column above (limit ${x.drainHours} h).`);
+  if (underground) notes.push(`System top ${f.elevation(systemTop(s))}: above it only the declared structures${s.ponding ? " and surface ponding" : ""} hold water${s.structures.length === 0 && !s.ponding ? " (none is declared)" : ""}.`);
+  return [...lines, ...notes.map((note) => wrap(note, layout.width))].join("\n");
 }
 
 /** The storage fields of a storm in `route --json` (present only where they apply; in case units). */
