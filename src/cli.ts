@@ -82,7 +82,7 @@ Examples:
   outfit report cases/demo/case.json      # a review report (HTML)
   outfit starter my-pond.json             # a starter case file, every field explained
   outfit volume cases/demo/case.json      # storage each storm needs, by several methods
-  outfit pond cases/site-only/case.json   # a pond sized from the site limits
+  outfit pond cases/site-only/case.json   # a pond's depth and footprint from the site limits
   outfit <command> --help                 # every option of a command, with examples
 
 Exit codes: 0 done; 1 not compliant (route --check) or no pond fits (pond); ${EXIT_CODES.slice(8)}.
@@ -178,7 +178,7 @@ searchOptions(
       .option("--resume", "with --out: replay the layouts the directory's journal holds and go on")
       .option("--shard <k/n>", "with --out: fit only shard k of n of the layouts (combine the shards with outfit gather)")
       .option("--progress", "show progress on stderr (the default; --quiet turns it off)")
-      .option("--size-pond", "also size the pond within the case's site limits: the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)"),
+      .option("--size-pond", "also size the pond within the case's site limits: the depth outfit pond chooses, then the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)"),
 )
   .addHelpText(
     "after",
@@ -257,7 +257,7 @@ Exit codes: ${EXIT_CODES}.`),
 
 program
   .command("volume")
-  .description("estimate the storage each storm needs before any outlet exists (TR-55 ch. 6, hydrograph difference, modified rational), with the stage it reaches in the pond")
+  .description("estimate the storage each storm needs before any outlet exists (TR-55 ch. 6, hydrograph difference, modified rational, routed through notional outlets), with the stage it reaches in the pond")
   .argument("<case>", "case file (JSON)")
   .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
   .option("--json", "print the results as JSON instead of a table")
@@ -266,11 +266,15 @@ program
   .addHelpText(
     "after",
     helpAfter(`
-For every storm with a target: the TR-55 ch. 6 estimate (Figure 6-1, storm types I/IA or II/III), the
-volume of the inflow above a release rising linearly to the target at the inflow's peak, the same with
-the release at the target throughout, and for rational-method storms the modified rational
-critical-duration volume; each with the stage it reaches in the case's pond and whether that stays at
-or below the freeboard level (top of embankment less the freeboard depth).
+For every storm with a target: the TR-55 ch. 6 estimate (Figure 6-1, storm types I/IA or II/III;
+flagged outside qo/qi 0.1-0.8), the volume of the inflow above a release rising linearly to the
+target at the inflow's peak and the same with the release at the target throughout (lower bounds),
+for rational-method storms the modified rational critical-duration volume, and the routed estimates:
+the storm routed through a notional outlet of each usual kind (one orifice, one weir, an orifice and
+a weir, a level per storm) sized so its peak meets the middle of the target band. Each with the stage
+it reaches in the case's pond and whether that stays at or below the storm's limit level (the lower of
+the freeboard level and, for a storm that keeps the spillway dry, the spillway crest; an underground
+system's top).
 
 ${FITS}
 Narrow terminals keep each method's volume on its row, and the stage and the fit as room allows;
@@ -287,7 +291,7 @@ Exit codes: ${EXIT_CODES}.`),
 
 program
   .command("pond")
-  .description("size a pond from the case's site limits to hold the largest storage estimate of any storm")
+  .description("choose a pond's depth and footprint from the case's site limits for the routed estimates, at the least cost proxy")
   .argument("<case>", "case file (JSON) with a site section (its pond may be left out)")
   .option("--type <I|IA|II|III>", "NRCS storm type for the TR-55 ratio chart, for storms not given by a rainfall distribution")
   .option("--json", "print the results as JSON instead of a table")
@@ -297,11 +301,14 @@ program
   .addHelpText(
     "after",
     helpAfter(`
-The required storage is the largest estimate of \`outfit volume\` over every storm and method. The pond
-is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or the site's stage-area
-shape scaled in plan, as deep as site.maxDepth, the smallest on the size step (site.step) that holds
-the required storage between its permanent pool and the freeboard level, within maxTopLength,
-maxTopWidth and maxTopArea. Prints the required and provided storage, the footprint and the excavation.
+The pond is a prismoid (floor length = lengthToWidth x width, side slopes sideSlope) or the site's
+stage-area shape scaled in plan. At each depth compared (site.maxDepth, a limit, down on
+site.depthStep; the floor and top placed by the existing grade, the groundwater and outfall limits, the
+highest embankment and the spillway crest), the smallest on the size step (site.step), within
+maxTopLength, maxTopWidth and maxTopArea, that holds each storm's largest routed estimate and 15 %
+more for catalogue sizes below its limit level; the depth whose pond costs least (excavation, fill,
+land) is chosen. Prints the chosen pond, the trade-off of every depth (and why a depth cannot be
+built), and every estimate in the chosen pond.
 
 ${FITS}
 Narrow terminals wrap the labels and values within the width.
@@ -309,6 +316,7 @@ Narrow terminals wrap the labels and values within the width.
 Examples:
   outfit pond cases/site-only/case.json
   outfit pond cases/site-only/case.json --json
+  outfit pond cases/site-groundwater/case.json      # groundwater and the embankment limit the depth
   outfit pond cases/site-only/case.json --write sized.json && outfit volume sized.json
 
 Exit codes: 0 a pond fits; 1 no pond within the limits holds the storage; ${EXIT_CODES.slice(8)}.`),
