@@ -1,5 +1,6 @@
-// Every storm's routed series (time, inflow, outflow, stage, storage and each part's flow) in the
-// case's units, for `route --csv-dir` (one CSV per storm) and `route --json --series`.
+// Every storm's routed series (time, inflow, outflow, exfiltration where the pond has it, stage,
+// storage and each part's flow) in the case's units, for `route --csv-dir` (one CSV per storm) and
+// `route --json --series`.
 import type { Case, Outlet } from "../model.js";
 import type { StormRouting } from "../routing/routeCase.js";
 import { outletDetail } from "../hydraulics/outlet.js";
@@ -21,11 +22,13 @@ export function stormSeries(c: Case, outlet: Outlet, sr: StormRouting): SeriesTa
   const u = toCaseUnits(c.units);
   const L = unitLabels(c.units);
   const curve = storageCurve(c.pond);
-  const head = ["time (min)", `inflow (${L.flow})`, `outflow (${L.flow})`, `stage (${L.length})`, `storage (${L.volume})`, ...partColumns(outlet).map((n) => `${n} (${L.flow})`)];
+  // An exfiltrating pond's series carry the water leaving into the ground beside the outflow.
+  const x = series.exfiltration;
+  const head = ["time (min)", `inflow (${L.flow})`, `outflow (${L.flow})`, ...(x ? [`exfiltration (${L.flow})`] : []), `stage (${L.length})`, `storage (${L.volume})`, ...partColumns(outlet).map((n) => `${n} (${L.flow})`)];
   const rows = series.time.map((t, i) => {
     const stage = series.stage[i];
     const detail = outletDetail(outlet, c.tailwater, stage);
-    return [t / 60, u.flow(series.inflow[i]), u.flow(series.outflow[i]), u.length(stage), u.volume(curve.volume(stage)), ...partFlows(outlet, detail).map(u.flow)];
+    return [t / 60, u.flow(series.inflow[i]), u.flow(series.outflow[i]), ...(x ? [u.flow(x[i])] : []), u.length(stage), u.volume(curve.volume(stage)), ...partFlows(outlet, detail).map(u.flow)];
   });
   return { head, rows };
 }

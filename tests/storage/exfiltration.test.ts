@@ -5,6 +5,8 @@ import { exfiltrationArea, wettedBottom, wettedSides } from "../../src/storage/e
 import { routeCase } from "../../src/routing/routeCase.js";
 import { evaluateChecks } from "../../src/assess/checks.js";
 import { caseOf, caseProblems } from "./support.js";
+import { stormSeries } from "../../src/report/series.js";
+import { infiltrationBasin } from "../routing/support/ponds.js";
 import type { Pond } from "../../src/model.js";
 
 const rate = { rate: 0.001, sides: true, drainHours: 72, label: null };
@@ -104,5 +106,19 @@ describe("case file: exfiltration is checked like the rest", () => {
   });
   it("a rate that is not an intensity names the field and the expectation", () => {
     expect(message({ ...base, pond: { bottom: 0, top: 5, storage: { prismoid: { length: 20, width: 10, sideSlope: 3 } }, exfiltration: { rate: "0.5 cfs" } } })).toMatch(/pond\.exfiltration\.rate/);
+  });
+});
+
+describe("the routed series carry the exfiltration", () => {
+  it("route's CSV series: the outflow and exfiltration columns integrate again to the routed volumes (trapezoid rule, 0.1 %)", () => {
+    const c = caseOf(infiltrationBasin);
+    const sr = routeCase(c, c.outlet!, { record: true }).storms[0];
+    const table = stormSeries(c, c.outlet!, sr);
+    expect(table.head.slice(0, 4)).toEqual(["time (min)", "inflow (cfs)", "outflow (cfs)", "exfiltration (cfs)"]);
+    const integral = (j: number) => table.rows.slice(1).reduce((sum, row, i) => sum + 0.5 * (row[j] + table.rows[i][j]) * (row[0] - table.rows[i][0]) * 60, 0);
+    const FT3 = 0.3048 ** 3;
+    expect(integral(2) / (sr.result.volumeOut / FT3)).toBeCloseTo(1, 3);
+    expect(integral(3) / (sr.result.volumeExfiltrated / FT3)).toBeCloseTo(1, 3);
+    expect(sr.result.volumeExfiltrated).toBeGreaterThan(0);
   });
 });
