@@ -23,7 +23,7 @@ function nulls(value: unknown, path: string, allowed: ReadonlySet<string>, into:
 const RUNS: [string, string, ...string[]][] = [
   // Every bundled case with an outlet to route.
   ...readdirSync("cases").filter((name) => !["infeasible", "si-headwall"].includes(name)).map((name): [string, string] => ["route", name]),
-  ["rate", "demo"], ["rate", "si-wet-barrel"], ["rate", "underground"],
+  ["rate", "demo"], ["rate", "si-wet-barrel"], ["rate", "underground"], ["rate", "cipolletti"],
   ["volume", "demo", "--type", "II"], ["volume", "underground"], ["volume", "rational"], ["volume", "site-only"],
   ["hydrograph", "demo-rainfall"], ["hydrograph", "rational"],
   ["pond", "site-only"],

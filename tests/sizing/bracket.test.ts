@@ -43,14 +43,15 @@ async function compliantDesign(loaded: LoadedCase): Promise<CaseRouting> {
     const own = routeCase(c, c.outlet);
     if (assess(c, own).compliant) return own;
   }
-  const found = await searched(loaded, 3000);
+  // A short search first; the default budget where it finds nothing (cases/cipolletti).
+  const found = (await searched(loaded, 3000)) ?? (await searched(loaded, 20000));
   expect(found, c.name).not.toBeNull();
   return found!;
 }
 
 /**
- * Measured (seed "outfit", 3000 routings where searched; 4000 on the written ponds): estimate with the
- * allowance / storage used: demo 1.12, demo-rainfall 1.03, ordinance-mix 1.06, si-headwall 1.11,
+ * Measured (seed "outfit", 3000 routings where searched, 20000 for cipolletti; 4000 on the written
+ * ponds): estimate with the allowance / storage used: cipolletti 1.12, demo 1.12, demo-rainfall 1.03, ordinance-mix 1.06, si-headwall 1.11,
  * si-wet-barrel 1.10, small-compliant 0.96 (its own outlet holds its 25-yr storm 4 % below the band's
  * middle), underground 1.19, wet-value 1.06, rational 1.22; the written ponds of site-only 1.04 and
  * site-groundwater (24-hour NRCS storms) 1.07. Without the allowance 0.84 to 1.06. The estimate is at
@@ -60,7 +61,7 @@ const TOLERANCE = 0.05;
 
 describe("the estimate pond sizes to brackets the storage routed compliant designs use", () => {
   // Every bundled case with a pond (cases/infeasible has no compliant design by construction).
-  const bundled = ["demo", "demo-rainfall", "ordinance-mix", "si-headwall", "si-wet-barrel", "small-compliant", "underground", "wet-value", "rational"];
+  const bundled = ["cipolletti", "demo", "demo-rainfall", "ordinance-mix", "si-headwall", "si-wet-barrel", "small-compliant", "underground", "wet-value", "rational"];
   it.each(bundled)("%s", async (name) => {
     const loaded = loadCase(`cases/${name}/case.json`);
     const ratio = sizedTo(loaded.case) / used(loaded.case, await compliantDesign(loaded));
