@@ -50,8 +50,8 @@ describe("keys named like Object.prototype members are fields like any other", (
     });
     expect(problemOf(json)).toContain('storms[0].rainfall.idf: found "constructor", expected the name of a curve in hydrology.idf (there is none)');
   });
-  it("the schema's cost weights are the parts' (src/parts/cost.ts), in the order docs/case-format.md lists them", () => {
-    expect(Object.keys(costsSchema.shape)).toEqual(["opening", "orificeDiameter", "weir", "weirLength", "level", "riser", "riserPerimeter", "barrel"]);
+  it("the schema's cost weights are the parts' (src/parts/cost.ts), then the pond's (src/sizing/pondCost.ts), in the order docs/case-format.md lists them", () => {
+    expect(Object.keys(costsSchema.shape)).toEqual(["opening", "orificeDiameter", "weir", "weirLength", "level", "riser", "riserPerimeter", "barrel", "excavation", "fill", "land"]);
   });
 });
 
