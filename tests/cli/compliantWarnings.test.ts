@@ -16,7 +16,8 @@ interface Reported {
   compliant: boolean;
   warnings: { part: string; reason: string }[];
   caseFile: string;
-  variantOf: number | null;
+  /** Left out of --json when the candidate repeats no better one. */
+  variantOf?: number;
 }
 
 /** What the status should read: the verdict and, when there are any, the warnings beside it. */
@@ -45,7 +46,7 @@ describe("warnings beside the word compliant", () => {
       const rows = text.split("\n").filter((line) => /^\d+ {2}/.test(line));
       for (const c of candidates) {
         const row = rows.find((line) => line.startsWith(`${c.rank}  `))!;
-        const status = words(c.compliant, c.warnings.length) + (c.variantOf !== null ? `, variant of #${c.variantOf}` : "");
+        const status = words(c.compliant, c.warnings.length) + (c.variantOf !== undefined ? `, variant of #${c.variantOf}` : "");
         expect(row.endsWith(`  ${status}`), row).toBe(true);
       }
     }
