@@ -2,63 +2,82 @@
 // curve number equation -> runoff increments per unit duration -> convolution with the unit hydrograph
 // (NEH Part 630 ch. 10 and ch. 16; TR-55).
 import { depthAt, resolution, type MassCurve } from "./distributions.js";
-import { runoffDepth, type AbstractionRatio } from "./runoff.js";
+import { partsRunoffDepth, type AbstractionRatio, type RunoffPart } from "./runoff.js";
 import { MIN_TC_NRCS } from "./timeOfConcentration.js";
 import { convolve, STANDARD_PEAK_RATE_FACTOR, timeToPeak, unitHydrograph } from "./unitHydrograph.js";
 import { regularHydrograph, summarize, type AreaHydrograph } from "./hydrograph.js";
 
+/**
+ * How the unit duration is chosen: "standard" (the method's convention: the largest step no longer
+ * than 0.133 Tc, NEH 630 ch. 16, on the rainfall's own step), "converged" (from there halved until the
+ * peak settles within 0.5 %), or a fixed number of seconds.
+ */
+export type UnitDurationChoice = "standard" | "converged" | number;
+
 export interface NrcsOptions {
   ratio: AbstractionRatio;
   peakRateFactor: number;
+  /** Default "standard". */
+  unitDuration?: UnitDurationChoice;
 }
 
-export const DEFAULT_NRCS_OPTIONS: NrcsOptions = { ratio: 0.2, peakRateFactor: STANDARD_PEAK_RATE_FACTOR };
+export const DEFAULT_NRCS_OPTIONS: NrcsOptions = { ratio: 0.2, peakRateFactor: STANDARD_PEAK_RATE_FACTOR, unitDuration: "standard" };
 
 /** Unit durations outfit picks from (minutes): each divides an hour and a day. */
 const NICE_STEPS_MINUTES = [60, 30, 20, 15, 12, 10, 6, 5, 3, 2, 1, 0.5];
+
+/** NEH 630 ch. 16: the unit duration D is about 0.133 Tc (from Tc + D = 1.7 Tp and the lag L = 0.6 Tc); no longer. */
+export const UNIT_DURATION_OF_TC = 0.133;
 
 /**
  * The unit duration (s): the largest of the steps above not longer than 0.133 Tc (NEH 630 ch. 16,
  * D = 0.133 Tc) nor the rainfall's own resolution; below half a minute, that limit itself.
  */
 export function unitDuration(tc: number, rainfallResolution: number): number {
-  const limit = Math.min(0.133 * tc, rainfallResolution);
+  const limit = Math.min(UNIT_DURATION_OF_TC * tc, rainfallResolution);
   for (const minutes of NICE_STEPS_MINUTES) if (minutes * 60 <= limit + 1e-9) return minutes * 60;
   return limit;
 }
 
 /**
- * Relative change of the peak between two successive unit durations at or below which the peak
- * counts as converged: 0.5 %, the routing contract's tolerance on peaks. The peak's error is about
- * linear in the step, so after a halving what remains is about the last change (tests: the
- * converged peak against a 5-second computation).
+ * Relative change of the peak between two successive unit durations at or below which the converged
+ * computation stops: 0.5 %, the routing contract's tolerance on peaks. The peak's error is about
+ * linear in the step, so after a halving what remains is about the last change.
  */
 export const PEAK_CONVERGENCE = 0.005;
 
-/** Shortest unit duration the refinement goes to (s). */
+/** Shortest unit duration the converged computation goes to (s). */
 const FINEST_STEP = 5;
 
+/** The runoff parameters of an area: one (composite) curve number, or parts computed separately. */
+export type AreaRunoff = number | readonly RunoffPart[];
+
 /**
- * The NRCS runoff hydrograph of an area (m2) with a curve number and Tc (s) for a rainfall mass curve.
- * The unit duration starts at `unitDuration` and is halved (down to 5 s) until the peak changes by at
- * most PEAK_CONVERGENCE (a 12-minute step understated a Tc 1.53 h area's peak by
- * 7.5 %, which is unconservative for storage). `fixedStep` (s) computes at that step only.
+ * The NRCS runoff hydrograph of an area (m2) with a curve number (or parts with their own, computed
+ * separately) and Tc (s) for a rainfall mass curve. The unit duration follows `options.unitDuration`:
+ * by default the method's convention (`unitDuration`, at most 0.133 Tc); "converged" halves it from
+ * there (down to 5 s) until the peak changes by at most PEAK_CONVERGENCE, which tends to the
+ * instantaneous unit hydrograph (time to peak 0.6 Tc) and a higher peak than the method's own;
+ * `fixedStep` (s) computes at that step only.
  */
 export function nrcsHydrograph(
   area: number,
-  curveNumber: number,
+  runoff: AreaRunoff,
   tc: number,
   rainfall: MassCurve,
   options: NrcsOptions = DEFAULT_NRCS_OPTIONS,
   fixedStep?: number,
 ): AreaHydrograph {
   const tcUsed = Math.max(tc, MIN_TC_NRCS);
-  if (fixedStep !== undefined) return atStep(area, curveNumber, tcUsed, rainfall, options, fixedStep);
+  const parts: readonly RunoffPart[] = typeof runoff === "number" ? [{ share: 1, curveNumber: runoff }] : runoff;
+  const choice = fixedStep ?? options.unitDuration ?? "standard";
+  if (typeof choice === "number") return atStep(area, parts, tcUsed, rainfall, options, choice);
   const first = unitDuration(tcUsed, resolution(rainfall));
-  let result = atStep(area, curveNumber, tcUsed, rainfall, options, first);
+  let result = atStep(area, parts, tcUsed, rainfall, options, first);
+  if (choice === "standard") return result;
   // Halving: with an error about linear in the step, the change of a halving is about the error left.
   for (let step = first / 2; step >= FINEST_STEP - 1e-9; step /= 2) {
-    const finer = atStep(area, curveNumber, tcUsed, rainfall, options, step);
+    const finer = atStep(area, parts, tcUsed, rainfall, options, step);
     const change = Math.abs(finer.peak - result.peak) / Math.max(finer.peak, Number.MIN_VALUE);
     result = finer;
     if (change <= PEAK_CONVERGENCE) break;
@@ -66,13 +85,13 @@ export function nrcsHydrograph(
   return result;
 }
 
-function atStep(area: number, curveNumber: number, tcUsed: number, rainfall: MassCurve, options: NrcsOptions, step: number): AreaHydrograph {
+function atStep(area: number, parts: readonly RunoffPart[], tcUsed: number, rainfall: MassCurve, options: NrcsOptions, step: number): AreaHydrograph {
   const start = rainfall.times[0];
   const count = Math.ceil((rainfall.times[rainfall.times.length - 1] - start) / step - 1e-9);
   const excess = new Float64Array(count);
-  let before = runoffDepth(depthAt(rainfall, start), curveNumber, options.ratio);
+  let before = partsRunoffDepth(depthAt(rainfall, start), parts, options.ratio);
   for (let k = 0; k < count; k++) {
-    const after = runoffDepth(depthAt(rainfall, start + (k + 1) * step), curveNumber, options.ratio);
+    const after = partsRunoffDepth(depthAt(rainfall, start + (k + 1) * step), parts, options.ratio);
     excess[k] = after - before;
     before = after;
   }
@@ -85,7 +104,7 @@ function atStep(area: number, curveNumber: number, tcUsed: number, rainfall: Mas
     hydrograph,
     ...summarize(hydrograph),
     rainfall: total,
-    runoff: runoffDepth(total, curveNumber, options.ratio),
+    runoff: partsRunoffDepth(total, parts, options.ratio),
     tc: tcUsed,
     unitDuration: step,
     unitTimeToPeak: tp,

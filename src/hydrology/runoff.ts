@@ -66,3 +66,61 @@ export function weightedMean(pairs: readonly (readonly [number, number])[]): num
   }
   return sum / total;
 }
+
+/** Curve number of impervious areas: paved parking lots, roofs, driveways (TR-55 ch. 2, Table 2-2a). */
+export const IMPERVIOUS_CURVE_NUMBER = 98;
+
+/** TR-55 Figure 2-4 (unconnected impervious area) applies below this impervious share; Figure 2-3 at and above it. */
+export const UNCONNECTED_LIMIT = 0.3;
+
+/**
+ * Composite curve number of an area whose impervious share is directly connected to the drainage system
+ * (TR-55, 1986, ch. 2, Figure 2-3): CNc = CNp + (Pimp/100)(98 - CNp), Pimp the impervious percentage.
+ * Table 2-2a's urban curve numbers are built this way from open space in good condition.
+ */
+export function connectedCurveNumber(perviousCurveNumber: number, impervious: number): number {
+  return perviousCurveNumber + impervious * (IMPERVIOUS_CURVE_NUMBER - perviousCurveNumber);
+}
+
+/**
+ * Composite curve number with unconnected impervious area (TR-55, 1986, ch. 2, Figure 2-4), for a total
+ * impervious share below 30 %: CNc = CNp + (Pimp/100)(98 - CNp)(1 - 0.5 R), R the unconnected share of
+ * the impervious area.
+ */
+export function unconnectedCurveNumber(perviousCurveNumber: number, impervious: number, unconnected: number): number {
+  return perviousCurveNumber + impervious * (IMPERVIOUS_CURVE_NUMBER - perviousCurveNumber) * (1 - 0.5 * unconnected);
+}
+
+/** Which TR-55 ch. 2 relation gives an area's composite curve number. */
+export type CompositeRelation = "figure 2-3" | "figure 2-4";
+
+/**
+ * The composite curve number of an area from its pervious curve number and impervious share, as TR-55
+ * ch. 2 prescribes: Figure 2-4 where some impervious area is unconnected and the total impervious share
+ * is below 30 %; Figure 2-3 otherwise (at 30 % and more TR-55 treats the unconnected area as connected,
+ * the remaining pervious ground absorbing too little to matter).
+ */
+export function imperviousCurveNumber(perviousCurveNumber: number, impervious: number, unconnected: number): { curveNumber: number; relation: CompositeRelation } {
+  if (unconnected > 0 && impervious < UNCONNECTED_LIMIT) return { curveNumber: unconnectedCurveNumber(perviousCurveNumber, impervious, unconnected), relation: "figure 2-4" };
+  return { curveNumber: connectedCurveNumber(perviousCurveNumber, impervious), relation: "figure 2-3" };
+}
+
+/** A share of an area with its own curve number, whose runoff is computed separately. */
+export interface RunoffPart {
+  /** Fraction of the whole area (the parts of an area add up to 1). */
+  share: number;
+  curveNumber: number;
+}
+
+/**
+ * Runoff depth (m) of an area made of parts whose runoff is computed separately, each by the runoff
+ * equation with its own curve number, weighted by area (rather than by a composite curve number: the
+ * runoff equation is convex in CN, so a composite understates runoff where the numbers differ widely,
+ * e.g. connected impervious and lawn: Grove, Harbor & Engel 1998, "Composite vs. distributed curve
+ * numbers: effects on estimates of storm runoff depths", JAWRA 34(5), doi 10.1111/j.1752-1688.1998.tb04150.x).
+ */
+export function partsRunoffDepth(rainfall: number, parts: readonly RunoffPart[], ratio: AbstractionRatio = 0.2): number {
+  let q = 0;
+  for (const p of parts) q += p.share * runoffDepth(rainfall, p.curveNumber, ratio);
+  return q;
+}

@@ -67,12 +67,12 @@ describe("NRCS runoff hydrograph", () => {
   });
 });
 
-// Issue 11: the peak of a convolved NRCS hydrograph depends on the unit duration (the automatic
-// 12-minute step understated a 250 ac, CN 75, Tc 1.53 h area's peak by 7.5 % against 1 minute).
-// The step is now halved until the peak changes by at most PEAK_CONVERGENCE (0.5 %); the converged
-// peak must match a 5-second computation within that tolerance. Areas as in the issue (invented),
-// Type II 24-hour storms of 5.1 and 7 in.
-describe("NRCS peaks converge in the unit duration", () => {
+// The peak of a convolved NRCS hydrograph depends on the unit duration (a 12-minute step gives a
+// 250 ac, CN 75, Tc 1.53 h area's peak 7.5 % below a 1-minute one). The "converged" option halves the
+// step until the peak changes by at most PEAK_CONVERGENCE (0.5 %); its peak must match a 5-second
+// computation within that tolerance. The default is the method's own step (D <= 0.133 Tc). Invented
+// areas, Type II 24-hour storms of 5.1 and 7 in.
+describe("NRCS peaks converge in the unit duration (the converged option)", () => {
   const AC = 43560 * 0.3048 ** 2;
   it.each([
     [250, 75, 1.53],
@@ -81,9 +81,11 @@ describe("NRCS peaks converge in the unit duration", () => {
   ] as const)("%i ac, CN %i, Tc %f h", (acres, cn, tcHours) => {
     for (const p of [5.1, 7]) {
       const rain = distributionMassCurve("II", p * IN);
-      const converged = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain);
+      const converged = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain, { ratio: 0.2, peakRateFactor: 484, unitDuration: "converged" });
       const fine = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain, undefined, 5);
       const first = nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain, undefined, unitDuration(tcHours * HOUR, 900));
+      // The default is the method's step: the first step, not refined.
+      expect(nrcsHydrograph(acres * AC, cn, tcHours * HOUR, rain).peak).toBe(first.peak);
       expect(Math.abs(converged.peak / fine.peak - 1)).toBeLessThanOrEqual(PEAK_CONVERGENCE);
       // The refinement did something: the first step alone is off by more than the tolerance.
       expect(Math.abs(first.peak / fine.peak - 1)).toBeGreaterThan(PEAK_CONVERGENCE);
