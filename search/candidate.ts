@@ -95,7 +95,7 @@ export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet):
   const assessment = assess(p.case, routing, p.options.referencePath);
   let error = 0;
   for (const { storm, result } of routing.storms) {
-    if (storm.target) error = Math.max(error, Math.abs(result.peakOutflow / storm.target - 1));
+    if (storm.target) error = Math.max(error, Math.abs(result.peakAtPoint / storm.target - 1));
   }
   return {
     file,

@@ -5,7 +5,7 @@ import type { Outlet, Storm } from "../src/model.js";
 import type { OutletFile } from "../src/case/schema.js";
 import { buildRatingTable, lazyRatingTable } from "../src/routing/ratingTable.js";
 import { routeSearchInflow } from "../src/routing/durations.js";
-import { drainedStage, type StormRouting } from "../src/routing/routeCase.js";
+import { drainedStage, stormRouteOptions, type StormRouting } from "../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../src/assess/checks.js";
 import { partOf } from "../src/parts/registry.js";
 import type { SearchProblem, Layout } from "./problem.js";
@@ -77,7 +77,7 @@ export class Evaluator {
     this.routings += storms.length;
     return storms.map((storm) => ({
       storm,
-      result: routeSearchInflow(table, p.inflows.get(storm) ?? storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ceiling: storm.ceiling?.hydrograph }),
+      result: routeSearchInflow(table, p.inflows.get(storm) ?? storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ...stormRouteOptions(storm) }),
     }));
   }
 

@@ -16,7 +16,7 @@ import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } fro
 import type { OutletFile } from "../src/case/schema.js";
 import { fileBottom, placed } from "../src/parts/registry.js";
 import { describeElement } from "../src/report/describe.js";
-import { snap, variableBounds } from "./fit.js";
+import { pondGoal, snap, variableBounds } from "./fit.js";
 import { slackText } from "../src/report/console.js";
 import type { LayoutPlan } from "./layouts.js";
 
@@ -176,15 +176,16 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
   if (plan.viableFirst === 0 && plan.pruned.length > 0) {
     const smallest = [...plan.pruned].sort((a, b) => a.peak - b.peak)[0];
     const storm = smallest.storm;
-    const limit = targetBand(storm.target!, p.case.criteria)[1];
+    // At a point of analysis the pond may release only its share of the allowable peak.
+    const limit = pondGoal(storm, targetBand(storm.target!, p.case.criteria)[1]);
     const held = volumeAbove(storm.inflow, limit);
     const stage = stageAtStorage(p, held);
     const file = designOutletFile(p, { levels: [smallest.part], riser: null, barrel: null }, []);
     const flowThere = outletDischarge(designOutlet(p, { ...file, spillway: undefined }), p.case.tailwater, stage);
     lines.push(
       `The smallest catalogue opening at the pond floor (${smallest.part.words}) already passes ${f.flow(flowThere)} at ${f.elevation(stage)}, ` +
-        `the stage where the ${storm.name} storm's volume above its allowable peak (${f.volume(held)} above ${f.flow(limit)}) must be held; ` +
-        `routed alone it releases ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
+        `the stage where the ${storm.name} storm's volume above its allowable ${storm.bypass ? "release from the pond" : "peak"} (${f.volume(held)} above ${f.flow(limit)}) must be held; ` +
+        `routed alone it ${storm.bypass ? "gives, with the bypass, at the point of analysis" : "releases"} ${f.flow(smallest.peak)}. Allow a smaller opening or a flow regulator, or add storage below that stage.`,
     );
   }
   const routings = closest.map((c) => c.routing.storms);

@@ -91,7 +91,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
       vars[index] = high;
       const r = routed(storm);
       stage = r.maxStage;
-      peak = r.peakOutflow;
+      peak = r.peakAtPoint;
     }
     let at = clamp(Math.max(stage, low), min[index], max[index]);
     vars[index] = at;
@@ -105,9 +105,11 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
       let tries = 5;
       // The storage-needed estimate first: the elevation at which the levels pass the goal at the
       // stage holding the storm's inflow above the goal; then regula falsi in what it leaves.
-      const z0 = levelPassing(p, l, trial, vars, index, zLow, zHigh, goalStage(p, storm, goal), goal);
+      // The pond's own share of the goal: at the point of analysis the bypass takes part of it.
+      const own = pondGoal(storm, goal);
+      const z0 = levelPassing(p, l, trial, vars, index, zLow, zHigh, goalStage(p, storm, own), own);
       vars[index] = z0;
-      const f0 = routed(storm).peakOutflow - goal;
+      const f0 = routed(storm).peakAtPoint - goal;
       at = z0;
       if (Math.abs(f0) < 0.01 * goal) tries = 0;
       else if (f0 > 0) {
@@ -119,7 +121,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
       }
       if (tries > 0 && Number.isNaN(fLow)) {
         vars[index] = zLow;
-        fLow = routed(storm).peakOutflow - goal;
+        fLow = routed(storm).peakAtPoint - goal;
         if (fLow <= 0) {
           at = zLow;
           tries = 0;
@@ -129,7 +131,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
         for (let i = 0; i < tries; i++) {
           const zt = zHigh - (fHigh * (zHigh - zLow)) / (fHigh - fLow);
           vars[index] = zt;
-          const f = routed(storm).peakOutflow - goal;
+          const f = routed(storm).peakAtPoint - goal;
           at = zt;
           if (Math.abs(f) < 0.01 * goal) break;
           if (f > 0) {
@@ -184,6 +186,25 @@ export function goalStage(p: SearchProblem, storm: Storm, goal: number): number 
 }
 
 const FREE: Tailwater = { kind: "free" };
+
+/**
+ * The pond's share of a release goal set at the point of analysis: the goal less the bypass at the time
+ * of the inflow's peak (about when the bypass of a quicker area has passed its own peak and the pond is
+ * rising to its own), at least a tenth of the goal. An estimate for the staged start only; the routing
+ * that follows judges the sum.
+ */
+export function pondGoal(storm: Storm, goal: number): number {
+  const b = storm.bypass;
+  if (!b) return goal;
+  let at = 0;
+  for (let i = 1; i < storm.inflow.flows.length; i++) if (storm.inflow.flows[i] > storm.inflow.flows[at]) at = i;
+  const t = storm.inflow.times[at];
+  let q = 0;
+  for (let i = 1; i < b.times.length; i++) {
+    if (b.times[i - 1] <= t && t <= b.times[i]) q = b.flows[i - 1] + ((b.flows[i] - b.flows[i - 1]) * (t - b.times[i - 1])) / (b.times[i] - b.times[i - 1]);
+  }
+  return Math.max(goal - q, 0.1 * goal);
+}
 
 /** Goal stages by storm, then goal and pond (a pure function's memo: the goal is fixed per storm in a search). */
 const goalStages = new WeakMap<Storm, Map<string, number>>();

@@ -15,7 +15,7 @@ import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount
 import { Evaluator } from "./evaluate.js";
 import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
-import { stagedStart } from "./fit.js";
+import { pondGoal, stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
 import { RULES } from "../src/assess/rules/registry.js";
 import type { Check } from "../src/assess/rules/rule.js";
@@ -111,7 +111,8 @@ const barrelChoicesOf = new WeakMap<SearchProblem, (SizeOption | null)[]>();
 
 function chooseBarrels(p: SearchProblem): (SizeOption | null)[] {
   if (!p.barrel || p.barrelOptions.length === 0) return [null];
-  const need = Math.max(...p.targeted.map((s) => targetBand(s.target!, p.case.criteria)[1]));
+  // At a point of analysis the pond releases its share of the target (the bypass takes the rest).
+  const need = Math.max(...p.targeted.map((s) => pondGoal(s, targetBand(s.target!, p.case.criteria)[1])));
   const index = p.barrelOptions.findIndex((b) => barrelCapacity(p, b) >= need);
   if (index < 0) return [p.barrelOptions[p.barrelOptions.length - 1]];
   return p.barrelOptions.slice(index, index + 2);
@@ -255,10 +256,10 @@ export function firstLevelScore(p: SearchProblem, part: PartOption, evaluator: E
   const vars = stagedStart(p, layout, evaluator, true);
   const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
   const result = evaluator.routeStorms(outlet, [first])[0].result;
-  let peak = result.peakOutflow;
+  let peak = result.peakAtPoint;
   if (!p.lowestFloats && peak > targetBand(first.target!, p.case.criteria)[1]) {
     // The bound holds with the most restrictive barrel: confirm with it before pruning.
-    if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakOutflow;
+    if (p.barrel) peak = evaluator.routeStorms(designOutlet(p, designOutletFile(p, layout, vars)), [first])[0].result.peakAtPoint;
     if (peak > targetBand(first.target!, p.case.criteria)[1]) return { peak, pruned: true, bounded: false, score: Infinity };
   }
   // Checks that openings added above can only worsen, on this level alone with the most restrictive barrel.
@@ -283,7 +284,7 @@ export function extensionPeak(p: SearchProblem, levels: PartOption[], storm: Sto
   const layout: Layout = { levels, riser: null, barrel: barrelChoices(p)[0] };
   const vars = stagedStart(p, layout, evaluator, true);
   const outlet = designOutlet(p, designOutletFile(p, layout, vars, true));
-  return evaluator.routeStorms(outlet, [storm])[0].result.peakOutflow;
+  return evaluator.routeStorms(outlet, [storm])[0].result.peakAtPoint;
 }
 
 /**

@@ -119,7 +119,9 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   const columns: Column[] = [
     { head: "#", align: "right" },
     { head: "Outlet", narrow: "detail" },
-    ...stormNames.map((n): Column => ({ head: `${n}\nout/target %`, align: "right", wrap: STORM_NAME_WIDTH })),
+    // With a bypass the target applies at the point of analysis (pond outflow plus bypass).
+    ...p.targeted.map((s): Column => ({ head: `${s.name}
+${s.bypass ? "point" : "out"}/target %`, align: "right", wrap: STORM_NAME_WIDTH })),
     { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: "Cost\n(units)", align: "right" },
@@ -136,7 +138,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
       wrapParts(c.description, 58),
       ...stormNames.map((n) => {
         const s = storms.get(n)!;
-        return (100 * s.result.peakOutflow / s.storm.target!).toFixed(1);
+        return (100 * s.result.peakAtPoint / s.storm.target!).toFixed(1);
       }),
       fb ? f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3) : "-",
       fb ? f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2) : "-",
@@ -150,6 +152,9 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   if (rows.length > 0) {
     if (!run.success && shown.length > 0) lines.push(w("No compliant design was found; the closest candidates, with the checks they fail:"), "");
     lines.push(renderTable(layout, columns, rows).text, "", w("* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.", 2));
+    if (p.targeted.some((s) => s.bypass)) {
+      lines.push(w("point/target: the peak at the point of analysis, the pond's outflow (spillway included) plus the runoff bypassing the pond at each instant, over the target; the search designs to it.", 2));
+    }
   }
   if (shown.length === 0) lines.push(w("No candidate kept every geometric rule; nothing to show."));
   if (baseline) {

@@ -178,6 +178,26 @@ export interface Storm {
   durations?: DurationRange;
   /** The outflow must stay under this hydrograph at every instant of its span (a release-limit form); null when not asked. */
   ceiling: { hydrograph: Hydrograph; statement: string; label: string | null } | null;
+  /**
+   * Runoff of the area that bypasses the pond and joins its outflow at the point of analysis, lag
+   * applied (null when none): the target and every release rule on peaks then apply to the sum.
+   */
+  bypass: Hydrograph | null;
+  /** Further points of analysis of this storm (a site that drains two ways); empty when none. */
+  points: AnalysisPoint[];
+}
+
+/** A further point of analysis of a storm: the runoff reaching it and its allowable peak. */
+export interface AnalysisPoint {
+  name: string;
+  /** Whether the pond's outflow (spillway included) reaches this point too. */
+  pond: boolean;
+  /** Runoff joining at this point, lag applied; null when only the pond's outflow reaches it. */
+  bypass: Hydrograph | null;
+  /** Allowable peak at the point (m3/s); null when the point is only reported. */
+  target: number | null;
+  /** Free-text source of the target; null when none. */
+  label: string | null;
 }
 
 /** One allowable-release form of a storm, resolved to a flow. */

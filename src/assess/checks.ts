@@ -30,7 +30,7 @@ export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRo
   const clog = c.criteria.clogging;
   if (clog) {
     const clogged = cloggedOutlet(outlet, clog.fraction);
-    const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) }, direct };
+    const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) }, direct, condition: "clogged" };
     const words = `${+(100 * clog.fraction).toPrecision(6)} % clogged${clog.label === null ? "" : `, ${clog.label}`}`;
     for (const rule of RULES) {
       if (!cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;

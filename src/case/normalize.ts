@@ -1,8 +1,8 @@
 // Turns a schema-valid case file into the SI model, checking what spans several fields.
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import type { CaseFile, Length, OutletFile } from "./schema.js";
-import type { Case, Catalogue, Criteria, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
+import type { BypassFile, CaseFile, Length, OutletFile } from "./schema.js";
+import type { AnalysisPoint, Case, Catalogue, Criteria, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
 import { normalizeExfiltration } from "./exfiltration.js";
 import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
@@ -142,7 +142,42 @@ function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Co
     // A rational storm whose inflow is derived is routed over its range of durations.
     ...(!storm.inflow && derived?.durations ? { durations: derived.durations } : {}),
     ceiling: stormCeiling(storm, path, cv, context, derived),
+    bypass: storm.bypass ? readBypass(storm.bypass, `${path}.bypass`, cv, context) : (derived?.bypass?.hydrograph ?? null),
+    points: stormPoints(storm, path, cv, context, derived),
   };
+}
+
+/** A bypass hydrograph (file or series), later by its lag. */
+function readBypass(source: BypassFile, path: string, cv: Converter, context: NormalizeContext): Hydrograph {
+  const h = readHydrograph(source, path, cv, context);
+  const lag = (source.lag ?? 0) * 60;
+  return lag > 0 ? { times: Float64Array.from(h.times, (t) => t + lag), flows: h.flows } : h;
+}
+
+/**
+ * The storm's further points of analysis: those the storm lists and those the hydrology section
+ * defines, by name; the storm's own values (target, bypass, pond) win over derived ones.
+ */
+function stormPoints(storm: CaseFile["storms"][number], path: string, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): AnalysisPoint[] {
+  const given = storm.points ?? [];
+  const names = new Set<string>();
+  given.forEach((p, i) => {
+    if (names.has(p.name)) cv.problem(`${path}.points[${i}].name`, show(p.name), "a point name not used by another point of this storm");
+    names.add(p.name);
+  });
+  const derivedPoints = derived?.points ?? [];
+  const all = [...given.map((p) => p.name), ...derivedPoints.map((p) => p.name).filter((n) => !names.has(n))];
+  return all.map((name) => {
+    const i = given.findIndex((p) => p.name === name);
+    const own = i >= 0 ? given[i] : undefined;
+    const from = derivedPoints.find((p) => p.name === name);
+    const where = `${path}.points[${i}]`;
+    const bypass = own?.bypass ? readBypass(own.bypass, `${where}.bypass`, cv, context) : (from?.post?.hydrograph ?? null);
+    const pond = own?.pond ?? from?.pond ?? false;
+    if (own && !bypass && !pond) cv.problem(where, "no runoff reaching the point", "a bypass (file or series), pond: true, or a point of the same name in hydrology.points with an area draining to it");
+    const target = own?.target !== undefined ? cv.flowOf(own.target, `${where}.target`) : (from?.pre?.peak ?? null);
+    return { name, pond, bypass, target, label: own?.targetSource ?? null };
+  });
 }
 
 /** The pre-development hydrograph the outflow must stay under (a `belowPreHydrograph` release limit), given or derived. */

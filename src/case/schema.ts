@@ -93,12 +93,21 @@ export const tailwaterSchema = z
   })
   .superRefine(exactlyOne(["free", "elevation", "rating"], "tailwater"));
 
-export const inflowSchema = z
-  .object({
-    file: z.string({ error: "a file name (CSV relative to the case file)" }).min(1).optional(),
-    series: z.array(z.tuple([finite, flowSchema], { error: "a pair [minutes, flow]" }), { error: "a list of [minutes, flow] pairs" }).optional(),
-  })
-  .superRefine(exactlyOne(["file", "series"], "inflow"));
+/** A hydrograph's source: a CSV file beside the case, or [minutes, flow] pairs. */
+const hydrographSource = {
+  file: z.string({ error: "a file name (CSV relative to the case file)" }).min(1).optional(),
+  series: z.array(z.tuple([finite, flowSchema], { error: "a pair [minutes, flow]" }), { error: "a list of [minutes, flow] pairs" }).optional(),
+};
+export const inflowSchema = z.object(hydrographSource).superRefine(exactlyOne(["file", "series"], "inflow"));
+
+/** A lag in minutes (zero or more): how much later a bypassing runoff reaches the point of analysis. */
+const lagMinutes = finite.refine((v) => v >= 0 && v <= 1440, { message: "a lag in minutes from 0 to 1440" });
+
+/**
+ * Runoff that bypasses the pond and joins its outflow at the point of analysis (case-format contract,
+ * "Bypass and the point of analysis"): the forms of an inflow, plus an optional `lag` (minutes, default 0).
+ */
+export const bypassSchema = z.object({ ...hydrographSource, lag: lagMinutes.optional() }).superRefine(exactlyOne(["file", "series"], "bypass"));
 
 // --- hydrology: rainfall and watershed data from which storms derive inflows and targets ---
 
@@ -137,44 +146,82 @@ export const flowSegmentSchema = z.discriminatedUnion(
   { error: 'a flow segment type: "sheet", "shallow" or "channel"' },
 );
 
-const subAreaSchema = z
-  .object({
-    name: z.string().optional(),
-    area: positiveArea,
-    curveNumber: curveNumber.optional(),
-    runoffCoefficient: runoffCoefficient.optional(),
-  })
-  .superRefine((part, ctx) => {
-    if (part.curveNumber === undefined && part.runoffCoefficient === undefined) {
-      ctx.addIssue({ code: "custom", message: "a curveNumber or a runoffCoefficient for the sub-area", input: "neither" });
+const fraction = finite.refine((v) => v >= 0 && v <= 1, { message: "a fraction from 0 to 1 (0.35 for 35 %)" });
+
+/**
+ * The runoff fields of an area or sub-area: an NRCS curve number (`curveNumber`, or a pervious curve
+ * number with the impervious share, TR-55 ch. 2 Figures 2-3 and 2-4) and/or a rational runoff coefficient.
+ */
+const runoffFields = {
+  curveNumber: curveNumber.optional(),
+  perviousCurveNumber: curveNumber.optional(),
+  /** Share of the area that is impervious (CN 98), 0 to 1. */
+  impervious: fraction.optional(),
+  /** Share of the impervious area that is not directly connected (it drains over pervious ground), 0 to 1. */
+  unconnected: fraction.optional(),
+  runoffCoefficient: runoffCoefficient.optional(),
+};
+type RunoffFields = { curveNumber?: number; perviousCurveNumber?: number; impervious?: number; unconnected?: number; runoffCoefficient?: number };
+
+/** The runoff fields agree: one way to the curve number, the impervious share with a pervious number. */
+function runoffFieldsAgree(what: string) {
+  return (part: RunoffFields, ctx: z.RefinementCtx) => {
+    if (part.curveNumber !== undefined && part.perviousCurveNumber !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["perviousCurveNumber"], message: "either curveNumber or perviousCurveNumber with impervious, not both", input: part.perviousCurveNumber });
     }
-  });
+    if ((part.perviousCurveNumber === undefined) !== (part.impervious === undefined)) {
+      const missing = part.impervious === undefined ? "impervious" : "perviousCurveNumber";
+      const message = missing === "impervious" ? "the impervious share (0 to 1) with perviousCurveNumber (TR-55 ch. 2)" : "the pervious curve number with impervious (TR-55 ch. 2)";
+      ctx.addIssue({ code: "custom", path: [missing], message, input: undefined });
+    }
+    if (part.unconnected !== undefined && part.impervious === undefined) {
+      ctx.addIssue({ code: "custom", path: ["unconnected"], message: "an unconnected share only with impervious and perviousCurveNumber", input: part.unconnected });
+    }
+    if (part.curveNumber === undefined && part.perviousCurveNumber === undefined && part.runoffCoefficient === undefined) {
+      ctx.addIssue({ code: "custom", message: `a curveNumber (or perviousCurveNumber with impervious) or a runoffCoefficient for the ${what}`, input: "neither" });
+    }
+  };
+}
+
+const subAreaSchema = z.object({ name: z.string().optional(), area: positiveArea, ...runoffFields }).superRefine(runoffFieldsAgree("sub-area"));
+
+/** One drainage area: size, runoff parameters and Tc (the shape without its checks, so others may extend it). */
+const catchmentShape = {
+  area: positiveArea.optional(),
+  ...runoffFields,
+  parts: z.array(subAreaSchema, { error: "a list of sub-areas" }).min(1, { message: "at least one sub-area" }).optional(),
+  tc: positive.optional(),
+  flowPath: z.array(flowSegmentSchema, { error: "a list of flow segments" }).min(1, { message: "at least one flow segment" }).optional(),
+  watershedLag: z.object({ flowLength: positiveLength, slope }).optional(),
+};
+type CatchmentFields = RunoffFields & { area?: number | string; parts?: unknown[]; tc?: number; flowPath?: unknown[]; watershedLag?: unknown };
+
+function catchmentAgrees(c: CatchmentFields, ctx: z.RefinementCtx): void {
+  exactlyOne(["tc", "flowPath", "watershedLag"], "time of concentration")(c, ctx);
+  if (c.parts !== undefined) {
+    const extra = (["area", "curveNumber", "perviousCurveNumber", "impervious", "unconnected", "runoffCoefficient"] as const).filter((k) => c[k] !== undefined);
+    if (extra.length > 0) {
+      ctx.addIssue({ code: "custom", message: "either parts or the area with its runoff fields, not both", input: `parts and ${extra.join(", ")}` });
+    }
+  } else {
+    if (c.area === undefined) ctx.addIssue({ code: "custom", path: ["area"], message: "an area (or a list of parts)", input: undefined });
+    runoffFieldsAgree("area")(c, ctx);
+  }
+}
 
 /** One drainage area (before or after development): size, runoff parameters and Tc. */
-export const catchmentSchema = z
-  .object({
-    area: positiveArea.optional(),
-    curveNumber: curveNumber.optional(),
-    runoffCoefficient: runoffCoefficient.optional(),
-    parts: z.array(subAreaSchema, { error: "a list of sub-areas" }).min(1, { message: "at least one sub-area" }).optional(),
-    tc: positive.optional(),
-    flowPath: z.array(flowSegmentSchema, { error: "a list of flow segments" }).min(1, { message: "at least one flow segment" }).optional(),
-    watershedLag: z.object({ flowLength: positiveLength, slope }).optional(),
-  })
-  .superRefine((c, ctx) => {
-    exactlyOne(["tc", "flowPath", "watershedLag"], "time of concentration")(c, ctx);
-    if (c.parts !== undefined) {
-      const extra = (["area", "curveNumber", "runoffCoefficient"] as const).filter((k) => c[k] !== undefined);
-      if (extra.length > 0) {
-        ctx.addIssue({ code: "custom", message: "either parts or area with curveNumber/runoffCoefficient, not both", input: `parts and ${extra.join(", ")}` });
-      }
-    } else {
-      if (c.area === undefined) ctx.addIssue({ code: "custom", path: ["area"], message: "an area (or a list of parts)", input: undefined });
-      if (c.curveNumber === undefined && c.runoffCoefficient === undefined) {
-        ctx.addIssue({ code: "custom", message: "a curveNumber (NRCS method) or a runoffCoefficient (rational method), or both", input: "neither" });
-      }
-    }
-  });
+export const catchmentSchema = z.object(catchmentShape).superRefine(catchmentAgrees);
+
+/** A drainage area whose runoff bypasses the pond: a drainage area plus its `lag` (minutes, default 0) to the point. */
+export const bypassAreaSchema = z.object({ ...catchmentShape, lag: lagMinutes.optional() }).superRefine(catchmentAgrees);
+
+/** A further point of analysis in the hydrology: the areas draining to it before and after development. */
+export const hydrologyPointSchema = z.object({
+  name: z.string({ error: "the name of the point of analysis" }).min(1, { message: "a non-empty name" }),
+  pre: catchmentSchema.optional(),
+  post: bypassAreaSchema.optional(),
+  pond: z.boolean({ error: "true or false" }).optional(),
+});
 
 /** A rainfall intensity-duration relation for the rational method. */
 export const idfSchema = z
@@ -194,6 +241,16 @@ export const hydrologySchema = z.object({
   initialAbstractionRatio: z.union([z.literal(0.2), z.literal(0.05)], { error: "0.2 or 0.05" }).optional(),
   peakRateFactor: finite.refine((v) => v >= 100 && v <= 700, { message: "a peak rate factor from 100 to 700 (484 standard)" }).optional(),
   idf: z.record(z.string(), idfSchema, { error: "an object of named IDF curves" }).optional(),
+  /** The area after development whose runoff bypasses the pond and joins its outflow at the point of analysis. */
+  bypass: bypassAreaSchema.optional(),
+  /** Further points of analysis (a site that drains two ways), each with its own areas. */
+  points: z.array(hydrologyPointSchema, { error: "a list of points of analysis" }).min(1, { message: "at least one point" }).optional(),
+  /** NRCS runoff of areas with sub-areas: one composite curve number (TR-55 worksheet 2), or each part separately. */
+  runoffMethod: z.enum(["composite", "separate"], { error: '"composite" (TR-55 composite curve number) or "separate" (pervious and impervious runoff computed separately)' }).optional(),
+  /** NRCS unit duration: "standard" (the largest step <= 0.133 Tc on the rainfall's step), "converged" (halved until the peak settles), or minutes. */
+  unitDuration: z
+    .union([z.enum(["standard", "converged"]), positive], { error: '"standard" (at most 0.133 Tc, NEH 630 ch. 16), "converged", or a number of minutes' })
+    .optional(),
 });
 
 export const DISTRIBUTION_NAMES = ["I", "IA", "II", "III"] as const;
@@ -278,6 +335,19 @@ export const releaseLimitSchema = z
     }
   });
 
+/**
+ * A further point of analysis of a storm (a site that drains two ways): its allowable peak, the runoff
+ * joining there, and whether the pond's outflow reaches it (default false). `bypass` keeps the storm's
+ * meaning: the pond's own point of analysis.
+ */
+export const stormPointSchema = z.object({
+  name: z.string({ error: "the name of the point of analysis" }).min(1, { message: "a non-empty name" }),
+  target: positiveQuantity(flowSchema, FLOW_UNITS, "an allowable peak at the point").optional(),
+  targetSource: sourceLabel,
+  bypass: bypassSchema.optional(),
+  pond: z.boolean({ error: "true or false" }).optional(),
+});
+
 export const stormSchema = z
   .object({
     name: z.string({ error: "a storm name" }).min(1, { message: "a non-empty storm name" }),
@@ -287,6 +357,8 @@ export const stormSchema = z
     targetSource: sourceLabel,
     inflow: inflowSchema.optional(),
     rainfall: rainfallSchema.optional(),
+    bypass: bypassSchema.optional(),
+    points: z.array(stormPointSchema, { error: "a list of further points of analysis" }).min(1, { message: "at least one point" }).optional(),
   })
   .superRefine((storm, ctx) => {
     if (storm.inflow === undefined && storm.rainfall === undefined) {
@@ -440,4 +512,7 @@ export type SiteFile = z.infer<typeof siteSchema>;
 export type HydrologyFile = z.infer<typeof hydrologySchema>;
 export type CatchmentFile = z.infer<typeof catchmentSchema>;
 export type RainfallFile = z.infer<typeof rainfallSchema>;
+export type BypassFile = z.infer<typeof bypassSchema>;
+export type BypassAreaFile = z.infer<typeof bypassAreaSchema>;
+export type StormPointFile = z.infer<typeof stormPointSchema>;
 export type ProjectFile = z.infer<typeof projectSchema>;

@@ -6,7 +6,8 @@ import type { Check } from "../assess/checks.js";
 import { formatter, quantityText, significant, trimNumber, type Formatter } from "../format.js";
 import { ruleOf } from "../assess/rules/registry.js";
 import { outletDetail } from "../hydraulics/outlet.js";
-import { withinBand } from "./json.js";
+import { hydrographPeak, withinBand } from "./json.js";
+import { furtherPointPeak } from "../assess/rules/furtherPointPeak.js";
 import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { limitingPart } from "./limiting.js";
@@ -27,11 +28,14 @@ export function percent(x: number, digits = 1): string {
 export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string {
   const f = formatter(c.units);
   const L = f.labels;
+  // With a bypass the target applies at the point of analysis: the pond's outflow plus the bypass.
+  const atPoint = routing.storms.some(({ storm }) => storm.bypass);
   const columns: Column[] = [
     { head: "Storm", wrap: STORM_NAME_WIDTH },
     { head: `Peak out\n(${L.flow})`, align: "right" },
+    ...(atPoint ? [{ head: `At point\n(${L.flow})`, align: "right" as const }] : []),
     { head: `Target\n(${L.flow})`, align: "right" },
-    { head: "Out/target\n(%)", align: "right" },
+    { head: atPoint ? "Point/target\n(%)" : "Out/target\n(%)", align: "right" },
     { head: `Max stage\n(${L.length})`, align: "right" },
     { head: "Drawdown\n(h)", align: "right" },
     { head: "Return\n(yr)", align: "right", narrow: "detail" },
@@ -40,13 +44,14 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
     { head: "Limited by\n(at max stage)", narrow: "detail", unit: "" },
   ];
   const rows: Row[] = routing.storms.map(({ storm, result }) => {
-    const inBand = withinBand(c, result.peakOutflow, storm.target);
+    const inBand = withinBand(c, result.peakAtPoint, storm.target);
     const detail = outletDetail(routing.outlet, c.tailwater, result.maxStage);
     return [
       storm.name,
       significant(f.raw.flow(result.peakOutflow)),
+      ...(atPoint ? [storm.bypass ? significant(f.raw.flow(result.peakAtPoint)) : "-"] : []),
       storm.target === null ? "none" : significant(f.raw.flow(storm.target)),
-      storm.target ? { text: `${(100 * result.peakOutflow / storm.target).toFixed(1)}${inBand ? "" : " !"}`, tone: inBand ? "pass" : "fail" } : "-",
+      storm.target ? { text: `${(100 * result.peakAtPoint / storm.target).toFixed(1)}${inBand ? "" : " !"}`, tone: inBand ? "pass" : "fail" } : "-",
       f.raw.length(result.maxStage).toFixed(c.units === "US" ? 2 : 3),
       result.drawdownTime === null ? "not drained" : (result.drawdownTime / 3600).toFixed(1),
       trimNumber(storm.returnPeriod, 2),
@@ -56,14 +61,39 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
     ];
   });
   const table = renderTable(layout, columns, rows);
-  const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
-  return [table.text + marks, ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
+  const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakAtPoint, storm.target)) ? "\n! outside the target band" : "";
+  return [table.text + marks, ...pointLines(c, routing, layout), ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
 }
 
 /** The storage table (exfiltration, surcharge, governing durations) with the line before it, or nothing. */
 export function storageLines(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string[] {
   const table = storageTable(c, routing, layout);
   return table === null ? [] : ["", table];
+}
+
+/**
+ * What the point of analysis is, when a storm has a bypass, and each storm's flow at further points:
+ * the reader sees where the target is measured.
+ */
+export function pointLines(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string[] {
+  const f = formatter(c.units);
+  const lines: string[] = [];
+  if (routing.storms.some(({ storm }) => storm.bypass)) {
+    lines.push("At point: the pond's outflow (spillway included) plus the runoff bypassing the pond, summed at each instant (the point of analysis); the target applies there.");
+    for (const { storm, result } of routing.storms) {
+      if (!storm.bypass) continue;
+      lines.push(`  ${storm.name}: ${f.flow(result.peakAtPoint)} at ${(result.timeOfPeakAtPoint / 3600).toFixed(2)} h = outflow ${f.flow(result.peakAtPoint - result.bypassAtPeak)} + bypass ${f.flow(result.bypassAtPeak)} (bypass peak ${f.flow(hydrographPeak(storm.bypass))})`);
+    }
+  }
+  const further = routing.storms.flatMap(({ storm, result }) =>
+    storm.points.map((p) => {
+      const peak = furtherPointPeak(storm, p, result);
+      const target = p.target === null ? "no target" : `target ${f.flow(p.target)} (${percent(peak / p.target)})`;
+      return `  ${storm.name} at ${p.name}: ${f.flow(peak)}, ${target}; ${p.pond ? "pond outflow plus the runoff joining there" : "runoff not passing through the pond"}`;
+    }),
+  );
+  if (further.length > 0) lines.push("Further points of analysis:", ...further);
+  return lines.map((line) => wrap(line, layout.width, line.startsWith("  ") ? 4 : 0));
 }
 
 export function checkValue(c: Case, check: Check, value: number | null): string {

@@ -1,10 +1,12 @@
 // JSON output in the case's units, with the fields the case-format contract names.
-import type { Case } from "../model.js";
+import type { AnalysisPoint, Case } from "../model.js";
 import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
 import { toCaseUnits } from "../units.js";
-import { withinTargetBand } from "../assess/rules/band.js";
+import { targetBand, withinTargetBand } from "../assess/rules/band.js";
+import { PASS_TOLERANCE, upperFlowSlack } from "../assess/rules/rule.js";
+import { furtherPointPeak } from "../assess/rules/furtherPointPeak.js";
 import { ruleOf } from "../assess/rules/registry.js";
 import { CAUTION } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
@@ -22,6 +24,14 @@ export interface StormJson {
   peakInflow: number;
   peakOutflow: number;
   timeOfPeakOutflow: number;
+  /** With a bypass (contract): the largest flow at the point of analysis, outflow plus bypass at the same instant. */
+  peakAtPoint?: number;
+  /** With a bypass: when `peakAtPoint` occurs (min), the bypass's share of it, and the bypass's own peak. */
+  timeOfPeakAtPoint?: number;
+  bypassAtPeak?: number;
+  peakBypass?: number;
+  /** Further points of analysis (a site that drains two ways), when the storm has any. */
+  points?: PointJson[];
   maxStage: number;
   maxStorage: number;
   ratio: number | null;
@@ -34,6 +44,17 @@ export interface StormJson {
   steps: number;
   /** Where they apply (report/storageNotes.ts): governingDuration, durationsRouted, volumeExfiltrated, peakExfiltration, aboveSystemTop, surchargeWhere. */
   [storage: string]: unknown;
+}
+
+export interface PointJson {
+  name: string;
+  /** Whether the pond's outflow reaches the point. */
+  pond: boolean;
+  target: number | null;
+  peak: number;
+  ratio: number | null;
+  /** Within the upper edge of the point's band (further points have no lower limit); null without a target. */
+  withinTolerance: boolean | null;
 }
 
 /** Whether a peak lies inside its target band (band edges count as inside). */
@@ -54,10 +75,20 @@ export function stormJson(c: Case, s: StormRouting): StormJson {
     peakInflow: u.flow(r.peakInflow),
     peakOutflow: u.flow(r.peakOutflow),
     timeOfPeakOutflow: r.timeOfPeakOutflow / 60,
+    ...(s.storm.bypass
+      ? {
+          peakAtPoint: u.flow(r.peakAtPoint),
+          timeOfPeakAtPoint: r.timeOfPeakAtPoint / 60,
+          bypassAtPeak: u.flow(r.bypassAtPeak),
+          peakBypass: u.flow(hydrographPeak(s.storm.bypass)),
+        }
+      : {}),
+    ...(s.storm.points?.length ? { points: s.storm.points.map((p) => pointJson(c, s, p)) } : {}),
     maxStage: u.length(r.maxStage),
     maxStorage: u.volume(r.maxStorage),
-    ratio: target === null || target === 0 ? null : r.peakOutflow / target,
-    withinTolerance: withinBand(c, r.peakOutflow, target),
+    // The target applies at the point of analysis (the pond's outlet without a bypass).
+    ratio: target === null || target === 0 ? null : r.peakAtPoint / target,
+    withinTolerance: withinBand(c, r.peakAtPoint, target),
     volumeIn: u.volume(r.volumeIn),
     volumeOut: u.volume(r.volumeOut),
     massBalanceError: r.massBalanceError,
@@ -65,6 +96,27 @@ export function stormJson(c: Case, s: StormRouting): StormJson {
     timeOfMaxStage: r.timeOfMaxStage / 60,
     steps: r.steps,
     ...storageJsonFields(c, s),
+  };
+}
+
+/** The largest flow of a hydrograph (m3/s). */
+export function hydrographPeak(h: { flows: ArrayLike<number> }): number {
+  let peak = 0;
+  for (let i = 0; i < h.flows.length; i++) if (h.flows[i] > peak) peak = h.flows[i];
+  return peak;
+}
+
+function pointJson(c: Case, s: StormRouting, p: AnalysisPoint): PointJson {
+  const u = toCaseUnits(c.units);
+  const peak = furtherPointPeak(s.storm, p, s.result);
+  const upper = p.target === null ? null : targetBand(p.target, c.criteria)[1];
+  return {
+    name: p.name,
+    pond: p.pond,
+    target: p.target === null ? null : u.flow(p.target),
+    peak: u.flow(peak),
+    ratio: p.target === null ? null : peak / p.target,
+    withinTolerance: upper === null ? null : upperFlowSlack(peak, upper) >= -PASS_TOLERANCE,
   };
 }
 
@@ -76,6 +128,8 @@ export interface CheckJson {
   label: string | null;
   /** "design", or "clogged" for the twin evaluated with criteria.clogging. */
   condition: string;
+  /** Where a flow check measures its value when not at the pond's outlet ("point of analysis", or a further point's name). */
+  point?: string;
   passed: boolean;
   value: number | null;
   limit: number;
@@ -98,6 +152,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
     key: check.key,
     label: check.label,
     condition: check.condition,
+    ...(check.point === null ? {} : { point: check.point }),
     passed: check.passed,
     value: check.value === null ? null : convert(check.value),
     limit: convert(check.limit),

@@ -9,6 +9,7 @@ import type { Hydrograph } from "../model.js";
 import type { RatingTable } from "./ratingTable.js";
 import { interpolateAtStage } from "./ratingTable.js";
 import { hydrographVolume } from "../hydrology/hydrograph.js";
+import { PointTracker, type PointPeak } from "./pointOfAnalysis.js";
 
 export interface RouteOptions {
   /** Fixed time step (s). Without it the router chooses and refines the step itself. */
@@ -24,6 +25,14 @@ export interface RouteOptions {
    * start and at every step end inside its time span; the closest approach is reported as `ceiling`.
    */
   ceiling?: Hydrograph;
+  /**
+   * Runoff that bypasses the pond and joins its outflow at the point of analysis: the router tracks the
+   * largest sum (`peakAtPoint`) and compares the sum, not the outflow alone, with `ceiling`. The
+   * routing goes on at least to the bypass's last point.
+   */
+  bypass?: Hydrograph;
+  /** Runoff joining the pond's outflow at further points (one per point): their largest sums in `downstream`. */
+  downstream?: readonly Hydrograph[];
   /** Keep the series of time, inflow, outflow and stage (for plots); off in the search. */
   record?: boolean;
   /** Automatic step: largest step (s), default 600. */
@@ -44,6 +53,8 @@ export interface RouteSeries {
   stage: number[];
   /** Exfiltration, when the pond has it. */
   exfiltration?: number[];
+  /** With `options.bypass`: the bypass at each time (outflow + bypass is the flow at the point). */
+  bypass?: number[];
 }
 
 export interface RouteResult {
@@ -52,6 +63,17 @@ export interface RouteResult {
   peakOutflow: number;
   /** Seconds. */
   timeOfPeakOutflow: number;
+  /**
+   * Largest flow at the point of analysis: outflow plus bypass at the same instant (the outflow alone
+   * when there is no bypass). The target and the release rules on peaks apply to it.
+   */
+  peakAtPoint: number;
+  /** Seconds. */
+  timeOfPeakAtPoint: number;
+  /** The bypass's share of `peakAtPoint` (0 without a bypass). */
+  bypassAtPeak: number;
+  /** With `options.downstream`: the largest flow at each further point the pond's outflow reaches. */
+  downstream?: PointPeak[];
   maxStage: number;
   /** Seconds. */
   timeOfMaxStage: number;
@@ -217,6 +239,14 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const cLast = cTimes ? cTimes[cTimes.length - 1] : -Infinity;
   let cj = 0;
   let cMargin = Infinity;
+  const point = options.bypass ? new PointTracker(options.bypass) : null;
+  const others = options.downstream?.map((h) => new PointTracker(h)) ?? null;
+  point?.start(t, Q1);
+  if (others) for (const o of others) o.start(t, Q1);
+  // The routing goes on at least to the last bypass point, so every sum at a point is routed.
+  let tPoint = tLast;
+  if (point && point.last > tPoint) tPoint = point.last;
+  if (others) for (const o of others) if (o.last > tPoint) tPoint = o.last;
   let cOutflow = 0;
   let cLimit = 0;
   let cTime = 0;
@@ -232,11 +262,12 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       cTime = tt;
     }
   };
-  compareCeiling(t, Q1);
+  compareCeiling(t, point ? Q1 + point.at(t) : Q1);
 
   const record = options.record === true;
   const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [Q1], stage: [H1] } : undefined;
   if (series && table.exfiltration) series.exfiltration = [E1];
+  if (series && point) series.bypass = [point.at(t)];
 
   while (true) {
     let dt: number;
@@ -346,13 +377,17 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     }
     if (H2 <= drained && !(H1 <= drained)) drainedAt = t2 - (dt * (drained - H2)) / (H1 - H2);
     else if (H2 > drained) drainedAt = NaN;
-    if (ceiling) compareCeiling(t2, Q2);
+    // Exfiltration goes into the ground: the point of analysis receives the outlet's outflow.
+    if (point) point.step(t, Q1, t2, Q2);
+    if (others) for (const o of others) o.step(t, Q1, t2, Q2);
+    if (ceiling) compareCeiling(t2, point ? Q2 + point.at(t2) : Q2);
     if (record) {
       series!.time.push(t2);
       series!.inflow.push(I2);
       series!.outflow.push(Q2);
       series!.stage.push(H2);
       series!.exfiltration?.push(E2);
+      if (point) series!.bypass!.push(point.at(t2));
     }
     t = t2;
     // After the last inflow point the inflow is zero: a hydrograph that ends above zero drops there.
@@ -363,13 +398,15 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     E1 = E2;
     H1 = H2;
     if (t >= tLast) {
-      if (H2 <= drained || t >= tEnd) break;
+      if ((H2 <= drained && t >= tPoint) || t >= tEnd) break;
       // With no inflow left the outflow only falls. If even the present outflow kept up until the end
       // could not empty the storage above the drained stage, the pond does not drain in the simulated
       // time (e.g. it is held up by tailwater): stop here rather than creep on in tiny steps.
-      if (O2 * (tEnd - t) < S2 - drainedStorage) break;
+      if (O2 * (tEnd - t) < S2 - drainedStorage && t >= tPoint) break;
     }
   }
+  point?.finish(Q1);
+  if (others) for (const o of others) o.finish(Q1);
 
   const storageChange = S1 - S0;
   // Steps land on every inflow point in the automatic mode, so the trapezoid sum is the exact volume;
@@ -383,6 +420,10 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     peakInflow,
     peakOutflow,
     timeOfPeakOutflow,
+    peakAtPoint: point ? point.peak : peakOutflow,
+    timeOfPeakAtPoint: point ? point.time : timeOfPeakOutflow,
+    bypassAtPeak: point ? point.bypassAtPeak : 0,
+    downstream: others?.map((o) => o.result()),
     maxStage,
     timeOfMaxStage,
     maxStorage,

@@ -127,7 +127,7 @@ describe("registry", () => {
   it("lists one rule per kind, each with its words", () => {
     const kinds = RULES.map((r) => r.kind);
     expect(new Set(kinds).size).toBe(kinds.length);
-    expect(kinds.sort()).toEqual(["below-pre-hydrograph", "blocked-outlet", "drawdown", "exfiltration-drain", "extended-detention", "freeboard", "minimum-opening", "minimum-opening-release", "overtopping", "peak-lower", "peak-upper", "spillway-dry", "surcharge"]);
+    expect(kinds.sort()).toEqual(["below-pre-hydrograph", "blocked-outlet", "drawdown", "exfiltration-drain", "extended-detention", "freeboard", "further-point-peak", "minimum-opening", "minimum-opening-release", "overtopping", "peak-lower", "peak-upper", "spillway-dry", "surcharge"]);
     const c = testCase([two], { drawdownHours: 24 });
     for (const check of evaluateChecks(c, NO_SPILLWAY, [routed(two, 1, 101)])) {
       const rule = ruleOf(check);
@@ -171,7 +171,7 @@ describe("why nothing complies (each rule words its own cause)", () => {
   });
 
   it("every rule has a sentence for its failing checks (or leaves it to another, with null)", () => {
-    const failing: Check = { key: "x:2-yr", name: "x", kind: "x", storm: "2-yr", label: null, condition: "design", passed: false, value: 2, limit: 1, slack: -1 };
+    const failing: Check = { key: "x:2-yr", name: "x", kind: "x", storm: "2-yr", label: null, condition: "design", point: null, passed: false, value: 2, limit: 1, slack: -1 };
     for (const rule of RULES) {
       const line = rule.whyNothingComplies({ case: c, failing: [{ ...failing, kind: rule.kind }], closest: [failingRun], firstLevelBound: false });
       expect(line, rule.kind).not.toBeNull();

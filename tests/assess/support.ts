@@ -5,7 +5,7 @@ import type { RouteResult } from "../../src/routing/router.js";
 
 export function storm(name: string, returnPeriod: number, target: number | null): Storm {
   const governingLimit = target === null ? null : { form: "target" as const, flow: target, statement: "target", label: null };
-  return { name, returnPeriod, target, releaseLimits: governingLimit ? [governingLimit] : [], governingLimit, ceiling: null, inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
+  return { name, returnPeriod, target, releaseLimits: governingLimit ? [governingLimit] : [], governingLimit, ceiling: null, bypass: null, points: [], inflow: { times: [0, 3600], flows: [0, 0] } } as unknown as Storm;
 }
 
 export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = {}): Case {
@@ -22,7 +22,7 @@ export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = 
 }
 
 export function routed(s: Storm, peakOutflow: number, maxStage: number, drawdownHours: number | null = 10): StormRouting {
-  const result = { peakOutflow, maxStage, drawdownTime: drawdownHours === null ? null : drawdownHours * 3600 } as RouteResult;
+  const result = { peakOutflow, peakAtPoint: peakOutflow, maxStage, drawdownTime: drawdownHours === null ? null : drawdownHours * 3600 } as RouteResult;
   return { storm: s, result };
 }
 

@@ -1,7 +1,7 @@
 // The outflow hydrograph never above the pre-development hydrograph, at any instant of the latter's
 // span (a release-limit form). The router reports the closest approach (RouteOptions.ceiling); the
 // slack is that least margin as a fraction of the pre-development peak.
-import { failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
+import { failingSubjects, HAIR, makeCheck, POINT_OF_ANALYSIS, type Rule } from "./rule.js";
 
 export const belowPreHydrograph: Rule = {
   kind: "below-pre-hydrograph",
@@ -14,7 +14,11 @@ export const belowPreHydrograph: Rule = {
       let peak = 0;
       for (const q of storm.ceiling.hydrograph.flows) if (q > peak) peak = q;
       const slack = peak > 0 ? result.ceiling.margin / peak : result.ceiling.margin >= 0 ? 0 : -1;
-      out.push(makeCheck("below-pre-hydrograph", storm.name, `${storm.name} outflow ${storm.ceiling.statement} at every instant`, result.ceiling.outflow, result.ceiling.limit, slack, storm.ceiling.label));
+      // With a bypass the router compares the flow at the point of analysis (outflow plus bypass).
+      const what = storm.bypass ? `flow at the ${POINT_OF_ANALYSIS}` : "outflow";
+      const check = makeCheck("below-pre-hydrograph", storm.name, `${storm.name} ${what} ${storm.ceiling.statement} at every instant`, result.ceiling.outflow, result.ceiling.limit, slack, storm.ceiling.label);
+      if (storm.bypass) check.point = POINT_OF_ANALYSIS;
+      out.push(check);
     }
   },
   aim: () => HAIR,

@@ -7,7 +7,7 @@ import type { Case, Outlet } from "../../model.js";
 import { partOf } from "../../parts/registry.js";
 import { circularOrifice } from "../../parts/circularOrifice.js";
 import { limitWords, targetBand } from "./band.js";
-import { failingSubjects, makeCheck, upperFlowSlack, type Rule } from "./rule.js";
+import { atPointWords, failingSubjects, makeCheck, POINT_OF_ANALYSIS, upperFlowSlack, type Rule } from "./rule.js";
 
 export const SMALLEST_VARIANT = "smallest-permitted-opening";
 
@@ -38,7 +38,11 @@ export const minimumOpeningRelease: Rule = {
     for (const { storm, result } of routed) {
       if (storm.target === null) continue;
       const upper = targetBand(storm.target, c.criteria)[1];
-      out.push(makeCheck("minimum-opening-release", storm.name, `${storm.name} target reachable with the minimum opening${limitWords(storm)}`, result.peakOutflow, upper, upperFlowSlack(result.peakOutflow, upper), rule.label));
+      // At the point of analysis the bypass joins the smallest opening's release too.
+      const peak = result.peakAtPoint;
+      const check = makeCheck("minimum-opening-release", storm.name, `${storm.name} target${atPointWords(storm)} reachable with the minimum opening${limitWords(storm)}`, peak, upper, upperFlowSlack(peak, upper), rule.label);
+      if (storm.bypass) check.point = POINT_OF_ANALYSIS;
+      out.push(check);
     }
   },
   aim: () => 0,

@@ -1,6 +1,6 @@
 // A storm's routed peak at most the upper edge of its target band.
 import { limitWords, targetBand, narrowed } from "./band.js";
-import { makeCheck, upperFlowSlack, type Rule } from "./rule.js";
+import { atPointWords, makeCheck, POINT_OF_ANALYSIS, upperFlowSlack, type Rule } from "./rule.js";
 
 export const peakUpper: Rule = {
   kind: "peak-upper",
@@ -11,7 +11,10 @@ export const peakUpper: Rule = {
     for (const { storm, result } of routings.design) {
       if (storm.target === null) continue;
       const upper = targetBand(storm.target, c.criteria)[1];
-      out.push(makeCheck("peak-upper", storm.name, `${storm.name} peak within upper band${limitWords(storm)}`, result.peakOutflow, upper, upperFlowSlack(result.peakOutflow, upper), storm.governingLimit?.label ?? null));
+      const peak = result.peakAtPoint;
+      const check = makeCheck("peak-upper", storm.name, `${storm.name} peak${atPointWords(storm)} within upper band${limitWords(storm)}`, peak, upper, upperFlowSlack(peak, upper), storm.governingLimit?.label ?? null);
+      if (storm.bypass) check.point = POINT_OF_ANALYSIS;
+      out.push(check);
     }
   },
   aim(c, check, margin) {
@@ -19,9 +22,12 @@ export const peakUpper: Rule = {
     const high = targetBand(target, narrowed(c.criteria, aimMargin(c.criteria, margin)))[1];
     return (check.limit - high) / check.limit;
   },
-  why: (check) => `the ${check.storm} storm releases close to its allowable peak`,
+  why: (check) =>
+    check.point === null
+      ? `the ${check.storm} storm releases close to its allowable peak`
+      : `the ${check.storm} flow at the ${check.point} (the pond's outflow plus the runoff bypassing the pond) comes close to its allowable peak`,
   remedy: () => "no single elevation step helps; a smaller opening at the level that holds this storm, or more storage",
-  subject: (check) => `${check.storm} peak`,
+  subject: (check) => (check.point === null ? `${check.storm} peak` : `${check.storm} peak at the ${check.point}`),
   whyNothingComplies: ({ firstLevelBound }) =>
     firstLevelBound ? null : "Some storms exceed their allowable peak with every layout tried; allow smaller openings or more control levels, or add storage.",
 };

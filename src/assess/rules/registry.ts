@@ -13,8 +13,9 @@ import { minimumOpening } from "./minimumOpening.js";
 import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
 import { surcharge } from "./surcharge.js";
 import { exfiltrationDrain } from "./exfiltrationDrain.js";
+import { furtherPointPeakRule } from "./furtherPointPeak.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, exfiltrationDrain, surcharge, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease];
+export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, exfiltrationDrain, surcharge, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease, furtherPointPeakRule];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 

@@ -23,6 +23,11 @@ export interface Check {
   label: string | null;
   /** The outlet condition the check was evaluated on: "design" (as given) or "clogged" (criteria.clogging). */
   condition: "design" | "clogged";
+  /**
+   * Where a flow check measures its value when not at the pond's outlet: "point of analysis" (the pond's
+   * outflow plus the storm's bypass) or a further point's name; null at the pond's outlet.
+   */
+  point: string | null;
   passed: boolean;
   /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown, m for sizes; null when not reached. */
   value: number | null;
@@ -47,6 +52,8 @@ export interface RuleInput {
   /** Rules that rate the outlet themselves do it by the direct evaluation (the search's reference
    * path, `RatingOptions.direct`) instead of the rating sweep. */
   direct?: boolean;
+  /** "clogged" when checks.ts evaluates the clogged twins (criteria.clogging); absent or "design" otherwise. */
+  condition?: "design" | "clogged";
 }
 
 export interface Rule {
@@ -103,11 +110,19 @@ export function failingSubjects(failing: readonly Check[]): string {
 export const PASS_TOLERANCE = 1e-12;
 
 export function makeCheck(kind: CheckKind, storm: string, name: string, value: number | null, limit: number, slack: number, label: string | null = null): Check {
-  return { key: checkKey(kind, storm), name, kind, storm, label, condition: "design", passed: slack >= -PASS_TOLERANCE, value, limit, slack };
+  return { key: checkKey(kind, storm), name, kind, storm, label, condition: "design", point: null, passed: slack >= -PASS_TOLERANCE, value, limit, slack };
 }
 
 export function checkKey(kind: CheckKind, storm: string): string {
   return `${kind}:${storm}`;
+}
+
+/** The words and place of a storm's peak checks: at the point of analysis when it has a bypass. */
+export const POINT_OF_ANALYSIS = "point of analysis";
+
+/** " at the point of analysis" for a storm with a bypass, else nothing: for check names. */
+export function atPointWords(storm: Storm): string {
+  return storm.bypass ? ` at the ${POINT_OF_ANALYSIS}` : "";
 }
 
 /** Slack of an upper limit measured on depths above a datum (elevation checks). */
