@@ -22,13 +22,25 @@ export function stormSeries(c: Case, outlet: Outlet, sr: StormRouting): SeriesTa
   const u = toCaseUnits(c.units);
   const L = unitLabels(c.units);
   const curve = storageCurve(c.pond);
-  // An exfiltrating pond's series carry the water leaving into the ground beside the outflow.
+  // An exfiltrating pond's series carry the water leaving into the ground beside the outflow; with a
+  // bypass, the bypass and the flow at the point of analysis (outflow + bypass) at each time.
   const x = series.exfiltration;
-  const head = ["time (min)", `inflow (${L.flow})`, `outflow (${L.flow})`, ...(x ? [`exfiltration (${L.flow})`] : []), `stage (${L.length})`, `storage (${L.volume})`, ...partColumns(outlet).map((n) => `${n} (${L.flow})`)];
+  const bypass = series.bypass;
+  const head = [
+    "time (min)",
+    `inflow (${L.flow})`,
+    `outflow (${L.flow})`,
+    ...(x ? [`exfiltration (${L.flow})`] : []),
+    ...(bypass ? [`bypass (${L.flow})`, `at point (${L.flow})`] : []),
+    `stage (${L.length})`,
+    `storage (${L.volume})`,
+    ...partColumns(outlet).map((n) => `${n} (${L.flow})`),
+  ];
   const rows = series.time.map((t, i) => {
     const stage = series.stage[i];
     const detail = outletDetail(outlet, c.tailwater, stage);
-    return [t / 60, u.flow(series.inflow[i]), u.flow(series.outflow[i]), ...(x ? [u.flow(x[i])] : []), u.length(stage), u.volume(curve.volume(stage)), ...partFlows(outlet, detail).map(u.flow)];
+    const atPoint = bypass ? [u.flow(bypass[i]), u.flow(series.outflow[i] + bypass[i])] : [];
+    return [t / 60, u.flow(series.inflow[i]), u.flow(series.outflow[i]), ...(x ? [u.flow(x[i])] : []), ...atPoint, u.length(stage), u.volume(curve.volume(stage)), ...partFlows(outlet, detail).map(u.flow)];
   });
   return { head, rows };
 }
