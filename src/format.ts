@@ -49,3 +49,9 @@ export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hou
   if (value === null) return "not drained";
   return quantity === "flow" ? f.flow(value) : quantity === "hours" ? `${value.toFixed(1)} h` : quantity === "size" ? f.size(value) : f.elevation(value);
 }
+
+/** A change as a signed percentage ("+8.4 %", "-2.0 %"; no negative zero). */
+export function percentChange(fraction: number, digits = 1): string {
+  const text = (100 * fraction).toFixed(digits);
+  return Number(text) === 0 ? `${(0).toFixed(digits)} %` : `${fraction > 0 ? "+" : ""}${text} %`;
+}

@@ -4,7 +4,8 @@ import { basename, join } from "node:path";
 import { caseSchema, type CaseFile } from "../case/schema.js";
 import { Converter } from "../case/normalize.js";
 import { CaseError } from "../case/errors.js";
-import { caseHydrology, AREA_NAMES } from "../case/hydrology.js";
+import { areaRunoff, caseHydrology, hydrologyAreas, lagged, stormAreaHydrograph } from "../case/hydrology.js";
+import { nrcsHydrograph } from "../hydrology/nrcsHydrograph.js";
 import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
 import { layoutFor } from "../report/terminal.js";
 import { writeFileAtomic } from "../io.js";
@@ -30,22 +31,35 @@ export function hydrographCommand(path: string, options: HydrographCommandOption
   if (options.storm !== undefined && !withRainfall.includes(options.storm)) {
     throw new UsageError("--storm", options.storm, `the name of a storm with a rainfall (${withRainfall.join(", ")})`);
   }
-  if (options.area !== undefined && !(AREA_NAMES as readonly string[]).includes(options.area)) {
-    throw new UsageError("--area", options.area, '"pre" or "post"');
+  const areas = hydrologyAreas(hydrology);
+  if (options.area !== undefined && !areas.some((a) => a.key === options.area)) {
+    throw new UsageError("--area", options.area, `an area of the hydrology section (${areas.map((a) => a.key).join(", ")})`);
   }
   const items: HydrographItem[] = [];
   hydrology.storms.forEach((s, stormIndex) => {
     if (!s || (options.storm !== undefined && c.storms[stormIndex].name !== options.storm)) return;
-    for (const area of AREA_NAMES) {
-      const result = s[area];
-      if (result && (options.area === undefined || options.area === area)) items.push({ stormIndex, area, result, file: null });
+    for (const { key, catchment } of areas) {
+      const result = stormAreaHydrograph(s, key);
+      if (!result || (options.area !== undefined && options.area !== key)) continue;
+      // NRCS: the peak under the other unit-duration choice too, so the difference is plain.
+      const other = hydrology.nrcs.unitDuration === "converged" ? "standard" : "converged";
+      const alternate =
+        s.method === "nrcs" && s.rainfall.kind !== "idf"
+          ? lagged(nrcsHydrograph(catchment.area, areaRunoff(catchment, hydrology.runoffMethod), catchment.tc, s.rainfall.curve, { ...hydrology.nrcs, unitDuration: other }), catchment.lag)
+          : null;
+      items.push({ stormIndex, area: key, result, alternate, file: null });
     }
   });
-  if (items.length === 0) throw new UsageError("--area", options.area ?? "", "an area the selected storms have (hydrology.pre or hydrology.post)");
+  if (items.length === 0) throw new UsageError("--area", options.area ?? "", "an area the selected storms have (hydrology.pre, post, bypass or a point's)");
   if (options.out !== undefined) assignFiles(items, options.out, c.storms.map((s) => s.name));
   // Everything is computed before anything is written; each file is written whole.
   for (const item of items) if (item.file) writeFileAtomic(item.file, hydrographCsv(c, item.result.hydrograph));
-  const given: GivenValues[] = file.storms.map((s) => ({ inflow: s.inflow !== undefined, target: s.target !== undefined }));
+  const given: GivenValues[] = file.storms.map((s) => ({
+    inflow: s.inflow !== undefined,
+    target: s.target !== undefined,
+    bypass: s.bypass !== undefined,
+    points: (s.points ?? []).map((p) => ({ name: p.name, target: p.target !== undefined, bypass: p.bypass !== undefined })),
+  }));
   // --out names the CSV files; the tables always go to the terminal, so they fit it.
   const layout = layoutFor({ wide: options.wide });
   emit(options.json ? JSON.stringify(hydrographJson(c, hydrology, items, given), null, 2) : hydrographText(c, hydrology, items, given, layout), undefined);
@@ -63,7 +77,7 @@ function assignFiles(items: HydrographItem[], out: string, stormNames: string[])
   }
   const used = new Set<string>();
   for (const item of items) {
-    const stem = `${safeName(stormNames[item.stormIndex])}-${item.area}`;
+    const stem = `${safeName(stormNames[item.stormIndex])}-${safeName(item.area)}`;
     let name = `${stem}.csv`;
     for (let n = 2; used.has(name); n++) name = `${stem}-${n}.csv`;
     used.add(name);

@@ -1,34 +1,40 @@
 // Output of `outfit hydrograph`: the areas, each storm's runoff per area, the rational duration sweep,
 // and the hydrographs as CSV, in the case's units.
 import type { Case, Hydrograph } from "../model.js";
-import type { AreaName, CaseHydrology, Catchment, StormHydrology } from "../case/hydrology.js";
+import { hydrologyAreas, type CaseHydrology, type Catchment, type StormHydrology } from "../case/hydrology.js";
 import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 import { dimensionlessShape } from "../hydrology/unitHydrograph.js";
-import { formatter, trimNumber } from "../format.js";
+import { formatter, percentChange, trimNumber } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";
 import { withoutNulls } from "./withoutNulls.js";
 import { CAUTION } from "./caution.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
-/** Which of a storm's inflow and target the case file gives explicitly (explicit values win). */
+/** Which of a storm's inflow, target and bypass (and its points' targets and bypasses) the case file gives explicitly (explicit values win). */
 export interface GivenValues {
   inflow: boolean;
   target: boolean;
+  bypass: boolean;
+  points: { name: string; target: boolean; bypass: boolean }[];
 }
 
 /** One hydrograph selected for output, with the CSV file it is written to (if any). */
 export interface HydrographItem {
   stormIndex: number;
-  area: AreaName;
+  /** The area's key (`hydrologyAreas`): "pre", "post", "bypass", or "<point>:pre" / "<point>:post". */
+  area: string;
   result: AreaHydrograph;
+  /** NRCS: the same area computed with the other unit-duration choice (standard or converged); null otherwise. */
+  alternate: AreaHydrograph | null;
   file: string | null;
 }
 
 const SECONDS_PER_MINUTE = 60;
 
-/** A duration in minutes below two hours, else in hours. */
+/** A duration in seconds below a minute, in minutes below two hours, else in hours. */
 export function durationText(seconds: number): string {
+  if (seconds > 0 && seconds < 60) return `${trimNumber(seconds, 1)} s`;
   return seconds < 7200 ? `${(seconds / 60).toFixed(1)} min` : `${(seconds / 3600).toFixed(2)} h`;
 }
 
@@ -54,14 +60,45 @@ function rainfallText(c: Case, s: StormHydrology, r: AreaHydrograph): string {
   }
 }
 
+/** The heading of the comparison column: the peak under the unit-duration choice not used. */
+function otherPeakHead(h: CaseHydrology): string {
+  return (h.nrcs.unitDuration ?? "standard") === "converged" ? "Peak, standard" : "Peak, converged";
+}
+
 function tcText(k: Catchment): string {
   return k.tcMethod === "flow path" ? `flow path (${k.travelTimes.length} segment${k.travelTimes.length > 1 ? "s" : ""})` : k.tcMethod;
 }
 
 /** What a derived hydrograph is used for in the routed case. */
-function usedAs(area: AreaName, given: GivenValues): string {
+function usedAs(area: string, given: GivenValues): string {
   if (area === "post") return given.inflow ? "shown only (inflow given)" : "inflow";
-  return given.target ? "shown only (target given)" : "target (its peak)";
+  if (area === "pre") return given.target ? "shown only (target given)" : "target (its peak)";
+  if (area === "bypass") return given.bypass ? "shown only (bypass given)" : "joins at the point of analysis";
+  const at = area.lastIndexOf(":");
+  const name = area.slice(0, at);
+  const own = given.points.find((p) => p.name === name);
+  if (area.slice(at + 1) === "pre") return own?.target ? "shown only (target given)" : `target at ${name} (its peak)`;
+  return own?.bypass ? "shown only (bypass given)" : `joins at ${name}`;
+}
+
+/** The area's name in tables: pre, post, bypass, or "<point> pre" / "<point> post". */
+export function areaLabel(area: string): string {
+  return area.replace(/:(pre|post)$/, " $1");
+}
+
+/** The unit-duration choice in words, with its source. */
+export function unitDurationWords(h: CaseHydrology): string {
+  const d = h.nrcs.unitDuration ?? "standard";
+  if (d === "standard") return "unit duration D <= 0.133 Tc on the rainfall's step (NEH 630 ch. 16)";
+  if (d === "converged") return "unit duration halved from 0.133 Tc until the peak changes by at most 0.5 % (converged; above the method's own peak)";
+  return `unit duration fixed at ${trimNumber(d / 60, 3)} min`;
+}
+
+/** The runoff method in words, with its source. */
+export function runoffMethodWords(h: CaseHydrology): string {
+  return h.runoffMethod === "separate"
+    ? "runoff of each part computed separately (directly connected impervious at CN 98, the rest at its own curve number; TR-55 ch. 2) and added by area"
+    : "runoff from one composite curve number per area (area-weighted, TR-55 ch. 2 worksheet 2; impervious shares by Figure 2-3, or 2-4 when unconnected)";
 }
 
 /**
@@ -82,11 +119,9 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     { head: "Tc from", narrow: "detail", label: "Tc from" },
   ];
   const areaRows: Row[] = [];
-  for (const name of ["pre", "post"] as const) {
-    const k = h.catchments[name];
-    if (!k) continue;
+  for (const { key, catchment: k } of hydrologyAreas(h)) {
     areaRows.push([
-      name,
+      areaLabel(key),
       `${hu.area(k.area).toFixed(2)} ${hu.labels.area}`,
       k.curveNumber === null ? "-" : k.curveNumber.toFixed(1),
       k.runoffCoefficient === null ? "-" : k.runoffCoefficient.toFixed(2),
@@ -105,6 +140,7 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     { head: "Tc used", align: "right", narrow: "detail", rank: 4, label: "Tc used" },
     { head: "Step", align: "right", narrow: "detail", rank: 5 },
     { head: "Used as", narrow: "detail", rank: 3 },
+    { head: otherPeakHead(h), align: "right", narrow: "detail", rank: 7, label: otherPeakHead(h).toLowerCase() },
   ];
   const stormRows: Row[] = items.map((item) => {
     const s = h.storms[item.stormIndex]!;
@@ -112,7 +148,7 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     return [
       c.storms[item.stormIndex].name,
       rainfallText(c, s, r),
-      item.area,
+      areaLabel(item.area),
       depth(r.runoff),
       f.flow(r.peak),
       durationText(r.timeOfPeak),
@@ -120,6 +156,7 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
       durationText(r.tc),
       r.unitDuration === null ? "-" : durationText(r.unitDuration),
       usedAs(item.area, given[item.stormIndex]),
+      item.alternate === null ? "-" : `${f.flow(item.alternate.peak)} (D ${durationText(item.alternate.unitDuration!)}, ${percentChange(item.alternate.peak / r.peak - 1)})`,
     ];
   });
   const methods = new Set(h.storms.filter((s) => s !== null).map((s) => s!.method));
@@ -129,9 +166,14 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     lines.push(
       prose(
         `NRCS method: initial abstraction ratio ${h.nrcs.ratio}${h.nrcs.ratio === 0.05 ? " (curve numbers converted, Hawkins et al. 2002)" : ""}; ` +
-          `unit hydrograph ${dimensionlessShape(h.nrcs.peakRateFactor).source}; step = unit duration <= 0.133 Tc`,
+          `${runoffMethodWords(h)}; unit hydrograph ${dimensionlessShape(h.nrcs.peakRateFactor).source}, ${unitDurationWords(h)}; step = unit duration`,
       ),
     );
+    if ((h.nrcs.unitDuration ?? "standard") !== "converged") {
+      lines.push(prose("Peak, converged: the same hydrograph with the unit duration halved until the peak settles (time to peak tending to 0.6 Tc): shown for comparison, not used."));
+    } else {
+      lines.push(prose("Peak, standard: the same hydrograph at the method's unit duration (D <= 0.133 Tc): shown for comparison, not used."));
+    }
   }
   if (methods.has("rational")) lines.push(prose("Rational method: Q = C i A; inflow = modified rational hydrograph of the duration needing the most storage"));
   lines.push("", renderTable(layout, areaColumns, areaRows).text, "", renderTable(layout, stormColumns, stormRows).text);
@@ -166,6 +208,18 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
       tc: minutes(k.tc),
       tcFrom: k.tcMethod,
       travelTimes: k.travelTimes.map((t) => minutes(t)),
+      lag: minutes(k.lag),
+      subAreas: k.subAreas.map((p) => ({
+        name: p.name,
+        area: hu.area(p.area),
+        curveNumber: p.curveNumber,
+        perviousCurveNumber: p.perviousCurveNumber,
+        impervious: p.impervious,
+        unconnected: p.unconnected,
+        relation: p.relation === null ? null : `TR-55 ${p.relation}`,
+        runoffCoefficient: p.runoffCoefficient,
+      })),
+      runoffParts: h.runoffMethod === "separate" ? k.runoffParts : null,
     };
   const storms = h.storms.flatMap((s, index) => {
     const mine = items.filter((i) => i.stormIndex === index);
@@ -196,6 +250,10 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
               volume: u.volume(i.result.volume),
               tc: minutes(i.result.tc),
               unitDuration: minutes(i.result.unitDuration),
+              // NRCS: the peak under the other unit-duration choice, for comparison (not used).
+              ...(i.alternate
+                ? { [(h.nrcs.unitDuration ?? "standard") === "converged" ? "standard" : "converged"]: { peak: u.flow(i.alternate.peak), unitDuration: minutes(i.alternate.unitDuration) } }
+                : {}),
               unitTimeToPeak: minutes(i.result.unitTimeToPeak),
               stormDuration: minutes(i.result.stormDuration),
               points: i.result.hydrograph.times.length,
@@ -226,8 +284,16 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
     units: c.units,
     caution: CAUTION,
     unitLabels: { flow: labels.flow, volume: labels.volume, area: hu.labels.area, depth: hu.labels.depth, intensity: hu.labels.intensity, time: "min" },
-    nrcs: { initialAbstractionRatio: h.nrcs.ratio, peakRateFactor: h.nrcs.peakRateFactor, unitHydrograph: dimensionlessShape(h.nrcs.peakRateFactor).source },
-    areas: { pre: catchment(h.catchments.pre), post: catchment(h.catchments.post) },
+    nrcs: {
+      initialAbstractionRatio: h.nrcs.ratio,
+      peakRateFactor: h.nrcs.peakRateFactor,
+      unitHydrograph: dimensionlessShape(h.nrcs.peakRateFactor).source,
+      unitDuration: typeof h.nrcs.unitDuration === "number" ? minutes(h.nrcs.unitDuration) : (h.nrcs.unitDuration ?? "standard"),
+      unitDurationRule: unitDurationWords(h),
+      runoffMethod: h.runoffMethod,
+      runoffRule: runoffMethodWords(h),
+    },
+    areas: Object.fromEntries(hydrologyAreas(h).map((a) => [a.key, catchment(a.catchment)])),
     storms,
   });
 }

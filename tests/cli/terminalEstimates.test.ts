@@ -95,13 +95,13 @@ describe("the compact rows keep the values below them", () => {
     for (const storm of ["2-yr", "10-yr", "100-yr"]) {
       for (const area of ["pre", "post"]) {
         const start = new RegExp(`^${storm} +(\\S.*? {2,})?${area} `);
-        const [, rainfall, , runoff, peak, timeToPeak, volume, tc, step, usedAs] = cells(rowWithDetails(whole, start).row);
+        const [, rainfall, , runoff, peak, timeToPeak, volume, tc, step, usedAs, converged] = cells(rowWithDetails(whole, start).row);
         const { row, details } = rowWithDetails(narrow, start);
         expect(cells(row)).toEqual([storm, area, runoff, peak, timeToPeak, volume, usedAs]);
-        expect(details).toBe(`rainfall: ${rainfall}; Tc used: ${tc}; step: ${step}`);
+        expect(details).toBe(`rainfall: ${rainfall}; Tc used: ${tc}; step: ${step}; peak, converged: ${converged}`);
       }
     }
-    expect(narrow).toContain("rainfall: 3.40 in, 24-h Type II; Tc used: 8.6 min; step: 0.3 min");
+    expect(narrow).toContain("rainfall: 3.40 in, 24-h Type II; Tc used: 8.6 min; step: 1.0 min;");
     // The areas' Tc source is below each area's row.
     expect(rowWithDetails(narrow, /^post +\d/).details).toBe("Tc from: flow path (3 segments)");
   });
@@ -138,7 +138,7 @@ describe("piped output, --out files, --wide and --json", () => {
   const WHOLE: [string, string[], string][] = [
     ["volume", ["volume", "cases/demo/case.json"], "Storm      Target    Peak in  Method                               Volume  Stage reached  Below limit level  Note"],
     ["pond", ["pond", "cases/site-only/case.json"], "Pond                                    prismoid, floor 58.0 ft x 29.0 ft, side slopes 3 H : 1 V; floor 20.00 ft, top of embankment 23.70 ft"],
-    ["hydrograph", ["hydrograph", "cases/demo-rainfall/case.json"], "Storm   Rainfall               Area   Runoff       Peak  Time to peak       Volume   Tc used     Step  Used as"],
+    ["hydrograph", ["hydrograph", "cases/demo-rainfall/case.json"], "Storm   Rainfall               Area   Runoff       Peak  Time to peak       Volume   Tc used     Step  Used as                         Peak, converged"],
   ];
 
   it.each(WHOLE)("`%s` piped without COLUMNS prints the whole table and unwrapped lines", (_name, args, line) => {
