@@ -23,20 +23,32 @@ export interface NrcsOptions {
 
 export const DEFAULT_NRCS_OPTIONS: NrcsOptions = { ratio: 0.2, peakRateFactor: STANDARD_PEAK_RATE_FACTOR, unitDuration: "standard" };
 
-/** Unit durations outfit picks from (minutes): each divides an hour and a day. */
-const NICE_STEPS_MINUTES = [60, 30, 20, 15, 12, 10, 6, 5, 3, 2, 1, 0.5];
-
 /** NEH 630 ch. 16: the unit duration D is about 0.133 Tc (from Tc + D = 1.7 Tp and the lag L = 0.6 Tc); no longer. */
 export const UNIT_DURATION_OF_TC = 0.133;
 
 /**
- * The unit duration (s): the largest of the steps above not longer than 0.133 Tc (NEH 630 ch. 16,
- * D = 0.133 Tc) nor the rainfall's own resolution; below half a minute, that limit itself.
+ * The rainfall's own step (s): the longest step that divides every interval of its table, so that
+ * each tabulated depth falls on a step end (0.25 h for the NRCS distributions), to the millisecond;
+ * null when the intervals share no step of a second or more.
  */
-export function unitDuration(tc: number, rainfallResolution: number): number {
-  const limit = Math.min(UNIT_DURATION_OF_TC * tc, rainfallResolution);
-  for (const minutes of NICE_STEPS_MINUTES) if (minutes * 60 <= limit + 1e-9) return minutes * 60;
-  return limit;
+export function rainfallStep(curve: MassCurve): number | null {
+  const gcd = (a: number, b: number): number => (b === 0 ? a : gcd(b, a % b));
+  let g = 0;
+  for (let i = 1; i < curve.times.length; i++) g = gcd(Math.round(1000 * (curve.times[i] - curve.times[i - 1])), g);
+  return g >= 1000 ? g / 1000 : null;
+}
+
+/**
+ * The unit duration (s) at the method's convention: the longest whole fraction of the rainfall's
+ * step (`rainfallStep`) no longer than 0.133 Tc (NEH 630 ch. 16), so that D is as near 0.133 Tc as
+ * the table allows and every tabulated depth lands on a step end; without a common step, the shorter
+ * of 0.133 Tc and the rainfall's shortest interval. `rainfall` is the mass curve, or its step (s).
+ */
+export function unitDuration(tc: number, rainfall: MassCurve | number): number {
+  const limit = UNIT_DURATION_OF_TC * tc;
+  const step = typeof rainfall === "number" ? rainfall : rainfallStep(rainfall);
+  if (step === null) return Math.min(limit, resolution(rainfall as MassCurve));
+  return step / Math.ceil(step / limit - 1e-9);
 }
 
 /**
@@ -72,7 +84,7 @@ export function nrcsHydrograph(
   const parts: readonly RunoffPart[] = typeof runoff === "number" ? [{ share: 1, curveNumber: runoff }] : runoff;
   const choice = fixedStep ?? options.unitDuration ?? "standard";
   if (typeof choice === "number") return atStep(area, parts, tcUsed, rainfall, options, choice);
-  const first = unitDuration(tcUsed, resolution(rainfall));
+  const first = unitDuration(tcUsed, rainfall);
   let result = atStep(area, parts, tcUsed, rainfall, options, first);
   if (choice === "standard") return result;
   // Halving: with an error about linear in the step, the change of a halving is about the error left.

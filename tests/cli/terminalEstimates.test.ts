@@ -101,7 +101,7 @@ describe("the compact rows keep the values below them", () => {
         expect(details).toBe(`rainfall: ${rainfall}; Tc used: ${tc}; step: ${step}; peak, converged: ${converged}`);
       }
     }
-    expect(narrow).toContain("rainfall: 3.40 in, 24-h Type II; Tc used: 8.6 min; step: 1.0 min;");
+    expect(narrow).toContain("rainfall: 3.40 in, 24-h Type II; Tc used: 8.6 min; step: 1.1 min;");
     // The areas' Tc source is below each area's row.
     expect(rowWithDetails(narrow, /^post +\d/).details).toBe("Tc from: flow path (3 segments)");
   });

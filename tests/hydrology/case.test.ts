@@ -205,3 +205,64 @@ describe("the existing storm form", () => {
     expect(Math.max(...c.storms[0].inflow.flows) / CFS).toBeCloseTo(22, 10);
   });
 });
+
+describe("impervious shares, runoff methods and areas bypassing the pond (hydrology section)", () => {
+  it("a sub-area given by its pervious number and impervious share takes TR-55 Figure 2-3's composite number", () => {
+    const json = baseCase();
+    json.hydrology.post = { parts: [{ area: "6 ac", perviousCurveNumber: 61, impervious: 0.65 }, { area: "4 ac", curveNumber: 74 }], tc: 10 };
+    const { case: c } = parseCase(json);
+    // 6 ac at 61 + 0.65 x (98 - 61) = 85.05 and 4 ac at 74, area-weighted: 80.63.
+    const composite = (6 * 85.05 + 4 * 74) / 10;
+    expect(hydrographVolume(c.storms[0].inflow) / (10 * AC * runoffDepth(5 * IN, composite))).toBeCloseTo(1, 4);
+  });
+
+  it('"separate" computes the connected impervious part at CN 98 and the rest at its own number, adding the runoff', () => {
+    const json = baseCase();
+    json.hydrology.runoffMethod = "separate";
+    json.hydrology.post = { parts: [{ area: "6 ac", perviousCurveNumber: 61, impervious: 0.65 }, { area: "4 ac", curveNumber: 74 }], tc: 10 };
+    const { case: c } = parseCase(json);
+    const p = 5 * IN;
+    const expected = 3.9 * AC * runoffDepth(p, 98) + 2.1 * AC * runoffDepth(p, 61) + 4 * AC * runoffDepth(p, 74);
+    expect(hydrographVolume(c.storms[0].inflow) / expected).toBeCloseTo(1, 4);
+    // More runoff than the composite number gives (the runoff equation is convex in CN).
+    expect(expected).toBeGreaterThan(10 * AC * runoffDepth(p, (6 * 85.05 + 4 * 74) / 10));
+  });
+
+  it("an area bypassing the pond gives the storm's bypass, later by its lag; a further point its target and runoff", () => {
+    const json = baseCase();
+    json.hydrology.bypass = { area: "2 ac", curveNumber: 80, tc: 6, lag: 5 };
+    json.hydrology.points = [{ name: "south ditch", pre: { area: "1 ac", curveNumber: 60, tc: 15 }, post: { area: "1 ac", curveNumber: 70, tc: 12 } }];
+    const { case: c } = parseCase(json);
+    const storm = c.storms[0];
+    const curve = distributionMassCurve("II", 5 * IN);
+    const own = nrcsHydrograph(2 * AC, 80, 360, curve);
+    expect(storm.bypass!.times[0]).toBe(own.hydrograph.times[0] + 300);
+    expect(Array.from(storm.bypass!.flows)).toEqual(Array.from(own.hydrograph.flows));
+    expect(hydrographVolume(storm.bypass!) / (2 * AC * runoffDepth(5 * IN, 80))).toBeCloseTo(1, 4);
+    expect(storm.points).toHaveLength(1);
+    expect(storm.points[0].pond).toBe(false);
+    expect(storm.points[0].target).toBeCloseTo(nrcsHydrograph(AC, 60, 900, curve).peak, 12);
+    expect(Math.max(...storm.points[0].bypass!.flows)).toBeCloseTo(nrcsHydrograph(AC, 70, 720, curve).peak, 12);
+  });
+
+  it("a storm's own bypass and point values win over derived ones", () => {
+    const json = baseCase();
+    json.hydrology.bypass = { area: "2 ac", curveNumber: 80, tc: 6 };
+    json.hydrology.points = [{ name: "south ditch", pre: { area: "1 ac", curveNumber: 60, tc: 15 } }];
+    json.storms[0].bypass = { series: [[0, 0], [60, 1.5], [120, 0]], lag: 10 };
+    json.storms[0].points = [{ name: "south ditch", target: 0.9, bypass: { series: [[0, 0], [30, 0.5], [90, 0]] } }];
+    const { case: c } = parseCase(json);
+    expect(Array.from(c.storms[0].bypass!.times)).toEqual([600, 4200, 7800]);
+    expect(c.storms[0].points[0].target).toBeCloseTo(0.9 * CFS, 12);
+    expect(Math.max(...c.storms[0].points[0].bypass!.flows)).toBeCloseTo(0.5 * CFS, 12);
+  });
+
+  it("names the field when a further point receives nothing, or impervious comes without a pervious number", () => {
+    const json = baseCase();
+    json.storms[0].points = [{ name: "north", target: 1 }];
+    expect(problemAt(json, "storms[0].points[0]").expected).toMatch(/a bypass \(file or series\), pond: true/);
+    const other = baseCase();
+    other.hydrology.post = { area: "10 ac", impervious: 0.4, tc: 10 };
+    expect(problemAt(other, "hydrology.post.perviousCurveNumber").expected).toMatch(/pervious curve number/);
+  });
+});

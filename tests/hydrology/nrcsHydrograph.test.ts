@@ -45,12 +45,15 @@ describe("NRCS runoff hydrograph", () => {
     expect(Array.from(b.hydrograph.flows)).toEqual(Array.from(a.hydrograph.flows));
   });
 
-  it("steps no longer than 0.133 Tc nor the rainfall's resolution (NEH 630 ch. 16)", () => {
-    expect(unitDuration(45 * 60, 900)).toBe(5 * 60);
-    expect(unitDuration(3 * HOUR, 900)).toBe(15 * 60);
-    expect(unitDuration(3 * HOUR, 240)).toBe(3 * 60);
-    expect(unitDuration(6 * 60, 900)).toBe(30);
+  it("steps no longer than 0.133 Tc, whole fractions of the rainfall's step (NEH 630 ch. 16)", () => {
+    expect(unitDuration(45 * 60, 900)).toBe(5 * 60); // 0.133 Tc = 5.99 min: 15 min / 3
+    expect(unitDuration(3 * HOUR, 900)).toBe(15 * 60); // 0.133 Tc = 23.9 min: the step itself
+    expect(unitDuration(3 * HOUR, 240)).toBe(4 * 60);
+    expect(unitDuration(6 * 60, 900)).toBeCloseTo(900 / 19, 9); // 0.133 Tc = 47.9 s: 15 min / 19
     expect(unitDuration(6 * 60, 10)).toBe(10);
+    // A hyetograph of 5- and 10-minute intervals: its step is 5 min.
+    const hyetograph = { times: [0, 300, 900, 1200, 1800], depths: [0, 0.001, 0.004, 0.006, 0.007] };
+    expect(unitDuration(HOUR, hyetograph)).toBe(300);
   });
 
   it("a larger peak rate factor gives a sharper, higher peak for the same runoff", () => {
