@@ -314,4 +314,10 @@ export interface Case {
   catalogue?: Catalogue;
   /** Cost weights given in the case (the search documents the defaults). */
   costs: Partial<Record<string, number>>;
+  /**
+   * Sizes of the case's outlet and catalogue given as bare numbers that are implausible for their part
+   * (read in the case's unit: an orifice larger than its barrel, a diameter over 10 ft or 3 m), each
+   * with the JSON path and why; absent or empty when none.
+   */
+  sizeWarnings?: { part: string; reason: string }[];
 }

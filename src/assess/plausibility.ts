@@ -1,7 +1,8 @@
 // Physically implausible input that the schema cannot see (it needs several fields or the routed
 // result): an opening above the top of embankment or below the floor, an orifice wider than its
 // riser or taller than the pond, a riser narrower than its barrel, a pond that stores nothing, an
-// inflow cut off far from zero, a routing whose mass balance is off. Each warning names the part,
+// inflow cut off far from zero, a routing whose mass balance is off, a size given as a bare number that
+// is implausible in the case's unit (case/sizePlausibility.ts). Each warning names the part,
 // the value and why; the case still routes (the engineer may mean it), but not without a word.
 import type { Case, Outlet } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
@@ -50,6 +51,8 @@ export function implausibleInputWarnings(c: Case, outlet: Outlet, routing: CaseR
   if (outlet.spillway && outlet.spillway.crest > top + 1e-9) {
     warnings.push({ part: "outlet.spillway", reason: `crest ${f.elevation(outlet.spillway.crest)} is above the top of embankment ${f.elevation(top)}: the embankment overtops first` });
   }
+  // Sizes the file gave as bare numbers that are implausible (read in the case's unit), on the case's own outlet.
+  if (outlet === c.outlet) for (const w of c.sizeWarnings ?? []) if (w.part.startsWith("outlet.")) warnings.push(w);
   const storageAtTop = routing.table.storage[routing.table.storage.length - 1];
   if (!(storageAtTop > 0)) warnings.push({ part: "pond.storage", reason: "the pond stores nothing up to its top: every peak passes straight through (peak out = peak in)" });
   routing.storms.forEach(({ storm, result }, i) => {

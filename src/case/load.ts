@@ -7,6 +7,7 @@ import { CaseError, describeIoError, jsonPath, show, type Problem } from "./erro
 import { normalizeCase } from "./normalize.js";
 import type { Case, Hydrograph } from "../model.js";
 import { unknownFields } from "./unknownFields.js";
+import { FORMAT_DEPTH, MAX_CASE_DEPTH, nesting } from "./depth.js";
 
 export interface LoadedCase {
   case: Case;
@@ -53,6 +54,17 @@ export interface ParseOptions {
 export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase {
   const file = options.file ?? "";
   const label = options.label ?? (file ? basename(file) : "case");
+  // Before anything walks the value: a file nested deeper than any case is a user error, not a stack overflow.
+  const { depth, beyond } = nesting(json, MAX_CASE_DEPTH);
+  if (beyond !== null) {
+    throw new CaseError([
+      {
+        where: `${label}: ${beyond || "(the top level)"}`,
+        found: `JSON nested ${depth.toLocaleString("en-US")} levels deep (arrays and objects)`,
+        expected: `a case file nested at most ${MAX_CASE_DEPTH} levels deep (the case format's deepest arrays are ${FORMAT_DEPTH} levels down; this value is deeper)`,
+      },
+    ]);
+  }
   const unknown = unknownFields(caseSchema, json);
   // A misspelled known field would silently drop what it says (a drawdown limit, a freeboard): an error.
   const misspelled: Problem[] = unknown
@@ -66,7 +78,9 @@ export function parseCase(json: unknown, options: ParseOptions = {}): LoadedCase
   const notes: string[] = [];
   const hydrographs = new Map(options.hydrographs ?? []);
   const c = normalizeCase(data, { file, label, directory: file ? dirname(file) : process.cwd(), notes, hydrographs });
-  return { case: c, data, json, notices: [...notices, ...notes], hydrographs };
+  // The catalogue's implausible bare sizes have no routed outlet to be reported with: a note each.
+  const sizes = (c.sizeWarnings ?? []).filter((w) => w.part.startsWith("catalogue.")).map((w) => `${label}: ${w.part}: plausibility warning: ${w.reason}`);
+  return { case: c, data, json, notices: [...notices, ...notes, ...sizes], hydrographs };
 }
 
 /** A zod issue as a problem naming the path, the value found and what was expected. */

@@ -17,6 +17,7 @@ import { spillwayToSI } from "../parts/spillway.js";
 import { normalizeUnderground } from "./underground.js";
 import { normalizeSite, siteSizing, sitePond, sizingSummary } from "./site.js";
 import type { PondChoice } from "../sizing/pondChoice.js";
+import { bareSizeWarnings } from "./sizePlausibility.js";
 
 export { Converter } from "./converter.js";
 
@@ -66,6 +67,7 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     outlet,
     catalogue: file.catalogue ? normalizeCatalogue(file, cv) : undefined,
     costs: file.costs ?? {},
+    sizeWarnings: bareSizeWarnings(file),
   };
   if (cv.problems.length > 0) throw new CaseError(cv.problems);
   return result;

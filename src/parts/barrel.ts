@@ -7,7 +7,7 @@ import { keep, lengthSchema, positive, positiveLength, show, type Length } from 
 import { toCaseUnits, type UnitSystem } from "../units.js";
 import { trimNumber, type Formatter } from "../format.js";
 import { ENTRANCE_TABLE, ENTRANCES, entrancesFor } from "./entrances.js";
-import { smallSize, type Conversion, type Method, type SizeOption } from "./part.js";
+import { smallSize, type Conversion, type FileSize, type Method, type SizeOption } from "./part.js";
 import type { CostWeights } from "./cost.js";
 
 const barrelCommon = {
@@ -73,6 +73,11 @@ export function barrelSize(b: BarrelFile, length: (value: Length) => number): Si
 /** The site barrel with a catalogue diameter (a box is kept as it is). */
 export function resizedBarrel(b: BarrelFile, size: Length): BarrelFile {
   return b.shape === "circular" ? { ...b, diameter: size } : { ...b };
+}
+
+/** Its rise in the file's form (a pipe's diameter, a box's rise): the size openings that drain into it are judged against. */
+export function barrelFileRise(b: BarrelFile): FileSize {
+  return b.shape === "circular" ? { field: "diameter", value: b.diameter, what: "barrel", intoBarrel: false } : { field: "rise", value: b.rise, what: "barrel", intoBarrel: false };
 }
 
 /** Barrel rise D (m). */

@@ -73,6 +73,7 @@ export const cipollettiWeir: ElementPart<CipollettiWeir, CipollettiWeirFile> = {
   sweep: null,
   defaultCoefficient: (units) => CIPOLLETTI_COEFFICIENT[units],
 
+  fileSizes: () => [],
   toSI(file, cv, path) {
     return {
       type: "weir",

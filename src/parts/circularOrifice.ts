@@ -52,6 +52,7 @@ export const circularOrifice: ElementPart<CircularOrifice, CircularOrificeFile> 
   level: true,
   defaultCoefficient: () => ORIFICE_COEFFICIENT,
 
+  fileSizes: (file) => [{ field: "diameter", value: file.diameter, what: "orifice", intoBarrel: true }],
   toSI(file, cv, path) {
     const common = orificeFields(file, cv, path);
     return { type: "orifice", shape: "circular", diameter: cv.length(file.diameter, `${path}.diameter`), ...common };

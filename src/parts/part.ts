@@ -50,6 +50,20 @@ export interface Routed {
   floor: number;
 }
 
+/**
+ * A size the case file gives for a part, in the file's own form (only the file knows a number was bare):
+ * what case/sizePlausibility.ts judges when the number has no unit.
+ */
+export interface FileSize {
+  /** Its field in the part's file form ("diameter", "height"). */
+  field: string;
+  value: Length;
+  /** The part by what this size measures, after "a 6.00 ft ..." ("orifice", "high orifice", "riser"). */
+  what: string;
+  /** Whether the flow through it passes into the barrel, so it should not exceed the barrel's rise (an orifice's diameter or height). */
+  intoBarrel: boolean;
+}
+
 /** One choice the search has for a control level: a catalogue size of one kind (or a part of the existing outlet). */
 export interface PartOption {
   /** Its identity in layout keys, journals and the fit's seed: "orifice 2 x 6 in", "weir 2", "v-notch 45". */
@@ -148,6 +162,8 @@ export interface ElementPart<E extends Element = Element, F extends ElementFileB
 
   /** Default coefficient in the case's units (null: the kind has none, e.g. a rating), with its source in the part's file. */
   defaultCoefficient(units: UnitSystem): number | null;
+  /** Its sizes in the file's form (none for a kind whose sizes are not judged: a weir's length, a rating). */
+  fileSizes(file: F): FileSize[];
   /** The file form in SI, problems collected by the conversion. */
   toSI(file: F, cv: Conversion, path: string): E;
   /** The SI form written back in the file's form, in the case's units, every coefficient explicit. */

@@ -52,6 +52,10 @@ export const rectangularOrifice: ElementPart<RectangularOrifice, RectangularOrif
   sweep: null,
   defaultCoefficient: () => ORIFICE_COEFFICIENT,
 
+  fileSizes: (file) => [
+    { field: "width", value: file.width, what: "wide orifice", intoBarrel: false },
+    { field: "height", value: file.height, what: "high orifice", intoBarrel: true },
+  ],
   toSI(file, cv, path) {
     const common = orificeFields(file, cv, path);
     return { type: "orifice", shape: "rectangular", width: cv.length(file.width, `${path}.width`), height: cv.length(file.height, `${path}.height`), ...common };

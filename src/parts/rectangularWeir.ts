@@ -68,6 +68,7 @@ export const rectangularWeir: ElementPart<RectangularWeir, RectangularWeirFile> 
   sweep: null,
   defaultCoefficient: (units) => FRANCIS[units],
 
+  fileSizes: () => [],
   toSI(file, cv, path) {
     return {
       type: "weir",

@@ -53,6 +53,7 @@ export const regulator: ElementPart<Regulator, RegulatorFile> = {
   sweep: null,
   defaultCoefficient: () => null,
 
+  fileSizes: () => [],
   toSI(file, cv, path) {
     const L = baseLength(cv.units);
     if (file.rating[0][0] < 0) cv.problem(`${path}.rating[0][0]`, show(file.rating[0][0]), "a head of zero or more");

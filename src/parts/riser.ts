@@ -11,7 +11,7 @@ import { baseWeirCoefficient, GRAVITY, toCaseUnits, type UnitSystem } from "../u
 import { trimNumber, type Formatter } from "../format.js";
 import { villemonte } from "./submergence.js";
 import { weirCoefficientText } from "./weir.js";
-import type { Conversion, Method, SizeOption } from "./part.js";
+import type { Conversion, FileSize, Method, SizeOption } from "./part.js";
 import type { CostWeights } from "./cost.js";
 
 export const riserSchema = z.discriminatedUnion(
@@ -81,6 +81,11 @@ export function designedRiser(size: Length, crest: Length, units: UnitSystem): R
 /** The riser as a catalogue size (its diameter), null for a box (the catalogue lists round risers). */
 export function riserSize(r: RiserFile, length: (value: Length) => number): SizeOption | null {
   return r.shape === "circular" ? { size: r.diameter, sizeM: length(r.diameter) } : null;
+}
+
+/** Its sizes in the file's form whose plausibility is judged: a round riser's diameter. */
+export function riserFileSizes(r: RiserFile): FileSize[] {
+  return r.shape === "circular" ? [{ field: "diameter", value: r.diameter, what: "riser", intoBarrel: false }] : [];
 }
 
 export function riserPerimeter(r: Riser): number {

@@ -61,6 +61,7 @@ export const vNotchWeir: ElementPart<VNotchWeir, VNotchWeirFile> = {
   sweep: null,
   defaultCoefficient: (units) => COEFFICIENT[units],
 
+  fileSizes: () => [],
   toSI(file, cv, path) {
     return { type: "weir", shape: "v-notch", angle: file.angle, crest: cv.length(file.crest, `${path}.crest`), coefficient: (file.coefficient ?? COEFFICIENT[cv.units]) * baseWeirCoefficient(cv.units), keep: file.keep ?? false };
   },

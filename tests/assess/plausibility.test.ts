@@ -55,4 +55,31 @@ describe("implausible input warnings", () => {
     const w = warningsOf(() => {}, 7 * 60 + 13);
     expect(w.join("\n")).toMatch(/routing \(\S+\): mass balance error -?\d+\.\d{3} % exceeds 0\.01 %/);
   });
+
+  it("a bare-number orifice diameter larger than its barrel says which unit was assumed", () => {
+    const w = warningsOf((c) => {
+      c.outlet.elements[0].diameter = 6;
+      c.outlet.barrel = { shape: "circular", diameter: "18 in", length: 60, inletInvert: 99.5, outletInvert: 99, manningN: 0.013, entrance: "concrete-square-headwall" };
+    }).join("\n");
+    expect(w).toMatch(/outlet\.elements\[0\]\.diameter: 6 is a bare number, read as 6 ft .*a 72 in orifice is larger than the 18 in barrel it drains into\. If 6 in was meant, write "6 in"/);
+  });
+  it("a bare-number diameter over 10 ft in a US case (no barrel); none for the same size written with its unit (the control)", () => {
+    expect(warningsOf((c) => (c.outlet.elements[0].diameter = 12)).join("\n")).toMatch(/diameter: 12 is a bare number, read as 12 ft.*12\.00 ft orifice is implausibly large \(over 10\.00 ft\)/);
+    expect(warningsOf((c) => (c.outlet.elements[0].diameter = "12 ft")).join("\n")).not.toMatch(/bare number/);
+    expect(warningsOf((c) => (c.outlet.elements[0].diameter = 0.5)).join("\n")).not.toMatch(/bare number/);
+  });
+  it("a bare-number diameter over 3 m in an SI case", () => {
+    const w = warningsOf((c) => {
+      c.units = "SI";
+      c.outlet.elements[0].diameter = 150;
+    }).join("\n");
+    expect(w).toMatch(/diameter: 150 is a bare number, read as 150 m \(a length without a unit is in the case's unit, m\).*If 150 mm was meant, write "150 mm"/);
+  });
+  it("a catalogue's bare orifice diameter larger than its largest barrel is a loader note", () => {
+    const json = structuredClone(base);
+    json.catalogue = { orifice: { diameters: ["4 in", 8] }, barrel: { diameters: ["18 in", "24 in"] } };
+    const notices = parseCase(json, { file: FILE }).notices.join("\n");
+    expect(notices).toMatch(/catalogue\.orifice\.diameters\[1\]: plausibility warning: 8 is a bare number, read as 8 ft.*96 in orifice is larger than the largest 24 in barrel/);
+    expect(notices).not.toMatch(/diameters\[0\]/);
+  });
 });

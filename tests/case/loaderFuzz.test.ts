@@ -1,11 +1,11 @@
-// Seeded loader fuzz: 5,000 mutated case files through the loader and the `route` command's own
-// output path, in process (a share of them also through the storage commands' JSON: volume, and pond
-// for a site). For every file: no internal error (only a CaseError or UsageError may be thrown, which
-// the CLI prints with exit 2); a user error names a field or file:line for every problem; an exit-0
-// output holds no NaN, Infinity or undefined and no null but where the format documents one; and no
-// file takes longer than a generous bound (a hang detector, not a speed test: `npm run bench`
-// measures speed). The bases cover ponds, hydrology, a pond chosen from its site, an underground
-// system with exfiltration and modified rational storms.
+// Seeded loader fuzz: 5,000 mutated case files (one in 40 with a value nested 33 to 20,000 levels
+// deep) through the loader and the `route` command's own output path, in process (a share of them
+// also through the storage commands' JSON: volume, and pond for a site). For every file: no internal
+// error (only a CaseError or UsageError may be thrown, which the CLI prints with exit 2); a user error
+// names a field or file:line for every problem; an exit-0 output holds no NaN, Infinity or undefined
+// and no null but where the format documents one; and no file takes longer than a generous bound (a
+// hang detector, not a speed test: `npm run bench` measures speed). The bases cover ponds, hydrology,
+// a pond chosen from its site, an underground system with exfiltration and modified rational storms.
 import { readFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import seedrandom from "seedrandom";
@@ -111,8 +111,22 @@ function misspell(key: string, rng: () => number): string {
   return key.toLowerCase(); // the case lost
 }
 
+/** Depths of the deep-nesting mutation: just past the loader's limit, and far past it (the stack). */
+const DEEP = [33, 64, 1000, 5000, 20000];
+
+/** A value nested `depth` levels deep, arrays and objects alternating (built without recursion). */
+function deeplyNested(depth: number, rng: () => number): Json {
+  let value: Json = rng() < 0.5 ? 1 : "6 in";
+  for (let d = 0; d < depth; d++) value = d % 2 === 0 ? [value] : { series: value };
+  return value;
+}
+
+/** Whether a mutated file holds the deep-nesting mutation (set by `mutate`). */
+let nestedDeep = false;
+
 function mutate(json: Json, rng: () => number): Json {
   const copy = structuredClone(json);
+  nestedDeep = false;
   const count = 1 + Math.floor(rng() * 3);
   for (let m = 0; m < count; m++) {
     const all = places(copy);
@@ -135,6 +149,13 @@ function mutate(json: Json, rng: () => number): Json {
       Object.assign(holder, JSON.parse(`{${JSON.stringify(pick(STRANGE_KEYS))}: ${JSON.stringify(pick(STRANGE_VALUES))}}`));
     } else if (Array.isArray(holder)) holder.push(structuredClone(holder[key as number]));
     else if (typeof value === "string") (holder as Record<string, Json>)[key as string] = value + pick([" in", " cfs", "e999", "\u0007", ""]);
+  }
+  // One file in 40: a value nested far deeper than any case (last, so nothing above walks it).
+  if (rng() < 1 / 40) {
+    const all = places(copy);
+    const [holder, key] = all[Math.floor(rng() * all.length)];
+    (holder as Record<string, Json>)[key as string] = deeplyNested(DEEP[Math.floor(rng() * DEEP.length)], rng);
+    nestedDeep = true;
   }
   return copy;
 }
@@ -190,7 +211,7 @@ describe(`seeded loader fuzz: ${MUTATIONS} mutated case files`, () => {
   it("no internal error, no NaN/Infinity/null in outputs, every user error names a field or file:line", () => {
     const rng = seedrandom("outfit loader fuzz");
     const totalWeight = BASES.reduce((s, b) => s + b.weight, 0);
-    const tally = { loaded: 0, userErrors: 0, routed: 0 };
+    const tally = { loaded: 0, userErrors: 0, routed: 0, nestedDeep: 0 };
     const failures: string[] = [];
     let slowest = 0;
     for (let n = 0; n < MUTATIONS && failures.length < 5; n++) {
@@ -199,8 +220,10 @@ describe(`seeded loader fuzz: ${MUTATIONS} mutated case files`, () => {
       const json = mutate(base.json, rng);
       const label = "fuzz.json";
       const started = performance.now();
+      const deep = nestedDeep;
       try {
         const loaded = parseCase(json, { file: join(base.file, "..", label), label });
+        if (deep) failures.push(`#${n} (${base.name}): a value nested past the limit was accepted`);
         tally.loaded++;
         const { text, code } = routeOutput(loaded.case, label, { json: n % 2 === 0 });
         expect([0, 1]).toContain(code);
@@ -215,9 +238,14 @@ describe(`seeded loader fuzz: ${MUTATIONS} mutated case files`, () => {
         }
       } catch (error) {
         if (!isUserError(error)) {
-          failures.push(`#${n} (${base.name}): internal error ${error instanceof Error ? error.stack?.split("\n").slice(0, 3).join(" ") : String(error)}\n${JSON.stringify(json).slice(0, 400)}`);
+          failures.push(`#${n} (${base.name}): internal error ${error instanceof Error ? error.stack?.split("\n").slice(0, 3).join(" ") : String(error)}\n${deep ? "(deeply nested)" : JSON.stringify(json).slice(0, 400)}`);
         } else {
           tally.userErrors++;
+          if (deep) {
+            tally.nestedDeep++;
+            const nested = error instanceof CaseError && error.problems.some((p) => /JSON nested [\d,]+ levels deep/.test(p.found));
+            if (!nested) failures.push(`#${n} (${base.name}): deep nesting not reported as such: ${error instanceof Error ? error.message.slice(0, 300) : String(error)}`);
+          }
           if (error instanceof CaseError) {
             for (const p of error.problems) {
               if (!/^(fuzz\.json: \S.*|[^\s:]+\.csv(:\d+)?)$/.test(p.where) || !p.expected) failures.push(`#${n} (${base.name}): a problem that names no field or file:line: ${JSON.stringify(p)}`);
@@ -234,6 +262,8 @@ describe(`seeded loader fuzz: ${MUTATIONS} mutated case files`, () => {
     // The fuzz reaches both sides: many files load and route, many are rejected.
     expect(tally.routed).toBeGreaterThan(MUTATIONS * 0.1);
     expect(tally.userErrors).toBeGreaterThan(MUTATIONS * 0.1);
+    // Deep nesting was reached and always rejected as a user error (exit 2, never an internal error).
+    expect(tally.nestedDeep).toBeGreaterThan(MUTATIONS / 80);
     expect(slowest).toBeLessThan(BOUND_SECONDS);
   }, 300_000);
 });

@@ -23,6 +23,8 @@ const cases: [string, string, string, string][] = [
   ["bad-csv-row.json", "bad-row-inflow.csv:5", 'found "seven"', "expected a flow (number)"],
   ["unknown-element-type.json", "unknown-element-type.json: outlet.elements[2].type", 'found "gate"', 'expected an element type: "orifice", "weir" or "regulator"'],
   ["two-storage-forms.json", "two-storage-forms.json: pond.storage", 'found "prismoid and stageArea"', "expected exactly one of prismoid, stageArea, stageStorage"],
+  // A point 5,000 arrays deep: a user error naming the depth, not an internal error (stack overflow).
+  ["deeply-nested.json", "deeply-nested.json: storms[0].inflow.series[0][0][0][0]", "found JSON nested 5,005 levels deep", "expected a case file nested at most 32 levels deep"],
 ];
 
 const out = mkdtempSync(join(tmpdir(), "outfit-malformed-"));
