@@ -17,7 +17,7 @@ import { load, positiveLength, positiveNumber, UsageError } from "./common.js";
 import { loadCase, type LoadedCase } from "../case/load.js";
 import type { Hydrograph } from "../model.js";
 import { Converter } from "../case/normalize.js";
-import { caseHydrology } from "../case/hydrology.js";
+import { caseHydrology, type CaseHydrology } from "../case/hydrology.js";
 import type { ReportInputs } from "../report/review/caseReport.js";
 import { estimateInputs } from "./volume.js";
 import type { RunFacts } from "../report/review/project.js";
@@ -54,7 +54,7 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
   const settings = (loaded: LoadedCase, inputFiles: string[]): ReportInputs => ({
     project: loaded.data.project,
     run: runFacts(options.version, inputFiles),
-    preDevelopment: preDevelopment(loaded),
+    ...derivedHydrology(loaded),
     stageStep: positiveLength("--stage-step", options.stageStep, loaded.case.units),
     hydrographInterval: positiveNumber("--hydrograph-interval", options.hydrographInterval),
     estimates: loaded.case.file ? estimateInputs(loaded.case.file, loaded.case, null) : undefined,
@@ -97,10 +97,11 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
   return 0;
 }
 
-/** The case file and every inflow file it reads. */
+/** The case file and every hydrograph file it reads (inflows, bypasses, further points' runoff). */
 function inputFilesOf(loaded: LoadedCase): string[] {
   const file = loaded.case.file;
-  const inflows = loaded.data.storms.flatMap((s) => (s.inflow && "file" in s.inflow && typeof s.inflow.file === "string" ? [resolve(dirname(file), s.inflow.file)] : []));
+  const named = (source: { file?: string } | undefined) => (source?.file ? [resolve(dirname(file), source.file)] : []);
+  const inflows = loaded.data.storms.flatMap((s) => [...named(s.inflow), ...named(s.bypass), ...(s.points ?? []).flatMap((p) => named(p.bypass)), ...(s.releaseLimits ?? []).flatMap((r) => named(r.preHydrograph))]);
   return [file, ...inflows];
 }
 
@@ -120,10 +121,10 @@ function runFacts(version: string, files: string[]): RunFacts {
   return { date: date.toISOString(), version, inputHash: hash.digest("hex"), inputFiles: unique.length };
 }
 
-/** Each storm's pre-development runoff when the case derives it from rainfall (hydrology.pre). */
-function preDevelopment(loaded: LoadedCase): (Hydrograph | null)[] {
+/** The case's hydrology as derived, and each storm's pre-development runoff from it (hydrology.pre). */
+function derivedHydrology(loaded: LoadedCase): { hydrology: CaseHydrology | null; preDevelopment: (Hydrograph | null)[] } {
   const data = loaded.data;
-  if (!data.hydrology) return data.storms.map(() => null);
+  if (!data.hydrology) return { hydrology: null, preDevelopment: data.storms.map(() => null) };
   const hydrology = caseHydrology(data, new Converter(data.units, basename(loaded.case.file || "case")));
-  return hydrology.storms.map((s) => s?.pre?.hydrograph ?? null);
+  return { hydrology, preDevelopment: hydrology.storms.map((s) => s?.pre?.hydrograph ?? null) };
 }

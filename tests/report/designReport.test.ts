@@ -11,6 +11,7 @@ import { toCaseUnits } from "../../src/units.js";
 import { launchBrowser, lazy, openFile } from "./browser.js";
 import { inverters, readPlots, seriesData } from "./readPlots.js";
 import { printFigures, splitFigures } from "./printCheck.js";
+import { eventWindow, peakWindow } from "../../src/report/review/window.js";
 import { DESIGN_RUN, outfit, temporaryDirectory } from "./support.js";
 
 interface ReportedCandidate {
@@ -94,8 +95,10 @@ describe("HTML report of a design run, in Chromium", () => {
         expect(peaks[j].y).toBeCloseTo(u.length(result.maxStage), 9);
       });
     });
-    // Candidates compared, stage-storage, then per candidate its rating and two plots per storm.
-    expect(plots.length).toBe(2 + candidates.length * (1 + 2 * c.storms.length));
+    // Candidates compared, stage-storage, then per candidate its rating and per storm its hydrograph,
+    // the peak detail where the event is long against its peaks, and the stage.
+    const details = candidates.reduce((n, k) => n + k.routing.storms.filter((sr) => peakWindow(sr, eventWindow(sr)) !== null).length, 0);
+    expect(plots.length).toBe(2 + candidates.length * (1 + 2 * c.storms.length) + details);
     for (const p of plots) expect(p.rendered.width * p.rendered.height, p.figure).toBeGreaterThan(0);
   });
 

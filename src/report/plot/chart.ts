@@ -5,9 +5,9 @@
 // those scales, and every marked point carries its data values (`data-x`, `data-y`).
 import { linearScale, type LinearScale } from "./scale.js";
 import { niceAxis, tickLabel, tickStep, tickValues, type Axis } from "./ticks.js";
-import { attributes, coordinate, element, escapeMarkup, pathData } from "./svg.js";
+import { attributes, coordinate, element, escapeMarkup, pathData, simplify } from "./svg.js";
 import { DASH_ARRAYS, FONT, FRAME, GRID, INK, PAPER, type LineStyle } from "./style.js";
-import { legend, markerElement, textWidth, type LegendEntry } from "./legend.js";
+import { legend, markerElement, type LegendEntry } from "./legend.js";
 
 export type Point = readonly [number, number];
 
@@ -34,15 +34,20 @@ export interface Band {
   axis: "x" | "y";
   from: number;
   to: number;
+  /** The legend's words (bands drawn alike share one entry). */
   label: string;
   colour: string;
+  /** Text drawn at the band's top inside the plot (bands along x), e.g. the storm it belongs to. */
+  name?: string;
 }
 
 export interface PointMark {
   x: number;
   y: number;
-  /** Text beside the point. */
+  /** Text beside the point (also its `data-label`). */
   label?: string;
+  /** False: the label is data only, not drawn (default true). */
+  showLabel?: boolean;
   /** A horizontal interval drawn through the point (e.g. a target band). */
   xRange?: readonly [number, number];
 }
@@ -129,11 +134,17 @@ export function chart(spec: ChartSpec): string {
   parts.push(element("rect", { x: 0, y: 0, width, height, fill: PAPER }));
   parts.push(key.markup);
   parts.push(grid(xAxis, yAxis, sx, sy, x0, x1, y0, y1));
+  // Labels inside the plot never overlap: every marker is taken first, then labels as they are placed.
+  const placer = new LabelPlacer({ left: x0, right: x1, top: y0, bottom: y1 });
+  for (const g of groups) for (const p of g.points) placer.take({ left: sx(p.x) - 5, right: sx(p.x) + 5, top: sy(p.y) - 5, bottom: sy(p.y) + 5 });
+  const referenceMarkup = referenceLines(references, sx, sy, x0, x1, y0, y1, placer);
+  const bandLabels = bands.filter((b) => b.name !== undefined && b.axis === "x").map((b) => bandName(b, sx, y0, y1, placer)).join("");
   parts.push(element("g", { "clip-path": `url(#${spec.id}-clip)` },
     bands.map((b) => bandElement(b, sx, sy, x0, x1, y0, y1, hatch(b))).join("") +
-    referenceLines(references, sx, sy, x0, x1, y0, y1) +
+    referenceMarkup +
     spec.series.map((s, i) => seriesElement(s, i, spec.series.length, sx, sy)).join("") +
-    groups.map((g) => pointGroupElement(g, sx, sy, x1)).join("")));
+    groups.map((g) => pointGroupElement(g, sx, sy, placer)).join("") +
+    bandLabels));
   parts.push(element("rect", { x: x0, y: y0, width: x1 - x0, height: y1 - y0, fill: "none", stroke: FRAME, "stroke-width": 1 }));
   parts.push(axes(spec, xAxis, yAxis, sx, sy, x0, x1, y0, y1));
 
@@ -233,9 +244,12 @@ function strokeAttributes(style: LineStyle) {
   };
 }
 
+/** Vertices closer than this (drawing units, a tenth of a pixel) to the line drawn without them are left out. */
+const SIMPLIFY_TOLERANCE = 0.1;
+
 function seriesElement(s: Series, index: number, count: number, sx: LinearScale, sy: LinearScale): string {
   const pixels = s.points.map(([x, y]) => [sx(x), sy(y)] as const);
-  const path = element("path", { "data-series": s.key, "data-label": s.label, d: pathData(pixels), ...strokeAttributes(s.style) });
+  const path = element("path", { "data-series": s.key, "data-label": s.label, d: pathData(simplify(pixels, SIMPLIFY_TOLERANCE)), ...strokeAttributes(s.style) });
   const markers = markerPositions(pixels, (index + 1) / (count + 1)).map(([x, y]) => markerElement(s.style, x, y));
   return path + (markers.length ? element("g", { "data-markers-of": s.key }, markers.join("")) : "");
 }
@@ -261,30 +275,74 @@ export function markerPositions(pixels: readonly Point[], phase: number): Point[
   return out;
 }
 
-function referenceLines(references: readonly ReferenceLine[], sx: LinearScale, sy: LinearScale, x0: number, x1: number, y0: number, y1: number): string {
+/** A text's box in drawing units, estimated on the wide side (no font metrics here): 0.65 em a character. */
+interface LabelBox {
+  left: number;
+  right: number;
+  top: number;
+  bottom: number;
+}
+
+const LABEL_FONT = 10.5;
+
+function labelBox(text: string, x: number, y: number, anchor: "start" | "end" | "middle", fontSize = LABEL_FONT): LabelBox {
+  const w = text.length * 0.65 * fontSize;
+  const left = anchor === "start" ? x : anchor === "end" ? x - w : x - w / 2;
+  return { left, right: left + w, top: y - 0.95 * fontSize, bottom: y + 0.3 * fontSize };
+}
+
+/**
+ * The labels and markers drawn so far inside the plot: a new label goes where it overlaps none of them
+ * and stays inside the plot, or is not drawn (its point keeps its `data-label`; the legend and the
+ * tables name it). So no label is drawn over another.
+ */
+class LabelPlacer {
+  private readonly taken: LabelBox[] = [];
+  constructor(private readonly area: LabelBox) {}
+  /** Marks a box as taken (a marker, a label placed elsewhere). */
+  take(box: LabelBox): void {
+    this.taken.push(box);
+  }
+  fits(box: LabelBox): boolean {
+    const a = this.area;
+    if (box.left < a.left || box.right > a.right || box.top < a.top || box.bottom > a.bottom) return false;
+    return !this.taken.some((t) => box.left < t.right && box.right > t.left && box.top < t.bottom && box.bottom > t.top);
+  }
+  /** The first of the candidate positions that fits (taken at once), or null. */
+  place(text: string, candidates: readonly (readonly [number, number, "start" | "end" | "middle"])[]): { x: number; y: number; anchor: "start" | "end" | "middle" } | null {
+    for (const [x, y, anchor] of candidates) {
+      const box = labelBox(text, x, y, anchor);
+      if (this.fits(box)) {
+        this.take(box);
+        return { x, y, anchor };
+      }
+    }
+    return null;
+  }
+}
+
+function referenceLines(references: readonly ReferenceLine[], sx: LinearScale, sy: LinearScale, x0: number, x1: number, y0: number, y1: number, placer: LabelPlacer): string {
   const out: string[] = [];
-  const placed: { x: number; y: number; w: number }[] = [];
   const ordered = [...references].sort((a, b) => (a.axis === b.axis ? (a.axis === "y" ? sy(a.value) - sy(b.value) : sx(a.value) - sx(b.value)) : a.axis === "y" ? -1 : 1));
   for (const r of ordered) {
     const attrs = { "data-reference": r.key, "data-axis": r.axis, "data-value": String(r.value), ...strokeAttributes(r.style) };
-    const w = textWidth(r.label, 10.5);
     if (r.axis === "y") {
       const y = sy(r.value);
       out.push(element("line", { x1: x0, y1: y, x2: x1, y2: y, ...attrs }));
-      // Labels sit at the right end above their line, moved left when they would overlap another.
-      // A line with an empty label shares the label of another drawn at the same level.
+      // Labels sit at the right end above their line, moved left (then below it) when they would
+      // overlap another. A line with an empty label shares the label of another drawn at the same level.
       if (r.label === "") continue;
-      let x = x1 - 6;
-      let ly = y - 4;
-      if (ly - 10 < y0) ly = y + 12;
-      while (placed.some((p) => Math.abs(p.y - ly) < 12 && x - w < p.x && x > p.x - p.w)) x -= 8;
-      placed.push({ x, y: ly, w });
-      out.push(label(r.label, x, ly, "end", r.style.colour));
+      const candidates: [number, number, "end"][] = [];
+      for (let x = x1 - 6; x > x0 + 40; x -= 24) candidates.push([x, y - 4, "end"], [x, y + 12, "end"]);
+      const at = placer.place(r.label, candidates);
+      if (at) out.push(label(r.label, at.x, at.y, at.anchor, r.style.colour));
     } else {
       const x = sx(r.value);
       out.push(element("line", { x1: x, y1: y0, x2: x, y2: y1, ...attrs }));
-      const anchorRight = x + 4 + w < x1;
-      out.push(label(r.label, anchorRight ? x + 4 : x - 4, y0 + 12, anchorRight ? "start" : "end", r.style.colour));
+      const candidates: [number, number, "start" | "end"][] = [];
+      for (let y = y0 + 12; y < y1 - 4; y += 14) candidates.push([x + 4, y, "start"], [x - 4, y, "end"]);
+      const at = placer.place(r.label, candidates);
+      if (at) out.push(label(r.label, at.x, at.y, at.anchor, r.style.colour));
     }
   }
   return element("g", { class: "references" }, out.join(""));
@@ -295,6 +353,15 @@ function label(text: string, x: number, y: number, anchor: "start" | "end" | "mi
     x, y, "text-anchor": anchor, "font-size": 10.5, fill: colour === "#000000" ? INK : colour,
     stroke: PAPER, "stroke-width": 3, "paint-order": "stroke", "stroke-linejoin": "round",
   }, escapeMarkup(text));
+}
+
+/** A band's name at its top, centred over it, where no other label is. */
+function bandName(b: Band, sx: LinearScale, y0: number, y1: number, placer: LabelPlacer): string {
+  const x = (sx(b.from) + sx(b.to)) / 2;
+  const spots: [number, number, "middle"][] = [];
+  for (let y = y0 + 13; y < y1 - 4; y += 13) spots.push([x, y, "middle"]);
+  const at = placer.place(b.name!, spots);
+  return at ? element("g", { "data-band-name": b.key }, label(b.name!, at.x, at.y, "middle", b.colour)) : "";
 }
 
 function bandElement(b: Band, sx: LinearScale, sy: LinearScale, x0: number, x1: number, y0: number, y1: number, patternId: string): string {
@@ -309,7 +376,16 @@ function bandElement(b: Band, sx: LinearScale, sy: LinearScale, x0: number, x1: 
   return element("rect", { x: left, y: y0, width: Math.max(right - left, 1), height: y1 - y0, ...attrs });
 }
 
-function pointGroupElement(g: PointGroup, sx: LinearScale, sy: LinearScale, x1: number): string {
+/** Where a point's label may go, in order: right above, right below, left above, left below, then further out. */
+function labelSpots(x: number, y: number): [number, number, "start" | "end"][] {
+  const spots: [number, number, "start" | "end"][] = [];
+  for (const dy of [0, 12, 24]) {
+    spots.push([x + 8, y - 7 - dy, "start"], [x + 8, y + 15 + dy, "start"], [x - 8, y - 7 - dy, "end"], [x - 8, y + 15 + dy, "end"]);
+  }
+  return spots;
+}
+
+function pointGroupElement(g: PointGroup, sx: LinearScale, sy: LinearScale, placer: LabelPlacer): string {
   const marks = g.points.map((p) => {
     const x = sx(p.x);
     const y = sy(p.y);
@@ -319,7 +395,8 @@ function pointGroupElement(g: PointGroup, sx: LinearScale, sy: LinearScale, x1: 
       const b = sx(p.xRange[1]);
       range = element("path", { d: `M${coordinate(a)} ${coordinate(y)} H${coordinate(b)} M${coordinate(a)} ${coordinate(y - 5)} V${coordinate(y + 5)} M${coordinate(b)} ${coordinate(y - 5)} V${coordinate(y + 5)}`, fill: "none", stroke: g.style.colour, "stroke-width": 1.6 });
     }
-    const text = p.label === undefined ? "" : label(p.label, x + textWidth(p.label, 10.5) + 10 < x1 ? x + 8 : x - 8, y - 7, x + textWidth(p.label, 10.5) + 10 < x1 ? "start" : "end", g.style.colour);
+    const at = p.label === undefined || p.showLabel === false ? null : placer.place(p.label, labelSpots(x, y));
+    const text = at ? label(p.label!, at.x, at.y, at.anchor, g.style.colour) : "";
     return element("g", {
       "data-x": String(p.x),
       "data-y": String(p.y),

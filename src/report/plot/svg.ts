@@ -30,6 +30,62 @@ export function coordinate(value: number): string {
   return text === "-0" ? "0" : text;
 }
 
+/**
+ * The vertices of a polyline needed to draw it within `tolerance` (drawing units) of every vertex
+ * left out: Douglas-Peucker (Douglas & Peucker 1973, Cartographica 10(2)), with an explicit stack.
+ * The distance is measured across the line's independent variable: vertically for a line whose x
+ * never falls (a hydrograph: the value at each time stays within the tolerance), horizontally for one
+ * whose y never falls in drawing order (a rating: the flow at each stage), else perpendicular. A
+ * routed series of thousands of steps draws in a few hundred vertices at a tenth of a pixel.
+ */
+export function simplify(points: readonly (readonly [number, number])[], tolerance: number): (readonly [number, number])[] {
+  const n = points.length;
+  if (n <= 2) return [...points];
+  let xRises = true;
+  let yMonotone = true;
+  for (let i = 1; i < n; i++) {
+    if (points[i][0] < points[i - 1][0]) xRises = false;
+    if ((points[i][1] - points[i - 1][1]) * (points[n - 1][1] - points[0][1]) < 0) yMonotone = false;
+  }
+  const mode = xRises ? "vertical" : yMonotone ? "horizontal" : "perpendicular";
+  const keep = new Uint8Array(n);
+  keep[0] = 1;
+  keep[n - 1] = 1;
+  const stack: [number, number][] = [[0, n - 1]];
+  while (stack.length > 0) {
+    const [a, b] = stack.pop()!;
+    const [ax, ay] = points[a];
+    const [bx, by] = points[b];
+    const dx = bx - ax;
+    const dy = by - ay;
+    const length = Math.hypot(dx, dy);
+    let worst = -1;
+    let at = -1;
+    for (let i = a + 1; i < b; i++) {
+      const [px, py] = points[i];
+      let d: number;
+      if (mode === "vertical") d = dx > 0 ? Math.abs(py - (ay + (dy * (px - ax)) / dx)) : Math.max(Math.abs(py - ay), Math.abs(py - by));
+      else if (mode === "horizontal") d = dy !== 0 ? Math.abs(px - (ax + (dx * (py - ay)) / dy)) : Math.max(Math.abs(px - ax), Math.abs(px - bx));
+      else {
+        // Distance to the segment (to its nearer end beyond it).
+        const t = length > 0 ? ((px - ax) * dx + (py - ay) * dy) / (length * length) : 0;
+        if (t <= 0) d = Math.hypot(px - ax, py - ay);
+        else if (t >= 1) d = Math.hypot(px - bx, py - by);
+        else d = Math.abs((px - ax) * dy - (py - ay) * dx) / length;
+      }
+      if (d > worst) {
+        worst = d;
+        at = i;
+      }
+    }
+    if (worst > tolerance) {
+      keep[at] = 1;
+      stack.push([a, at], [at, b]);
+    }
+  }
+  return points.filter((_, i) => keep[i] === 1);
+}
+
 /** A polyline as path data: "M x y L x y ...". */
 export function pathData(points: readonly (readonly [number, number])[]): string {
   return points.map(([x, y], i) => `${i === 0 ? "M" : "L"}${coordinate(x)} ${coordinate(y)}`).join(" ");

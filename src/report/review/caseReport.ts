@@ -5,12 +5,15 @@ import { drainedStage, type CaseRouting } from "../../routing/routeCase.js";
 import type { Assessment } from "../../assess/assess.js";
 import { formatter } from "../../format.js";
 import { CAUTION } from "../caution.js";
-import { hydrographChart, hydrographWindow, prePostChart, ratingChart, stageChart, storageChart } from "./figures.js";
+import { hydrographChart, prePostChart, ratingChart, stageChart, storageChart } from "./figures.js";
+import { eventWindow, peakWindow } from "./window.js";
 import { defaultStageStep, hydrographTable, prePostTable, stageStorageDischargeTable } from "./submittal.js";
 import { projectFacts, type RunFacts } from "./project.js";
 import { chamberThrottles, niceStep, ratingRows } from "../rating.js";
 import { baseLength } from "../../units.js";
 import type { ProjectFile } from "../../case/schema.js";
+import type { CaseHydrology } from "../../case/hydrology.js";
+import { hydrologySection } from "./hydrology.js";
 import { methodsTable } from "./methods.js";
 import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, warningsList } from "./tables.js";
 import { FigureCounter, section, type Block, type ReportDocument, type Section } from "./model.js";
@@ -29,6 +32,8 @@ export interface ReportInputs {
   run: RunFacts;
   /** Pre-development runoff per storm of the case, in order (null where the case has none). */
   preDevelopment: readonly (Hydrograph | null)[];
+  /** The case's hydrology section as derived (null without one): the report's hydrology section. */
+  hydrology?: CaseHydrology | null;
   /** Stage step of the stage-storage-discharge table (m); default 0.1 ft / 0.02 m. */
   stageStep?: number;
   /** Interval of the hydrograph tables (minutes); default chosen per storm. */
@@ -65,13 +70,21 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)),
   ]);
   const stormSections = routing.storms.map((sr, i) => {
-    const window = hydrographWindow(sr);
+    const window = eventWindow(sr);
+    const detail = peakWindow(sr, window);
     const pre = inputs.preDevelopment[c.storms.indexOf(sr.storm)] ?? null;
+    const bypass = sr.storm.bypass !== null && sr.storm.bypass !== undefined;
+    const lines = `Inflow (solid) and total outflow (dashed, squares)${bypass ? "; the bypass (dotted, triangles) and the flow at the point of analysis, outflow plus bypass at each instant (thick solid), to which the target applies" : ""}${sr.storm.target === null ? "" : "; hatched: the target band, dotted: the target"}`;
     const blocks: Block[] = [
       { kind: "text", text: stormSummary(c, sr) },
       figures.figure(`${prefix}storm-${i + 1}-hydrograph`, `${sr.storm.name}: inflow and outflow`,
-        `Inflow (solid) and total outflow (dashed, squares)${sr.storm.target === null ? "" : "; hatched: the target band, dotted: the target"}. The first ${window.end.toFixed(2)} h of ${window.simulated.toFixed(2)} h simulated; the stage plot below covers the whole simulation.`,
-        (id) => hydrographChart(id, c, sr)),
+        `${lines}. From ${window.start.toFixed(2)} h to ${window.end.toFixed(2)} h of ${window.simulated.toFixed(2)} h simulated: from the rise of the inflow to the recession of the outflow${detail ? `; the shaded span (${detail.start.toFixed(2)} h to ${detail.end.toFixed(2)} h) is drawn larger in the next figure` : ""}. The stage plot below covers the whole simulation.`,
+        (id) => hydrographChart(id, c, sr, window, "hydrograph", detail)),
+      ...(detail
+        ? [figures.figure(`${prefix}storm-${i + 1}-peak`, `${sr.storm.name}: the peaks in detail`,
+            `${lines}, from ${detail.start.toFixed(2)} h to ${detail.end.toFixed(2)} h, where the peaks are.`,
+            (id) => hydrographChart(id, c, sr, detail, "hydrograph-peak"))]
+        : []),
       figures.figure(`${prefix}storm-${i + 1}-stage`, `${sr.storm.name}: stage`,
         `Stage until the pond has drained (at or below ${f.elevation(drainedStage(c))}) or the simulation ended, with the top of embankment, the freeboard line${outlet.spillway ? " and the spillway crest" : ""}.`,
         (id) => stageChart(id, c, outlet, sr)),
@@ -90,12 +103,17 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
   return [rating, storms, checks];
 }
 
-export function methodsSection(c: Case, outlets: readonly Outlet[]): Section {
-  return section("methods", "Methods and sources", [methodsTable(c, outlets)]);
+export function methodsSection(c: Case, outlets: readonly Outlet[], hydrology: CaseHydrology | null = null): Section {
+  return section("methods", "Methods and sources", [methodsTable(c, outlets, hydrology)]);
 }
 
 export function cautionSection(): Section {
   return section("caution", "Caution", [{ kind: "note", tone: "caution", text: CAUTION }]);
+}
+
+/** A section that may be absent, as a list of none or one. */
+export function optional(s: Section | null): Section[] {
+  return s ? [s] : [];
 }
 
 /** The report of the case's own outlet. */
@@ -109,9 +127,10 @@ export function caseReport(c: Case, routed: RoutedOutlet, source: string, inputs
     caution: CAUTION,
     sections: [
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
+      ...optional(hydrologySection(c, inputs.hydrology ?? null)),
       storageSection(c, routed.outlet, figures, routed.routing, inputs.estimates),
       ...outletSections(c, routed, figures, inputs),
-      methodsSection(c, [routed.outlet]),
+      methodsSection(c, [routed.outlet], inputs.hydrology ?? null),
       cautionSection(),
     ],
   };

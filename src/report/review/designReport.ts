@@ -7,7 +7,8 @@ import { percent, slackText, warningCount } from "../console.js";
 import { withinBand } from "../json.js";
 import { toCaseUnits } from "../../units.js";
 import { candidatesChart } from "./figures.js";
-import { cautionSection, methodsSection, outletSections, storageSection, type ReportInputs, type RoutedOutlet } from "./caseReport.js";
+import { cautionSection, methodsSection, optional, outletSections, storageSection, type ReportInputs, type RoutedOutlet } from "./caseReport.js";
+import { hydrologySection } from "./hydrology.js";
 import { projectFacts } from "./project.js";
 import { caseFacts, stormsTable, verdictNote } from "./tables.js";
 import type { DesignRun, LoadedCandidate } from "./designRun.js";
@@ -48,15 +49,15 @@ function comparisonTable(c: Case, routed: readonly RoutedCandidate[]): TableBloc
   const targeted = c.storms.filter((s) => s.target !== null);
   return {
     kind: "table",
-    caption: "Candidates, best first (peak outflow as a percentage of the target; maximum stage over all storms)",
-    head: ["Rank", "Description", ...targeted.map((s) => `${s.name} out / target`), "Max stage", "Cost", "Binding check", "Compliant"],
+    caption: "Candidates, best first (peak outflow as a percentage of the target, at the point of analysis where a storm has a bypass; maximum stage over all storms)",
+    head: ["Rank", "Description", ...targeted.map((s) => `${s.name} ${s.bypass ? "point" : "out"} / target`), "Max stage", "Cost", "Binding check", "Compliant"],
     numeric: [true, false, ...targeted.map(() => true), true, true, false, false],
     rows: routed.map((r) => {
       const reported = r.candidate.reported;
       const ratios = targeted.map((storm): Cell => {
         const s = r.routing.storms.find((x) => x.storm.name === storm.name)!;
-        const inBand = withinBand(c, s.result.peakOutflow, storm.target)!;
-        return { text: percent(s.result.peakOutflow / storm.target!), tone: inBand ? "pass" : "fail" };
+        const inBand = withinBand(c, s.result.peakAtPoint, storm.target)!;
+        return { text: percent(s.result.peakAtPoint / storm.target!), tone: inBand ? "pass" : "fail" };
       });
       const maxStage = Math.max(...r.routing.storms.map((s) => s.result.maxStage));
       const b = r.assessment.binding;
@@ -148,7 +149,7 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
   const compared = section("candidates", "Candidates compared", [
     comparisonTable(c, routed),
     ...baselineBlocks(run, routed),
-    figures.figure("candidates", "Candidates compared", "Total rating of each candidate against stage; hatched: each storm's target band; open markers: each candidate's routed peak outflow at its maximum stage, named by storm.",
+    figures.figure("candidates", "Candidates compared", "Total rating of each candidate against stage; hatched: each storm's target band, named above it; open markers: each candidate's routed peak (at the point of analysis where a storm has a bypass) at its maximum stage, beside that storm's band.",
       (id) => candidatesChart(id, c, routed.map((r) => ({ rank: r.candidate.reported.rank, outlet: r.outlet, storms: r.routing.storms })))),
   ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));
   // Built in the order they are shown, so that figures are numbered in document order.
@@ -173,9 +174,10 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
       section("run", "Design run", [runFacts]),
       compared,
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
+      ...optional(hydrologySection(c, inputs.hydrology ?? null)),
       storage,
       ...candidateSections,
-      methodsSection(c, routed.map((r) => r.outlet)),
+      methodsSection(c, routed.map((r) => r.outlet), inputs.hydrology ?? null),
       cautionSection(),
     ],
   };

@@ -1,6 +1,5 @@
 // The report's plots, in the case's units: stage-storage, the outlet's rating with each storm's
 // target and routed peak, each storm's hydrographs and stage, and the candidates of a design run.
-import { routedInflow } from "../../routing/durations.js";
 import type { Case, Hydrograph, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { ratingBreaks, stageGrid } from "../../routing/ratingTable.js";
@@ -11,6 +10,7 @@ import { describeElement } from "../describe.js";
 import { niceAxis } from "../plot/ticks.js";
 import { chart, type Band, type Point, type PointGroup, type ReferenceLine, type Series } from "../plot/chart.js";
 import { cycleStyle, PALETTE, INK, type LineStyle } from "../plot/style.js";
+import type { TimeWindow } from "./window.js";
 
 /** A storm's target band converted for a plot axis. */
 function bandIn(convert: (q: number) => number, target: number, tolerance: Tolerance): readonly [number, number] {
@@ -20,8 +20,6 @@ function bandIn(convert: (q: number) => number, target: number, tolerance: Toler
 
 /** Rating and storage curves are drawn with about this many intervals over the pond's depth. */
 const CURVE_INTERVALS = 240;
-/** The hydrograph plot spans this many times the inflow's duration (the stage plot spans all). */
-const HYDROGRAPH_SPAN = 3;
 
 const line = (colour: string, dash: LineStyle["dash"], width = 1.6): LineStyle => ({ colour, dash, width, marker: "none" });
 const TOP_STYLE = line(INK, "solid", 1.8);
@@ -183,57 +181,63 @@ function until(times: readonly number[], values: readonly number[], end: number)
   return out;
 }
 
-export interface TimeWindow {
-  /** Hours shown. */
-  end: number;
-  /** Hours simulated. */
-  simulated: number;
-}
-
-/** The hydrograph plot's time window: three times the inflow's duration, within the simulation. */
-export function hydrographWindow(sr: StormRouting): TimeWindow {
-  const series = sr.result.series!;
-  const simulated = series.time[series.time.length - 1] / 3600;
-  const inflow = routedInflow(sr.storm, sr.result);
-  const inflowEnd = inflow.times[inflow.times.length - 1] / 3600;
-  return { end: Math.min(simulated, HYDROGRAPH_SPAN * inflowEnd), simulated };
-}
-
-export function hydrographChart(id: string, c: Case, sr: StormRouting): string {
+/**
+ * A storm's inflow and outflow over a time window (hours): the event, or its peak detail (`key`
+ * "hydrograph-peak"). With a bypass, also the bypass and the flow at the point of analysis, to which
+ * the target applies; `detail`, when given, is shaded on the event plot.
+ */
+export function hydrographChart(id: string, c: Case, sr: StormRouting, window: TimeWindow, key = "hydrograph", detail: TimeWindow | null = null): string {
   const f = formatter(c.units);
   const u = f.raw;
   const series = sr.result.series!;
-  const window = hydrographWindow(sr);
   const hours = series.time.map((t) => t / 3600);
   const bands: Band[] = [];
   const references: ReferenceLine[] = [];
   const target = sr.storm.target;
+  const bypass = series.bypass;
   if (target !== null) {
     const [from, to] = bandIn(u.flow, target, c.criteria);
-    bands.push({ key: "target-band", axis: "y", from, to, label: `target band ${targetBand(target, c.criteria).map(f.flow).join(" to ")}`, colour: TARGET_COLOUR });
+    bands.push({ key: "target-band", axis: "y", from, to, label: `target band ${targetBand(target, c.criteria).map(f.flow).join(" to ")}${bypass ? " (at the point)" : ""}`, colour: TARGET_COLOUR });
     references.push({ key: "target", axis: "y", value: u.flow(target), label: `target ${f.flow(target)}`, style: line(TARGET_COLOUR, "dotted", 1.8) });
+  }
+  if (detail) bands.push({ key: "peak-detail", axis: "x", from: detail.start, to: detail.end, label: "shown in detail in the next figure", colour: PALETTE.skyBlue });
+  const within = (values: readonly number[]) => until(hours, values, window.end).filter(([t]) => t >= window.start);
+  const inWindow = (t: number) => t / 3600 >= window.start && t / 3600 <= window.end;
+  const r = sr.result;
+  const marks: PointGroup[] = [{
+    key: "peak-outflow",
+    label: "peak outflow",
+    style: { colour: PALETTE.vermillion, dash: "solid", width: 1.6, marker: "circle", open: true },
+    points: inWindow(r.timeOfPeakOutflow) ? [{ x: r.timeOfPeakOutflow / 3600, y: u.flow(r.peakOutflow), label: `${f.flow(r.peakOutflow)} at ${(r.timeOfPeakOutflow / 3600).toFixed(2)} h` }] : [],
+  }];
+  if (bypass) {
+    marks.push({
+      key: "peak-at-point",
+      label: "peak at the point of analysis",
+      style: { colour: INK, dash: "solid", width: 1.6, marker: "diamond" },
+      points: inWindow(r.timeOfPeakAtPoint) ? [{ x: r.timeOfPeakAtPoint / 3600, y: u.flow(r.peakAtPoint), label: `${f.flow(r.peakAtPoint)} at the point, ${(r.timeOfPeakAtPoint / 3600).toFixed(2)} h` }] : [],
+    });
   }
   return chart({
     id,
-    key: "hydrograph",
-    title: `${sr.storm.name}: inflow and outflow`,
-    description: `Inflow and routed outflow of the ${sr.storm.name} storm over the first ${window.end.toFixed(1)} h.`,
-    x: { label: "Time from start of storm", unit: "h", domain: [0, window.end] },
+    key,
+    title: `${sr.storm.name}: inflow and outflow${key === "hydrograph-peak" ? ", peak detail" : ""}`,
+    description: `Inflow and routed outflow${bypass ? ", the bypass and the flow at the point of analysis" : ""} of the ${sr.storm.name} storm from ${window.start.toFixed(2)} h to ${window.end.toFixed(2)} h.`,
+    x: { label: "Time from start of storm", unit: "h", domain: [window.start, window.end] },
     y: { label: "Flow", unit: f.labels.flow, includeZero: true },
     series: [
-      { key: "inflow", label: "inflow", points: until(hours, series.inflow.map(u.flow), window.end), style: { colour: PALETTE.blue, dash: "solid", width: 2, marker: "none" } },
-      { key: "outflow", label: "outflow (total)", points: until(hours, series.outflow.map(u.flow), window.end), style: { colour: PALETTE.vermillion, dash: "dashed", width: 2, marker: "square" } },
+      { key: "inflow", label: "inflow", points: within(series.inflow.map(u.flow)), style: { colour: PALETTE.blue, dash: "solid", width: 2, marker: "none" } },
+      { key: "outflow", label: "outflow (total)", points: within(series.outflow.map(u.flow)), style: { colour: PALETTE.vermillion, dash: "dashed", width: 2, marker: "square" } },
+      ...(bypass
+        ? [
+            { key: "bypass", label: "bypass", points: within(bypass.map(u.flow)), style: { colour: PALETTE.bluishGreen, dash: "dotted", width: 2, marker: "triangle" } } as Series,
+            { key: "at-point", label: "at the point of analysis (outflow + bypass)", points: within(series.outflow.map((q, i) => u.flow(q + bypass[i]))), style: { colour: INK, dash: "solid", width: 2.4, marker: "none" } } as Series,
+          ]
+        : []),
     ],
     references,
     bands,
-    points: [{
-      key: "peak-outflow",
-      label: "peak outflow",
-      style: { colour: PALETTE.vermillion, dash: "solid", width: 1.6, marker: "circle", open: true },
-      points: sr.result.timeOfPeakOutflow / 3600 <= window.end
-        ? [{ x: sr.result.timeOfPeakOutflow / 3600, y: u.flow(sr.result.peakOutflow), label: `${f.flow(sr.result.peakOutflow)} at ${(sr.result.timeOfPeakOutflow / 3600).toFixed(2)} h` }]
-        : [],
-    }],
+    points: marks,
   });
 }
 
@@ -288,14 +292,15 @@ export function candidatesChart(id: string, c: Case, candidates: readonly Compar
     x: { label: "Outflow", unit: f.labels.flow, domain: [0, limit] },
     y: { label: "Stage", unit: f.labels.length, domain: stageDomain(c) },
     series,
+    // Each storm is named once, over its band; the candidates' peaks beside it are told apart by marker.
     bands: c.storms.filter((s) => s.target !== null).map((s, i) => ({
-      key: `band-${i + 1}`, axis: "x" as const, from: bandIn(u.flow, s.target!, c.criteria)[0], to: bandIn(u.flow, s.target!, c.criteria)[1], label: "target band of each storm", colour: TARGET_COLOUR,
+      key: `band-${i + 1}`, axis: "x" as const, from: bandIn(u.flow, s.target!, c.criteria)[0], to: bandIn(u.flow, s.target!, c.criteria)[1], label: "target band of each storm (named above it)", colour: TARGET_COLOUR, name: s.name,
     })),
     points: candidates.map((k, i) => ({
       key: `peaks-${k.rank}`,
       label: `candidate ${k.rank}: routed peaks`,
       style: { ...styles[i], open: true },
-      points: k.storms.map((s) => ({ x: u.flow(s.result.peakOutflow), y: u.length(s.result.maxStage), label: s.storm.name })),
+      points: k.storms.map((s) => ({ x: u.flow(s.result.peakAtPoint), y: u.length(s.result.maxStage), label: s.storm.name, showLabel: false })),
     })),
   });
 }

@@ -7,6 +7,8 @@ import { RISER_METHOD } from "../../parts/riser.js";
 import { BARREL_METHOD } from "../../parts/barrel.js";
 import { SPILLWAY_METHOD } from "../../parts/spillway.js";
 import type { Method } from "../../parts/part.js";
+import type { CaseHydrology } from "../../case/hydrology.js";
+import { runoffMethodWords, unitDurationWords } from "../hydrograph.js";
 
 const STORAGE: Method = {
   part: "storage",
@@ -39,13 +41,30 @@ function methodsUsed(outlets: readonly Outlet[]): Method[] {
   ];
 }
 
-/** The methods and sources of a report on these outlets (each row from the parts the outlets use). */
-export function methodsTable(_case: Case, outlets: readonly Outlet[]): TableBlock {
+/** Methods of the case as a whole, beside the outlet's parts. */
+function caseMethods(c: Case, hydrology: CaseHydrology | null): string[][] {
+  const rows: string[][] = [];
+  if (c.storms.some((s) => s.bypass)) {
+    rows.push(["point of analysis", "the pond's outflow (spillway included) plus the bypassing runoff at each instant; its largest sum is the peak the target applies to (exact for the two broken lines)", "the case format, \"Bypass and the point of analysis\""]);
+  }
+  if (hydrology && hydrology.storms.some((s) => s !== null)) {
+    const sources = [...new Set(hydrology.storms.flatMap((s) => (s === null ? [] : [s.method])))];
+    rows.push([
+      "storms from rainfall",
+      sources.map((m) => (m === "nrcs" ? `NRCS runoff (${runoffMethodWords(hydrology)}) and unit hydrograph (${unitDurationWords(hydrology)})` : "rational method, modified rational hydrograph")).join("; ") + "; see the Hydrology section",
+      sources.map((m) => (m === "nrcs" ? "NRCS TR-55 (1986) ch. 2 and 3; NEH 630 ch. 16" : "FHWA HEC-22 (3rd ed., 2009) ch. 3 and 8")).join("; "),
+    ]);
+  }
+  return rows;
+}
+
+/** The methods and sources of a report on these outlets (each row from the parts the outlets use) and of the case's hydrology. */
+export function methodsTable(c: Case, outlets: readonly Outlet[], hydrology: CaseHydrology | null = null): TableBlock {
   return {
     kind: "table",
     caption: "Methods and their published sources",
     head: ["Part", "Method", "Source"],
     numeric: [false, false, false],
-    rows: methodsUsed(outlets).map((m) => [m.part, m.method, m.source]),
+    rows: [...caseMethods(c, hydrology), ...methodsUsed(outlets).map((m) => [m.part, m.method, m.source])],
   };
 }

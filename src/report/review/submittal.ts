@@ -12,7 +12,7 @@ import { baseLength } from "../../units.js";
 import { limitingPart } from "../limiting.js";
 import { elementName } from "../rating.js";
 import { partOf } from "../../parts/registry.js";
-import { hydrographWindow } from "./figures.js";
+import { eventWindow } from "./window.js";
 import type { TableBlock } from "./model.js";
 
 /** Default stage step of the stage-storage-discharge table: 0.1 ft (US) or 0.02 m (SI). */
@@ -112,11 +112,14 @@ export function stageStorageDischargeTable(c: Case, outlet: Outlet, step: number
 }
 
 /** Intervals (minutes) the hydrograph tables may use; the shortest that keeps a table within MAX_ROWS. */
-const INTERVALS = [5, 10, 15, 30, 60, 120];
+const INTERVALS = [1, 2, 5, 10, 15, 30, 60, 120];
 const MAX_ROWS = 60;
+/** A table over a window longer than this (hours) gives its times in hours. */
+const HOURS_ABOVE = 6;
 
 export function hydrographInterval(sr: StormRouting): number {
-  const minutes = hydrographWindow(sr).end * 60;
+  const w = eventWindow(sr);
+  const minutes = (w.end - w.start) * 60;
   return INTERVALS.find((m) => minutes / m <= MAX_ROWS) ?? INTERVALS[INTERVALS.length - 1];
 }
 
@@ -135,7 +138,11 @@ function at(times: readonly number[], values: readonly number[], t: number): num
   return values[lo] + w * (values[hi] - values[lo]);
 }
 
-/** One storm's inflow, outflow, stage and storage at a readable interval, with the peaks' own rows. */
+/**
+ * One storm's inflow, outflow, stage and storage at a readable interval over the event (from the rise
+ * of the inflow to the recession of the outflow; times in hours when it is long), with the peaks'
+ * own rows; with a bypass, also the bypass and the flow at the point of analysis.
+ */
 export function hydrographTable(c: Case, sr: StormRouting, intervalMinutes?: number): TableBlock {
   const f = formatter(c.units);
   const L = f.labels;
@@ -143,35 +150,53 @@ export function hydrographTable(c: Case, sr: StormRouting, intervalMinutes?: num
   const series = sr.result.series!;
   const curve = storageCurve(c.pond);
   const interval = intervalMinutes ?? hydrographInterval(sr);
-  const end = hydrographWindow(sr).end * 3600;
+  const window = eventWindow(sr);
+  const start = window.start * 3600;
+  const end = window.end * 3600;
+  const inHours = window.end - window.start > HOURS_ABOVE;
   const times = new Map<number, string>();
-  for (let t = 0; t <= end + 1e-6; t += interval * 60) times.set(Math.round(t * 1000) / 1000, "");
+  for (let t = Math.ceil(start / (interval * 60) - 1e-9) * interval * 60; t <= end + 1e-6; t += interval * 60) times.set(Math.round(t * 1000) / 1000, "");
   const mark = (t: number, note: string) => {
-    if (t > end + 1e-6) return;
+    if (t > end + 1e-6 || t < start - 1e-6) return;
     const key = Math.round(t * 1000) / 1000;
     const before = times.get(key);
     times.set(key, before ? `${before}, ${note}` : note);
   };
+  const bypass = series.bypass;
   mark(peakOf(routedInflow(sr.storm, sr.result)).time, "peak inflow");
   mark(sr.result.timeOfPeakOutflow, "peak outflow");
+  if (bypass) mark(sr.result.timeOfPeakAtPoint, "peak at the point");
   mark(sr.result.timeOfMaxStage, "maximum stage");
   const digits = c.units === "US" ? 2 : 3;
   const rows = [...times.entries()].sort((a, b) => a[0] - b[0]).map(([t, note]) => {
     const stage = at(series.time, series.stage, t);
+    const outflow = at(series.time, series.outflow, t);
+    const b = bypass ? at(series.time, bypass, t) : 0;
     return [
-      trimNumber(t / 60, 1),
+      inHours ? trimNumber(t / 3600, 3) : trimNumber(t / 60, 1),
       significant(u.flow(at(series.time, series.inflow, t))),
-      significant(u.flow(at(series.time, series.outflow, t))),
+      significant(u.flow(outflow)),
+      ...(bypass ? [significant(u.flow(b)), significant(u.flow(outflow + b))] : []),
       u.length(stage).toFixed(digits),
       Math.round(u.volume(curve.volume(stage))).toLocaleString("en-US"),
       note,
     ];
   });
+  const head = [
+    inHours ? "Time (h)" : "Time (min)",
+    `Inflow (${L.flow})`,
+    `Outflow (${L.flow})`,
+    ...(bypass ? [`Bypass (${L.flow})`, `At point (${L.flow})`] : []),
+    `Stage (${L.length})`,
+    `Storage (${L.volume})`,
+    "Note",
+  ];
+  const span = inHours ? `${window.start.toFixed(2)} h to ${window.end.toFixed(2)} h` : `${trimNumber(window.start * 60, 1)} min to ${trimNumber(window.end * 60, 1)} min`;
   return {
     kind: "table",
-    caption: `${sr.storm.name}: inflow and outflow every ${interval} min over the first ${(end / 3600).toFixed(2)} h, with rows at the peaks (full series at every routing step: outfit route --csv-dir DIR)`,
-    head: ["Time (min)", `Inflow (${L.flow})`, `Outflow (${L.flow})`, `Stage (${L.length})`, `Storage (${L.volume})`, "Note"],
-    numeric: [true, true, true, true, true, false],
+    caption: `${sr.storm.name}: inflow and outflow${bypass ? ", bypass and the flow at the point of analysis" : ""} every ${interval} min from ${span} (the event: from the rise of the inflow to the recession of the outflow), with rows at the peaks (full series at every routing step: outfit route --csv-dir DIR)`,
+    head,
+    numeric: head.map((h) => h !== "Note"),
     rows,
   };
 }
@@ -197,6 +222,11 @@ export function prePostTable(c: Case, sr: StormRouting, pre: Hydrograph | null):
   }
   rows.push(["post-development inflow", significant(u.flow(post.peak)), hours(post.time), Math.round(u.volume(r.volumeIn)).toLocaleString("en-US")]);
   rows.push(["routed outflow", significant(u.flow(r.peakOutflow)), hours(r.timeOfPeakOutflow), Math.round(u.volume(r.volumeOut)).toLocaleString("en-US")]);
+  if (sr.storm.bypass) {
+    const b = peakOf(sr.storm.bypass);
+    rows.push(["bypass (joins at the point of analysis)", significant(u.flow(b.peak)), hours(b.time), Math.round(u.volume(hydrographVolume(sr.storm.bypass))).toLocaleString("en-US")]);
+    rows.push(["at the point of analysis (outflow + bypass)", significant(u.flow(r.peakAtPoint)), hours(r.timeOfPeakAtPoint), "-"]);
+  }
   if (sr.storm.target !== null) rows.push(["allowable release (target)", significant(u.flow(sr.storm.target)), "-", "-"]);
   return {
     kind: "table",

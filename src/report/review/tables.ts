@@ -6,7 +6,8 @@ import { hydrographVolume } from "../../hydrology/hydrograph.js";
 import { storageCurve } from "../../storage/curve.js";
 import { formatter, trimNumber, type Formatter } from "../../format.js";
 import { checkTitle, checkValue, hours, percent, slackText, targetText, warningCount } from "../console.js";
-import { withinBand } from "../json.js";
+import { hydrographPeak, withinBand } from "../json.js";
+import { furtherPointPeak } from "../../assess/rules/furtherPointPeak.js";
 import { targetBand } from "../../assess/rules/band.js";
 import { ruleOf } from "../../assess/rules/registry.js";
 import { describeOutlet } from "../describe.js";
@@ -75,24 +76,23 @@ export function caseFacts(c: Case): FactsBlock {
 /** The storms as given: return period, target, band and inflow. */
 export function stormsTable(c: Case): TableBlock {
   const f = formatter(c.units);
+  // With a bypass the target applies at the point of analysis, where the bypass joins the outflow.
+  const bypass = c.storms.some((s) => s.bypass);
   return {
     kind: "table",
-    caption: "Design storms",
-    head: ["Storm", "Return period", "Target", "Target band", "Peak inflow", "Inflow volume", "Inflow ends"],
-    numeric: [false, true, true, true, true, true, true],
-    rows: c.storms.map((s) => {
-      let peak = 0;
-      for (const q of s.inflow.flows) if (q > peak) peak = q;
-      return [
-        s.name,
-        `${trimNumber(s.returnPeriod, 2)} yr`,
-        targetText(c, s),
-        s.target === null ? "none" : targetBand(s.target, c.criteria).map(f.flow).join(" to "),
-        f.flow(peak),
-        f.volume(hydrographVolume(s.inflow)),
-        hoursText(s.inflow.times[s.inflow.times.length - 1]),
-      ];
-    }),
+    caption: bypass ? "Design storms (the target of a storm with a bypass applies at the point of analysis)" : "Design storms",
+    head: ["Storm", "Return period", "Target", "Target band", "Peak inflow", "Inflow volume", "Inflow ends", ...(bypass ? ["Bypass peak", "Bypass volume"] : [])],
+    numeric: [false, true, true, true, true, true, true, ...(bypass ? [true, true] : [])],
+    rows: c.storms.map((s) => [
+      s.name,
+      `${trimNumber(s.returnPeriod, 2)} yr`,
+      targetText(c, s),
+      s.target === null ? "none" : targetBand(s.target, c.criteria).map(f.flow).join(" to "),
+      f.flow(hydrographPeak(s.inflow)),
+      f.volume(hydrographVolume(s.inflow)),
+      hoursText(s.inflow.times[s.inflow.times.length - 1]),
+      ...(bypass ? (s.bypass ? [f.flow(hydrographPeak(s.bypass)), f.volume(hydrographVolume(s.bypass))] : ["none", "-"]) : []),
+    ]),
   };
 }
 
@@ -132,19 +132,23 @@ export function bandWords(c: Case, peak: number, target: number): string {
 /** The routed results of every storm. */
 export function resultsTable(c: Case, routing: CaseRouting): TableBlock {
   const f = formatter(c.units);
+  // With a bypass the target applies at the point of analysis: the pond's outflow plus the bypass.
+  const atPoint = routing.storms.some(({ storm }) => storm.bypass);
   return {
     kind: "table",
-    caption: "Routed results",
-    head: ["Storm", "Peak inflow", "Peak outflow", "Target", "Outflow / target", "Max stage", "Freeboard left", "Drawdown"],
-    numeric: [false, true, true, true, true, true, true, true],
+    caption: atPoint ? "Routed results (at point: the pond's outflow plus the runoff bypassing the pond, summed at each instant; the target applies there)" : "Routed results",
+    head: ["Storm", "Peak inflow", "Peak outflow", ...(atPoint ? ["Peak at point"] : []), "Target", atPoint ? "At point / target" : "Outflow / target", "Max stage", "Freeboard left", "Drawdown"],
+    numeric: [false, true, true, ...(atPoint ? [true] : []), true, true, true, true, true],
     rows: routing.storms.map(({ storm, result }) => {
+      const peak = result.peakAtPoint;
       const ratio: Cell = storm.target === null
         ? { text: "no target" }
-        : { text: `${percent(result.peakOutflow / storm.target)}, ${bandWords(c, result.peakOutflow, storm.target)}`, tone: withinBand(c, result.peakOutflow, storm.target) ? "pass" : "fail" };
+        : { text: `${percent(peak / storm.target)}, ${bandWords(c, peak, storm.target)}`, tone: withinBand(c, peak, storm.target) ? "pass" : "fail" };
       return [
         storm.name,
         f.flow(result.peakInflow),
         f.flow(result.peakOutflow),
+        ...(atPoint ? [storm.bypass ? f.flow(peak) : "-"] : []),
         storm.target === null ? "none" : f.flow(storm.target),
         ratio,
         f.elevation(result.maxStage),
@@ -160,9 +164,17 @@ export function stormSummary(c: Case, sr: CaseRouting["storms"][number]): string
   const f = formatter(c.units);
   const r = sr.result;
   const target = sr.storm.target;
-  const ratio = target === null ? "no target" : `${percent(r.peakOutflow / target)} of the target ${f.flow(target)}, ${bandWords(c, r.peakOutflow, target)}`;
+  const bypass = sr.storm.bypass;
+  const ratio = target === null ? "no target" : `${percent(r.peakAtPoint / target)} of the target ${f.flow(target)}, ${bandWords(c, r.peakAtPoint, target)}`;
   const drawdown = r.drawdownTime === null ? "not drained within the simulation" : `drained ${hours(r.drawdownTime / 3600)} after the peak stage`;
-  return `Peak inflow ${f.flow(r.peakInflow)}; peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)} (${ratio}); maximum stage ${f.elevation(r.maxStage)} at ${hoursText(r.timeOfMaxStage)}, ${f.length(c.pond.top - r.maxStage)} below the top of embankment, storing ${f.volume(r.maxStorage)}; ${drawdown}; mass balance error ${percent(r.massBalanceError, 3)}.`;
+  const peaks = bypass
+    ? `peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)}; at the point of analysis (the outflow plus the bypass, whose own peak is ${f.flow(hydrographPeak(bypass))}) ${f.flow(r.peakAtPoint)} at ${hoursText(r.timeOfPeakAtPoint)}, of it ${f.flow(r.bypassAtPeak)} bypass (${ratio})`
+    : `peak outflow ${f.flow(r.peakOutflow)} at ${hoursText(r.timeOfPeakOutflow)} (${ratio})`;
+  const further = sr.storm.points.map((p) => {
+    const peak = furtherPointPeak(sr.storm, p, r);
+    return ` At ${p.name}: ${f.flow(peak)}${p.target === null ? "" : ` (${percent(peak / p.target)} of its target ${f.flow(p.target)})`}, ${p.pond ? "the pond's outflow plus the runoff joining there" : "runoff not passing through the pond"}.`;
+  });
+  return `Peak inflow ${f.flow(r.peakInflow)}; ${peaks}; maximum stage ${f.elevation(r.maxStage)} at ${hoursText(r.timeOfMaxStage)}, ${f.length(c.pond.top - r.maxStage)} below the top of embankment, storing ${f.volume(r.maxStorage)}; ${drawdown}; mass balance error ${percent(r.massBalanceError, 3)}.${further.join("")}`;
 }
 
 /** Every check with value, limit and slack; the binding check marked. */
