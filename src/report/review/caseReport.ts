@@ -55,7 +55,12 @@ export function storageSection(c: Case, outlet: Outlet | undefined, figures: Fig
  * The sections of one routed outlet: its rating, the storms and the checks. `prefix` keeps ids
  * unique when a report holds several outlets (a design run's candidates).
  */
-export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCounter, inputs: ReportInputs, prefix = ""): Section[] {
+/**
+ * `tables` false leaves out the long tables a reviewer checks by hand (the stage-storage-discharge
+ * table and the hydrograph tables), for the candidates of a design run other than the first, whose
+ * own report (`outfit report` on its case file) holds them; `note` says so where they would be.
+ */
+export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCounter, inputs: ReportInputs, prefix = "", tables: { full: boolean; note?: string } = { full: true }): Section[] {
   const { outlet, routing, assessment } = routed;
   const f = formatter(c.units);
   const coarse = ratingRows(c, outlet, niceStep((c.pond.top - c.pond.bottom) / baseLength(c.units)) * baseLength(c.units));
@@ -67,7 +72,7 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     partsTable(c, outlet),
     figures.figure(`${prefix}rating`, "Rating, part by part", `Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.${throttleNote}`, (id) => ratingChart(id, c, outlet, routing.storms)),
     ratingTable(c, outlet),
-    stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)),
+    tables.full ? stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)) : { kind: "text", text: tables.note ?? "" },
   ]);
   const stormSections = routing.storms.map((sr, i) => {
     const window = eventWindow(sr);
@@ -94,7 +99,7 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
             "Pre-development runoff (dotted, triangles), post-development inflow (solid) and the routed outflow (dashed, squares) on one time axis.",
             (id) => prePostChart(id, c, sr, pre))]
         : []),
-      hydrographTable(c, sr, inputs.hydrographInterval),
+      ...(tables.full ? [hydrographTable(c, sr, inputs.hydrographInterval)] : []),
     ];
     return section(`${prefix}storm-${i + 1}`, `${sr.storm.name} storm (${sr.storm.returnPeriod} yr)`, blocks);
   });

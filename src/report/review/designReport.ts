@@ -160,7 +160,9 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
     return section(`candidate-${rank}`, `Candidate ${rank}`, [
       { kind: "text", text: `${r.candidate.reported.description} (case file ${r.candidate.reported.caseFile}).` },
       verdictNote(c, r.assessment),
-    ], outletSections(c, r, figures, inputs, prefix));
+    ], outletSections(c, r, figures, inputs, prefix, r === best
+      ? { full: true }
+      : { full: false, note: `The stage-storage-discharge and hydrograph tables of candidate ${rank} are in its own report: outfit report ${r.candidate.reported.caseFile} (those of candidate ${best.candidate.reported.rank}, the first, are in this one).` }));
   });
   const verdict: NoteBlock = { ...verdictNote(c, best.assessment) };
   verdict.text = `Candidate ${best.candidate.reported.rank}: ${verdict.text}`;
