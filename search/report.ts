@@ -6,7 +6,7 @@ import type { SearchProblem } from "./problem.js";
 import type { SearchRun } from "./run.js";
 import type { Candidate, RoutedOutlet } from "./candidate.js";
 import { stormJson, checkJson } from "../src/report/json.js";
-import { checkValue, complianceWords, governingLimitLines, slackText } from "../src/report/console.js";
+import { checkValue, complianceWords, governingLimitLines, hydrologyLines, slackText } from "../src/report/console.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
 import { storageSummary } from "../src/report/storageNotes.js";
 import { CAUTION } from "../src/report/caution.js";
@@ -67,6 +67,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
     units: p.case.units,
     caution: CAUTION,
     caseFile: p.case.file,
+    ...(p.case.hydrologyMethods ? { hydrologyMethods: p.case.hydrologyMethods } : {}),
     search: {
       success: run.success,
       stoppedBecause: run.stoppedBecause,
@@ -111,7 +112,7 @@ const STATUS_WIDTH = "compliant, 2 warnings".length;
 export function designText(p: SearchProblem, run: SearchRun, top: number, layout: Layout = PLAIN): string {
   const f = formatter(p.case.units);
   const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
-  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ...governingLimitLines(p.case).map((line) => w(line, 4)), ""];
+  const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ...hydrologyLines(p.case, layout), ...governingLimitLines(p.case).map((line) => w(line, 4)), ""];
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;
@@ -120,8 +121,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     { head: "#", align: "right" },
     { head: "Outlet", narrow: "detail" },
     // With a bypass the target applies at the point of analysis (pond outflow plus bypass).
-    ...p.targeted.map((s): Column => ({ head: `${s.name}
-${s.bypass ? "point" : "out"}/target %`, align: "right", wrap: STORM_NAME_WIDTH })),
+    ...p.targeted.map((s): Column => ({ head: `${s.name}\n${s.bypass ? "pt" : "out"}/target %`, align: "right", wrap: STORM_NAME_WIDTH })),
     { head: `Max stage\n${freeboardStorm} (${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: `Freeboard left\n(${f.labels.length})`, align: "right", narrow: "detail", unit: f.labels.length },
     { head: "Cost\n(units)", align: "right" },
@@ -153,7 +153,7 @@ ${s.bypass ? "point" : "out"}/target %`, align: "right", wrap: STORM_NAME_WIDTH 
     if (!run.success && shown.length > 0) lines.push(w("No compliant design was found; the closest candidates, with the checks they fail:"), "");
     lines.push(renderTable(layout, columns, rows).text, "", w("* on the non-dominated front of cost against error among compliant candidates; cost is a relative proxy, not money.", 2));
     if (p.targeted.some((s) => s.bypass)) {
-      lines.push(w("point/target: the peak at the point of analysis, the pond's outflow (spillway included) plus the runoff bypassing the pond at each instant, over the target; the search designs to it.", 2));
+      lines.push(w("pt/target: the peak at the point of analysis, the pond's outflow (spillway included) plus the runoff bypassing the pond at each instant, over the target; the search designs to it.", 2));
     }
   }
   if (shown.length === 0) lines.push(w("No candidate kept every geometric rule; nothing to show."));

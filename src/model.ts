@@ -320,4 +320,6 @@ export interface Case {
    * with the JSON path and why; absent or empty when none.
    */
   sizeWarnings?: { part: string; reason: string }[];
+  /** When storms come from rainfall: the methods that derive them, in words (runoff, unit hydrograph and its unit duration). */
+  hydrologyMethods?: string;
 }

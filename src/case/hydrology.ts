@@ -6,6 +6,7 @@ import type { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { emptyRecord, own } from "../own.js";
 import { FOOT, parseArea, parseDepth, parseIntensity } from "../units.js";
+import { trimNumber } from "../format.js";
 import { distributionMassCurve, type DistributionType, type MassCurve } from "../hydrology/distributions.js";
 import { compositeCurveNumber, IMPERVIOUS_CURVE_NUMBER, imperviousCurveNumber, weightedMean, type AbstractionRatio, type CompositeRelation, type RunoffPart } from "../hydrology/runoff.js";
 import { MAX_SHEET_LENGTH, tcFromLag, travelTime, watershedLag, type FlowSegment } from "../hydrology/timeOfConcentration.js";
@@ -460,4 +461,27 @@ function stormRainfall(r: RainfallFile, path: string, cv: Converter, curves: Rec
   return { kind: "idf", name: r.idf!, curve };
 }
 
-/** Parses a value with one of the units' parsers, reporting a problem at `path` when it fails. */
+/** The unit-duration choice in words, with its source. */
+export function unitDurationWords(h: CaseHydrology): string {
+  const d = h.nrcs.unitDuration ?? "standard";
+  if (d === "standard") return "unit duration D <= 0.133 Tc on the rainfall's step (NEH 630 ch. 16)";
+  if (d === "converged") return "unit duration halved from 0.133 Tc until the peak changes by at most 0.5 % (converged; above the method's own peak)";
+  return `unit duration fixed at ${trimNumber(d / 60, 3)} min`;
+}
+
+/** The runoff method in words, with its source. */
+export function runoffMethodWords(h: CaseHydrology): string {
+  return h.runoffMethod === "separate"
+    ? "runoff of each part computed separately (directly connected impervious at CN 98, the rest at its own curve number; TR-55 ch. 2) and added by area"
+    : "runoff from one composite curve number per area (area-weighted, TR-55 ch. 2 worksheet 2; impervious shares by Figure 2-3, or 2-4 when unconnected)";
+}
+
+/** The methods that turn the case's rainfall into its storms' inflows, targets and bypasses, in words; null when none does. */
+export function hydrologyMethodsWords(h: CaseHydrology): string | null {
+  const methods = new Set(h.storms.filter((s): s is StormHydrology => s !== null).map((s) => s.method));
+  if (methods.size === 0) return null;
+  const words: string[] = [];
+  if (methods.has("nrcs")) words.push(`NRCS: ${runoffMethodWords(h)}; unit hydrograph NEH 630 ch. 16, ${unitDurationWords(h)}`);
+  if (methods.has("rational")) words.push("rational method, modified rational hydrograph (HEC-22 ch. 3 and 8)");
+  return words.join("; ");
+}

@@ -8,7 +8,7 @@ import { CaseError, describeIoError, show } from "./errors.js";
 import { Converter } from "./converter.js";
 import { MAX_ROWS, parseInflowCsv } from "./csv.js";
 import { baseLength, baseVolume, FOOT, parseArea, parseDepth, parsePondArea } from "../units.js";
-import { caseHydrology, type StormHydrology } from "./hydrology.js";
+import { caseHydrology, hydrologyMethodsWords, type StormHydrology } from "./hydrology.js";
 import { stormLimits } from "./releaseLimits.js";
 import { DEFAULT_LISTED_SHAPES, elementToSI } from "../parts/registry.js";
 import { riserToSI } from "../parts/riser.js";
@@ -68,6 +68,7 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     catalogue: file.catalogue ? normalizeCatalogue(file, cv) : undefined,
     costs: file.costs ?? {},
     sizeWarnings: bareSizeWarnings(file),
+    hydrologyMethods: hydrologyMethodsWords(hydrology) ?? undefined,
   };
   if (cv.problems.length > 0) throw new CaseError(cv.problems);
   return result;

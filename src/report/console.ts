@@ -37,7 +37,8 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
     { head: `Target\n(${L.flow})`, align: "right" },
     { head: atPoint ? "Point/target\n(%)" : "Out/target\n(%)", align: "right" },
     { head: `Max stage\n(${L.length})`, align: "right" },
-    { head: "Drawdown\n(h)", align: "right" },
+    // With the point's column the drawdown moves below the row first when narrow.
+    { head: "Drawdown\n(h)", align: "right", ...(atPoint ? { narrow: "detail" as const, rank: 0 } : {}) },
     { head: "Return\n(yr)", align: "right", narrow: "detail" },
     { head: `Peak in\n(${L.flow})`, align: "right", narrow: "detail" },
     { head: `Freeboard left\n(${L.length})`, align: "right", narrow: "detail" },
@@ -197,6 +198,7 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     wrap(`outfit route: ${c.name} (${c.units} units)`, layout.width),
     wrap(`Outlet: ${describeOutlet(routing.outlet, f)}`, layout.width),
     wrap(`Pond: bottom ${f.elevation(c.pond.bottom)}, top ${f.elevation(c.pond.top)}${c.pond.pool > c.pond.bottom ? `, permanent pool ${f.elevation(c.pond.pool)}` : ""}`, layout.width),
+    ...hydrologyLines(c, layout),
     "",
     stormTable(c, routing, layout),
     ...storageLines(c, routing, layout),
@@ -211,6 +213,11 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     cautionText(layout),
   ];
   return lines.join("\n");
+}
+
+/** How storms from rainfall were derived (the runoff and unit-hydrograph methods), when any are. */
+export function hydrologyLines(c: Case, layout: Layout = PLAIN): string[] {
+  return c.hydrologyMethods ? [wrap(`Storms from rainfall: ${c.hydrologyMethods} (outfit hydrograph shows each area)`, layout.width)] : [];
 }
 
 /** What the automatic step did for each storm (verbose output). */

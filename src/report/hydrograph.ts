@@ -1,7 +1,7 @@
 // Output of `outfit hydrograph`: the areas, each storm's runoff per area, the rational duration sweep,
 // and the hydrographs as CSV, in the case's units.
 import type { Case, Hydrograph } from "../model.js";
-import { hydrologyAreas, type CaseHydrology, type Catchment, type StormHydrology } from "../case/hydrology.js";
+import { hydrologyAreas, runoffMethodWords, unitDurationWords, type CaseHydrology, type Catchment, type StormHydrology } from "../case/hydrology.js";
 import type { AreaHydrograph } from "../hydrology/hydrograph.js";
 import { dimensionlessShape } from "../hydrology/unitHydrograph.js";
 import { formatter, percentChange, trimNumber } from "../format.js";
@@ -84,21 +84,6 @@ function usedAs(area: string, given: GivenValues): string {
 /** The area's name in tables: pre, post, bypass, or "<point> pre" / "<point> post". */
 export function areaLabel(area: string): string {
   return area.replace(/:(pre|post)$/, " $1");
-}
-
-/** The unit-duration choice in words, with its source. */
-export function unitDurationWords(h: CaseHydrology): string {
-  const d = h.nrcs.unitDuration ?? "standard";
-  if (d === "standard") return "unit duration D <= 0.133 Tc on the rainfall's step (NEH 630 ch. 16)";
-  if (d === "converged") return "unit duration halved from 0.133 Tc until the peak changes by at most 0.5 % (converged; above the method's own peak)";
-  return `unit duration fixed at ${trimNumber(d / 60, 3)} min`;
-}
-
-/** The runoff method in words, with its source. */
-export function runoffMethodWords(h: CaseHydrology): string {
-  return h.runoffMethod === "separate"
-    ? "runoff of each part computed separately (directly connected impervious at CN 98, the rest at its own curve number; TR-55 ch. 2) and added by area"
-    : "runoff from one composite curve number per area (area-weighted, TR-55 ch. 2 worksheet 2; impervious shares by Figure 2-3, or 2-4 when unconnected)";
 }
 
 /**

@@ -180,6 +180,7 @@ export function routeJson(c: Case, routing: CaseRouting, assessment: Assessment,
     units: c.units,
     caution: CAUTION,
     outlet: outletToFile(routing.outlet, c.units),
+    ...(c.hydrologyMethods ? { hydrologyMethods: c.hydrologyMethods } : {}),
     ...assessmentJson(c, routing, assessment),
     ...extra,
   };

@@ -52,7 +52,7 @@ describe("design to the point of analysis (cases/bypass-point)", () => {
     const dir = mkdtempSync(join(tmpdir(), "outfit-point-design-"));
     const run = outfit("design", CASE, "--budget", "6000", "--top", "3", "--out", dir, "--quiet");
     expect(run.status).toBe(0);
-    expect(run.stdout).toMatch(/point\/target %/);
+    expect(run.stdout).toMatch(/pt\/target %/);
     const results = JSON.parse(readFileSync(join(dir, "results.json"), "utf8"));
     const first = results.candidates[0];
     expect(first.compliant).toBe(true);

@@ -97,15 +97,15 @@ function baselineBlocks(run: DesignRun, routed: readonly RoutedCandidate[]): Blo
   const table: TableBlock = {
     kind: "table",
     caption: "Against the existing outlet (row 0: the case's outlet as given; saving: its cost proxy less the alternative's)",
-    head: ["Row", "Description", ...targeted.map((s) => `${s.name} out / target`), "Cost", "Saving", "Changes", "Binding check", "Compliant"],
+    head: ["Row", "Description", ...targeted.map((s) => `${s.name} ${s.peakAtPoint === undefined ? "out" : "point"} / target`), "Cost", "Saving", "Changes", "Binding check", "Compliant"],
     numeric: [true, false, ...targeted.map(() => true), true, true, true, false, false],
     rows: [
-      ["0 (existing)", b.description, ...targeted.map((s) => percent(s.peakOutflow / s.target!)), `${trimNumber(b.cost, 2)} cost units`, "-", "-", binding(b), yes(b.compliant, b.warnings)],
+      ["0 (existing)", b.description, ...targeted.map((s) => percent((s.peakAtPoint ?? s.peakOutflow) / s.target!)), `${trimNumber(b.cost, 2)} cost units`, "-", "-", binding(b), yes(b.compliant, b.warnings)],
       ...routed.map((r) => {
         const k = r.candidate.reported;
         const ratios = targeted.map((s) => {
           const own = k.storms.find((x) => x.name === s.name);
-          return own ? percent(own.peakOutflow / s.target!) : "-";
+          return own ? percent((own.peakAtPoint ?? own.peakOutflow) / s.target!) : "-";
         });
         return [`#${k.rank}`, k.description, ...ratios, k.cost === null || k.cost === undefined ? "not given" : `${trimNumber(k.cost, 2)} cost units`, k.saving ? savingText(k.saving) : "not given", k.changes ? String(k.changes.length) : "not given", binding(k), yes(k.compliant, k.warnings)];
       }),

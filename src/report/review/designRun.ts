@@ -10,6 +10,8 @@ import type { Case } from "../../model.js";
 const stormSchema = z.looseObject({
   name: z.string(),
   peakOutflow: z.number(),
+  /** With a bypass: the peak at the point of analysis, to which the target applies. */
+  peakAtPoint: z.number().optional(),
   maxStage: z.number(),
 });
 

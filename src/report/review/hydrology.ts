@@ -3,7 +3,7 @@
 // rainfall depth and distribution, the runoff depth, volume and peak of every area, and the methods
 // with their sources. What a reviewer checks the inflows and targets against.
 import type { Case } from "../../model.js";
-import { hydrologyAreas, stormAreaHydrograph, type CaseHydrology, type Catchment, type StormHydrology } from "../../case/hydrology.js";
+import { hydrologyAreas, runoffMethodWords, stormAreaHydrograph, unitDurationWords, type CaseHydrology, type Catchment, type StormHydrology } from "../../case/hydrology.js";
 import { DISTRIBUTIONS } from "../../hydrology/distributions.js";
 import { dimensionlessShape } from "../../hydrology/unitHydrograph.js";
 import { IMPERVIOUS_CURVE_NUMBER } from "../../hydrology/runoff.js";
@@ -11,7 +11,7 @@ import { MIN_TC_NRCS } from "../../hydrology/timeOfConcentration.js";
 import { MIN_TC_RATIONAL } from "../../hydrology/rational.js";
 import { formatter, trimNumber } from "../../format.js";
 import { hydrologyUnits } from "../../units.js";
-import { areaLabel, durationText, runoffMethodWords, unitDurationWords } from "../hydrograph.js";
+import { areaLabel, durationText } from "../hydrograph.js";
 import { section, type Block, type Section, type TableBlock } from "./model.js";
 
 /** What an area is, in words. */

@@ -8,7 +8,7 @@ import { BARREL_METHOD } from "../../parts/barrel.js";
 import { SPILLWAY_METHOD } from "../../parts/spillway.js";
 import type { Method } from "../../parts/part.js";
 import type { CaseHydrology } from "../../case/hydrology.js";
-import { runoffMethodWords, unitDurationWords } from "../hydrograph.js";
+import { runoffMethodWords, unitDurationWords } from "../../case/hydrology.js";
 
 const STORAGE: Method = {
   part: "storage",
