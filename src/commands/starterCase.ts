@@ -85,7 +85,7 @@ export function starterCase(units: UnitSystem): unknown {
     },
     "//tailwater": `{"free": true} (free outfall), {"elevation": z} or {"rating": [[flow, elevation], ...]}.`,
     tailwater: { free: true },
-    "//storms": `One entry per design storm: a unique name, the return period (years), the allowable peak release "target" (${Q}) and the inflow hydrograph as [minutes, ${Q}] pairs (or {"file": "inflow.csv"} with time,flow rows).`,
+    "//storms": `One entry per design storm: a unique name, the return period (years), the allowable peak release "target" (${Q}) and the inflow hydrograph as [minutes, ${Q}] pairs (or {"file": "inflow.csv"} with time,flow rows). A storm may add "bypass" (the same forms, and "lag" in minutes): the runoff that skips the pond and joins its outflow at the point of analysis, where the target then applies.`,
     storms: [storm(0, "2-yr", 2), storm(1, "10-yr", 10), storm(2, "100-yr", 100)],
     criteria: {
       "//": "tolerance: how far a routed peak may lie above (over) or below (under) its target, as fractions; freeboard below the top of embankment for the largest storm; drawdown: hours to drain after the peak stage, to within depth of the floor.",
