@@ -7,6 +7,7 @@ import { routeCommand } from "./commands/route.js";
 import { rateCommand } from "./commands/rate.js";
 import { hydrographCommand } from "./commands/hydrograph.js";
 import { reportCommand } from "./commands/report.js";
+import { drawingCommand } from "./commands/drawing.js";
 import { schemaCommand } from "./commands/schema.js";
 import { starterCommand } from "./commands/starter.js";
 import { volumeCommand } from "./commands/volume.js";
@@ -335,9 +336,13 @@ program
   .addHelpText(
     "after",
     helpAfter(`
-The report holds the case summary, stage-storage, the outlet's rating part by part with each
-storm's target band and routed peak, every storm's hydrographs and stage, the checks with their
-slack, the methods with their sources and the caution. For a design run it compares the candidates
+The report holds the case summary, for storms from rainfall the hydrology (areas, curve numbers,
+Tc by segment, rainfall, runoff depths and volumes, methods), stage-storage (each storm's limit
+level, the storage estimates, exfiltration), the outlet drawn to scale (also alone: outfit drawing),
+its rating part by part with each storm's target band and routed peak, every storm's hydrographs
+over its event with the peaks in detail (at the point of analysis where a storm has a bypass) and its
+stage, the checks with their slack, the methods with their sources and the caution. For a design
+run it compares the candidates
 and explains the binding check of each; every candidate is routed again from its own case file.
 It loads nothing from the network and prints on A4 or Letter.
 
@@ -350,6 +355,27 @@ Examples:
 Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`),
   )
   .action((input: string, options) => run(() => reportCommand(input, { ...options, version })));
+
+program
+  .command("drawing")
+  .description("draw the outlet structure as an elevation, to scale, alone as an SVG file (the report's figure)")
+  .argument("<case>", "case file (JSON) with an outlet, e.g. a candidate written by design --out")
+  .option("--out <file>", "where to write the SVG (default: CASE.outlet.svg beside the case file)")
+  .addHelpText(
+    "after",
+    helpAfter(`
+The drawing: a section through the riser (or headwall) with the pond floor, the barrel leaving its
+base, the top of embankment, the spillway crest and the freeboard line; the riser's wall developed
+(its perimeter unrolled) with every opening at its elevation and place (the openings of one level
+spaced evenly around the wall); each storm's peak stage, routed as in route; one scale across and up.
+
+Examples:
+  outfit drawing cases/demo/case.json                      # writes cases/demo/case.outlet.svg
+  outfit drawing out/demo/candidate-01.json --out outlet.svg
+
+Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`),
+  )
+  .action((input: string, options) => run(() => drawingCommand(input, options)));
 
 program
   .command("schema")

@@ -9,6 +9,7 @@ import { trimNumber, type Formatter } from "../format.js";
 import { ENTRANCE_TABLE, ENTRANCES, entrancesFor } from "./entrances.js";
 import { smallSize, type Conversion, type FileSize, type Method, type SizeOption } from "./part.js";
 import type { CostWeights } from "./cost.js";
+import type { Outline } from "./outline.js";
 
 const barrelCommon = {
   length: positiveLength,
@@ -83,6 +84,11 @@ export function barrelFileRise(b: BarrelFile): FileSize {
 /** Barrel rise D (m). */
 export function barrelRise(b: Barrel): number {
   return b.shape === "circular" ? b.diameter : b.rise;
+}
+
+/** Its opening where it leaves the riser, relative to its invert (the outlet drawing): a pipe's circle, a box's span and rise. */
+export function barrelOutline(b: Barrel): Outline {
+  return b.shape === "circular" ? { kind: "circle", diameter: b.diameter } : { kind: "rectangle", width: b.span, height: b.rise };
 }
 
 /** Full cross-section area A (m2). */

@@ -85,6 +85,8 @@ export const circularOrifice: ElementPart<CircularOrifice, CircularOrificeFile> 
   },
   room: (e) => ({ width: e.count * e.diameter, height: e.diameter }),
   opening: (e) => ({ width: e.diameter, height: e.diameter }),
+  count: (e) => e.count,
+  outline: (e) => ({ kind: "circle", diameter: e.diameter }),
   breaks(e, out) {
     out.push(e.invert, e.invert + e.diameter);
   },

@@ -11,6 +11,7 @@ import type { Length } from "../fields.js";
 import { toCaseUnits, type UnitSystem } from "../units.js";
 import { trimNumber } from "../format.js";
 import type { CostWeights } from "./cost.js";
+import type { Outline } from "./outline.js";
 
 /** What a part's conversion to SI needs from the loader (case/converter.ts's `Converter` is one). */
 export interface Conversion {
@@ -182,6 +183,10 @@ export interface ElementPart<E extends Element = Element, F extends ElementFileB
   room(e: E, upTo: number): Room | null;
   /** One closed opening's own size (m), null for a notch (open above) or a device. */
   opening(e: E): Room | null;
+  /** Identical openings side by side at its bottom (an orifice's `count`; 1 for a notch or a device). */
+  count(e: E): number;
+  /** One opening's outline on its wall, relative to its bottom (the outlet drawing draws it). */
+  outline(e: E): Outline;
   /** Elevations where its rating has a kink (bottom, an opening's top, a rating's points), pushed into `out`. */
   breaks(e: E, out: number[]): void;
 

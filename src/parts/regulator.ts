@@ -39,6 +39,9 @@ export function regulatorMaxHead(r: Regulator): number {
   return r.heads[r.heads.length - 1];
 }
 
+/** The size a regulator is drawn at on its wall (m): its rating gives none (a small housing, about 1 ft; common practice). */
+const DRAWN_SIZE = 0.3;
+
 export const regulator: ElementPart<Regulator, RegulatorFile> = {
   type: "regulator",
   shape: null,
@@ -91,6 +94,8 @@ export const regulator: ElementPart<Regulator, RegulatorFile> = {
   widthAt: () => 0,
   room: () => null,
   opening: () => null,
+  count: () => 1,
+  outline: () => ({ kind: "device", width: DRAWN_SIZE, height: DRAWN_SIZE }),
   breaks(e, out) {
     out.push(e.invert, ...e.heads.map((h) => e.invert + h));
   },

@@ -82,6 +82,8 @@ export const vNotchWeir: ElementPart<VNotchWeir, VNotchWeirFile> = {
   widthAt: (e, stage) => 2 * Math.max(stage - e.crest, 0) * halfTangent(e.angle),
   room: (e, upTo) => ({ width: 2 * Math.max(upTo - e.crest, 0) * halfTangent(e.angle), height: Math.max(upTo - e.crest, 0) }),
   opening: () => null,
+  count: () => 1,
+  outline: (e) => ({ kind: "notch", bottomWidth: 0, spreadPerHeight: halfTangent(e.angle) }),
   breaks(e, out) {
     out.push(e.crest);
   },

@@ -67,7 +67,7 @@ describe("outfit report", () => {
       expect(file).toMatch(/^review\.fig-\d\d-[a-z0-9-]+\.svg$/);
       const svg = readFileSync(join(dir, "md", file), "utf8");
       expect(svg).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<svg xmlns="http:\/\/www.w3.org\/2000\/svg" /);
-      expect(svg).toContain("data-plot=");
+      expect(svg).toMatch(/data-plot=|data-drawing="outlet"/);
     }
     expect(md).not.toMatch(/\.png/i);
     expect(md).toContain("| Check | Value | Limit | Slack | Result |");

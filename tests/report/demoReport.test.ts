@@ -221,7 +221,10 @@ describe("HTML report of the demo case, in Chromium", () => {
       expect(box[2]).toBeCloseTo(PAPER[format][0], 0);
       expect(box[3]).toBeCloseTo(PAPER[format][1], 0);
     }
-    expect(printed.figurePages.size).toBe(plots.length);
+    // Every plot and every outlet drawing is a figure.
+    const drawings = await watched.page.$$eval("svg[data-drawing]", (d) => d.length);
+    expect(drawings).toBeGreaterThan(0);
+    expect(printed.figurePages.size).toBe(plots.length + drawings);
     expect(printed.pageCount).toBeGreaterThan(3);
     // The figures are spread over several pages, so page breaks do fall between them.
     expect(new Set([...printed.figurePages.values()].map((pages) => pages[0])).size).toBeGreaterThan(2);

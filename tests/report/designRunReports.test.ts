@@ -1,7 +1,8 @@
 // Design-run reports of the bundled cases, in Chromium: the demo's run report stays under 1 MB and no
 // text of its candidates plot overlaps another (the text boxes measured by the browser, with a control
 // that finds an overlap); the frontage case's report (storms from rainfall, a bypass) holds the
-// hydrology section and plots the flow at the point of analysis as the routed outflow plus the bypass.
+// hydrology section, plots the flow at the point of analysis as the routed outflow plus the bypass, and
+// draws each candidate's outlet to scale with no label over another.
 import { afterAll, describe, expect, it } from "vitest";
 import { readFileSync, rmSync, statSync } from "node:fs";
 import { join } from "node:path";
@@ -129,5 +130,34 @@ describe("design-run reports of the bundled cases, in Chromium", () => {
       const marked = plot.points.find((q) => q.group === "peak-at-point")!;
       expect(marked.y).toBeCloseTo(u.flow(result.peakAtPoint), 9);
     }
+  });
+
+  it("the frontage case's report draws each candidate's outlet to scale, its labels over none other", async () => {
+    const { frontage, frontagePage } = await reports.get();
+    const page = frontagePage.page;
+    const first = loadCase(join(frontage.out, "candidate-01.json")).case;
+    const outlet = first.outlet!;
+    const u = toCaseUnits(first.units);
+    // Measured by the browser in the drawing's own units (getBBox), against the scale it states.
+    const drawn = await page.$eval('figure[data-figure="c1-outlet-drawing"] svg', (svg) => {
+      const box = (selector: string) => (svg.querySelector(selector) as SVGGraphicsElement).getBBox();
+      const wall = box("[data-wall]");
+      const e1 = box('[data-opening="E1"]');
+      return { scale: Number(svg.getAttribute("data-scale")), wall: { height: wall.height, width: wall.width }, e1: { height: e1.height, bottom: e1.y + e1.height }, top: Number(svg.getAttribute("data-elevation-top")), y0: Number(svg.getAttribute("data-y-top")) };
+    });
+    const riser = outlet.riser!;
+    const base = Math.min(outlet.barrel!.inletInvert, first.pond.bottom);
+    // The wall from the riser's base to its rim, and around its perimeter, at the drawing's scale.
+    expect(drawn.wall.height).toBeCloseTo(u.length(riser.crest - base) * drawn.scale, 0);
+    expect(drawn.wall.width).toBeCloseTo(u.length(riser.shape === "circular" ? Math.PI * riser.diameter : 2 * (riser.length + riser.width)) * drawn.scale, 0);
+    // E1 (the lowest orifice) as high as its diameter, its bottom at its invert.
+    const e1 = outlet.elements[0];
+    if (e1.type === "orifice" && e1.shape === "circular") {
+      expect(drawn.e1.height).toBeCloseTo(u.length(e1.diameter) * drawn.scale, 0);
+      expect(drawn.e1.bottom).toBeCloseTo(drawn.y0 + (drawn.top - u.length(e1.invert)) * drawn.scale, 0);
+    }
+    const boxes = await textBoxes(page, "c1-outlet-drawing");
+    expect(boxes.map((b) => b.text).join(" ")).toMatch(/rim \d+\.\d\d ft/);
+    expect(overlaps(boxes)).toEqual([]);
   });
 });

@@ -47,7 +47,7 @@ td.binding::before { content: "\\25B6\\00A0"; color: var(--accent); }
 figure.plot-figure { margin: 14px 0 20px; padding: 10px 12px 8px; border: 1px solid var(--rule); border-top: 3px solid var(--accent); }
 .figure-head { font-weight: 600; margin-bottom: 6px; overflow-wrap: anywhere; }
 .figure-head a, figcaption a { color: var(--accent); text-decoration: none; margin-right: 6px; }
-svg.plot { display: block; width: 100%; height: auto; }
+svg.plot, svg.drawing { display: block; width: 100%; height: auto; }
 figcaption { font-size: 12px; color: var(--muted); margin-top: 4px; overflow-wrap: anywhere; }
 ul.items { margin: 6px 0 14px; padding-left: 20px; }
 p { margin: 6px 0 10px; }

@@ -8,6 +8,7 @@ import { niceAxis, tickLabel, tickStep, tickValues, type Axis } from "./ticks.js
 import { attributes, coordinate, element, escapeMarkup, pathData, simplify } from "./svg.js";
 import { DASH_ARRAYS, FONT, FRAME, GRID, INK, PAPER, type LineStyle } from "./style.js";
 import { legend, markerElement, type LegendEntry } from "./legend.js";
+import { label, LabelPlacer } from "./labels.js";
 
 export type Point = readonly [number, number];
 
@@ -275,52 +276,6 @@ export function markerPositions(pixels: readonly Point[], phase: number): Point[
   return out;
 }
 
-/** A text's box in drawing units, estimated on the wide side (no font metrics here): 0.65 em a character. */
-interface LabelBox {
-  left: number;
-  right: number;
-  top: number;
-  bottom: number;
-}
-
-const LABEL_FONT = 10.5;
-
-function labelBox(text: string, x: number, y: number, anchor: "start" | "end" | "middle", fontSize = LABEL_FONT): LabelBox {
-  const w = text.length * 0.65 * fontSize;
-  const left = anchor === "start" ? x : anchor === "end" ? x - w : x - w / 2;
-  return { left, right: left + w, top: y - 0.95 * fontSize, bottom: y + 0.3 * fontSize };
-}
-
-/**
- * The labels and markers drawn so far inside the plot: a new label goes where it overlaps none of them
- * and stays inside the plot, or is not drawn (its point keeps its `data-label`; the legend and the
- * tables name it). So no label is drawn over another.
- */
-class LabelPlacer {
-  private readonly taken: LabelBox[] = [];
-  constructor(private readonly area: LabelBox) {}
-  /** Marks a box as taken (a marker, a label placed elsewhere). */
-  take(box: LabelBox): void {
-    this.taken.push(box);
-  }
-  fits(box: LabelBox): boolean {
-    const a = this.area;
-    if (box.left < a.left || box.right > a.right || box.top < a.top || box.bottom > a.bottom) return false;
-    return !this.taken.some((t) => box.left < t.right && box.right > t.left && box.top < t.bottom && box.bottom > t.top);
-  }
-  /** The first of the candidate positions that fits (taken at once), or null. */
-  place(text: string, candidates: readonly (readonly [number, number, "start" | "end" | "middle"])[]): { x: number; y: number; anchor: "start" | "end" | "middle" } | null {
-    for (const [x, y, anchor] of candidates) {
-      const box = labelBox(text, x, y, anchor);
-      if (this.fits(box)) {
-        this.take(box);
-        return { x, y, anchor };
-      }
-    }
-    return null;
-  }
-}
-
 function referenceLines(references: readonly ReferenceLine[], sx: LinearScale, sy: LinearScale, x0: number, x1: number, y0: number, y1: number, placer: LabelPlacer): string {
   const out: string[] = [];
   const ordered = [...references].sort((a, b) => (a.axis === b.axis ? (a.axis === "y" ? sy(a.value) - sy(b.value) : sx(a.value) - sx(b.value)) : a.axis === "y" ? -1 : 1));
@@ -348,12 +303,6 @@ function referenceLines(references: readonly ReferenceLine[], sx: LinearScale, s
   return element("g", { class: "references" }, out.join(""));
 }
 
-function label(text: string, x: number, y: number, anchor: "start" | "end" | "middle", colour: string): string {
-  return element("text", {
-    x, y, "text-anchor": anchor, "font-size": 10.5, fill: colour === "#000000" ? INK : colour,
-    stroke: PAPER, "stroke-width": 3, "paint-order": "stroke", "stroke-linejoin": "round",
-  }, escapeMarkup(text));
-}
 
 /** A band's name at its top, centred over it, where no other label is. */
 function bandName(b: Band, sx: LinearScale, y0: number, y1: number, placer: LabelPlacer): string {

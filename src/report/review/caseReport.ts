@@ -7,6 +7,8 @@ import { formatter } from "../../format.js";
 import { CAUTION } from "../caution.js";
 import { hydrographChart, prePostChart, ratingChart, stageChart, storageChart } from "./figures.js";
 import { eventWindow, peakWindow } from "./window.js";
+import { drawingInput } from "../drawing/input.js";
+import { outletDrawing } from "../drawing/outletDrawing.js";
 import { defaultStageStep, hydrographTable, prePostTable, stageStorageDischargeTable } from "./submittal.js";
 import { projectFacts, type RunFacts } from "./project.js";
 import { chamberThrottles, niceStep, ratingRows } from "../rating.js";
@@ -70,6 +72,9 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     : "";
   const rating = section(`${prefix}rating`, "Outlet and rating", [
     partsTable(c, outlet),
+    figures.figure(`${prefix}outlet-drawing`, "Outlet structure, elevation",
+      `The outlet drawn to one scale across and up: left, a section through the ${outlet.riser ? "riser" : "headwall"} with the pond floor, the barrel leaving its base, the top of embankment, the spillway crest and the freeboard line; right, the ${outlet.riser ? "riser's wall developed (its perimeter unrolled)" : "headwall"} with every opening at its elevation and place (the openings of one level spaced evenly around the wall where the outlet gives no places); dashed: each storm's peak stage.`,
+      (id) => outletDrawing(id, drawingInput(c, outlet, routing.storms))),
     figures.figure(`${prefix}rating`, "Rating, part by part", `Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.${throttleNote}`, (id) => ratingChart(id, c, outlet, routing.storms)),
     ratingTable(c, outlet),
     tables.full ? stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)) : { kind: "text", text: tables.note ?? "" },
