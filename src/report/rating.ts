@@ -118,6 +118,11 @@ export function ratingText(c: Case, outlet: Outlet, rows: RatingRow[], layout: L
   const lines = [wrap(`outfit rate: ${c.name} (${c.units} units)`, layout.width), wrap(`Parts: ${describeOutlet(outlet, f)}`, layout.width), "", table.text];
   if (table.dropped.length) lines.push("", wrap(`Not shown at this width: ${table.dropped.join(", ")} (--wide shows them; --csv lists them).`, layout.width));
   lines.push("", wrap(`Limited by: the part that sets the total at that stage; the barrel (or tailwater) is named only where it cuts the openings' own flow by more than ${100 * NOTICEABLE_REDUCTION} %.`, layout.width));
+  const bypassed = c.storms.filter((s) => s.bypass).map((s) => s.name);
+  if (bypassed.length > 0) {
+    // The rating is the pond's alone; where a bypass joins it, the target is judged on the sum.
+    lines.push("", wrap(`The ${bypassed.join(", ")} storm${bypassed.length > 1 ? "s have" : " has"} a bypass: the target applies at the point of analysis, this total plus the bypass at each instant (outfit route shows the sum).`, layout.width));
+  }
   lines.push("", wrap(`Caution: ${CAUTION}`, layout.width));
   return lines.join("\n");
 }
