@@ -76,6 +76,12 @@ describe("outlet elevation drawing", () => {
     expect(Number(attribute(svg, /<rect [^>]*data-wall=""[^>]*>/, "width"))).toBeCloseTo((perimeter / 0.3048) * scale, 1);
   });
 
+  it("names every storm's peak stage in the key, also one whose label finds no room on its line (as the demo's 100-yr, just above the freeboard line, may not)", () => {
+    const keyText = [...svg.matchAll(/<g class="key"[^>]*>(.*?)<\/g>/g)].map((m) => m[1]).join("");
+    const line = /<text [^>]*>(Peak stages \(dashed\): [^<]*)<\/text>/.exec(keyText)![1];
+    for (const { storm, result } of routing.storms) expect(line).toContain(`${storm.name} ${(result.maxStage / 0.3048).toFixed(2)} ft`);
+  });
+
   it("spaces the openings of one level evenly around the wall when the input gives no places", () => {
     const two = { ...input, openings: [{ ...input.openings[0], count: 2 }, { ...input.openings[1], bottom: input.openings[0].bottom }] };
     expect(two.openings.every((o) => o.places === undefined)).toBe(true);

@@ -4,8 +4,9 @@
 // right the riser's wall developed (its perimeter unrolled) with every opening at its elevation and
 // place. Levels are labelled on their lines and openings tagged E1, E2, ... beside them, each label
 // where no other is (plot/labels.ts); a key below the drawing names each opening, the barrel and the
-// spillway in full. The markup carries the scale and each feature's elevation in the case's units
-// (`data-*`), so tests read the drawing back.
+// spillway in full, and every storm's peak stage (whether or not its label found room on its line).
+// The markup carries the scale and each feature's elevation in the case's units (`data-*`), so tests
+// read the drawing back.
 import { formatter, trimNumber } from "../../format.js";
 import { toCaseUnits } from "../../units.js";
 import { attributes, coordinate, element, escapeMarkup } from "../plot/svg.js";
@@ -78,6 +79,8 @@ export function outletDrawing(id: string, input: DrawingInput): string {
     ...input.openings.map((o) => `${o.key}: ${o.words}`),
     ...(b ? [`Barrel: ${b.words}, inlet ${f.elevation(b.inletInvert)}, outlet ${f.elevation(b.outletInvert)}`] : []),
     ...(input.spillway ? [`Spillway: ${input.spillway.words} (beside the ${riser ? "riser" : "headwall"}, shown as its crest)`] : []),
+    // Named here too: a stage's label is left off the drawing where its line has no free room.
+    ...(input.stages.length > 0 ? [`Peak stages (dashed): ${input.stages.map((st) => `${st.name} ${f.elevation(st.stage)}`).join(", ")}`] : []),
   ];
 
   // One scale across and up (px per m), the smaller of what the height and the width allow.
