@@ -1,5 +1,5 @@
 // The commands the pseudo-terminal tests run on every bundled case: each command where the case
-// allows it (route, rate and report need an outlet, pond and --size-pond a site, hydrograph a
+// allows it (route, rate, report and drawing need an outlet, pond and --size-pond a site, hydrograph a
 // hydrology section, design a catalogue; the report of each design run), the writers' messages, and
 // the help of every command.
 import { readdirSync, readFileSync } from "node:fs";
@@ -50,6 +50,7 @@ export function caseCommands(): TerminalCommand[] {
       commands.push({ label: `route ${name}`, args: ["route", path], codes: [0], coloured: true });
       commands.push({ label: `rate ${name}`, args: ["rate", path], codes: [0], coloured: true });
       commands.push({ label: `report ${name}`, args: ["report", path, "--out", "<tmp>/report.html"], codes: [0], coloured: false });
+      commands.push({ label: `drawing ${name}`, args: ["drawing", path, "--out", "<tmp>/outlet.svg"], codes: [0], coloured: false });
     }
     commands.push({ label: `volume ${name}`, args: ["volume", path, "--type", "II"], codes: [0], coloured: true });
     if (file.site !== undefined) commands.push({ label: `pond ${name}`, args: ["pond", path, "--type", "II"], codes: [0, 1], coloured: true });
@@ -76,7 +77,7 @@ export function designCommands(): TerminalCommand[] {
 
 /** The help of outfit and of each command, and the commands that only write a file and say so. */
 export function otherCommands(): TerminalCommand[] {
-  const commands = ["route", "rate", "design", "gather", "hydrograph", "volume", "pond", "report", "schema", "starter"];
+  const commands = ["route", "rate", "design", "gather", "hydrograph", "volume", "pond", "report", "drawing", "schema", "starter"];
   return [
     { label: "outfit --help", args: ["--help"], codes: [0], coloured: false },
     ...commands.map((command) => ({ label: `${command} --help`, args: [command, "--help"], codes: [0], coloured: false })),
