@@ -1,6 +1,6 @@
 // Warnings stand beside the word "compliant" wherever it appears: design's status column and its
 // summary.txt, route's verdict, the review report's banner and its tables. A design of
-// cases/demo-rainfall (budget 4000) ranks compliant candidates with and without parts used outside
+// cases/ordinance-mix (budget 4000) ranks compliant candidates with and without parts used outside
 // their formula's range; each says how many warnings it has, as its results.json lists them.
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -30,7 +30,7 @@ describe("warnings beside the word compliant", () => {
   let candidates: Reported[];
   let warned: Reported;
   beforeAll(() => {
-    const run = outfit("design", "cases/demo-rainfall/case.json", "--budget", "4000", "--quiet", "--out", dir);
+    const run = outfit("design", "cases/ordinance-mix/case.json", "--budget", "4000", "--quiet", "--out", dir);
     expect(run.status).toBe(0);
     stdout = run.stdout;
     candidates = JSON.parse(readFileSync(join(dir, "results.json"), "utf8")).candidates;
