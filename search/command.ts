@@ -126,7 +126,8 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const settings = { seed, starts };
   const source = { path: resolve(path), margin: problem.options.margin, limits, hydrographs: loaded.hydrographs };
   let soFar: RunSoFar = { routings: 0, seconds: 0 };
-  const runBudget = { routings: shard ? budget.routings / shard.count : budget.routings, seconds: budget.seconds };
+  // A shard runs its share of the search's parts, each with the part's share of the whole budget.
+  const runBudget = { routings: budget.routings, seconds: budget.seconds };
   const fitter: LayoutFitter =
     chosenWorkers === undefined
       ? new AdaptiveFitter(problem, source, settings, workers, () => worthSpreading(soFar, runBudget))

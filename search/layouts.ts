@@ -138,8 +138,11 @@ export function planLayouts(p: SearchProblem, beam: number): LayoutPlan {
 const FIRST_CHUNK = 4;
 const LAYOUT_CHUNK = 4;
 
-/** The plan as a scoring generator: it asks for chunks of scores level by level. */
-export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
+/**
+ * The plan as a scoring generator: it asks for chunks of scores level by level. `families`: only
+ * these first-level options (by key) start a layout (a part of the search widening its own plan).
+ */
+export function* planning(p: SearchProblem, beam: number, families?: ReadonlySet<string>): Scoring<LayoutPlan> {
   if (p.fixedLayout) {
     const layout = p.fixedLayout;
     const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, layout) }] }];
@@ -175,9 +178,10 @@ export function* planning(p: SearchProblem, beam: number): Scoring<LayoutPlan> {
   let bounded: Partial[] = [];
   if (maxLevels === 0) frontier = [{ levels: [], score: 0 }];
   else {
-    const outcomes = yield chunked(options.map((part) => ({ kind: "first", part: at(part) })), FIRST_CHUNK);
+    const firsts = families ? options.filter((part) => families.has(part.key)) : options;
+    const outcomes = yield chunked(firsts.map((part) => ({ kind: "first", part: at(part) })), FIRST_CHUNK);
     const values = outcomes.flatMap((o) => o.values);
-    options.forEach((part, i) => {
+    firsts.forEach((part, i) => {
       const v = values[i];
       if (v.pruned) pruned.push({ part, storm: storms[0], peak: v.peak });
       else (v.bounded ? bounded : frontier).push({ levels: [part], score: v.score });

@@ -88,7 +88,8 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       workers: run.workers,
       ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}` } : {}),
       layoutsFromJournal: run.layoutsFromJournal,
-      layoutsOtherShards: run.layoutsOtherShards,
+      parts: run.parts,
+      partsRun: run.partsRun,
       margin: p.options.margin,
     },
     infeasible: run.infeasible,
@@ -188,7 +189,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   lines.push(
     "",
     w(`Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`, 8),
-    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than the ranking's head${run.shard ? `, ${run.layoutsOtherShards} left to the other shards` : ""}), ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
+    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than their part's head) in ${run.parts} part${run.parts > 1 ? "s" : ""}${run.shard ? ` (${run.partsRun} of them in this shard)` : ""}, ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
       `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`, 8),
     "",

@@ -1,24 +1,28 @@
-// The search run: plans layouts, fits them in rounds within a budget, routes every result again
-// through the `route` path, ranks and explains. Like an optimiser's result object it says whether it
-// succeeded, why it stopped and how much work it did.
+// The search run: plans layouts, divides them into a fixed set of parts (search/partition.ts), runs
+// its parts (each an adaptive search of its own: search/searchPart.ts), routes every result again
+// through the `route` path, merges the parts' rankings and explains. Like an optimiser's result
+// object it says whether it succeeded, why it stopped and how much work it did.
 //
-// Determinism: layouts are fitted in rounds of ROUND layouts chosen from the queue before the round
-// starts; each layout's fit depends only on the layout and the seed (search/fitJob.ts) and its
-// routings are counted per layout; the round's outcomes enter the ranking and the queue in the
-// round's order. So the same seed and routing budget give the same ranking whatever the number of
-// workers, and a resumed or gathered run replays the journal's fits into the very same schedule.
-import type { SearchProblem, Layout } from "./problem.js";
-import type { OutletFile } from "../src/case/schema.js";
-import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan } from "./layouts.js";
-import { scoreWith } from "./scoring.js";
-import seedrandom from "seedrandom";
-import { createHash } from "node:crypto";
-import { designOutletFile, layoutKey } from "./layout.js";
-import { candidateFrom, compareCandidates, finalizeCandidate, markPareto, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
+//   plan ──> divide into parts ──> run this run's parts side by side ──> merge, rank ──> explain
+//
+// Determinism: the plan and the division depend only on the problem, the seed and the budget, and
+// each part's work only on its own layouts; the parts' rankings are merged in the parts' order. So
+// the same seed and routing budget give the same ranking whatever the number of workers; a shard
+// runs a fixed share of the parts, doing exactly the work the single run does for them; and a
+// resumed or gathered run replays the journals' fits into the very same schedule, fitting only what
+// no journal holds.
+import type { SearchProblem } from "./problem.js";
+import { planning, type LayoutPlan } from "./layouts.js";
+import { scoreWith, type Scored, type Scoring } from "./scoring.js";
+import { compareCandidates, markPareto, type Candidate } from "./candidate.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
-import { InlineFitter, type FitJobRequest, type LayoutFitter } from "./pool.js";
+import { InlineFitter, type LayoutFitter } from "./pool.js";
 import type { FitOutcome } from "./fitJob.js";
+import { inShard, partition } from "./partition.js";
+import { KEPT, SearchPart, type PartStop, type RunContext } from "./searchPart.js";
+
+export { ROUND, KEPT, BAR_RANK } from "./searchPart.js";
 
 export interface RunOptions {
   seed: string;
@@ -32,7 +36,7 @@ export interface RunOptions {
   top: number;
   /** Seeded starts of the fit per layout. */
   starts: number;
-  /** Options kept per level when planning layouts; doubled each round while budget remains. */
+  /** Options kept per level when planning layouts; doubled while a part's budget remains. */
   beam: number;
   /** Layouts already fitted (from journals): not fitted again, their outcomes replayed. */
   done?: Map<string, JournalEntry>;
@@ -75,10 +79,12 @@ export interface SearchRun {
   layoutsFitted: number;
   /** Of the fitted layouts, those whose fit came from a journal. */
   layoutsFromJournal: number;
-  /** Layouts not fitted because they cost at least as much as the BAR_RANK-th compliant candidate. */
+  /** Layouts not fitted because they cost at least as much as their part's BAR_RANK-th compliant candidate. */
   layoutsSkipped: number;
-  /** Layouts left to the other shards. */
-  layoutsOtherShards: number;
+  /** Parts the search is divided into (fixed by the problem, the plan and the budget). */
+  parts: number;
+  /** Of them, those this run ran (all but the other shards'). */
+  partsRun: number;
   /** Designs routed through the route path (the best of them are kept in `candidates`). */
   candidatesRouted: number;
   routings: number;
@@ -99,29 +105,6 @@ export interface SearchRun {
   baseline: Baseline | null;
 }
 
-/** Layouts per round: chosen before the round, merged in this order after it. */
-export const ROUND = 8;
-/** Candidates kept in the ranking. */
-export const KEPT = 40;
-/** A layout costing at least as much as this many compliant, unflagged candidates is skipped. */
-export const BAR_RANK = 5;
-const MAX_BEAM = 64;
-/** Beam from which the search widens by screened random layouts instead of a wider plan. */
-const SAMPLING_BEAM = 3;
-/** Random layouts screened per round: one batch of scores for the workers, large enough that they
- * share it evenly (40 left them a third idle, waiting on this thread between batches). */
-const SAMPLE_BATCH = 160;
-/** Sampled layouts scored per chunk (a unit of work for a worker; fixed, whatever the workers). */
-const SAMPLE_CHUNK = 5;
-/** A sampled layout is fitted when its objective at the staged start is at most this. */
-const PROMISING = 0.02;
-/** Rounds of sampling in a row without anything worth fitting before the search stops (or widens). */
-const MAX_SAMPLING_ROUNDS = 50;
-/** Largest layout space enumerated whole, so that a time budget can prove it exhausted. */
-const ENUMERABLE = 5000;
-/** A time budget fits a layout found wanting again with 3, then 9 times the starts, no more. */
-const MAX_STARTS_FACTOR = 9;
-
 /**
  * Marks near-duplicates: a candidate whose openings (parts, counts and sizes, bottom up) repeat a
  * better-ranked one's is a variant of that row (another riser or barrel, or shifted elevations). The
@@ -137,331 +120,111 @@ export function markVariants(ranked: Candidate[]): void {
   });
 }
 
-/** Whether shard `index` of `count` fits this layout: a fixed share by the hash of its key. */
-export function inShard(key: string, shard: { index: number; count: number }): boolean {
-  return createHash("sha1").update(key).digest().readUInt32BE(0) % shard.count === shard.index - 1;
+
+/** Why the run stopped, from why its parts did: one reason when they agree, else each with its count. */
+function stopWords(stops: PartStop[]): { words: string; interrupted: boolean } {
+  const interrupted = stops.find((s) => s.kind === "interrupted");
+  if (interrupted) return { words: interrupted.words, interrupted: true };
+  const limit = stops.find((s) => s.kind === "time limit");
+  if (limit) return { words: limit.words, interrupted: false };
+  if (stops.length > 0 && stops.every((s) => s.kind === "exhausted")) {
+    const layouts = stops.reduce((sum, s) => sum + (s.layouts ?? 0), 0);
+    return { words: `the catalogue is exhausted: all ${layouts} layouts it allows were fitted (those found wanting again with up to 9 times the starts) or bounded out by cost`, interrupted: false };
+  }
+  const counts = new Map<string, number>();
+  for (const s of stops) counts.set(s.words, (counts.get(s.words) ?? 0) + 1);
+  if (counts.size <= 1) return { words: stops[0]?.words ?? "there was nothing to fit", interrupted: false };
+  return { words: [...counts].map(([words, n]) => `${n} of ${stops.length} parts: ${words}`).join("; "), interrupted: false };
 }
 
 export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
-  // Memory stays bounded however long the run: only the best candidates are kept (ranked), and the
-  // designs already routed are remembered by a short hash of their outlet.
-  const candidates = new Map<string, Candidate>();
-  const seenDesigns = new Set<string>();
-  let routedCandidates = 0;
-  let compliantFound = 0;
-  const tried = new Set<string>();
-  // When the first compliant design was in hand (routed through the `route` path, as soon as its
-  // layout's fit ended, not when its round was merged): a statistic only, the search never reads it.
-  let firstCompliantAt: number | null = null;
-  let firstCompliantRoutings: number | null = null;
-  // Routings of the round's fits that have ended (counted into `routings` when it is merged).
-  let roundRoutings = 0;
-  let stoppedBecause = "";
-  let interrupted = false;
-  let fitted = 0;
-  let fromJournal = 0;
-  let planned = 0;
-  let otherShards = 0;
-  // Routings of the fits (per layout) and of the plan's and the widening's scores (per chunk),
-  // wherever they ran.
-  let routings = 0;
-  let evaluations = 0;
-  const scored = async <T>(scoring: Parameters<typeof scoreWith<T>>[1]): Promise<T> => {
+  const tally = { routings: 0, evaluations: 0 };
+  const scored = async <T>(scoring: Scoring<T>): Promise<Scored<T>> => {
     const done = await scoreWith(fitter, scoring);
-    routings += done.routings;
-    evaluations += done.evaluations;
-    return done.result;
+    tally.routings += done.routings;
+    tally.evaluations += done.evaluations;
+    return done;
   };
   const timed = options.timeBudget !== undefined;
 
-  let beam = options.beam;
   // The existing outlet is routed and explained here while the workers score the plan.
-  const planScored = scored(planning(p, beam));
+  const planScored = scored(planning(p, options.beam));
   const baseline = assessBaseline(p);
-  let plan = await planScored;
-  const firstPlan = plan;
-  let bestCost: number | null = null;
+  const first = await planScored;
+  const firstPlan = first.result;
+  const division = partition(p, firstPlan, timed ? null : options.budget);
+  // The first plan is every part's; the rest of the budget is shared out evenly.
+  const share = timed ? Infinity : Math.max(0, options.budget - first.routings) / division.count;
 
-  const designKey = (layout: Layout, vars: number[]) => {
-    const file = designOutletFile(p, layout, vars);
-    return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
+  let firstCompliantAt: number | null = null;
+  let firstCompliantRoutings: number | null = null;
+  const parts: SearchPart[] = [];
+  const ctx: RunContext = {
+    p,
+    options,
+    fitter,
+    partition: division,
+    firstPlan,
+    timed,
+    seconds,
+    scored,
+    tally,
+    compliantInHand: (extra) => {
+      if (firstCompliantAt !== null) return;
+      firstCompliantAt = seconds();
+      firstCompliantRoutings = tally.routings + extra;
+      options.onFirstCompliant?.();
+    },
+    progress: () => {
+      let best: number | null = null;
+      for (const part of parts) if (part.bestCost !== null && (best === null || part.bestCost < best)) best = part.bestCost;
+      options.onProgress?.({
+        layoutsFitted: parts.reduce((n, part) => n + part.fitted, 0),
+        layoutsPlanned: parts.reduce((n, part) => n + part.planned, 0),
+        routings: tally.routings,
+        compliant: parts.reduce((n, part) => n + part.compliantFound, 0),
+        bestCost: best,
+        seconds: seconds(),
+      });
+    },
   };
-  /** A design routed through the `route` path: here, or taken from a worker's routing of it. */
-  const routedCandidate = (layout: Layout, vars: number[], file: OutletFile, routed?: PackedRoute): Candidate =>
-    routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
-  // Designs of the round routed as soon as their fit ended, until the first compliant one is in hand;
-  // taken when the round is merged (the same numbers: a pure function of the design).
-  const early = new Map<string, Candidate>();
-  /** Routes a design of a round early (or takes a worker's routing); whether it is compliant. */
-  const routedEarly = (layout: Layout, vars: number[], routed?: PackedRoute): boolean => {
-    const { file, key } = designKey(layout, vars);
-    if (seenDesigns.has(key)) return false;
-    let candidate = early.get(key);
-    if (!candidate) {
-      candidate = routedCandidate(layout, vars, file, routed);
-      early.set(key, candidate);
-    }
-    return candidate.assessment.compliant;
-  };
-  const candidateOf = (layout: Layout, vars: number[]) => candidates.get(designKey(layout, vars).key);
-  // `routed`: the design already routed through the `route` path on a worker (the same numbers).
-  const accept = (layout: Layout, vars: number[], routed?: PackedRoute): Candidate | null => {
-    const { file, key } = designKey(layout, vars);
-    if (seenDesigns.has(key)) return null;
-    seenDesigns.add(key);
-    routedCandidates++;
-    const candidate = early.get(key) ?? routedCandidate(layout, vars, file, routed);
-    early.delete(key);
-    candidates.set(key, candidate);
-    if (candidates.size > 2 * KEPT) {
-      const best = [...candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
-      candidates.clear();
-      for (const [k, c] of best) candidates.set(k, c);
-    }
-    if (candidate.assessment.compliant) {
-      compliantFound++;
-      if (firstCompliantAt === null) {
-        firstCompliantAt = seconds();
-        firstCompliantRoutings = routings;
-        options.onFirstCompliant?.();
-      }
-      if (bestCost === null || candidate.cost < bestCost) bestCost = candidate.cost;
-    }
-    return candidate;
-  };
+  for (let i = 0; i < division.count; i++) if (!options.shard || inShard(i, options.shard)) parts.push(new SearchPart(ctx, i, share));
+  // The parts side by side: on workers their rounds share the pool; in this thread they take turns.
+  await Promise.all(parts.map((part) => part.run()));
 
-  // Cost does not depend on elevations, so a layout that costs at least as much as the BAR_RANK-th
-  // compliant, unflagged candidate found so far cannot improve the ranking's head: it is skipped.
-  const costBar = () => {
-    const costs = [...candidates.values()]
-      .filter((c) => c.assessment.compliant && c.assessment.warnings.length === 0)
-      .map((c) => c.cost)
-      .sort((a, b) => a - b);
-    // Ranked by change, a costlier layout may still be a smaller change: nothing is bounded out.
-    if (p.limits.rankBy === "change") return Infinity;
-    return costs.length >= BAR_RANK ? costs[BAR_RANK - 1] : Infinity;
-  };
-  let skipped = 0;
-  let samplingRounds = 0;
-  let promising = PROMISING;
-  const rng = seedrandom(`${options.seed}|layouts`);
-  // One queue of layouts to fit: the plan's, and the neighbours of compliant candidates. Until a
-  // compliant design exists the most promising (lowest staged score) goes first; after that the
-  // cheapest, so effort goes where cheaper compliant designs may be.
-  // `starts`: a fit again with more starts (a time budget's widening), journalled under its own key.
-  type Entry = { layout: Layout; cost: number; score: number; starts?: number };
-  const entryKey = (e: Entry) => layoutKey(e.layout) + (e.starts ? ` | starts ${e.starts}` : "");
-  // With a time budget: layouts fitted without a compliant design, to fit again with more starts.
-  const missed: Entry[] = [];
-  const queue: Entry[] = [];
-  const queued = new Set<string>();
-  const enqueue = (entries: Entry[]) => {
-    for (const e of entries) {
-      const key = entryKey(e);
-      if (tried.has(key) || queued.has(key)) continue;
-      queued.add(key);
-      queue.push(e);
-      planned++;
-    }
-  };
-  const existingKey = p.existing && p.limits.rankBy === "change" ? layoutKey(p.existing.layout) : null;
-  /** The place in `list` of the entry to fit next. */
-  const pick = (list: Entry[]): number => {
-    // Ranked by change, the existing layout goes first (refitting its elevations is the smallest fix).
-    const own = existingKey === null ? -1 : list.findIndex((e) => layoutKey(e.layout) === existingKey);
-    if (own >= 0) return own;
-    let best = 0;
-    // Ranked by change, the most promising layouts (the plan holds the existing one's neighbours) go first throughout.
-    const byCost = compliantFound > 0 && p.limits.rankBy !== "change";
-    for (let i = 1; i < list.length; i++) {
-      const a = list[i];
-      const b = list[best];
-      if (byCost ? a.cost < b.cost || (a.cost === b.cost && a.score < b.score) : a.score < b.score || (a.score === b.score && a.cost < b.cost)) best = i;
-    }
-    return best;
-  };
-  const take = (): Entry | undefined => (queue.length === 0 ? undefined : queue.splice(pick(queue), 1)[0]);
-  /** The jobs the next round would hold if nothing entered the queue meanwhile (fitted ahead by idle
-   * workers; the round itself is chosen after this one is merged, so a guess costs nothing but an
-   * idle worker's time). */
-  const nextRound = (bar: number): FitJobRequest[] => {
-    const rest = [...queue];
-    const out: FitJobRequest[] = [];
-    while (out.length < ROUND && rest.length > 0) {
-      const entry = rest.splice(pick(rest), 1)[0];
-      const key = entryKey(entry);
-      if (entry.cost >= bar || (options.shard && !inShard(key, options.shard)) || options.done?.has(key)) continue;
-      out.push({ key, layout: entry.layout, starts: entry.starts });
-    }
-    return out;
-  };
-  const spent = () => (timed ? seconds() >= options.timeBudget! : routings >= options.budget);
-  const budgetWords = () => (timed ? `the time budget of ${options.timeBudget} s was used` : `the budget of ${options.budget} routings was used`);
-  // The whole layout space when it is small enough to list: a time budget can then prove it exhausted.
-  let space: Layout[] | null | undefined;
-  let closestTried = false;
-  /** Nothing passed the bound: queue the nearest misses once, so the closest candidates can be shown. */
-  const closest = (): boolean => {
-    if (candidates.size > 0 || closestTried) return false;
-    closestTried = true;
-    const before = planned;
-    enqueue(closestLayouts(p, firstPlan, ROUND).map((l) => ({ layout: l, cost: layoutCost(p, l), score: 0 })));
-    return planned > before;
-  };
-
-  /** Widens the search when the queue is dry; returns a reason to stop, or null to go on. */
-  const widen = async (): Promise<string | null> => {
-    if (p.fixedLayout) return "the one layout the limits allow (the existing parts, only their elevations varied) was fitted";
-    if (spent()) return budgetWords();
-    if (beam < MAX_BEAM && (timed || beam < SAMPLING_BEAM || compliantFound === 0)) {
-      beam *= 2;
-      plan = await scored(planning(p, beam));
-      const before = planned;
-      enqueue(plan.layouts);
-      if (planned > before || timed || closest()) return null;
-      return `every layout within reach was fitted or bounded out by cost (no new layout with a beam of ${beam} options per level)`;
-    }
-    if (!timed && beam >= MAX_BEAM && compliantFound === 0) {
-      if (closest()) return null;
-      return `every layout within reach was fitted or bounded out by cost (beam of ${beam} options per level)`;
-    }
-    const bar = costBar();
-    // A time budget on a space small enough to list goes through the list instead of sampling it.
-    if (timed && space === undefined) space = layoutSpace(p, firstPlan, ENUMERABLE);
-    // Past a moderate beam, widen by screened random layouts cheaper than the ranking's head.
-    if (!(timed && space)) {
-      const drawn = sampleLayouts(p, firstPlan, rng, SAMPLE_BATCH, bar);
-      const values = await scored(layoutScores(p, drawn, SAMPLE_CHUNK));
-      const before = planned;
-      enqueue(drawn.map((layout, i) => ({ layout, score: values[i].score, cost: values[i].cost })).filter((s) => s.score <= promising));
-      samplingRounds = planned > before ? 0 : samplingRounds + 1;
-      if (samplingRounds <= MAX_SAMPLING_ROUNDS) return null;
-    }
-    if (!timed) return `${MAX_SAMPLING_ROUNDS} rounds of random layouts found nothing more to fit`;
-    // A time budget is spent: fit every layout of a small space, fit again with more starts the
-    // cheapest layouts whose fit found nothing compliant, and screen with a looser threshold.
-    samplingRounds = 0;
-    const left = space ? space.filter((l) => !tried.has(layoutKey(l))) : [];
-    enqueue(left.map((l) => ({ layout: l, cost: layoutCost(p, l), score: Infinity })));
-    const again = missed.filter((e) => e.cost < bar && (e.starts ?? options.starts) < MAX_STARTS_FACTOR * options.starts);
-    again.sort((a, b) => a.cost - b.cost).splice(ROUND);
-    for (const e of again) missed.splice(missed.indexOf(e), 1);
-    enqueue(again.map((e) => ({ ...e, starts: (e.starts ?? options.starts) * 3 })));
-    if (space && left.length === 0 && again.length === 0) {
-      return `the catalogue is exhausted: all ${space.length} layouts it allows were fitted (those found wanting again with up to ${MAX_STARTS_FACTOR} times the starts) or bounded out by cost`;
-    }
-    promising *= 4;
-    return null;
-  };
-
-  enqueue(plan.layouts);
-  while (true) {
-    const reason = options.interrupt?.();
-    if (reason) {
-      stoppedBecause = reason;
-      interrupted = true;
-      break;
-    }
-    // At least one layout is fitted whatever the budget, so that something can be reported.
-    if (fitted > 0 && spent()) {
-      stoppedBecause = budgetWords();
-      break;
-    }
-    if (options.timeLimit !== undefined && seconds() >= options.timeLimit) {
-      stoppedBecause = `the time limit of ${options.timeLimit} s was reached`;
-      break;
-    }
-    // The round: chosen before any of it is fitted, against the cost bar as it stands.
-    const bar = costBar();
-    const round: (Entry & { key: string })[] = [];
-    while (round.length < ROUND) {
-      const entry = take();
-      if (!entry) break;
-      const key = entryKey(entry);
-      tried.add(key);
-      if (entry.cost >= bar) skipped++;
-      else if (options.shard && !inShard(key, options.shard)) otherShards++;
-      else round.push({ ...entry, key });
-    }
-    if (round.length === 0) {
-      const stop = await widen();
-      if (stop) {
-        stoppedBecause = stop;
-        break;
-      }
-      continue;
-    }
-    const jobs = round.filter((e) => !options.done?.has(e.key));
-    const outcomes = await fitter.fit(
-      jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
-      (i, outcome) => {
-        const { routed, ...fitted } = outcome;
-        options.onLayout?.({ key: jobs[i].key, ...fitted });
-        roundRoutings += outcome.routings;
-        if (firstCompliantAt === null && outcome.designs.some((vars, d) => routedEarly(jobs[i].layout, vars, routed?.[d]))) {
-          firstCompliantAt = seconds();
-          firstCompliantRoutings = routings + roundRoutings;
-          options.onFirstCompliant?.();
-        }
-      },
-      () => options.interrupt?.() != null,
-      // Guessed only for workers (in this thread nothing is idle to fit ahead).
-      fitter.workers > 1 ? nextRound(bar) : [],
-    );
-    const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
-    for (const entry of round) {
-      const previous = options.done?.get(entry.key);
-      const outcome = previous ?? byKey.get(entry.key);
-      // Abandoned when the run was interrupted: a resumed run fits it.
-      if (!outcome) continue;
-      if (previous) fromJournal++;
-      fitted++;
-      routings += outcome.routings;
-      evaluations += outcome.evaluations;
-      // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
-      let expand = false;
-      for (const [d, vars] of outcome.designs.entries()) {
-        const c = accept(entry.layout, vars, outcome.routed?.[d]);
-        if (c && c.assessment.compliant && (timed || c.assessment.warnings.length === 0)) expand = true;
-      }
-      if (timed && !outcome.designs.some((vars) => candidateOf(entry.layout, vars)?.assessment.compliant)) missed.push(entry);
-      if (expand) enqueue(neighbourLayouts(p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(p, n), score: entry.score })));
-    }
-    early.clear();
-    roundRoutings = 0;
-    options.onProgress?.({ layoutsFitted: fitted, layoutsPlanned: planned, routings, compliant: compliantFound, bestCost, seconds: seconds() });
-  }
-
-  const ranked = [...candidates.values()].sort(compareCandidates).slice(0, KEPT);
+  const ranked = parts.flatMap((part) => [...part.candidates.values()]).sort(compareCandidates).slice(0, KEPT);
   markPareto(ranked);
   markVariants(ranked);
   const shown = ranked.slice(0, options.top);
   const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
   shown.forEach((c, i) => (c.explanation = explanations[i]));
   const success = ranked.some((c) => c.assessment.compliant);
+  const stop = stopWords(parts.map((part) => part.stop!));
+  const sum = (of: (part: SearchPart) => number) => parts.reduce((n, part) => n + of(part), 0);
   return {
     success,
-    stoppedBecause,
-    interrupted,
+    stoppedBecause: stop.words,
+    interrupted: stop.interrupted,
     candidates: ranked,
-    layoutsPlanned: planned,
-    layoutsFitted: fitted,
-    layoutsFromJournal: fromJournal,
-    layoutsSkipped: skipped,
-    layoutsOtherShards: otherShards,
-    candidatesRouted: routedCandidates,
-    routings,
-    evaluations,
+    layoutsPlanned: sum((part) => part.planned),
+    layoutsFitted: sum((part) => part.fitted),
+    layoutsFromJournal: sum((part) => part.fromJournal),
+    layoutsSkipped: sum((part) => part.skipped),
+    parts: division.count,
+    partsRun: parts.length,
+    candidatesRouted: sum((part) => part.routedCandidates),
+    routings: tally.routings,
+    evaluations: tally.evaluations,
     seconds: seconds(),
     secondsToFirstCompliant: firstCompliantAt,
     routingsToFirstCompliant: firstCompliantRoutings,
     seed: options.seed,
     budget: options.budget,
     timeBudget: options.timeBudget ?? null,
-    beam,
+    beam: Math.max(options.beam, ...parts.map((part) => part.beam)),
     workers: fitter.workers,
     shard: options.shard ?? null,
     plan: firstPlan,

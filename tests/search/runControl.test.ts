@@ -144,22 +144,53 @@ describe("design runs: determinism, interruption and recovery", () => {
     expect(summary).toMatch(/Caution:/);
   });
 
-  it("3 shards gathered give exactly the ranking of one run with the same seed and budget", () => {
+  it("3 shards divide the work of one run exactly; the gather fits nothing and gives its very ranking", () => {
+    // 15,000 routings: three parts of the search (search/partition.ts), one per shard.
+    const budget = "15000";
+    const single = dir("single");
+    const one = outfit("design", CASE, "--budget", budget, "--workers", "1", "--quiet", "--out", single, "--json");
+    expect(one.code).toBe(0);
+    const oneRun = JSON.parse(one.stdout);
+    expect(oneRun.search.parts).toBe(3);
     const shards = [1, 2, 3].map((k) => {
       const out = dir(`shard-${k}`);
-      const r = outfit("design", CASE, "--budget", BUDGET, "--shard", `${k}/3`, "--workers", "1", "--quiet", "--out", out, "--json");
+      const r = outfit("design", CASE, "--budget", budget, "--shard", `${k}/3`, "--workers", "1", "--quiet", "--out", out, "--json");
       expect(r.code).toBe(0);
-      expect(JSON.parse(r.stdout).search.shard).toBe(`${k}/3`);
+      const search = JSON.parse(r.stdout).search;
+      expect(search.shard).toBe(`${k}/3`);
+      expect(search.partsRun).toBe(1);
       return out;
     });
     const keys = shards.map(journalKeys);
-    // The shards' shares do not overlap.
+    // The shards' shares do not overlap, each holds work, and together they are the single run's.
     expect(new Set(keys.flat()).size).toBe(keys.flat().length);
-    const gathered = outfit("gather", CASE, ...shards, "--budget", BUDGET, "--workers", "1", "--quiet", "--json");
+    for (const k of keys) expect(k.length).toBeGreaterThan(0);
+    expect([...keys.flat()].sort()).toEqual([...journalKeys(single)].sort());
+    const gathered = outfit("gather", CASE, ...shards, "--budget", budget, "--workers", "1", "--quiet", "--json");
     expect(gathered.code).toBe(0);
     const results = JSON.parse(gathered.stdout);
-    expect(results.search.layoutsFromJournal).toBeGreaterThan(0);
-    expect(ranking(results)).toEqual(uninterrupted());
+    expect(results.search.layoutsFitted).toBe(oneRun.search.layoutsFitted);
+    expect(results.search.layoutsFromJournal).toBe(results.search.layoutsFitted);
+    expect(ranking(results)).toEqual(ranking(oneRun));
+  });
+
+  it("a gather fits what a missing shard would have, and nothing else", () => {
+    const budget = "15000";
+    const shards = [1, 3].map((k) => {
+      const out = dir(`shard-${k}`);
+      expect(outfit("design", CASE, "--budget", budget, "--shard", `${k}/3`, "--workers", "1", "--quiet", "--out", out).code).toBe(0);
+      return out;
+    });
+    const held = shards.flatMap(journalKeys).length;
+    const all = dir("gather");
+    const gathered = outfit("gather", CASE, ...shards, "--budget", budget, "--workers", "1", "--quiet", "--json", "--out", all);
+    expect(gathered.code).toBe(0);
+    const search = JSON.parse(gathered.stdout).search;
+    expect(search.layoutsFromJournal).toBe(held);
+    const shard2 = dir("shard-2");
+    expect(outfit("design", CASE, "--budget", budget, "--shard", "2/3", "--workers", "1", "--quiet", "--out", shard2).code).toBe(0);
+    // What the gather fitted itself is exactly shard 2's share.
+    expect(search.layoutsFitted - search.layoutsFromJournal).toBe(journalKeys(shard2).length);
   });
 
   it("removes the candidate files of an earlier run in the same --out directory", () => {

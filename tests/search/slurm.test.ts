@@ -13,7 +13,8 @@ import { ROOT, outfit } from "../cli/run.js";
 import { journalKeys } from "./helpers.js";
 
 const CASE = "cases/small-compliant/case.json";
-const BUDGET = "6000";
+// Three parts of the search (one per 5,000 routings): one for each of the three shards.
+const BUDGET = "15000";
 const SHARDS = 3;
 const SEED = "night";
 /** How long the jobs may take before the test gives up and cancels them (they take well under a minute). */
@@ -195,17 +196,20 @@ describe("the README's Slurm recipe on a cluster", () => {
       const shard = readResults(join(runs, `shard-${k}`));
       expect(shard.search.shard).toBe(`${k}/${SHARDS}`);
       expect(shard.search.seed).toBe(SEED);
-      expect(shard.search.budget).toBe(Number(BUDGET) / SHARDS);
+      expect(shard.search.budget).toBe(Number(BUDGET));
+      expect(shard.search.parts).toBe(SHARDS);
+      expect(shard.search.partsRun).toBe(1);
     }
     const gathered = readResults(join(runs, "all"));
     expect(gathered.search.seed).toBe(SEED);
     expect(gathered.search.budget).toBe(Number(BUDGET));
-    // The gather took from the shards' journals every layout of the single run that a shard had
-    // fitted (a gather that ran early, or on the wrong folders, would fit them itself).
-    const inShards = new Set(Array.from({ length: SHARDS }, (_, i) => journalKeys(join(runs, `shard-${i + 1}`))).flat());
-    const reached = journalKeys(oneDir).filter((key) => inShards.has(key)).length;
-    expect(reached).toBeGreaterThan(0);
-    expect(gathered.search.layoutsFromJournal).toBe(reached);
+    // The shards did the single run's work between them, no more and no less, and the gather took
+    // all of it from their journals, fitting nothing itself (a gather that ran early, or on the
+    // wrong folders, would fit them itself).
+    const inShards = Array.from({ length: SHARDS }, (_, i) => journalKeys(join(runs, `shard-${i + 1}`))).flat();
+    expect([...inShards].sort()).toEqual([...journalKeys(oneDir)].sort());
+    expect(gathered.search.layoutsFromJournal).toBe(inShards.length);
+    expect(gathered.search.layoutsFitted).toBe(inShards.length);
     // The ranking is that of one run: the same candidates, in the same order, with the same
     // outlets, peaks, checks, costs and explanations.
     expect(single.candidates.length).toBeGreaterThan(0);
