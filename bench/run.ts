@@ -7,8 +7,10 @@ import { searchSection } from "./search.js";
 import { speedSection } from "./speed.js";
 import { workersSection } from "./workers.js";
 import { inputsSection } from "./inputs.js";
+import { shardsSection } from "./shards.js";
+import { defaultsSection } from "./defaults.js";
 
-const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection, inputsSection];
+const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection, defaultsSection, shardsSection, inputsSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);

@@ -86,7 +86,7 @@ describe("design runs: determinism, interruption and recovery", () => {
       expect(one.candidates.length).toBeGreaterThan(0);
       expect(two).toEqual(one);
     }
-  });
+  }, 240_000);
 
   it("resumes a SIGKILLed run: no fitted layout lost or repeated, the ranking of the uninterrupted run", async () => {
     const out = dir("kill");
