@@ -318,24 +318,35 @@ export class WorkerFitter implements LayoutFitter {
 }
 
 /** A run is spread over worker threads when it has at least this many seconds left (each worker
- * starts, builds its problem and compiles its code: about a second of slower work on this 2-core
- * machine, so a run of a few seconds is faster in one thread). */
-export const SPREAD_SECONDS = 4;
+ * starts, builds its problem and compiles its code: about a second of slower work on a 2-core
+ * machine, and two workers there give about 1.4x one thread, so a rest shorter than this is done
+ * sooner in one thread). */
+export const SPREAD_SECONDS = 6;
+/** Seconds a run stays in one thread unless its first compliant design is in hand sooner: until it
+ * spreads the default does exactly what one thread does, so its first compliant design is never later. */
+export const SETTLE_SECONDS = 2;
 
 /** Where a run stands, as its progress reports it. */
 export interface RunSoFar {
   routings: number;
   seconds: number;
+  /** Routings its running parts may still spend (their shares of the budget not yet used). */
+  routingsLeft?: number;
+  /** Compliant designs found so far. */
+  compliant?: number;
 }
 
 /**
- * Whether the rest of a run is worth the workers' start: with a time budget, its time left; with a
- * routing budget, the routings left at the rate so far (unknown before any is counted: not yet).
+ * Whether the rest of a run is worth the workers' start: not before its first compliant design or
+ * SETTLE_SECONDS; then, with a time budget, its time left; with a routing budget, the routings its
+ * parts may still spend (else the budget's) at the rate so far (unknown before any is counted: not yet).
  */
 export function worthSpreading(so: RunSoFar, budget: { routings: number; seconds?: number }): boolean {
+  if (!((so.compliant ?? 0) > 0 || so.seconds >= SETTLE_SECONDS)) return false;
   if (budget.seconds !== undefined) return budget.seconds - so.seconds >= SPREAD_SECONDS;
   if (!(so.routings > 0) || !(so.seconds > 0)) return false;
-  return ((budget.routings - so.routings) * so.seconds) / so.routings >= SPREAD_SECONDS;
+  const left = so.routingsLeft ?? budget.routings - so.routings;
+  return (left * so.seconds) / so.routings >= SPREAD_SECONDS;
 }
 
 /**

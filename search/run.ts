@@ -66,6 +66,8 @@ export interface Progress {
   compliant: number;
   bestCost: number | null;
   seconds: number;
+  /** Routings the parts still running may spend (Infinity with a time budget). */
+  routingsLeft: number;
 }
 
 export interface SearchRun {
@@ -188,6 +190,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
         compliant: parts.reduce((n, part) => n + part.compliantFound, 0),
         bestCost: best,
         seconds: seconds(),
+        routingsLeft: parts.reduce((n, part) => n + (part.stop ? 0 : Math.max(0, part.budget - part.routings)), 0),
       });
     },
   };

@@ -12,7 +12,7 @@ function stream(isTTY: boolean, columns?: number) {
   return { isTTY, columns, writes, write: (t: string) => writes.push(t) };
 }
 
-const progress = (over: Partial<Progress>): Progress => ({ layoutsFitted: 12, layoutsPlanned: 40, routings: 5000, compliant: 3, bestCost: 21.63, seconds: 10, ...over });
+const progress = (over: Partial<Progress>): Progress => ({ layoutsFitted: 12, layoutsPlanned: 40, routings: 5000, compliant: 3, bestCost: 21.63, seconds: 10, routingsLeft: 15000, ...over });
 
 describe("progress", () => {
   it("says the share of the budget, routings per second, layouts, best cost and time left", () => {
