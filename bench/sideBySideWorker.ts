@@ -5,7 +5,7 @@ import { parentPort, workerData } from "node:worker_threads";
 import { loadCase } from "../src/case/load.js";
 import { buildProblem } from "../search/problem.js";
 import { runSearch } from "../search/run.js";
-import { InlineFitter } from "../search/pool.js";
+import { InlineFitter } from "../search/fitter.js";
 
 const { file, budget, warmUps } = workerData as { file: string; budget: number; warmUps: number };
 const loaded = loadCase(file);

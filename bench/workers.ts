@@ -7,7 +7,8 @@ import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
 import { buildProblem } from "../search/problem.js";
 import { runSearch, type SearchRun } from "../search/run.js";
-import { InlineFitter, WorkerFitter, type LayoutFitter } from "../search/pool.js";
+import { WorkerFitter } from "../search/pool.js";
+import { InlineFitter, type LayoutFitter } from "../search/fitter.js";
 import type { BenchSection } from "./section.js";
 
 /** Budgets long enough that the run is mostly search, as an overnight run is (a few seconds each). */

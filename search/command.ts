@@ -11,7 +11,8 @@ import { candidateCase, candidateCaseName, designJson, designText } from "./repo
 import { createHash } from "node:crypto";
 import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
 import { ProgressReporter } from "./progress.js";
-import { AdaptiveFitter, InlineFitter, WorkerFitter, worthSpreading, type LayoutFitter, type RunSoFar } from "./pool.js";
+import { AdaptiveFitter, WorkerFitter, worthSpreading, type RunSoFar } from "./pool.js";
+import { InlineFitter, type LayoutFitter } from "./fitter.js";
 
 /** Exit code of a run stopped by SIGINT or SIGTERM (results of the work done are written). */
 export const EXIT_INTERRUPTED = 3;

@@ -9,7 +9,8 @@ import { fitJob, layoutAt, type FitSettings } from "./fitJob.js";
 import { designOutletFile } from "./layout.js";
 import { packRoute, routeDesign } from "./candidate.js";
 import { scoreChunk } from "./layouts.js";
-import { explainDesign, type ProblemSource, type WorkerTask } from "./pool.js";
+import type { ProblemSource, WorkerTask } from "./pool.js";
+import { explainDesign } from "./fitter.js";
 
 const { source, settings } = workerData as { source: ProblemSource; settings: FitSettings };
 const loaded = source.path !== undefined ? loadCase(source.path, { hydrographs: source.hydrographs }) : parseCase(source.json, { hydrographs: source.hydrographs });

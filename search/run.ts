@@ -17,7 +17,7 @@ import { scoreWith, type Scored, type Scoring } from "./scoring.js";
 import { compareCandidates, markPareto, type Candidate } from "./candidate.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
-import { InlineFitter, type LayoutFitter } from "./pool.js";
+import { InlineFitter, type LayoutFitter } from "./fitter.js";
 import type { FitOutcome } from "./fitJob.js";
 import { inShard, partition } from "./partition.js";
 import { KEPT, SearchPart, type PartStop, type RunContext } from "./searchPart.js";

@@ -18,7 +18,7 @@ import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
 import { designOutletFile, layoutKey } from "./layout.js";
 import { candidateFrom, compareCandidates, finalizeCandidate, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
-import type { FitJobRequest, LayoutFitter } from "./pool.js";
+import type { FitJobRequest, LayoutFitter } from "./fitter.js";
 import type { Partition } from "./partition.js";
 import type { JournalEntry, RunOptions } from "./run.js";
 
