@@ -20,7 +20,7 @@ import { designOutletFile, layoutKey } from "./layout.js";
 import { candidateFrom, compareCandidates, finalizeCandidate, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
 import type { FitJobRequest, LayoutFitter } from "./fitter.js";
 import type { Partition } from "./partition.js";
-import type { JournalEntry, RunOptions } from "./run.js";
+import type { JournalEntry, RunOptions } from "./runOptions.js";
 
 /** Layouts per round: chosen before the round, merged in this order after it. */
 export const ROUND = 8;
