@@ -4,9 +4,9 @@
 import { readdirSync, existsSync } from "node:fs";
 import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
-import { buildProblem } from "../search/problem.js";
-import { runSearch } from "../search/run.js";
-import { randomSearch } from "../search/randomSearch.js";
+import { buildProblem } from "../search/engine/problem.js";
+import { runSearch } from "../search/engine/run.js";
+import { randomSearch } from "../search/engine/randomSearch.js";
 import type { BenchSection } from "./section.js";
 
 /** Routings each case may spend in the bench (the design command's default budget). */

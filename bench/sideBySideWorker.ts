@@ -3,9 +3,9 @@
 // work (no messages, no shared round), the most a pool of workers could hope for.
 import { parentPort, workerData } from "node:worker_threads";
 import { loadCase } from "../src/case/load.js";
-import { buildProblem } from "../search/problem.js";
-import { runSearch } from "../search/run.js";
-import { InlineFitter } from "../search/fitter.js";
+import { buildProblem } from "../search/engine/problem.js";
+import { runSearch } from "../search/engine/run.js";
+import { InlineFitter } from "../search/engine/fitter.js";
 
 const { file, budget, warmUps } = workerData as { file: string; budget: number; warmUps: number };
 const loaded = loadCase(file);

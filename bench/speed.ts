@@ -18,8 +18,8 @@ import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
 import type { Case } from "../src/model.js";
 import type { CaseFile } from "../src/case/schema.js";
-import { buildProblem } from "../search/problem.js";
-import { runSearch } from "../search/run.js";
+import { buildProblem } from "../search/engine/problem.js";
+import { runSearch } from "../search/engine/run.js";
 import { routingTally } from "../src/routing/router.js";
 import type { BenchSection } from "./section.js";
 

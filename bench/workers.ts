@@ -5,10 +5,10 @@ import { availableParallelism, loadavg } from "node:os";
 import { Worker } from "node:worker_threads";
 import { join } from "node:path";
 import { loadCase } from "../src/case/load.js";
-import { buildProblem } from "../search/problem.js";
-import { runSearch, type SearchRun } from "../search/run.js";
-import { WorkerFitter } from "../search/pool.js";
-import { InlineFitter, type LayoutFitter } from "../search/fitter.js";
+import { buildProblem } from "../search/engine/problem.js";
+import { runSearch, type SearchRun } from "../search/engine/run.js";
+import { WorkerFitter } from "../search/parallel/pool.js";
+import { InlineFitter, type LayoutFitter } from "../search/engine/fitter.js";
 import type { BenchSection } from "./section.js";
 
 /** Budgets long enough that the run is mostly search, as an overnight run is (a few seconds each). */

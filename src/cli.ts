@@ -13,7 +13,7 @@ import { starterCommand } from "./commands/starter.js";
 import { volumeCommand } from "./commands/volume.js";
 import { pondCommand } from "./commands/pond.js";
 import { isUserError } from "./commands/common.js";
-import { designCommand } from "../search/command.js";
+import { designCommand } from "../search/command/command.js";
 import { CAUTION } from "./report/caution.js";
 import { formatHelpText, MIN_WIDTH } from "./report/terminal.js";
 import { streamWidth } from "./terminalText.js";

@@ -1,5 +1,5 @@
 // The weights of the cost proxy: a relative measure of what an outlet takes to build (not money). The
-// parts' `cost` terms use them; search/cost.ts applies a case's overrides and sums an outlet.
+// parts' `cost` terms use them; search/engine/cost.ts applies a case's overrides and sums an outlet.
 
 /** Default weights per foot: invented relative efforts for ranking alternatives, not prices. */
 export const DEFAULT_COSTS_PER_FOOT = {

@@ -132,7 +132,7 @@ const LAZY_CHUNK = 8;
  * storm that peaks at half the grid needs only the stages below it, and the stages above are where a
  * barrel throttles and each stage costs a chamber solve. The values are those of the whole table bit
  * for bit (each stage of the sweep depends only on the stages below, and the held level only on the
- * stage below). The search routes on these (search/evaluate.ts); a table kept after its routings
+ * stage below). The search routes on these (search/engine/evaluate.ts); a table kept after its routings
  * (the `route` path's, the assessment's) is `buildRatingTable`'s, rated whole.
  */
 export function lazyRatingTable(pond: Pond, outlet: Outlet, tail: Tailwater, options: RatingOptions = {}): RatingTable {

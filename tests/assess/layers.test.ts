@@ -11,7 +11,7 @@ const SRC = join(ROOT, "src");
 const SEARCH = join(ROOT, "search");
 
 /**
- * The floors, ground first: a room (a folder of src/, a file directly in src/, or search/) imports only
+ * The floors, ground first: a room (a folder of src/ or of search/, or a file directly in src/) imports only
  * rooms of its own floor or of a floor below. case/ stands above the parts and the physics because it
  * builds the case file's schema from the parts' fragments and normalizes through them; io.ts above
  * case/ because its errors are the loader's `CaseError`.
@@ -29,7 +29,11 @@ const FLOORS: readonly (readonly string[])[] = [
   ["src/report"],
   ["src/io"],
   ["src/commands"],
-  ["search"],
+  ["search/engine"],
+  ["search/parallel"],
+  ["search/pond"],
+  ["search/report"],
+  ["search/command"],
   ["src/cli"],
 ];
 
@@ -46,10 +50,10 @@ function imports(file: string): string[] {
   return found.map((spec) => resolve(dirname(file), spec.replace(/\.js$/, ".ts")));
 }
 
-/** The room a file belongs to: "src/parts" for src/parts/x.ts, "src/units" for src/units.ts, "search" for search/**. */
+/** The room a file belongs to: "src/parts" for src/parts/x.ts, "src/units" for src/units.ts, "search/engine" for search/engine/**. */
 function room(file: string): string {
   const parts = relative(ROOT, file).split("/");
-  if (parts[0] === "search") return "search";
+  if (parts[0] === "search") return `search/${parts[1]}`;
   return `src/${parts[1].replace(/\.ts$/, "")}`;
 }
 

@@ -9,8 +9,8 @@ import { partOf, elementToFile } from "../../src/parts/registry.js";
 import { cipollettiWeir, type CipollettiWeir } from "../../src/parts/cipollettiWeir.js";
 import { outletWarnings } from "../../src/assess/warnings.js";
 import { routeCase } from "../../src/routing/routeCase.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
 
 /** A case holding one element, in US or SI units. */
 function caseWith(element: object, units: "US" | "SI" = "US") {

@@ -10,8 +10,8 @@ import { drainedStage, routeCase } from "../../src/routing/routeCase.js";
 import { route } from "../../src/routing/router.js";
 import { hydrographVolume } from "../../src/hydrology/hydrograph.js";
 import { SEARCH_THIN_ABOVE, searchInflow, thinInflow } from "../../src/routing/thinInflow.js";
-import { buildProblem } from "../../search/problem.js";
-import { Evaluator } from "../../search/evaluate.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { Evaluator } from "../../search/engine/evaluate.js";
 import { plantedDryCase } from "../search/helpers.js";
 
 const DAY = 86400;

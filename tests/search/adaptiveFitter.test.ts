@@ -1,12 +1,12 @@
-// The default fitter of `design` (search/pool.ts `AdaptiveFitter`): the main thread while the run is
+// The default fitter of `design` (search/parallel/pool.ts `AdaptiveFitter`): the main thread while the run is
 // short, all cores once the rest is worth the workers' start. The ranking is the same whichever,
 // and wherever in the run it spread: the search through the built modules (the workers run
-// dist/search/fitWorker.js) with a fitter that spreads after a few calls, against one that never does.
+// dist/search/parallel/fitWorker.js) with a fitter that spreads after a few calls, against one that never does.
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
-import { SETTLE_SECONDS, SPREAD_SECONDS, worthSpreading } from "../../search/pool.js";
+import { SETTLE_SECONDS, SPREAD_SECONDS, worthSpreading } from "../../search/parallel/pool.js";
 
 const dist = (path: string) => pathToFileURL(join(process.cwd(), "dist", path)).href;
 const CASE = join(process.cwd(), "cases/small-compliant/case.json");
@@ -34,9 +34,9 @@ describe("spreading a run over the workers", () => {
 
   it("gives the same ranking when it spreads mid-run as in one thread throughout", async () => {
     const { loadCase } = await import(dist("src/case/load.js"));
-    const { buildProblem } = await import(dist("search/problem.js"));
-    const { runSearch } = await import(dist("search/run.js"));
-    const { AdaptiveFitter } = await import(dist("search/pool.js"));
+    const { buildProblem } = await import(dist("search/engine/problem.js"));
+    const { runSearch } = await import(dist("search/engine/run.js"));
+    const { AdaptiveFitter } = await import(dist("search/parallel/pool.js"));
     const loaded = loadCase(CASE);
     const problem = buildProblem(loaded.case, loaded.data);
     const settings = { seed: "spread", starts: 3 };

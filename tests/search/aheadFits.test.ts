@@ -1,7 +1,7 @@
-// Fits done ahead by an idle worker (search/pool.ts, `fit`'s `ahead`): a later round that holds the
+// Fits done ahead by an idle worker (search/parallel/pool.ts, `fit`'s `ahead`): a later round that holds the
 // job takes that outcome, and it is the outcome the job has when fitted in its own round, so the
 // search's ranking does not depend on what was guessed. Through the built modules (the workers run
-// dist/search/fitWorker.js).
+// dist/search/parallel/fitWorker.js).
 import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
@@ -12,10 +12,10 @@ const CASE = join(process.cwd(), "cases/small-compliant/case.json");
 describe("fits done ahead", () => {
   it("a round takes the outcome a worker fitted ahead, the same as fitting the job in that round", async () => {
     const { loadCase } = await import(dist("src/case/load.js"));
-    const { buildProblem } = await import(dist("search/problem.js"));
-    const { planning, scoreHere } = await import(dist("search/layouts.js"));
-    const { layoutKey } = await import(dist("search/layout.js"));
-    const { WorkerFitter } = await import(dist("search/pool.js"));
+    const { buildProblem } = await import(dist("search/engine/problem.js"));
+    const { planning, scoreHere } = await import(dist("search/engine/layouts.js"));
+    const { layoutKey } = await import(dist("search/engine/layout.js"));
+    const { WorkerFitter } = await import(dist("search/parallel/pool.js"));
     const loaded = loadCase(CASE);
     const problem = buildProblem(loaded.case, loaded.data);
     const layouts = scoreHere(problem, planning(problem, 3)).result.layouts.slice(0, 4);

@@ -3,9 +3,9 @@
 // 0.1 x the total move / pond depth), checked by hand on invented outlets.
 import { describe, expect, it } from "vitest";
 import { parseCase } from "../../src/case/load.js";
-import { buildProblem } from "../../search/problem.js";
-import { changeList } from "../../search/changes.js";
-import { designOutlet } from "../../search/layout.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { changeList } from "../../search/engine/changes.js";
+import { designOutlet } from "../../search/engine/layout.js";
 import type { OutletFile } from "../../src/case/schema.js";
 
 const base = {

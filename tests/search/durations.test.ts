@@ -1,11 +1,11 @@
-// The search routes a few durations of a modified rational storm (search/durations.ts); every
+// The search routes a few durations of a modified rational storm (search/engine/durations.ts); every
 // candidate is routed over the whole range through the route path, which decides compliance.
 import { describe, expect, it } from "vitest";
 import { loadCase } from "../../src/case/load.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
-import { Evaluator } from "../../search/evaluate.js";
-import { searchDurations, SEARCH_DURATIONS } from "../../search/durations.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
+import { Evaluator } from "../../search/engine/evaluate.js";
+import { searchDurations, SEARCH_DURATIONS } from "../../search/engine/durations.js";
 
 describe("modified rational storms in the search (cases/rational)", () => {
   const loaded = loadCase("cases/rational/case.json");

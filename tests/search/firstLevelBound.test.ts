@@ -7,9 +7,9 @@
 import { describe, expect, it } from "vitest";
 import { fileURLToPath } from "node:url";
 import { loadCase } from "../../src/case/load.js";
-import { buildProblem, type Layout } from "../../search/problem.js";
-import { planLayouts, barrelChoices, neighbourLayouts } from "../../search/layouts.js";
-import { designOutlet, designOutletFile, layoutKey } from "../../search/layout.js";
+import { buildProblem, type Layout } from "../../search/engine/problem.js";
+import { planLayouts, barrelChoices, neighbourLayouts } from "../../search/engine/layouts.js";
+import { designOutlet, designOutletFile, layoutKey } from "../../search/engine/layout.js";
 import { drainTime, stageOfVolume } from "../../src/routing/drainTime.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { drainedStage } from "../../src/routing/routeCase.js";

@@ -5,10 +5,10 @@
 // level for within the regula falsi's 1 % of the middle of the aim (routed again through `route`).
 import { describe, expect, it } from "vitest";
 import { parseCase } from "../../src/case/load.js";
-import { buildProblem, aimBand, type Layout } from "../../search/problem.js";
-import { Evaluator } from "../../search/evaluate.js";
-import { goalStage, stagedStart } from "../../search/fit.js";
-import { designOutlet, designOutletFile } from "../../search/layout.js";
+import { buildProblem, aimBand, type Layout } from "../../search/engine/problem.js";
+import { Evaluator } from "../../search/engine/evaluate.js";
+import { goalStage, stagedStart } from "../../search/engine/fit.js";
+import { designOutlet, designOutletFile } from "../../search/engine/layout.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { circularOrifice } from "../../src/parts/circularOrifice.js";
 

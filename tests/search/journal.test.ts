@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { Journal, JOURNAL_VERSION, readJournal } from "../../search/journal.js";
+import { Journal, JOURNAL_VERSION, readJournal } from "../../search/command/journal.js";
 
 const file = (lines: object[]) => {
   const path = join(mkdtempSync(join(tmpdir(), "outfit-journal-")), "journal.jsonl");

@@ -5,8 +5,8 @@ import { describe, expect, it } from "vitest";
 import { parseCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { assess } from "../../src/assess/assess.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
 import { FOOT } from "../../src/units.js";
 import { gammaInflow as inflow, plantedDryCase as plantedCase, siteOnly } from "./helpers.js";
 

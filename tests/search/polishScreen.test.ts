@@ -5,11 +5,11 @@
 import { describe, expect, it } from "vitest";
 import { fileURLToPath } from "node:url";
 import { loadCase } from "../../src/case/load.js";
-import { buildProblem } from "../../search/problem.js";
-import { Evaluator } from "../../search/evaluate.js";
-import { planLayouts } from "../../search/layouts.js";
-import { polish, snap, stagedStart } from "../../search/fit.js";
-import { reachAboveLevel } from "../../search/layout.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { Evaluator } from "../../search/engine/evaluate.js";
+import { planLayouts } from "../../search/engine/layouts.js";
+import { polish, snap, stagedStart } from "../../search/engine/fit.js";
+import { reachAboveLevel } from "../../search/engine/layout.js";
 
 describe("polish screens steps by the geometric rules", () => {
   it("ordinance-mix: the same polished designs as routing every step, in fewer evaluations", () => {

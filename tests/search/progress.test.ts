@@ -4,8 +4,8 @@
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { join } from "node:path";
-import { ProgressReporter, formatDuration, progressText } from "../../search/progress.js";
-import type { Progress } from "../../search/run.js";
+import { ProgressReporter, formatDuration, progressText } from "../../search/report/progress.js";
+import type { Progress } from "../../search/engine/run.js";
 
 function stream(isTTY: boolean, columns?: number) {
   const writes: string[] = [];

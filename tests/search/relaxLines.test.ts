@@ -2,7 +2,7 @@
 // as printed ("slack -22.6 % -> -22.6 %" is no remedy), and an elevation check's slack reads in
 // feet or metres beside the percentage.
 import { describe, expect, it } from "vitest";
-import { relaxesVisibly } from "../../search/explain.js";
+import { relaxesVisibly } from "../../search/engine/explain.js";
 import { makeCheck } from "../../src/assess/rules/rule.js";
 import { outfit } from "../cli/run.js";
 

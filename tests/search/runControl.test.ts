@@ -145,7 +145,7 @@ describe("design runs: determinism, interruption and recovery", () => {
   });
 
   it("3 shards divide the work of one run exactly; the gather fits nothing and gives its very ranking", () => {
-    // 15,000 routings: three parts of the search (search/partition.ts), one per shard.
+    // 15,000 routings: three parts of the search (search/engine/partition.ts), one per shard.
     const budget = "15000";
     const single = dir("single");
     const one = outfit("design", CASE, "--budget", budget, "--workers", "1", "--quiet", "--out", single, "--json");

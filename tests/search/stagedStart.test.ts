@@ -4,10 +4,10 @@
 import { describe, expect, it } from "vitest";
 import { fileURLToPath } from "node:url";
 import { loadCase } from "../../src/case/load.js";
-import { buildProblem } from "../../search/problem.js";
-import { Evaluator } from "../../search/evaluate.js";
-import { planLayouts } from "../../search/layouts.js";
-import { stagedStart } from "../../search/fit.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { Evaluator } from "../../search/engine/evaluate.js";
+import { planLayouts } from "../../search/engine/layouts.js";
+import { stagedStart } from "../../search/engine/fit.js";
 
 describe("staged start with shared routings", () => {
   for (const name of ["si-headwall", "demo"]) {

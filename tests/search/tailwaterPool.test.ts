@@ -7,8 +7,8 @@ import { parseCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { assess } from "../../src/assess/assess.js";
 import { outletDischarge } from "../../src/hydraulics/outlet.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
 import { gammaInflow, siteOnly } from "./helpers.js";
 
 const inflow = (peak: number, timeToPeak: number) => gammaInflow(peak, timeToPeak, 4);

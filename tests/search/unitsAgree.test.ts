@@ -6,8 +6,8 @@
 // rounded values per unit system (3.33 ft^0.5/s against 1.84 m^0.5/s), which would differ by design.
 import { describe, expect, it } from "vitest";
 import { parseCase } from "../../src/case/load.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
 import { FOOT, baseWeirCoefficient } from "../../src/units.js";
 import { gammaInflow } from "./helpers.js";
 

@@ -10,9 +10,9 @@ import { join } from "node:path";
 import { parseCase, loadCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { FOOT } from "../../src/units.js";
-import { buildProblem, DEFAULT_LIMITS, type DesignLimits } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
-import { baselineVerdict } from "../../search/baseline.js";
+import { buildProblem, DEFAULT_LIMITS, type DesignLimits } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
+import { baselineVerdict } from "../../search/engine/baseline.js";
 import { gammaInflow, plantedDryCase } from "./helpers.js";
 
 const cli = join(process.cwd(), "dist/src/cli.js");

@@ -15,8 +15,8 @@ import { pondFile } from "../../src/report/pondFile.js";
 import { storageCurve } from "../../src/storage/curve.js";
 import { storageBelow } from "../../src/storage/limitLevel.js";
 import { caseLimitLevel } from "../../src/sizing/stormEstimates.js";
-import { buildProblem } from "../../search/problem.js";
-import { runSearch } from "../../search/run.js";
+import { buildProblem } from "../../search/engine/problem.js";
+import { runSearch } from "../../search/engine/run.js";
 import type { Case } from "../../src/model.js";
 
 /** The estimate `pond` sizes to in the case's pond (m3 above the pool), with the catalogue allowance. */

@@ -1,13 +1,13 @@
 // The cost proxy: a relative measure of what an outlet takes to build (not money), the sum of its
 // parts' terms (each kind's `cost`, src/parts/) and a term per control level. Each weight may be
 // overridden in the case's `costs`, in the case's length unit (per ft for US, per m for SI).
-import { own } from "../src/own.js";
-import type { Case, Outlet } from "../src/model.js";
-import { FOOT } from "../src/units.js";
-import { COST_KEYS, COST_LENGTH_POWER, DEFAULT_COSTS_PER_FOOT, type CostWeights } from "../src/parts/cost.js";
-import { partOf } from "../src/parts/registry.js";
-import { riserCost } from "../src/parts/riser.js";
-import { barrelCost } from "../src/parts/barrel.js";
+import { own } from "../../src/own.js";
+import type { Case, Outlet } from "../../src/model.js";
+import { FOOT } from "../../src/units.js";
+import { COST_KEYS, COST_LENGTH_POWER, DEFAULT_COSTS_PER_FOOT, type CostWeights } from "../../src/parts/cost.js";
+import { partOf } from "../../src/parts/registry.js";
+import { riserCost } from "../../src/parts/riser.js";
+import { barrelCost } from "../../src/parts/barrel.js";
 
 /** Weights in SI (per m, per m2), from the defaults and the case's overrides. */
 export function costWeights(c: Case): CostWeights {

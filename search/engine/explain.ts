@@ -1,23 +1,23 @@
 // Explanations: which check binds each candidate, which elevation relaxes it and by how much (each
 // floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
 // in engineering terms.
-import type { Hydrograph } from "../src/model.js";
-import { storageShortfall } from "../src/assess/storageShortfall.js";
-import { shortfallLines } from "../src/report/shortfall.js";
-import type { Check } from "../src/assess/checks.js";
-import { formatter, quantityText } from "../src/format.js";
-import { ruleOf, whyNothingComplies } from "../src/assess/rules/registry.js";
-import { targetBand } from "../src/assess/rules/band.js";
-import { baseLength, type UnitSystem } from "../src/units.js";
-import { outletDischarge } from "../src/hydraulics/outlet.js";
+import type { Hydrograph } from "../../src/model.js";
+import { storageShortfall } from "../../src/assess/storageShortfall.js";
+import { shortfallLines } from "../../src/report/shortfall.js";
+import type { Check } from "../../src/assess/checks.js";
+import { formatter, quantityText } from "../../src/format.js";
+import { ruleOf, whyNothingComplies } from "../../src/assess/rules/registry.js";
+import { targetBand } from "../../src/assess/rules/band.js";
+import { baseLength, type UnitSystem } from "../../src/units.js";
+import { outletDischarge } from "../../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, variableNames } from "./layout.js";
 import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
-import type { OutletFile } from "../src/case/schema.js";
-import { fileBottom, placed } from "../src/parts/registry.js";
-import { describeElement } from "../src/report/describe.js";
+import type { OutletFile } from "../../src/case/schema.js";
+import { fileBottom, placed } from "../../src/parts/registry.js";
+import { describeElement } from "../../src/report/describe.js";
 import { pondGoal, snap, variableBounds } from "./fit.js";
-import { slackText } from "../src/report/console.js";
+import { slackText } from "../../src/report/console.js";
 import type { LayoutPlan } from "./layouts.js";
 
 function checkText(p: SearchProblem, check: Check): string {

@@ -2,9 +2,9 @@
 // layout, appended as soon as it is fitted. Reading it never fails on damage: a torn or corrupt line
 // (a run killed mid-write) is reported and skipped, and that layout is simply fitted again.
 import { appendFileSync, closeSync, existsSync, fstatSync, openSync, readFileSync, readSync } from "node:fs";
-import { writeFileAtomic } from "../src/io.js";
-import { UsageError } from "../src/commands/common.js";
-import type { JournalEntry } from "./run.js";
+import { writeFileAtomic } from "../../src/io.js";
+import { UsageError } from "../../src/commands/common.js";
+import type { JournalEntry } from "../engine/run.js";
 
 /**
  * Format of the entries. 3: a design's variables are elevations in m (2 held them in case units, so a

@@ -2,13 +2,13 @@
 // resized (from -> to) and moved (by how much), with a change measure to rank fixes by. The parts of
 // the two outlets are paired so that the measure is smallest; only parts of the same kind and shape
 // pair (an orifice that becomes a weir is one part removed and one added).
-import type { Element, Outlet } from "../src/model.js";
-import { formatter, type Formatter } from "../src/format.js";
-import { describeElement } from "../src/report/describe.js";
-import { partOf } from "../src/parts/registry.js";
-import { riserWords } from "../src/parts/riser.js";
-import { barrelSizeWords } from "../src/parts/barrel.js";
-import { spillwayWords } from "../src/parts/spillway.js";
+import type { Element, Outlet } from "../../src/model.js";
+import { formatter, type Formatter } from "../../src/format.js";
+import { describeElement } from "../../src/report/describe.js";
+import { partOf } from "../../src/parts/registry.js";
+import { riserWords } from "../../src/parts/riser.js";
+import { barrelSizeWords } from "../../src/parts/barrel.js";
+import { spillwayWords } from "../../src/parts/spillway.js";
 import type { SearchProblem } from "./problem.js";
 
 export interface Change {

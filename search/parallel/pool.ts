@@ -1,12 +1,12 @@
-// Fits a round of layouts spread over worker threads (search/fitter.ts holds the interface and this
+// Fits a round of layouts spread over worker threads (search/engine/fitter.ts holds the interface and this
 // thread's fitter). Either way the outcomes come back in the order of the round's layouts, so what enters the ranking does not depend on the number
 // of workers or on which finished first.
 import { Worker } from "node:worker_threads";
-import type { DesignLimits, SearchProblem } from "./problem.js";
-import type { Hydrograph } from "../src/model.js";
-import { layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "./fitJob.js";
-import type { ScoreChunk, ScoreOutcome } from "./scoring.js";
-import { InlineFitter, type ExplainRequest, type FitJobRequest, type LayoutFitter } from "./fitter.js";
+import type { DesignLimits, SearchProblem } from "../engine/problem.js";
+import type { Hydrograph } from "../../src/model.js";
+import { layoutIndex, type FitOutcome, type FitSettings, type LayoutIndex } from "../engine/fitJob.js";
+import type { ScoreChunk, ScoreOutcome } from "../engine/scoring.js";
+import { InlineFitter, type ExplainRequest, type FitJobRequest, type LayoutFitter } from "../engine/fitter.js";
 
 /** Where a worker finds the case, to build the very problem the main thread has. */
 export interface ProblemSource {

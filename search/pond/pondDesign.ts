@@ -4,15 +4,15 @@
 // a compliant outlet, then is trimmed one step at a time while a compliant outlet remains (the design
 // of the size above, routed again, or a new search), so the pond is the smallest compliant one found
 // at the chosen depth.
-import { parseCase, type LoadedCase } from "../src/case/load.js";
-import { CaseError } from "../src/case/errors.js";
-import { pondOfSize, type PondLevels, type SizedPond } from "../src/storage/sizing.js";
-import { pondFile } from "../src/report/pondFile.js";
-import { choosePond, type PondChoice } from "../src/sizing/pondChoice.js";
-import { pondCost, pondCostWeights } from "../src/sizing/pondCost.js";
-import { buildProblem, type SearchProblem } from "./problem.js";
-import { runSearch, type RunOptions, type SearchRun } from "./run.js";
-import { finalizeCandidate, type Candidate } from "./candidate.js";
+import { parseCase, type LoadedCase } from "../../src/case/load.js";
+import { CaseError } from "../../src/case/errors.js";
+import { pondOfSize, type PondLevels, type SizedPond } from "../../src/storage/sizing.js";
+import { pondFile } from "../../src/report/pondFile.js";
+import { choosePond, type PondChoice } from "../../src/sizing/pondChoice.js";
+import { pondCost, pondCostWeights } from "../../src/sizing/pondCost.js";
+import { buildProblem, type SearchProblem } from "../engine/problem.js";
+import { runSearch, type RunOptions, type SearchRun } from "../engine/run.js";
+import { finalizeCandidate, type Candidate } from "../engine/candidate.js";
 
 export interface SizeTrial {
   steps: number;

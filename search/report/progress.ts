@@ -1,6 +1,6 @@
 // The design run's progress on stderr: on a terminal one line, cleared and rewritten in place and
 // never wider than the terminal (at most 79 columns); otherwise a plain line every few seconds.
-import type { Progress } from "./run.js";
+import type { Progress } from "../engine/run.js";
 
 export interface ProgressStream {
   isTTY?: boolean;

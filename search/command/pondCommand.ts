@@ -1,11 +1,11 @@
 // `outfit design --size-pond`: pond and outlet designed together, written whole.
 import { existsSync, statSync } from "node:fs";
 import { join } from "node:path";
-import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
-import { designPondAndOutlet } from "./pondDesign.js";
-import { pondDesignCase, pondDesignJson, pondDesignText } from "./pondReport.js";
-import { layoutFor, PLAIN } from "../src/report/terminal.js";
+import { emit, load, positiveNumber, UsageError } from "../../src/commands/common.js";
+import { makeDirectory, printErr, writeFileAtomic } from "../../src/io.js";
+import { designPondAndOutlet } from "../pond/pondDesign.js";
+import { pondDesignCase, pondDesignJson, pondDesignText } from "../report/pondReport.js";
+import { layoutFor, PLAIN } from "../../src/report/terminal.js";
 import type { DesignCommandOptions } from "./commandOptions.js";
 
 /** File name of the proposal in --out. */

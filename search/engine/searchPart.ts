@@ -7,11 +7,11 @@
 //   round | widen ──(budget, limit, interrupt, nothing within reach)──> done
 //
 // Determinism: a part's rounds are chosen from its own queue before they start; each layout's fit
-// depends only on the layout and the seed (search/fitJob.ts); outcomes enter its ranking and queue in
+// depends only on the layout and the seed (search/engine/fitJob.ts); outcomes enter its ranking and queue in
 // the round's order. So a part gives the same candidates whether it runs alone (a shard), beside the
 // others in one run, or replayed from a journal (a resume or a gather), on any number of workers.
 import type { SearchProblem, Layout } from "./problem.js";
-import type { OutletFile } from "../src/case/schema.js";
+import type { OutletFile } from "../../src/case/schema.js";
 import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts, planning, sampleLayouts, type LayoutPlan, type ScoredLayout } from "./layouts.js";
 import type { Scored, Scoring } from "./scoring.js";
 import seedrandom from "seedrandom";

@@ -3,7 +3,7 @@
 import type { SearchProblem } from "./problem.js";
 import { routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
 import { explainExisting } from "./explain.js";
-import { complianceWords } from "../src/report/console.js";
+import { complianceWords } from "../../src/report/console.js";
 
 export interface Baseline extends RoutedOutlet {
   explanation: string[];

@@ -1,15 +1,15 @@
 // Evaluates a design: builds its outlet, rates it on the shared grid, routes the storms and turns
 // every check's slack into a residual. The fit is driven by the checks generically, so a rule added
 // to the assessment later needs no change here.
-import type { Outlet, Storm } from "../src/model.js";
-import type { OutletFile } from "../src/case/schema.js";
-import { buildRatingTable, lazyRatingTable } from "../src/routing/ratingTable.js";
-import { routeSearchInflow } from "../src/routing/durations.js";
-import { drainedStage, stormRouteOptions, type StormRouting } from "../src/routing/routeCase.js";
-import { evaluateChecks, type Check } from "../src/assess/checks.js";
-import { partOf } from "../src/parts/registry.js";
+import type { Outlet, Storm } from "../../src/model.js";
+import type { OutletFile } from "../../src/case/schema.js";
+import { buildRatingTable, lazyRatingTable } from "../../src/routing/ratingTable.js";
+import { routeSearchInflow } from "../../src/routing/durations.js";
+import { drainedStage, stormRouteOptions, type StormRouting } from "../../src/routing/routeCase.js";
+import { evaluateChecks, type Check } from "../../src/assess/checks.js";
+import { partOf } from "../../src/parts/registry.js";
 import type { SearchProblem, Layout } from "./problem.js";
-import { ruleOf } from "../src/assess/rules/registry.js";
+import { ruleOf } from "../../src/assess/rules/registry.js";
 import { designOutlet, designOutletFile, elevations, reachAboveLevel } from "./layout.js";
 
 export interface Evaluation {

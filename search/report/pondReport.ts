@@ -1,21 +1,21 @@
 // Output of `design --size-pond`: the sizes tried, the chosen pond and outlet, and the size one step
 // smaller that failed; as text and JSON, and the case file of the proposal.
-import { formatter, trimNumber } from "../src/format.js";
-import { toCaseUnits } from "../src/units.js";
-import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount, storageLines } from "../src/report/console.js";
-import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
-import { routeJson } from "../src/report/json.js";
-import { CAUTION } from "../src/report/caution.js";
-import { pondFile } from "../src/report/pondFile.js";
-import { shortfallLines } from "../src/report/shortfall.js";
-import { storageShortfall } from "../src/assess/storageShortfall.js";
-import type { Case } from "../src/model.js";
-import type { SizedPond } from "../src/storage/sizing.js";
+import { formatter, trimNumber } from "../../src/format.js";
+import { toCaseUnits } from "../../src/units.js";
+import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount, storageLines } from "../../src/report/console.js";
+import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
+import { routeJson } from "../../src/report/json.js";
+import { CAUTION } from "../../src/report/caution.js";
+import { pondFile } from "../../src/report/pondFile.js";
+import { shortfallLines } from "../../src/report/shortfall.js";
+import { storageShortfall } from "../../src/assess/storageShortfall.js";
+import type { Case } from "../../src/model.js";
+import type { SizedPond } from "../../src/storage/sizing.js";
 import { candidateCase } from "./report.js";
-import { pondCost, pondCostWeights } from "../src/sizing/pondCost.js";
-import { availableStorage } from "../src/sizing/stormEstimates.js";
-import { blockedWords, tradeOffTable } from "../src/report/pondSizing.js";
-import type { PondDesign, SizeTrial } from "./pondDesign.js";
+import { pondCost, pondCostWeights } from "../../src/sizing/pondCost.js";
+import { availableStorage } from "../../src/sizing/stormEstimates.js";
+import { blockedWords, tradeOffTable } from "../../src/report/pondSizing.js";
+import type { PondDesign, SizeTrial } from "../pond/pondDesign.js";
 
 function sizeWords(c: Case, p: SizedPond): string {
   const f = formatter(c.units);

@@ -1,5 +1,5 @@
 // Fitting a round of layouts: what the search asks of a fitter, and the fitter of this thread. The
-// worker threads' fitters (search/pool.ts) answer the same interface with the same outcomes.
+// worker threads' fitters (search/parallel/pool.ts) answer the same interface with the same outcomes.
 import type { SearchProblem, Layout } from "./problem.js";
 import { fitJob, type FitOutcome, type FitSettings } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";

@@ -1,22 +1,22 @@
 // What the search works on: the case, the catalogue's part options, the fixed parts, the elevation
 // limits, the stage grid shared by every candidate and the target aims.
-import type { Case, Outlet, Storm } from "../src/model.js";
-import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../src/case/schema.js";
-import { normalizeOutlet } from "../src/case/normalize.js";
-import { CaseError } from "../src/case/errors.js";
-import { Converter } from "../src/case/normalize.js";
-import { parseLength } from "../src/units.js";
-import { stageGrid, type StageGrid } from "../src/routing/ratingTable.js";
+import type { Case, Outlet, Storm } from "../../src/model.js";
+import type { BarrelFile, CaseFile, ElementFile, Length, OutletFile, RiserFile, SpillwayFile } from "../../src/case/schema.js";
+import { normalizeOutlet } from "../../src/case/normalize.js";
+import { CaseError } from "../../src/case/errors.js";
+import { Converter } from "../../src/case/normalize.js";
+import { parseLength } from "../../src/units.js";
+import { stageGrid, type StageGrid } from "../../src/routing/ratingTable.js";
 import { searchInflows } from "./durations.js";
-import type { SearchInflow } from "../src/routing/durations.js";
+import type { SearchInflow } from "../../src/routing/durations.js";
 import { costWeights } from "./cost.js";
-import type { CostWeights } from "../src/parts/cost.js";
-import { narrowed, targetBand } from "../src/assess/rules/band.js";
-import { aimMargin } from "../src/assess/rules/peakUpper.js";
-import type { OptionContext, PartOption, SizeOption } from "../src/parts/part.js";
-import { catalogueOptions, elementToSI, explicit, fileBottom, inCatalogueForm, partOf, sameElement } from "../src/parts/registry.js";
-import { riserSize } from "../src/parts/riser.js";
-import { barrelSize } from "../src/parts/barrel.js";
+import type { CostWeights } from "../../src/parts/cost.js";
+import { narrowed, targetBand } from "../../src/assess/rules/band.js";
+import { aimMargin } from "../../src/assess/rules/peakUpper.js";
+import type { OptionContext, PartOption, SizeOption } from "../../src/parts/part.js";
+import { catalogueOptions, elementToSI, explicit, fileBottom, inCatalogueForm, partOf, sameElement } from "../../src/parts/registry.js";
+import { riserSize } from "../../src/parts/riser.js";
+import { barrelSize } from "../../src/parts/barrel.js";
 
 /** The discrete part of a design (which parts, counts, sizes); its elevations are the fit's variables (layout.ts). */
 export interface Layout {

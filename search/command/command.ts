@@ -3,22 +3,22 @@
 import { existsSync, readdirSync, rmSync, statSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { availableParallelism } from "node:os";
-import { emit, load, positiveNumber, UsageError } from "../src/commands/common.js";
-import { makeDirectory, printErr, writeFileAtomic } from "../src/io.js";
-import { buildProblem, type DesignLimits } from "./problem.js";
-import { KEPT, runSearch, type JournalEntry } from "./run.js";
-import { candidateCase, candidateCaseName, designJson, designText } from "./report.js";
+import { emit, load, positiveNumber, UsageError } from "../../src/commands/common.js";
+import { makeDirectory, printErr, writeFileAtomic } from "../../src/io.js";
+import { buildProblem, type DesignLimits } from "../engine/problem.js";
+import { KEPT, runSearch, type JournalEntry } from "../engine/run.js";
+import { candidateCase, candidateCaseName, designJson, designText } from "../report/report.js";
 import { createHash } from "node:crypto";
 import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
-import { ProgressReporter } from "./progress.js";
-import { AdaptiveFitter, WorkerFitter, worthSpreading, type RunSoFar } from "./pool.js";
-import { InlineFitter, type LayoutFitter } from "./fitter.js";
+import { ProgressReporter } from "../report/progress.js";
+import { AdaptiveFitter, WorkerFitter, worthSpreading, type RunSoFar } from "../parallel/pool.js";
+import { InlineFitter, type LayoutFitter } from "../engine/fitter.js";
 
 /** Exit code of a run stopped by SIGINT or SIGTERM (results of the work done are written). */
 export const EXIT_INTERRUPTED = 3;
 /** Exit code of `--check` when no compliant design was found. */
 export const EXIT_NOT_COMPLIANT = 1;
-import { layoutFor } from "../src/report/terminal.js";
+import { layoutFor } from "../../src/report/terminal.js";
 import { pondDesignCommand } from "./pondCommand.js";
 import type { DesignCommandOptions } from "./commandOptions.js";
 

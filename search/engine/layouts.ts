@@ -3,23 +3,23 @@
 // chosen so far, and only the best few are kept at each level (a beam). Options that cannot meet a
 // target are pruned by a bound: openings only add flow, so if the first level alone already passes
 // more than the smallest storm's upper band, no layout that starts with it can succeed.
-import type { Storm } from "../src/model.js";
-import { elementFlow, outletDischarge } from "../src/hydraulics/outlet.js";
+import type { Storm } from "../../src/model.js";
+import { elementFlow, outletDischarge } from "../../src/hydraulics/outlet.js";
 import type { SearchProblem, Layout } from "./problem.js";
-import type { PartOption, SizeOption } from "../src/parts/part.js";
-import { bottomOf, otherKinds } from "../src/parts/registry.js";
-import { riserPerimeter, riserToSI } from "../src/parts/riser.js";
+import type { PartOption, SizeOption } from "../../src/parts/part.js";
+import { bottomOf, otherKinds } from "../../src/parts/registry.js";
+import { riserPerimeter, riserToSI } from "../../src/parts/riser.js";
 import { aimBand } from "./problem.js";
-import { targetBand } from "../src/assess/rules/band.js";
+import { targetBand } from "../../src/assess/rules/band.js";
 import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount } from "./layout.js";
 import { Evaluator } from "./evaluate.js";
 import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
 import { pondGoal, stagedStart } from "./fit.js";
 import { outletCost } from "./cost.js";
-import { RULES } from "../src/assess/rules/registry.js";
-import type { Check } from "../src/assess/rules/rule.js";
-import type { Outlet } from "../src/model.js";
+import { RULES } from "../../src/assess/rules/registry.js";
+import type { Check } from "../../src/assess/rules/rule.js";
+import type { Outlet } from "../../src/model.js";
 
 export interface ScoredLayout {
   layout: Layout;

@@ -1,5 +1,5 @@
-// The search run: plans layouts, divides them into a fixed set of parts (search/partition.ts), runs
-// its parts (each an adaptive search of its own: search/searchPart.ts), routes every result again
+// The search run: plans layouts, divides them into a fixed set of parts (search/engine/partition.ts), runs
+// its parts (each an adaptive search of its own: search/engine/searchPart.ts), routes every result again
 // through the `route` path, merges the parts' rankings and explains. Like an optimiser's result
 // object it says whether it succeeded, why it stopped and how much work it did.
 //

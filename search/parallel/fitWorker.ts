@@ -3,14 +3,14 @@
 // `route` path, so the main thread need not), or scores a chunk of layouts for the plan. Each result
 // is posted back with the task's number.
 import { parentPort, workerData } from "node:worker_threads";
-import { loadCase, parseCase } from "../src/case/load.js";
-import { buildProblem } from "./problem.js";
-import { fitJob, layoutAt, type FitSettings } from "./fitJob.js";
-import { designOutletFile } from "./layout.js";
-import { packRoute, routeDesign } from "./candidate.js";
-import { scoreChunk } from "./layouts.js";
+import { loadCase, parseCase } from "../../src/case/load.js";
+import { buildProblem } from "../engine/problem.js";
+import { fitJob, layoutAt, type FitSettings } from "../engine/fitJob.js";
+import { designOutletFile } from "../engine/layout.js";
+import { packRoute, routeDesign } from "../engine/candidate.js";
+import { scoreChunk } from "../engine/layouts.js";
 import type { ProblemSource, WorkerTask } from "./pool.js";
-import { explainDesign } from "./fitter.js";
+import { explainDesign } from "../engine/fitter.js";
 
 const { source, settings } = workerData as { source: ProblemSource; settings: FitSettings };
 const loaded = source.path !== undefined ? loadCase(source.path, { hydrographs: source.hydrographs }) : parseCase(source.json, { hydrographs: source.hydrographs });

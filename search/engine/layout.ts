@@ -2,16 +2,16 @@
 // elevations (m) of the levels that float and the riser's rim. Together they make an outlet in the
 // case file's own form, so that every candidate is exactly what a case file would give: the only
 // place the search converts elevations to case units (`caseElevation`).
-import type { ElementFile, OutletFile } from "../src/case/schema.js";
-import type { Outlet } from "../src/model.js";
-import { CaseError } from "../src/case/errors.js";
-import { normalizeOutlet } from "../src/case/normalize.js";
-import { baseLength } from "../src/units.js";
-import type { PartOption } from "../src/parts/part.js";
-import { explicit, placed } from "../src/parts/registry.js";
-import { designedRiser, explicitRiser } from "../src/parts/riser.js";
-import { resizedBarrel } from "../src/parts/barrel.js";
-import { explicitSpillway } from "../src/parts/spillway.js";
+import type { ElementFile, OutletFile } from "../../src/case/schema.js";
+import type { Outlet } from "../../src/model.js";
+import { CaseError } from "../../src/case/errors.js";
+import { normalizeOutlet } from "../../src/case/normalize.js";
+import { baseLength } from "../../src/units.js";
+import type { PartOption } from "../../src/parts/part.js";
+import { explicit, placed } from "../../src/parts/registry.js";
+import { designedRiser, explicitRiser } from "../../src/parts/riser.js";
+import { resizedBarrel } from "../../src/parts/barrel.js";
+import { explicitSpillway } from "../../src/parts/spillway.js";
 import type { Layout, SearchProblem } from "./problem.js";
 
 export function layoutKey(l: Layout): string {

@@ -4,15 +4,15 @@
 // One layout in, candidates out: a self-contained unit of work.
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import seedrandom from "seedrandom";
-import type { Storm, Tailwater } from "../src/model.js";
-import type { RouteResult } from "../src/routing/router.js";
-import { outletDischarge } from "../src/hydraulics/outlet.js";
-import { hydrographDifference } from "../src/storage/estimate.js";
-import { stageAtVolume } from "../src/storage/stageAtVolume.js";
+import type { Storm, Tailwater } from "../../src/model.js";
+import type { RouteResult } from "../../src/routing/router.js";
+import { outletDischarge } from "../../src/hydraulics/outlet.js";
+import { hydrographDifference } from "../../src/storage/estimate.js";
+import { stageAtVolume } from "../../src/storage/stageAtVolume.js";
 import { aimBand, type SearchProblem, type Layout } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, reachAboveLevel, variableCount } from "./layout.js";
 import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
-import { fileBottom } from "../src/parts/registry.js";
+import { fileBottom } from "../../src/parts/registry.js";
 
 export interface FitOptions {
   /** Seeded starts of the fit (the first is the staged start). */

@@ -6,10 +6,10 @@
 // duration of the storage formula (the outlets the search tries lie near those shapes), and one
 // beyond each end of it, half as far again. Every candidate is then routed over the whole range through
 // the `route` path (`candidate.ts`), which decides compliance and names the governing duration.
-import type { Case, Storm } from "../src/model.js";
-import { searchInflow } from "../src/routing/thinInflow.js";
-import type { SearchInflow } from "../src/routing/durations.js";
-import { routedEstimates } from "../src/sizing/routedEstimate.js";
+import type { Case, Storm } from "../../src/model.js";
+import { searchInflow } from "../../src/routing/thinInflow.js";
+import type { SearchInflow } from "../../src/routing/durations.js";
+import { routedEstimates } from "../../src/sizing/routedEstimate.js";
 
 /** Durations (s) the search routes for each storm of a range: the critical one and those governing the notional outlets. */
 export function searchDurations(c: Case): Map<Storm, number[]> {

@@ -1,18 +1,18 @@
 // What `outfit design` prints and writes: a ranked table, explanations, the contract's JSON, and one
 // ready-to-route case file per reported candidate.
 import { dirname } from "node:path";
-import { rebaseCase } from "../src/case/rebase.js";
-import type { SearchProblem } from "./problem.js";
-import type { SearchRun } from "./run.js";
-import type { Candidate, RoutedOutlet } from "./candidate.js";
-import { stormJson, checkJson } from "../src/report/json.js";
-import { checkValue, complianceWords, governingLimitLines, hydrologyLines, slackText } from "../src/report/console.js";
-import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../src/report/terminal.js";
-import { storageSummary } from "../src/report/storageNotes.js";
-import { CAUTION } from "../src/report/caution.js";
-import { formatter } from "../src/format.js";
-import { baselineVerdict, describeSaving, saving, type Baseline } from "./baseline.js";
-import { CHANGE_WEIGHTS } from "./changes.js";
+import { rebaseCase } from "../../src/case/rebase.js";
+import type { SearchProblem } from "../engine/problem.js";
+import type { SearchRun } from "../engine/run.js";
+import type { Candidate, RoutedOutlet } from "../engine/candidate.js";
+import { stormJson, checkJson } from "../../src/report/json.js";
+import { checkValue, complianceWords, governingLimitLines, hydrologyLines, slackText } from "../../src/report/console.js";
+import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
+import { storageSummary } from "../../src/report/storageNotes.js";
+import { CAUTION } from "../../src/report/caution.js";
+import { formatter } from "../../src/format.js";
+import { baselineVerdict, describeSaving, saving, type Baseline } from "../engine/baseline.js";
+import { CHANGE_WEIGHTS } from "../engine/changes.js";
 
 export function candidateCaseName(rank: number): string {
   return `candidate-${String(rank).padStart(2, "0")}.json`;

@@ -1,13 +1,13 @@
 // A candidate: a fitted design routed again through the very path `outfit route` uses, assessed with
 // warnings, costed, and ranked. The search never reports numbers from its own faster grid.
-import type { Outlet } from "../src/model.js";
-import type { OutletFile } from "../src/case/schema.js";
-import { routeCase, type CaseRouting } from "../src/routing/routeCase.js";
-import type { RatingTable } from "../src/routing/ratingTable.js";
-import type { RouteResult } from "../src/routing/router.js";
-import { assess, type Assessment } from "../src/assess/assess.js";
-import { describeOutlet } from "../src/report/describe.js";
-import { formatter } from "../src/format.js";
+import type { Outlet } from "../../src/model.js";
+import type { OutletFile } from "../../src/case/schema.js";
+import { routeCase, type CaseRouting } from "../../src/routing/routeCase.js";
+import type { RatingTable } from "../../src/routing/ratingTable.js";
+import type { RouteResult } from "../../src/routing/router.js";
+import { assess, type Assessment } from "../../src/assess/assess.js";
+import { describeOutlet } from "../../src/report/describe.js";
+import { formatter } from "../../src/format.js";
 import type { SearchProblem, Layout } from "./problem.js";
 import { designOutlet } from "./layout.js";
 import { outletCost } from "./cost.js";
