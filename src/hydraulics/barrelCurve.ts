@@ -247,6 +247,9 @@ export function buildBarrelCurve(b: Barrel, tailwater: number): BarrelCurve {
     outFlows.push(flows[i]);
     outHeads.push(heads[i]);
   }
+  // Non-decreasing to the last bit: a node placed inside a rising interval takes the exact headwater,
+  // which rounding may leave a few 1e-16 m below the node before it (found by the property test).
+  for (let i = 1; i < outHeads.length; i++) if (outHeads[i] < outHeads[i - 1]) outHeads[i] = outHeads[i - 1];
   const exponent = new Float64Array(power.length);
   for (let i = 0; i < power.length; i++) {
     if (power[i] === 1) exponent[i] = segmentExponent(outFlows[i], outHeads[i], outFlows[i + 1], outHeads[i + 1], base);
