@@ -20,8 +20,8 @@ function design(file: string, extra: string[]): Ran {
   const started = performance.now();
   const r = spawnSync(process.execPath, [CLI, "design", file, "--quiet", "--json", ...extra], { encoding: "utf8", maxBuffer: 1 << 28 });
   const wall = (performance.now() - started) / 1000;
-  const json = JSON.parse(r.stdout) as { search: { secondsToFirstCompliant: number | null }; candidates: { outlet: unknown; cost: number }[] };
-  return { wall, first: json.search.secondsToFirstCompliant, ranking: JSON.stringify(json.candidates.map((c) => [c.outlet, c.cost])) };
+  const json = JSON.parse(r.stdout) as { search: { secondsToFirstCompliant?: number | null }; candidates: { outlet: unknown; cost: number }[] };
+  return { wall, first: json.search.secondsToFirstCompliant ?? null, ranking: JSON.stringify(json.candidates.map((c) => [c.outlet, c.cost])) };
 }
 
 export const defaultsSection: BenchSection = {
@@ -43,7 +43,7 @@ export const defaultsSection: BenchSection = {
       const best = (runs: Ran[]) => runs.reduce((a, b) => (b.wall < a.wall ? b : a));
       const d = best(defaults);
       const o = best(ones);
-      const first = (x: number | null) => (x === null ? "none" : `${x.toFixed(2)} s`);
+      const first = (x: number | null | undefined) => (x == null ? "none" : `${x.toFixed(2)} s`);
       rows.push([name, `${d.wall.toFixed(2)} s`, `${o.wall.toFixed(2)} s`, (d.wall / o.wall).toFixed(2), first(d.first), first(o.first), [...defaults, ...ones].every((r) => r.ranking === o.ranking) ? "identical" : "DIFFER"]);
     }
     const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));

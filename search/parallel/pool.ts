@@ -251,8 +251,10 @@ export class WorkerFitter implements LayoutFitter {
  * machine, and two workers there give about 1.4x one thread, so a rest shorter than this is done
  * sooner in one thread). */
 export const SPREAD_SECONDS = 6;
-/** Seconds a run stays in one thread unless its first compliant design is in hand sooner: until it
- * spreads the default does exactly what one thread does, so its first compliant design is never later. */
+/** Seconds a run stays in one thread whatever it projects: until it spreads the default does exactly
+ * what one thread does (its first compliant design is never later), and the rate measured before
+ * then, while the code is still compiling, projects far too long a rest (the bench's default against
+ * --workers 1 spread runs of 2 s that had found a compliant design after 0.2 s). */
 export const SETTLE_SECONDS = 2;
 
 /** Where a run stands, as its progress reports it. */
@@ -266,12 +268,12 @@ export interface RunSoFar {
 }
 
 /**
- * Whether the rest of a run is worth the workers' start: not before its first compliant design or
- * SETTLE_SECONDS; then, with a time budget, its time left; with a routing budget, the routings its
- * parts may still spend (else the budget's) at the rate so far (unknown before any is counted: not yet).
+ * Whether the rest of a run is worth the workers' start: not before SETTLE_SECONDS; then, with a
+ * time budget, its time left; with a routing budget, the routings its parts may still spend (else the
+ * budget's) at the rate so far (unknown before any is counted: not yet).
  */
 export function worthSpreading(so: RunSoFar, budget: { routings: number; seconds?: number }): boolean {
-  if (!((so.compliant ?? 0) > 0 || so.seconds >= SETTLE_SECONDS)) return false;
+  if (so.seconds < SETTLE_SECONDS) return false;
   if (budget.seconds !== undefined) return budget.seconds - so.seconds >= SPREAD_SECONDS;
   if (!(so.routings > 0) || !(so.seconds > 0)) return false;
   const left = so.routingsLeft ?? budget.routings - so.routings;

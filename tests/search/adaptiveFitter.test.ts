@@ -12,24 +12,24 @@ const dist = (path: string) => pathToFileURL(join(process.cwd(), "dist", path)).
 const CASE = join(process.cwd(), "cases/small-compliant/case.json");
 
 describe("spreading a run over the workers", () => {
-  it("spreads when the time left, or the routings left at the rate so far, reach SPREAD_SECONDS, not before the first compliant design or SETTLE_SECONDS", () => {
+  it("spreads when the time left, or the routings left at the rate so far, reach SPREAD_SECONDS, never before SETTLE_SECONDS", () => {
     expect(SPREAD_SECONDS).toBe(6);
     expect(SETTLE_SECONDS).toBe(2);
-    // Nothing compliant yet and under SETTLE_SECONDS: one thread, whatever remains.
+    // Under SETTLE_SECONDS: one thread, whatever remains, a compliant design in hand or not.
     expect(worthSpreading({ routings: 100, seconds: 0.5, compliant: 0 }, { routings: 1e9 })).toBe(false);
-    expect(worthSpreading({ routings: 0, seconds: 0, compliant: 0 }, { routings: 0, seconds: 8 * 3600 })).toBe(false);
+    expect(worthSpreading({ routings: 2000, seconds: 1.9, compliant: 3 }, { routings: 1e9 })).toBe(false);
+    expect(worthSpreading({ routings: 0, seconds: 0.3, compliant: 1 }, { routings: 0, seconds: 8 * 3600 })).toBe(false);
     // A time budget: its time left.
-    expect(worthSpreading({ routings: 0, seconds: 0.3, compliant: 1 }, { routings: 0, seconds: 8 * 3600 })).toBe(true);
-    expect(worthSpreading({ routings: 0, seconds: 2, compliant: 0 }, { routings: 0, seconds: 8 * 3600 })).toBe(true);
-    expect(worthSpreading({ routings: 0, seconds: 0.3, compliant: 1 }, { routings: 0, seconds: 5 })).toBe(false);
+    expect(worthSpreading({ routings: 0, seconds: 2 }, { routings: 0, seconds: 8 * 3600 })).toBe(true);
+    expect(worthSpreading({ routings: 0, seconds: 2 }, { routings: 0, seconds: 7.5 })).toBe(false);
     expect(worthSpreading({ routings: 5000, seconds: 10 }, { routings: 0, seconds: 15.5 })).toBe(false);
     // A routing budget: unknown before anything is counted, then the routings left at the rate so far.
     expect(worthSpreading({ routings: 0, seconds: 2.4 }, { routings: 1e9 })).toBe(false);
-    expect(worthSpreading({ routings: 2000, seconds: 0.7, compliant: 1 }, { routings: 20000 })).toBe(true); // 18000 at 2857/s: 6.3 s
-    expect(worthSpreading({ routings: 2000, seconds: 0.5, compliant: 1 }, { routings: 20000 })).toBe(false); // at 4000/s: 4.5 s
-    expect(worthSpreading({ routings: 20000, seconds: 5, compliant: 1 }, { routings: 20000 })).toBe(false);
+    expect(worthSpreading({ routings: 5000, seconds: 2 }, { routings: 20000 })).toBe(true); // 15000 at 2500/s: 6 s
+    expect(worthSpreading({ routings: 8000, seconds: 2 }, { routings: 20000 })).toBe(false); // 12000 at 4000/s: 3 s
+    expect(worthSpreading({ routings: 20000, seconds: 5 }, { routings: 20000 })).toBe(false);
     // The parts' own routings left, when the progress gives them (parts that stopped early spend nothing more).
-    expect(worthSpreading({ routings: 2000, seconds: 0.7, compliant: 1, routingsLeft: 4000 }, { routings: 20000 })).toBe(false);
+    expect(worthSpreading({ routings: 5000, seconds: 2, routingsLeft: 4000 }, { routings: 20000 })).toBe(false);
   });
 
   it("gives the same ranking when it spreads mid-run as in one thread throughout", async () => {
