@@ -19,7 +19,7 @@ import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter } from "./fitter.js";
 import { inShard, partition } from "./partition.js";
-import { KEPT, SearchPart, type PartStop, type RunContext } from "./searchPart.js";
+import { exhaustedWords, KEPT, SearchPart, type PartStop, type RunContext } from "./searchPart.js";
 
 export { ROUND, KEPT, BAR_RANK } from "./searchPart.js";
 export type { JournalEntry, Progress, RunOptions } from "./runOptions.js";
@@ -86,7 +86,7 @@ function stopWords(stops: PartStop[]): { words: string; interrupted: boolean } {
   if (limit) return { words: limit.words, interrupted: false };
   if (stops.length > 0 && stops.every((s) => s.kind === "exhausted")) {
     const layouts = stops.reduce((sum, s) => sum + (s.layouts ?? 0), 0);
-    return { words: `the catalogue is exhausted: all ${layouts} layouts it allows were fitted (those found wanting again with up to 9 times the starts) or bounded out by cost`, interrupted: false };
+    return { words: exhaustedWords(layouts), interrupted: false };
   }
   const counts = new Map<string, number>();
   for (const s of stops) counts.set(s.words, (counts.get(s.words) ?? 0) + 1);

@@ -46,6 +46,11 @@ const ENUMERABLE = 5000;
 /** A time budget fits a layout found wanting again with 3, then 9 times the starts, no more. */
 export const MAX_STARTS_FACTOR = 9;
 
+/** The words for a catalogue every layout of which was fitted or bounded out (a part's, or all parts' together). */
+export function exhaustedWords(layouts: number): string {
+  return `the catalogue is exhausted: all ${layouts} layouts it allows were fitted (those found wanting again with up to ${MAX_STARTS_FACTOR} times the starts) or bounded out by cost`;
+}
+
 /** Why a part stopped: a kind the run combines over its parts, and the words for one part. */
 export interface PartStop {
   kind: "budget" | "time limit" | "interrupted" | "fixed" | "reach" | "sampling" | "exhausted";
@@ -388,7 +393,7 @@ export class SearchPart {
       return this.done({
         kind: "exhausted",
         layouts: this.space.length,
-        words: `the catalogue is exhausted: all ${this.space.length} layouts it allows were fitted (those found wanting again with up to ${MAX_STARTS_FACTOR} times the starts) or bounded out by cost`,
+        words: exhaustedWords(this.space.length),
       });
     }
     this.promising *= 4;
