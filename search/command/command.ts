@@ -10,6 +10,7 @@ import { KEPT, runSearch, type JournalEntry } from "../engine/run.js";
 import { candidateCase, candidateCaseName, designJson, designText } from "../report/report.js";
 import { createHash } from "node:crypto";
 import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
+import type { ScoreOutcome } from "../engine/scoring.js";
 import { ProgressReporter } from "../report/progress.js";
 import { AdaptiveFitter, WorkerFitter, worthSpreading, type RunSoFar } from "../parallel/pool.js";
 import { InlineFitter, type LayoutFitter } from "../engine/fitter.js";
@@ -91,6 +92,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const journalPath = options.out ? join(options.out, "journal.jsonl") : undefined;
   const signature = createHash("sha256").update(JSON.stringify({ journal: JOURNAL_VERSION, json: loaded.json, seed, margin: problem.options.margin, starts, ...(limits.vary !== "all" || limits.keepRiser || limits.keepBarrel || limits.rankBy !== "cost" ? { limits } : {}) })).digest("hex").slice(0, 16);
   const done = new Map<string, JournalEntry>();
+  const screens = new Map<string, ScoreOutcome>();
   const warn = (text: string) => printErr(`outfit: warning: ${text}\n`);
   const sources: [string, string][] = [];
   if (options.resume && journalPath && existsSync(journalPath)) sources.push([journalPath, "--resume"]);
@@ -103,6 +105,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
     const read = readJournal(file, signature, option);
     read.warnings.forEach(warn);
     for (const [key, entry] of read.entries) if (!done.has(key)) done.set(key, entry);
+    for (const [key, outcome] of read.screens) if (!screens.has(key)) screens.set(key, outcome);
   }
   let journal: Journal | undefined;
   if (options.out && journalPath) {
@@ -112,7 +115,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
       if (removed.length > 0) warn(`removed ${removed.join(", ")} of an earlier run in ${options.out}`);
     }
     // Written whole (the entries read, none damaged), so appending starts on a clean line.
-    journal = new Journal(journalPath, signature, done.values());
+    journal = new Journal(journalPath, signature, done.values(), screens);
   }
 
   let stopReason: string | null = null;
@@ -146,11 +149,13 @@ export async function designCommand(path: string, options: DesignCommandOptions)
       starts,
       beam: Math.round(positiveNumber("--beam", options.beam) ?? 3),
       done,
+      screens,
       fitter,
       shard,
       interrupt: () => stopReason,
       // Finished work is kept: each fitted layout is appended to the journal as soon as it is done.
       onLayout: (entry) => journal?.append(entry),
+      onScreen: (key, outcome) => journal?.appendScreen(key, outcome),
       onProgress: (p) => {
         soFar = p;
         progress?.update(p);

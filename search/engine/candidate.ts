@@ -113,22 +113,64 @@ export function shortfall(c: RoutedOutlet): number {
   return c.assessment.checks.reduce((sum, check) => sum + Math.max(0, -check.slack), 0);
 }
 
+/**
+ * What the ranking needs of a routed design, and no more: plain numbers, so a shard's journal can
+ * carry them and a gather or a resumed run ranks the designs it replays without routing them again
+ * (only the designs that end in the kept ranking are routed, for their report).
+ */
+export interface Verdict {
+  compliant: boolean;
+  /** Warnings of the assessment (a compliant design with warnings ranks after those without). */
+  warnings: number;
+  /** Sum of the checks' negative slacks (ranks the designs that are not compliant). */
+  shortfall: number;
+  cost: number;
+  error: number;
+  /** The change measure against the existing outlet, when fixes are ranked by it; else null. */
+  change: number | null;
+}
+
+export function verdictOf(c: Candidate): Verdict {
+  return {
+    compliant: c.assessment.compliant,
+    warnings: c.assessment.warnings.length,
+    shortfall: shortfall(c),
+    cost: c.cost,
+    error: c.error,
+    change: c.rankByChange && c.changes ? c.changes.score : null,
+  };
+}
+
+/** A verdict as read back from a journal, or null when the value is not one. */
+export function readVerdict(value: unknown): Verdict | null {
+  if (typeof value !== "object" || value === null) return null;
+  const v = value as Record<string, unknown>;
+  const finite = (x: unknown): x is number => typeof x === "number" && Number.isFinite(x);
+  if (typeof v.compliant !== "boolean" || !Number.isInteger(v.warnings) || !finite(v.shortfall) || !finite(v.cost) || !finite(v.error)) return null;
+  if (v.change !== null && !finite(v.change)) return null;
+  return { compliant: v.compliant, warnings: v.warnings as number, shortfall: v.shortfall, cost: v.cost, error: v.error, change: v.change as number | null };
+}
+
 /** Ranking group: 0 compliant without warnings, 1 compliant with warnings, 2 not compliant. */
-export function rankGroup(c: Candidate): number {
-  return c.assessment.compliant ? (c.assessment.warnings.length === 0 ? 0 : 1) : 2;
+function rankGroup(v: Verdict): number {
+  return v.compliant ? (v.warnings === 0 ? 0 : 1) : 2;
 }
 
 /**
  * Ranking: compliant without warnings, compliant with warnings, then the rest by shortfall; cost, then
  * error (or, ranking fixes of an existing outlet, the change measure first).
  */
-export function compareCandidates(a: Candidate, b: Candidate): number {
+export function compareVerdicts(a: Verdict, b: Verdict): number {
   const ga = rankGroup(a);
   const gb = rankGroup(b);
   if (ga !== gb) return ga - gb;
-  if (ga === 2) return shortfall(a) - shortfall(b) || a.cost - b.cost;
-  if (a.rankByChange && a.changes && b.changes) return a.changes.score - b.changes.score || a.cost - b.cost || a.error - b.error;
+  if (ga === 2) return a.shortfall - b.shortfall || a.cost - b.cost;
+  if (a.change !== null && b.change !== null) return a.change - b.change || a.cost - b.cost || a.error - b.error;
   return a.cost - b.cost || a.error - b.error;
+}
+
+export function compareCandidates(a: Candidate, b: Candidate): number {
+  return compareVerdicts(verdictOf(a), verdictOf(b));
 }
 
 /** Marks the compliant candidates no other compliant one beats on both cost and error. */

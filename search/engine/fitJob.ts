@@ -4,7 +4,8 @@
 import { Evaluator } from "./evaluate.js";
 import { fitLayout } from "./fit.js";
 import type { SearchProblem, Layout } from "./problem.js";
-import type { PackedRoute } from "./candidate.js";
+import { candidateFrom, packRoute, routeDesign, verdictOf, type PackedRoute, type Verdict } from "./candidate.js";
+import { designOutletFile } from "./layout.js";
 
 export interface FitSettings {
   seed: string;
@@ -19,10 +20,15 @@ export interface FitOutcome {
   routings: number;
   evaluations: number;
   /**
-   * The designs routed again through the `route` path, when fitted on a worker (so the main thread
-   * need not): never journalled, recomputed when an outcome is replayed.
+   * The designs routed again through the `route` path, as the fit's last step (on a worker, so the
+   * main thread need not): never journalled.
    */
   routed?: PackedRoute[];
+  /**
+   * What the ranking needs of each design (journalled, so a replayed outcome is ranked without routing
+   * its designs again). Absent in a journal written before verdicts were kept: those designs are routed.
+   */
+  verdicts?: Verdict[];
 }
 
 /**
@@ -73,4 +79,13 @@ export function fitJob(p: SearchProblem, layout: Layout, key: string, settings: 
   // A design that breaks a geometric rule (openings above the rim, levels out of order) is not proposed.
   const designs = result.designs.slice(0, 2).filter((d) => d.violations === 0).map((d) => d.vars);
   return { designs, routings: evaluator.routings, evaluations: evaluator.evaluations };
+}
+
+/** A layout fitted, then its designs routed through the `route` path: what a fitter hands back. */
+export function fitAndRoute(p: SearchProblem, layout: Layout, key: string, settings: FitSettings): FitOutcome {
+  const outcome = fitJob(p, layout, key, settings);
+  const routed = outcome.designs.map((vars) => routeDesign(p, designOutletFile(p, layout, vars)));
+  outcome.routed = routed.map(packRoute);
+  outcome.verdicts = routed.map((r, d) => verdictOf(candidateFrom(p, layout, outcome.designs[d], r)));
+  return outcome;
 }

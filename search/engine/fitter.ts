@@ -1,7 +1,7 @@
 // Fitting a round of layouts: what the search asks of a fitter, and the fitter of this thread. The
 // worker threads' fitters (search/parallel/pool.ts) answer the same interface with the same outcomes.
 import type { SearchProblem, Layout } from "./problem.js";
-import { fitJob, type FitOutcome, type FitSettings } from "./fitJob.js";
+import { fitAndRoute, type FitOutcome, type FitSettings } from "./fitJob.js";
 import type { ChunkScorer, ScoreChunk, ScoreOutcome } from "./scoring.js";
 import { scoreChunk } from "./layouts.js";
 import { finalizeCandidate } from "./candidate.js";
@@ -54,7 +54,7 @@ export class InlineFitter implements LayoutFitter {
       await new Promise((resolve) => setImmediate(resolve));
       if (stop()) break;
       const started = performance.now();
-      out[i] = fitJob(this.problem, jobs[i].layout, jobs[i].key, { ...this.settings, starts: jobs[i].starts ?? this.settings.starts });
+      out[i] = fitAndRoute(this.problem, jobs[i].layout, jobs[i].key, { ...this.settings, starts: jobs[i].starts ?? this.settings.starts });
       this.taskSeconds += (performance.now() - started) / 1000;
       onDone(i, out[i]!);
     }

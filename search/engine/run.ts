@@ -13,8 +13,9 @@
 // no journal holds.
 import type { SearchProblem } from "./problem.js";
 import { planning, type LayoutPlan } from "./layouts.js";
-import { scoreWith, type Scored, type Scoring } from "./scoring.js";
-import { compareCandidates, markPareto, type Candidate } from "./candidate.js";
+import { journalable, screenKey, scoreWith, type ChunkScorer, type ScoreOutcome, type Scored, type Scoring } from "./scoring.js";
+import { compareCandidates, compareVerdicts, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
+import { designOutletFile } from "./layout.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter } from "./fitter.js";
@@ -36,6 +37,8 @@ export interface SearchRun {
   layoutsFitted: number;
   /** Of the fitted layouts, those whose fit came from a journal. */
   layoutsFromJournal: number;
+  /** Of the routings, those replayed from a journal (fits and scored layouts) rather than done by this run. */
+  routingsFromJournal: number;
   /** Layouts not fitted because they cost at least as much as their part's BAR_RANK-th compliant candidate. */
   layoutsSkipped: number;
   /** Parts the search is divided into (fixed by the problem, the plan and the budget). */
@@ -98,9 +101,24 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const fitter = options.fitter ?? new InlineFitter(p, { seed: options.seed, starts: options.starts });
-  const tally = { routings: 0, evaluations: 0 };
+  const tally = { routings: 0, evaluations: 0, replayed: 0 };
+  // Chunks a journal holds are answered from it; the rest are scored and journalled.
+  const scorer: ChunkScorer = {
+    async score(chunks) {
+      const keys = chunks.map(screenKey);
+      const out: (ScoreOutcome | undefined)[] = keys.map((key) => options.screens?.get(key));
+      const missing = keys.flatMap((_, i) => (out[i] ? [] : [i]));
+      const scoredNow = missing.length > 0 ? await fitter.score(missing.map((i) => chunks[i])) : [];
+      missing.forEach((i, j) => {
+        out[i] = scoredNow[j];
+        if (journalable(scoredNow[j])) options.onScreen?.(keys[i], scoredNow[j]);
+      });
+      for (const [i, o] of out.entries()) if (!missing.includes(i)) tally.replayed += o!.routings;
+      return out as ScoreOutcome[];
+    },
+  };
   const scored = async <T>(scoring: Scoring<T>): Promise<Scored<T>> => {
-    const done = await scoreWith(fitter, scoring);
+    const done = await scoreWith(scorer, scoring);
     tally.routings += done.routings;
     tally.evaluations += done.evaluations;
     return done;
@@ -153,7 +171,14 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   // The parts side by side: on workers their rounds share the pool; in this thread they take turns.
   await Promise.all(parts.map((part) => part.run()));
 
-  const ranked = parts.flatMap((part) => [...part.candidates.values()]).sort(compareCandidates).slice(0, KEPT);
+  // The parts' rankings merged by their verdicts; the kept designs a journal replayed are routed now
+  // (only they: a gather or a resumed run does not route again every design its journals hold).
+  const ranked = parts
+    .flatMap((part) => [...part.candidates.values()])
+    .sort((a, b) => compareVerdicts(a.verdict, b.verdict))
+    .slice(0, KEPT)
+    .map((r) => r.candidate ?? finalizeCandidate(p, r.layout, r.vars, designOutletFile(p, r.layout, r.vars)))
+    .sort(compareCandidates);
   markPareto(ranked);
   markVariants(ranked);
   const shown = ranked.slice(0, options.top);
@@ -170,6 +195,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     layoutsPlanned: sum((part) => part.planned),
     layoutsFitted: sum((part) => part.fitted),
     layoutsFromJournal: sum((part) => part.fromJournal),
+    routingsFromJournal: tally.replayed,
     layoutsSkipped: sum((part) => part.skipped),
     parts: division.count,
     partsRun: parts.length,

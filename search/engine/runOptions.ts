@@ -2,6 +2,7 @@
 // goes: shared by the run and its parts.
 import type { FitOutcome } from "./fitJob.js";
 import type { LayoutFitter } from "./fitter.js";
+import type { ScoreOutcome } from "./scoring.js";
 
 export interface RunOptions {
   seed: string;
@@ -21,6 +22,10 @@ export interface RunOptions {
   done?: Map<string, JournalEntry>;
   /** Called as soon as a layout is fitted (the journal), in any order. */
   onLayout?: (entry: JournalEntry) => void;
+  /** Chunks of layouts already scored (from journals), by screenKey: answered from here, not scored again. */
+  screens?: Map<string, ScoreOutcome>;
+  /** Called as soon as a chunk is scored (the journal). */
+  onScreen?: (key: string, outcome: ScoreOutcome) => void;
   /** Called after each round (progress). */
   onProgress?: (progress: Progress) => void;
   /** Fits the rounds' layouts (default: in this thread). */

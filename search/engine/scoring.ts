@@ -2,6 +2,7 @@
 // units of work the run hands to worker threads. A chunk is scored with an evaluator of its own (the
 // staged start's memo is shared within the chunk only), so its result depends only on the problem and
 // the chunk: the same in whatever thread, and the same whatever the number of workers.
+import { createHash } from "node:crypto";
 import { layoutIndex, type LayoutIndex } from "./fitJob.js";
 import type { SearchProblem, Layout } from "./problem.js";
 
@@ -38,6 +39,43 @@ export interface ScoreOutcome {
   values: ScoreValue[];
   routings: number;
   evaluations: number;
+}
+
+/** A chunk's key in a journal: its items hashed (its outcome depends only on them and the problem). */
+export function screenKey(chunk: ScoreChunk): string {
+  return createHash("sha1").update(JSON.stringify(chunk.items)).digest("base64");
+}
+
+// JSON has no infinite number: an infinite score (a level that cannot hold its storm) is written as
+// the string "Infinity" and read back as the number.
+const written = (x: number): number | string => (Number.isFinite(x) ? x : String(x));
+const readNumber = (x: unknown): number | null => (typeof x === "number" && Number.isFinite(x) ? x : x === "Infinity" ? Infinity : x === "-Infinity" ? -Infinity : null);
+
+/** A chunk's scores as a journal line holds them. */
+export function writtenValues(values: ScoreValue[]): unknown[] {
+  return values.map((v) => ({ ...v, score: written(v.score), cost: written(v.cost), peak: written(v.peak), drawdown: v.drawdown === null ? null : written(v.drawdown) }));
+}
+
+/** A chunk's outcome as read back from a journal, or null when the value is not one. */
+export function readScreen(value: Record<string, unknown>): ScoreOutcome | null {
+  const count = (x: unknown) => typeof x === "number" && Number.isInteger(x) && x >= 0;
+  if (!count(value.routings) || !count(value.evaluations) || !Array.isArray(value.values)) return null;
+  const values: ScoreValue[] = [];
+  for (const v of value.values as unknown[]) {
+    if (typeof v !== "object" || v === null) return null;
+    const x = v as Record<string, unknown>;
+    const [score, cost, peak] = [readNumber(x.score), readNumber(x.cost), readNumber(x.peak)];
+    const drawdown = x.drawdown === null ? null : readNumber(x.drawdown);
+    if (score === null || cost === null || peak === null || (x.drawdown !== null && drawdown === null)) return null;
+    if (typeof x.pruned !== "boolean" || typeof x.bounded !== "boolean") return null;
+    values.push({ score, cost, peak, drawdown, pruned: x.pruned, bounded: x.bounded });
+  }
+  return { values, routings: value.routings as number, evaluations: value.evaluations as number };
+}
+
+/** Whether an outcome can be journalled (every number is one, if infinite; none is NaN). */
+export function journalable(outcome: ScoreOutcome): boolean {
+  return outcome.values.every((v) => !Number.isNaN(v.score) && !Number.isNaN(v.cost) && !Number.isNaN(v.peak) && !(v.drawdown !== null && Number.isNaN(v.drawdown)));
 }
 
 export const stagedItem = (p: SearchProblem, layout: Layout): ScoreItem => ({ kind: "staged", layout: layoutIndex(p, layout) });

@@ -17,7 +17,7 @@ import type { Scored, Scoring } from "./scoring.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
 import { designOutletFile, layoutKey } from "./layout.js";
-import { candidateFrom, compareCandidates, finalizeCandidate, unpackRoute, type Candidate, type PackedRoute } from "./candidate.js";
+import { candidateFrom, compareVerdicts, finalizeCandidate, unpackRoute, verdictOf, type Candidate, type PackedRoute, type Verdict } from "./candidate.js";
 import type { FitJobRequest, LayoutFitter } from "./fitter.js";
 import type { Partition } from "./partition.js";
 import type { JournalEntry, RunOptions } from "./runOptions.js";
@@ -72,7 +72,7 @@ export interface RunContext {
   /** Answers a scoring generator on the fitter (sampling's screens), counted in the run's tallies. */
   scored<T>(scoring: Scoring<T>): Promise<Scored<T>>;
   /** Routings and evaluations done (each counted once, wherever it ran). */
-  tally: { routings: number; evaluations: number };
+  tally: { routings: number; evaluations: number; replayed: number };
   /** Called when a part holds its first compliant design (the run keeps the earliest). */
   compliantInHand(extraRoutings: number): void;
   /** Called after each of a part's rounds. */
@@ -80,14 +80,24 @@ export interface RunContext {
 }
 
 type Entry = { layout: Layout; cost: number; score: number; starts?: number };
+
+/**
+ * A design in a part's ranking: what the ranking needs (its verdict) and, when it was routed in this
+ * run, the routed candidate. A design replayed from a journal carries its verdict only; the run
+ * routes it when it ends in the kept ranking.
+ */
+export interface RankedDesign {
+  layout: Layout;
+  vars: number[];
+  verdict: Verdict;
+  candidate: Candidate | null;
+}
 type State = "round" | "widen" | "done";
 
 export class SearchPart {
   /** Ranked designs of this part (at most 2 * KEPT between trims), by a short hash of their outlet. */
-  readonly candidates = new Map<string, Candidate>();
+  readonly candidates = new Map<string, RankedDesign>();
   private readonly seenDesigns = new Set<string>();
-  /** Designs of the round routed as soon as their fit ended, until the first compliant one was in hand. */
-  private readonly early = new Map<string, Candidate>();
   private readonly tried = new Set<string>();
   private readonly queue: Entry[] = [];
   private readonly queued = new Set<string>();
@@ -191,8 +201,8 @@ export class SearchPart {
   private costBar(): number {
     if (this.ctx.p.limits.rankBy === "change") return Infinity;
     const costs = [...this.candidates.values()]
-      .filter((c) => c.assessment.compliant && c.assessment.warnings.length === 0)
-      .map((c) => c.cost)
+      .filter((c) => c.verdict.compliant && c.verdict.warnings === 0)
+      .map((c) => c.verdict.cost)
       .sort((a, b) => a - b);
     return costs.length >= BAR_RANK ? costs[BAR_RANK - 1] : Infinity;
   }
@@ -214,45 +224,32 @@ export class SearchPart {
     return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
   }
 
-  /** A design routed through the `route` path: here, or taken from a worker's routing of it. */
-  private routedCandidate(layout: Layout, vars: number[], file: OutletFile, routed?: PackedRoute): Candidate {
+  /**
+   * A fitted design into the part's ranking (null when it was ranked before): routed by the fitter
+   * (here or on a worker), or replayed from a journal with its verdict, or (a journal written before
+   * verdicts were kept) routed here.
+   */
+  private accept(layout: Layout, vars: number[], routed?: PackedRoute, verdict?: Verdict): RankedDesign | null {
     const { p } = this.ctx;
-    return routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : finalizeCandidate(p, layout, vars, file);
-  }
-
-  /** Routes a design of a round early (or takes a worker's routing); whether it is compliant. */
-  private routedEarly(layout: Layout, vars: number[], routed?: PackedRoute): boolean {
-    const { file, key } = this.designKey(layout, vars);
-    if (this.seenDesigns.has(key)) return false;
-    let candidate = this.early.get(key);
-    if (!candidate) {
-      candidate = this.routedCandidate(layout, vars, file, routed);
-      this.early.set(key, candidate);
-    }
-    return candidate.assessment.compliant;
-  }
-
-  /** A fitted design into the part's ranking (null when it was routed before). */
-  private accept(layout: Layout, vars: number[], routed?: PackedRoute): Candidate | null {
     const { file, key } = this.designKey(layout, vars);
     if (this.seenDesigns.has(key)) return null;
     this.seenDesigns.add(key);
     this.routedCandidates++;
-    const candidate = this.early.get(key) ?? this.routedCandidate(layout, vars, file, routed);
-    this.early.delete(key);
-    this.candidates.set(key, candidate);
-    // Memory stays bounded however long the run: only the best candidates are kept.
+    const candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : verdict ? null : finalizeCandidate(p, layout, vars, file);
+    const ranked: RankedDesign = { layout, vars, verdict: verdict ?? verdictOf(candidate!), candidate };
+    this.candidates.set(key, ranked);
+    // Memory stays bounded however long the run: only the best designs are kept.
     if (this.candidates.size > 2 * KEPT) {
-      const best = [...this.candidates.entries()].sort((a, b) => compareCandidates(a[1], b[1])).slice(0, KEPT);
+      const best = [...this.candidates.entries()].sort((a, b) => compareVerdicts(a[1].verdict, b[1].verdict)).slice(0, KEPT);
       this.candidates.clear();
       for (const [k, c] of best) this.candidates.set(k, c);
     }
-    if (candidate.assessment.compliant) {
+    if (ranked.verdict.compliant) {
       this.compliantFound++;
       this.ctx.compliantInHand(0);
-      if (this.bestCost === null || candidate.cost < this.bestCost) this.bestCost = candidate.cost;
+      if (this.bestCost === null || ranked.verdict.cost < this.bestCost) this.bestCost = ranked.verdict.cost;
     }
-    return candidate;
+    return ranked;
   }
 
   /** The jobs this part's next round would hold if nothing entered its queue meanwhile (fitted ahead by idle workers). */
@@ -298,7 +295,8 @@ export class SearchPart {
         const { routed, ...fitted } = outcome;
         options.onLayout?.({ key: jobs[i].key, ...fitted } as JournalEntry);
         this.roundRoutings += outcome.routings;
-        if (this.compliantFound === 0 && outcome.designs.some((vars, d) => this.routedEarly(jobs[i].layout, vars, routed?.[d]))) ctx.compliantInHand(this.roundRoutings);
+        // The fitter routed the designs: the first compliant one is in hand now, not after the round.
+        if (this.compliantFound === 0 && outcome.verdicts?.some((v) => v.compliant)) ctx.compliantInHand(this.roundRoutings);
       },
       () => options.interrupt?.() != null,
       // Guessed only for workers (in this thread nothing is idle to fit ahead).
@@ -310,7 +308,10 @@ export class SearchPart {
       const outcome = previous ?? byKey.get(entry.key);
       // Abandoned when the run was interrupted: a resumed run fits it.
       if (!outcome) continue;
-      if (previous) this.fromJournal++;
+      if (previous) {
+        this.fromJournal++;
+        ctx.tally.replayed += outcome.routings;
+      }
       this.fitted++;
       this.routings += outcome.routings;
       this.evaluations += outcome.evaluations;
@@ -319,13 +320,12 @@ export class SearchPart {
       // The neighbours of a compliant design without flags (with a time budget, of every compliant one).
       let expand = false;
       for (const [d, vars] of outcome.designs.entries()) {
-        const c = this.accept(entry.layout, vars, outcome.routed?.[d]);
-        if (c && c.assessment.compliant && (ctx.timed || c.assessment.warnings.length === 0)) expand = true;
+        const c = this.accept(entry.layout, vars, outcome.routed?.[d], outcome.verdicts?.[d]);
+        if (c && c.verdict.compliant && (ctx.timed || c.verdict.warnings === 0)) expand = true;
       }
-      if (ctx.timed && !outcome.designs.some((vars) => this.candidates.get(this.designKey(entry.layout, vars).key)?.assessment.compliant)) this.missed.push(entry);
+      if (ctx.timed && !outcome.designs.some((vars) => this.candidates.get(this.designKey(entry.layout, vars).key)?.verdict.compliant)) this.missed.push(entry);
       if (expand) this.enqueue(neighbourLayouts(ctx.p, entry.layout).map((n) => ({ layout: n, cost: layoutCost(ctx.p, n), score: entry.score })));
     }
-    this.early.clear();
     this.roundRoutings = 0;
     ctx.progress();
     return "round";

@@ -5,9 +5,7 @@
 import { parentPort, workerData } from "node:worker_threads";
 import { loadCase, parseCase } from "../../src/case/load.js";
 import { buildProblem } from "../engine/problem.js";
-import { fitJob, layoutAt, type FitSettings } from "../engine/fitJob.js";
-import { designOutletFile } from "../engine/layout.js";
-import { packRoute, routeDesign } from "../engine/candidate.js";
+import { fitAndRoute, layoutAt, type FitSettings } from "../engine/fitJob.js";
 import { scoreChunk } from "../engine/layouts.js";
 import type { ProblemSource, WorkerTask } from "./pool.js";
 import { explainDesign } from "../engine/fitter.js";
@@ -31,8 +29,7 @@ parentPort!.on("message", (task: WorkerTask) => {
       return;
     }
     const layout = layoutAt(problem, task.layout);
-    const outcome = fitJob(problem, layout, task.key, { ...settings, starts: task.starts ?? settings.starts });
-    outcome.routed = outcome.designs.map((vars) => packRoute(routeDesign(problem, designOutletFile(problem, layout, vars))));
+    const outcome = fitAndRoute(problem, layout, task.key, { ...settings, starts: task.starts ?? settings.starts });
     parentPort!.postMessage({ id: task.id, outcome, ms: ms() });
   } catch (error) {
     parentPort!.postMessage({ id: task.id, error: error instanceof Error ? error.message : String(error) });

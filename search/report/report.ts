@@ -88,6 +88,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       workers: run.workers,
       ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}` } : {}),
       layoutsFromJournal: run.layoutsFromJournal,
+      routingsFromJournal: run.routingsFromJournal,
       parts: run.parts,
       partsRun: run.partsRun,
       margin: p.options.margin,
@@ -184,12 +185,15 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     lines.push("", w("No compliant design was found. Why:"));
     for (const reason of run.infeasible) lines.push(w(`  - ${reason}`));
   }
-  const rate = run.seconds > 0 ? Math.round(run.routings / run.seconds) : run.routings;
+  // The rate of this run's own work (routings replayed from a journal took no time).
+  const own = run.routings - run.routingsFromJournal;
+  const rate = run.seconds > 0 ? Math.round(own / run.seconds) : own;
+  const replayed = run.routingsFromJournal > 0 ? ` (${run.routingsFromJournal} of them replayed from the journal)` : "";
   const budget = run.timeBudget !== null ? `time budget ${run.timeBudget} s` : `budget ${run.budget} routings`;
   lines.push(
     "",
     w(`Search: ${run.success ? "compliant designs found" : "no compliant design"}; stopped because ${run.stoppedBecause}${run.interrupted ? " (a partial run: --resume goes on from its journal)" : ""}.`, 8),
-    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than their part's head) in ${run.parts} part${run.parts > 1 ? "s" : ""}${run.shard ? ` (${run.partsRun} of them in this shard)` : ""}, ${run.candidatesRouted} candidates routed, ${run.routings} routings (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
+    w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than their part's head) in ${run.parts} part${run.parts > 1 ? "s" : ""}${run.shard ? ` (${run.partsRun} of them in this shard)` : ""}, ${run.candidatesRouted} candidates routed, ${run.routings} routings${replayed} (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
       `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`, 8),
     "",

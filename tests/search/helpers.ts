@@ -4,13 +4,24 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { parseCase } from "../../src/case/load.js";
 
-/** The keys of the layouts in the journal of the run written to `out` (the lines after its header). */
+/** Whether a journal line is a fitted layout's (the others are the header and scored chunks of layouts). */
+export const isLayoutLine = (line: string) => line.trim() !== "" && typeof (JSON.parse(line) as { key?: unknown }).key === "string";
+
+/** The keys of the layouts in the journal of the run written to `out`. */
 export function journalKeys(out: string): string[] {
   return readFileSync(join(out, "journal.jsonl"), "utf8")
     .split("\n")
     .slice(1)
-    .filter((line) => line.trim() !== "")
+    .filter(isLayoutLine)
     .map((line) => (JSON.parse(line) as { key: string }).key);
+}
+
+/** The scored chunks of layouts in the journal of the run written to `out`. */
+export function journalScreens(out: string): number {
+  return readFileSync(join(out, "journal.jsonl"), "utf8")
+    .split("\n")
+    .slice(1)
+    .filter((line) => line.trim() !== "" && typeof (JSON.parse(line) as { screen?: unknown }).screen === "string").length;
 }
 
 /** An invented gamma-shaped inflow hydrograph (NRCS-like shape, m = 3.7) at 5-minute points. */

@@ -7,7 +7,7 @@ import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { journalKeys } from "./helpers.js";
+import { isLayoutLine, journalKeys, journalScreens } from "./helpers.js";
 
 const cli = join(process.cwd(), "dist/src/cli.js");
 const CASE = "cases/small-compliant/case.json";
@@ -37,7 +37,8 @@ async function interrupt(args: string[], out: string, lines: number, signal: Nod
   const ended = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) => child.on("exit", (code, sig) => resolve({ code, signal: sig })));
   const file = join(out, "journal.jsonl");
   while (child.exitCode === null) {
-    if (existsSync(file) && readFileSync(file, "utf8").split("\n").length - 2 >= lines) break;
+    // Fitted layouts' lines (a line being written may be torn: counted by its key's name, not parsed).
+    if (existsSync(file) && (readFileSync(file, "utf8").match(/"key":/g) ?? []).length >= lines) break;
     await new Promise((r) => setTimeout(r, 20));
   }
   child.kill(signal);
@@ -118,15 +119,35 @@ describe("design runs: determinism, interruption and recovery", () => {
     const resumed = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out, "--resume", "--json");
     expect(resumed.code).toBe(0);
     expect(resumed.stderr).toMatch(/warning: .*line 1 is torn or corrupt .*\(the header\)/);
-    expect(resumed.stderr).toMatch(new RegExp(`warning: .*line ${lines.length + 1} is torn or corrupt .*fitted again`));
+    expect(resumed.stderr).toMatch(new RegExp(`warning: .*line ${lines.length + 1} is torn or corrupt .*fitted or scored again`));
     expect(resumed.stderr).not.toMatch(/internal error/);
     const results = JSON.parse(resumed.stdout);
-    expect(results.search.layoutsFromJournal).toBe(lines.length - 1);
+    expect(results.search.layoutsFromJournal).toBe(lines.slice(1).filter(isLayoutLine).length);
     expect(ranking(results)).toEqual(uninterrupted());
     // The journal is whole again: a header and one entry per line.
     const again = readFileSync(file, "utf8").split("\n");
     expect(JSON.parse(again[0]).journal).toBe("outfit design");
     for (const line of again.slice(1, -1)) expect(() => JSON.parse(line)).not.toThrow();
+  });
+
+  it("resumes a journal of fits only (as written before verdicts and scored chunks were kept) to the same ranking, routing and scoring again", () => {
+    const out = dir("bare");
+    expect(outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out).code).toBe(0);
+    const file = join(out, "journal.jsonl");
+    const lines = readFileSync(file, "utf8").split("\n").filter((l) => l !== "");
+    const bare = lines.slice(1).filter(isLayoutLine).map((line) => {
+      const { verdicts: _verdicts, ...rest } = JSON.parse(line) as Record<string, unknown>;
+      return JSON.stringify(rest);
+    });
+    writeFileSync(file, [lines[0], ...bare].join("\n") + "\n");
+    const resumed = outfit("design", CASE, "--budget", BUDGET, "--workers", "1", "--quiet", "--out", out, "--resume", "--json");
+    expect(resumed.code).toBe(0);
+    expect(resumed.stderr).toBe("");
+    const results = JSON.parse(resumed.stdout);
+    expect(results.search.layoutsFromJournal).toBe(bare.length);
+    // The plan's and widenings' chunks were scored again: not every routing came from the journal.
+    expect(results.search.routingsFromJournal).toBeLessThan(results.search.routings);
+    expect(ranking(results)).toEqual(uninterrupted());
   });
 
   it.each(["SIGINT", "SIGTERM"] as const)("stops on %s with exit code 3, writing results.json and summary.txt of the partial run", async (signal) => {
@@ -171,6 +192,12 @@ describe("design runs: determinism, interruption and recovery", () => {
     const results = JSON.parse(gathered.stdout);
     expect(results.search.layoutsFitted).toBe(oneRun.search.layoutsFitted);
     expect(results.search.layoutsFromJournal).toBe(results.search.layoutsFitted);
+    // Nor did it score a plan or a widening again: every routing it counts came from the shards'
+    // journals (their fits and their scored chunks of layouts), and the count is the single run's.
+    for (const out of shards) expect(journalScreens(out)).toBeGreaterThan(0);
+    expect(results.search.routings).toBe(oneRun.search.routings);
+    expect(results.search.routingsFromJournal).toBe(results.search.routings);
+    expect(oneRun.search.routingsFromJournal).toBe(0);
     expect(ranking(results)).toEqual(ranking(oneRun));
   });
 
