@@ -162,9 +162,9 @@ function searchOptions(command: Command, extra: (command: Command) => Command): 
     .addOption(withDefault("--vary <what>", "with an existing outlet: all (anything from the catalogue), openings (keep its riser and barrel) or elevations (keep every part's size, move inverts, crests and rim)", "all"))
     .option("--keep-riser", "keep the existing riser as it is (or keep the outlet without one)")
     .option("--keep-barrel", "keep the existing barrel as it is")
-    .addOption(withDefault("--rank <order>", "cost (cheapest compliant first) or change (with an existing outlet: the smallest change to it first)", "cost"));
+    .addOption(withDefault("--rank <order>", "cost (cheapest compliant first), change (with an existing outlet: the smallest change to it first) or robust (the largest reserve below the limit level with 10 and 20 % more inflow, the openings half clogged and, if any, the tailwater 0.5 ft / 0.15 m higher, first; no cost bar, so a longer budget explores further)", "cost"));
   return extra(command)
-    .option("--workers <n>", "worker threads fitting layouts (default: all cores once the rest of the run is at least 4 s, until then the main thread; the ranking does not depend on it)")
+    .option("--workers <n>", "worker threads fitting layouts (default: the main thread for the first 2 s, then all cores once the routings the run may still spend would take at least 6 s at its rate so far; the ranking does not depend on it)")
     .option("--quiet", "no progress and no notes on stderr")
     .option("--check", "exit with code 1 when no compliant design is found");
 }
@@ -197,6 +197,7 @@ Examples:
   outfit design cases/site-only/case.json --size-pond --budget 3000 --out out/site
   outfit route out/site/pond-and-outlet.json       # route the proposed pond and outlet
   outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first
+  outfit design cases/demo/case.json --rank robust --budget 200000   # the designs that keep most reserve
   outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim
 
 Exit codes: 0 done; 1 no compliant design (with --check); 2 bad input or a bad option (nothing is

@@ -28,7 +28,7 @@ export function designLimits(options: DesignCommandOptions): DesignLimits {
   const vary = options.vary ?? "all";
   if (vary !== "all" && vary !== "openings" && vary !== "elevations") throw new UsageError("--vary", vary, '"all", "openings" or "elevations"');
   const rankBy = options.rank ?? "cost";
-  if (rankBy !== "cost" && rankBy !== "change") throw new UsageError("--rank", rankBy, '"cost" or "change"');
+  if (rankBy !== "cost" && rankBy !== "change" && rankBy !== "robust") throw new UsageError("--rank", rankBy, '"cost", "change" or "robust"');
   return { vary, keepRiser: options.keepRiser === true, keepBarrel: options.keepBarrel === true, rankBy };
 }
 

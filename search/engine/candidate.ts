@@ -12,6 +12,7 @@ import type { SearchProblem, Layout } from "./problem.js";
 import { designOutlet } from "./layout.js";
 import { outletCost } from "./cost.js";
 import { changeList, type ChangeList } from "./changes.js";
+import { spreadOf, type Spread } from "../../src/assess/spread.js";
 
 /** An outlet routed through the `route` path, assessed and costed (a candidate, or the existing outlet). */
 export interface RoutedOutlet {
@@ -23,6 +24,11 @@ export interface RoutedOutlet {
   /** Largest |peak / target - 1| over the storms with targets. */
   error: number;
   description: string;
+  /**
+   * The design routed under the spread (more inflow, clogged openings, a higher tailwater) and its
+   * reserve under each: for every compliant design when ranking by robustness, else for those shown.
+   */
+  spread: Spread | null;
 }
 
 export interface Candidate extends RoutedOutlet {
@@ -63,6 +69,11 @@ export function candidateFrom(p: SearchProblem, layout: Layout, vars: number[], 
   };
 }
 
+/** The design routed under the spread (on the route path's rating, as the candidate itself). */
+export function designSpread(p: SearchProblem, outlet: Outlet): Spread {
+  return spreadOf(p.case, outlet, { direct: p.options.referencePath });
+}
+
 /**
  * A routed outlet as it crosses from a worker thread: plain data, without the outlet (rebuilt from
  * its file) and the storms (the case's own, by position).
@@ -75,10 +86,11 @@ export interface PackedRoute {
   cost: number;
   error: number;
   description: string;
+  spread: Spread | null;
 }
 
 export function packRoute(r: RoutedOutlet): PackedRoute {
-  return { file: r.file, table: r.routing.table, results: r.routing.storms.map((s) => s.result), assessment: r.assessment, cost: r.cost, error: r.error, description: r.description };
+  return { file: r.file, table: r.routing.table, results: r.routing.storms.map((s) => s.result), assessment: r.assessment, cost: r.cost, error: r.error, description: r.description, spread: r.spread };
 }
 
 /** The routed outlet again, on this thread's problem (the same case as the worker's). */
@@ -105,6 +117,8 @@ export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet):
     cost: outletCost(outlet, p.costs),
     error,
     description: describeOutlet(outlet, formatter(p.case.units)),
+    // Ranking by robustness needs the spread of every compliant design (routed where it was fitted).
+    spread: p.limits.rankBy === "robust" && assessment.compliant ? designSpread(p, outlet) : null,
   };
 }
 
@@ -128,6 +142,11 @@ export interface Verdict {
   error: number;
   /** The change measure against the existing outlet, when fixes are ranked by it; else null. */
   change: number | null;
+  /**
+   * Ranking by robustness, a compliant design's least reserve over the spread (m, to the millimetre, so
+   * that cost decides between designs whose reserves differ by less); else null.
+   */
+  reserve: number | null;
 }
 
 export function verdictOf(c: Candidate): Verdict {
@@ -138,6 +157,7 @@ export function verdictOf(c: Candidate): Verdict {
     cost: c.cost,
     error: c.error,
     change: c.rankByChange && c.changes ? c.changes.score : null,
+    reserve: c.spread && c.assessment.compliant ? Math.round(c.spread.reserve * 1000) / 1000 : null,
   };
 }
 
@@ -148,7 +168,9 @@ export function readVerdict(value: unknown): Verdict | null {
   const finite = (x: unknown): x is number => typeof x === "number" && Number.isFinite(x);
   if (typeof v.compliant !== "boolean" || !Number.isInteger(v.warnings) || !finite(v.shortfall) || !finite(v.cost) || !finite(v.error)) return null;
   if (v.change !== null && !finite(v.change)) return null;
-  return { compliant: v.compliant, warnings: v.warnings as number, shortfall: v.shortfall, cost: v.cost, error: v.error, change: v.change as number | null };
+  const reserve = v.reserve ?? null;
+  if (reserve !== null && !finite(reserve)) return null;
+  return { compliant: v.compliant, warnings: v.warnings as number, shortfall: v.shortfall, cost: v.cost, error: v.error, change: v.change as number | null, reserve };
 }
 
 /** Ranking group: 0 compliant without warnings, 1 compliant with warnings, 2 not compliant. */
@@ -158,7 +180,8 @@ function rankGroup(v: Verdict): number {
 
 /**
  * Ranking: compliant without warnings, compliant with warnings, then the rest by shortfall; cost, then
- * error (or, ranking fixes of an existing outlet, the change measure first).
+ * error (or, ranking fixes of an existing outlet, the change measure first; ranking by robustness, the
+ * largest least reserve over the spread first).
  */
 export function compareVerdicts(a: Verdict, b: Verdict): number {
   const ga = rankGroup(a);
@@ -166,6 +189,7 @@ export function compareVerdicts(a: Verdict, b: Verdict): number {
   if (ga !== gb) return ga - gb;
   if (ga === 2) return a.shortfall - b.shortfall || a.cost - b.cost;
   if (a.change !== null && b.change !== null) return a.change - b.change || a.cost - b.cost || a.error - b.error;
+  if (a.reserve !== null && b.reserve !== null) return b.reserve - a.reserve || a.cost - b.cost || a.error - b.error;
   return a.cost - b.cost || a.error - b.error;
 }
 

@@ -48,7 +48,7 @@ export interface DesignLimits {
   keepRiser: boolean;
   keepBarrel: boolean;
   /** "cost": cheapest compliant first; "change": smallest change to the existing outlet first. */
-  rankBy: "cost" | "change";
+  rankBy: "cost" | "change" | "robust";
 }
 
 export const DEFAULT_LIMITS: DesignLimits = { vary: "all", keepRiser: false, keepBarrel: false, rankBy: "cost" };

@@ -14,7 +14,7 @@
 import type { SearchProblem } from "./problem.js";
 import { planning, type LayoutPlan } from "./layouts.js";
 import { journalable, screenKey, scoreWith, type ChunkScorer, type ScoreOutcome, type Scored, type Scoring } from "./scoring.js";
-import { compareCandidates, compareVerdicts, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
+import { compareCandidates, compareVerdicts, designSpread, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { designOutletFile } from "./layout.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
@@ -45,6 +45,11 @@ export interface SearchRun {
   parts: number;
   /** Of them, those this run ran (all but the other shards'). */
   partsRun: number;
+  /**
+   * The run's routings when the best design entered the ranking (null when nothing was ranked): well
+   * below `routings`, the rest of the budget found nothing better; near it, a longer budget may.
+   */
+  bestFoundAfter: number | null;
   /** Designs routed through the route path (the best of them are kept in `candidates`). */
   candidatesRouted: number;
   routings: number;
@@ -173,15 +178,16 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
 
   // The parts' rankings merged by their verdicts; the kept designs a journal replayed are routed now
   // (only they: a gather or a resumed run does not route again every design its journals hold).
-  const ranked = parts
+  const kept = parts
     .flatMap((part) => [...part.candidates.values()])
     .sort((a, b) => compareVerdicts(a.verdict, b.verdict))
-    .slice(0, KEPT)
-    .map((r) => r.candidate ?? finalizeCandidate(p, r.layout, r.vars, designOutletFile(p, r.layout, r.vars)))
-    .sort(compareCandidates);
+    .slice(0, KEPT);
+  const ranked = kept.map((r) => r.candidate ?? finalizeCandidate(p, r.layout, r.vars, designOutletFile(p, r.layout, r.vars))).sort(compareCandidates);
   markPareto(ranked);
   markVariants(ranked);
   const shown = ranked.slice(0, options.top);
+  // Every design shown says how it fares under the spread (ranked by robustness, each has it already).
+  for (const c of shown) c.spread ??= designSpread(p, c.outlet);
   const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
   shown.forEach((c, i) => (c.explanation = explanations[i]));
   const success = ranked.some((c) => c.assessment.compliant);
@@ -199,6 +205,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     layoutsSkipped: sum((part) => part.skipped),
     parts: division.count,
     partsRun: parts.length,
+    bestFoundAfter: kept[0]?.foundAt ?? null,
     candidatesRouted: sum((part) => part.routedCandidates),
     routings: tally.routings,
     evaluations: tally.evaluations,

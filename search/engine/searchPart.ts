@@ -91,6 +91,8 @@ export interface RankedDesign {
   vars: number[];
   verdict: Verdict;
   candidate: Candidate | null;
+  /** The run's routings when the design entered the ranking (what finding it took). */
+  foundAt: number;
 }
 type State = "round" | "widen" | "done";
 
@@ -196,10 +198,11 @@ export class SearchPart {
   /**
    * Cost does not depend on elevations, so a layout that costs at least as much as the BAR_RANK-th
    * compliant, unflagged candidate of this part cannot improve the part's head: it is skipped. Ranked
-   * by change, a costlier layout may still be a smaller change: nothing is bounded out.
+   * by change (or by robustness), a costlier layout may still be a smaller change (or keep more
+   * reserve): nothing is bounded out.
    */
   private costBar(): number {
-    if (this.ctx.p.limits.rankBy === "change") return Infinity;
+    if (this.ctx.p.limits.rankBy !== "cost") return Infinity;
     const costs = [...this.candidates.values()]
       .filter((c) => c.verdict.compliant && c.verdict.warnings === 0)
       .map((c) => c.verdict.cost)
@@ -236,7 +239,7 @@ export class SearchPart {
     this.seenDesigns.add(key);
     this.routedCandidates++;
     const candidate = routed ? candidateFrom(p, layout, vars, unpackRoute(p, routed)) : verdict ? null : finalizeCandidate(p, layout, vars, file);
-    const ranked: RankedDesign = { layout, vars, verdict: verdict ?? verdictOf(candidate!), candidate };
+    const ranked: RankedDesign = { layout, vars, verdict: verdict ?? verdictOf(candidate!), candidate, foundAt: this.ctx.tally.routings };
     this.candidates.set(key, ranked);
     // Memory stays bounded however long the run: only the best designs are kept.
     if (this.candidates.size > 2 * KEPT) {

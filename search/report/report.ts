@@ -13,6 +13,14 @@ import { CAUTION } from "../../src/report/caution.js";
 import { formatter } from "../../src/format.js";
 import { baselineVerdict, describeSaving, saving, type Baseline } from "../engine/baseline.js";
 import { CHANGE_WEIGHTS } from "../engine/changes.js";
+import { spreadJson, spreadLine } from "../../src/report/spread.js";
+
+/** What the run's time bought: when the best design was found, and whether the rest found anything better. */
+export function bestFoundWords(after: number, routings: number): string {
+  const share = Math.round((100 * after) / routings);
+  const late = after > routings / 2;
+  return `The first-ranked design was found after ${after} of ${routings} routings (${share} %): ${late ? "late in the run, so a longer budget may find a better one" : "the rest of the run found nothing better"}.`;
+}
 
 export function candidateCaseName(rank: number): string {
   return `candidate-${String(rank).padStart(2, "0")}.json`;
@@ -32,6 +40,7 @@ function routedJson(p: SearchProblem, c: RoutedOutlet, explanation: string[]) {
     error: c.error,
     binding: binding ? { ...checkJson(p.case, binding), why: explanation[1]?.replace(/^why: /, "") ?? "" } : null,
     explanation,
+    ...(c.spread ? { spread: spreadJson(p.case, c.spread) } : {}),
   };
 }
 
@@ -89,6 +98,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}` } : {}),
       layoutsFromJournal: run.layoutsFromJournal,
       routingsFromJournal: run.routingsFromJournal,
+      ...(run.bestFoundAfter !== null ? { bestFoundAfter: run.bestFoundAfter } : {}),
       parts: run.parts,
       partsRun: run.partsRun,
       margin: p.options.margin,
@@ -180,6 +190,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     for (const warning of c.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
     for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
     for (const line of c.explanation) lines.push(w(`  ${line}`));
+    if (c.spread) lines.push(w(`  ${spreadLine(p.case, c.spread)}`));
   });
   if (!run.success) {
     lines.push("", w("No compliant design was found. Why:"));
@@ -196,6 +207,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     w(`        ${run.layoutsFitted} layouts fitted of ${run.layoutsPlanned} planned (${run.layoutsFromJournal} from the journal, ${run.layoutsSkipped} skipped: they cost more than their part's head) in ${run.parts} part${run.parts > 1 ? "s" : ""}${run.shard ? ` (${run.partsRun} of them in this shard)` : ""}, ${run.candidatesRouted} candidates routed, ${run.routings} routings${replayed} (${rate} per s) in ${run.seconds.toFixed(2)} s on ${run.workers} worker${run.workers > 1 ? "s" : ""}` +
       (run.secondsToFirstCompliant !== null ? `; first compliant after ${run.secondsToFirstCompliant.toFixed(2)} s` : "") +
       `; seed "${run.seed}", ${budget}${run.shard ? `, shard ${run.shard.index}/${run.shard.count}` : ""}.`, 8),
+    ...(run.bestFoundAfter !== null && run.routings > 0 ? [w(`        ${bestFoundWords(run.bestFoundAfter, run.routings)}`, 8)] : []),
     "",
     w(`Caution: ${CAUTION}`, 2),
   );

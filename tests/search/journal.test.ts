@@ -35,7 +35,7 @@ describe("journal format version", () => {
 });
 
 describe("journal: what the ranking needs, and the scored chunks of layouts", () => {
-  const verdict = { compliant: true, warnings: 1, shortfall: 0, cost: 21.58, error: 0.0123, change: null };
+  const verdict = { compliant: true, warnings: 1, shortfall: 0, cost: 21.58, error: 0.0123, change: null, reserve: 0.127 };
   const entry = { key: "orifice 1 x 0.1 | riser 0.9 | barrel -", designs: [[25.42, 25.9]], routings: 30, evaluations: 9, verdicts: [verdict] };
   const outcome = {
     values: [
