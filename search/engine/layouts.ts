@@ -142,7 +142,7 @@ const LAYOUT_CHUNK = 4;
  * The plan as a scoring generator: it asks for chunks of scores level by level. `families`: only
  * these first-level options (by key) start a layout (a part of the search widening its own plan).
  */
-export function* planning(p: SearchProblem, beam: number, families?: ReadonlySet<string>): Scoring<LayoutPlan> {
+export function* planning(p: SearchProblem, beam: number, families?: ReadonlySet<string>, onScored?: (scored: ScoredLayout[]) => void): Scoring<LayoutPlan> {
   if (p.fixedLayout) {
     const layout = p.fixedLayout;
     const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, layout) }] }];
@@ -170,6 +170,7 @@ export function* planning(p: SearchProblem, beam: number, families?: ReadonlySet
     const outcomes = yield chunked(fresh.map((l) => stagedItem(p, l)), size);
     const values = outcomes.flatMap((o) => o.values);
     fresh.forEach((layout, i) => results.set(layoutKey(layout), { layout, score: values[i].score, cost: values[i].cost }));
+    onScored?.(fresh.map((layout) => results.get(layoutKey(layout))!));
   }
 
   // Level 1 (at the floor): route the smallest storm through each option alone.

@@ -12,7 +12,9 @@
 // resumed or gathered run replays the journals' fits into the very same schedule, fitting only what
 // no journal holds.
 import type { SearchProblem } from "./problem.js";
-import { planning, type LayoutPlan } from "./layouts.js";
+import { planning, type LayoutPlan, type ScoredLayout } from "./layouts.js";
+import { fitAndRoute, type FitOutcome } from "./fitJob.js";
+import { layoutKey } from "./layout.js";
 import { journalable, screenKey, scoreWith, type ChunkScorer, type ScoreOutcome, type Scored, type Scoring } from "./scoring.js";
 import { compareCandidates, compareVerdicts, designSpread, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { designOutletFile } from "./layout.js";
@@ -102,6 +104,11 @@ function stopWords(stops: PartStop[]): { words: string; interrupted: boolean } {
   return { words: [...counts].map(([words, n]) => `${n} of ${stops.length} parts: ${words}`).join("; "), interrupted: false };
 }
 
+/** Layouts fitted while the first plan is scored, at most (see `scout` in runSearch). */
+const SCOUTS = 3;
+/** A layout is scouted when its staged score is at most this (the widening's "promising"). */
+const SCOUT_SCORE = 0.02;
+
 export async function runSearch(p: SearchProblem, options: RunOptions): Promise<SearchRun> {
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
@@ -130,8 +137,37 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   };
   const timed = options.timeBudget !== undefined;
 
+  let firstCompliantAt: number | null = null;
+  let firstCompliantRoutings: number | null = null;
+  const compliantInHand = (extra: number) => {
+    if (firstCompliantAt !== null) return;
+    firstCompliantAt = seconds();
+    firstCompliantRoutings = tally.routings + extra;
+    options.onFirstCompliant?.();
+  };
+  // Scouting: in this thread, while the first plan is scored, the most promising layout of each
+  // batch it scores is fitted at once (at most SCOUTS, until one is compliant), so a first compliant
+  // design is in hand before the whole plan is. A scouted fit is the very fit its part makes later (a
+  // fit is a pure function of its layout, key and starts): the part takes it then, counts and
+  // journals it as its own; a scouted layout no part fits is dropped. So the ranking, the routings and
+  // the journals are those of a run without scouting.
+  const prefit = new Map<string, FitOutcome>();
+  let scouts = 0;
+  const scout = (batch: ScoredLayout[]) => {
+    if (fitter.workers !== 1 || firstCompliantAt !== null || scouts >= SCOUTS || options.interrupt?.()) return;
+    let best: ScoredLayout | null = null;
+    for (const s of batch) if (s.score <= SCOUT_SCORE && (best === null || s.score < best.score)) best = s;
+    if (!best) return;
+    const key = layoutKey(best.layout);
+    if (prefit.has(key) || options.done?.has(key)) return;
+    scouts++;
+    const outcome = fitAndRoute(p, best.layout, key, { seed: options.seed, starts: options.starts });
+    prefit.set(key, outcome);
+    if (outcome.verdicts?.some((v) => v.compliant)) compliantInHand(outcome.routings);
+  };
+
   // The existing outlet is routed and explained here while the workers score the plan.
-  const planScored = scored(planning(p, options.beam));
+  const planScored = scored(planning(p, options.beam, undefined, scout));
   const baseline = assessBaseline(p);
   const first = await planScored;
   const firstPlan = first.result;
@@ -139,8 +175,6 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   // The first plan is every part's; the rest of the budget is shared out evenly.
   const share = timed ? Infinity : Math.max(0, options.budget - first.routings) / division.count;
 
-  let firstCompliantAt: number | null = null;
-  let firstCompliantRoutings: number | null = null;
   const parts: SearchPart[] = [];
   const ctx: RunContext = {
     p,
@@ -152,12 +186,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     seconds,
     scored,
     tally,
-    compliantInHand: (extra) => {
-      if (firstCompliantAt !== null) return;
-      firstCompliantAt = seconds();
-      firstCompliantRoutings = tally.routings + extra;
-      options.onFirstCompliant?.();
-    },
+    prefit,
+    compliantInHand,
     progress: () => {
       let best: number | null = null;
       for (const part of parts) if (part.bestCost !== null && (best === null || part.bestCost < best)) best = part.bestCost;

@@ -21,6 +21,7 @@ import { candidateFrom, compareVerdicts, finalizeCandidate, unpackRoute, verdict
 import type { FitJobRequest, LayoutFitter } from "./fitter.js";
 import type { Partition } from "./partition.js";
 import type { JournalEntry, RunOptions } from "./runOptions.js";
+import type { FitOutcome } from "./fitJob.js";
 
 /** Layouts per round: chosen before the round, merged in this order after it. */
 export const ROUND = 8;
@@ -73,6 +74,8 @@ export interface RunContext {
   scored<T>(scoring: Scoring<T>): Promise<Scored<T>>;
   /** Routings and evaluations done (each counted once, wherever it ran). */
   tally: { routings: number; evaluations: number; replayed: number };
+  /** Layouts fitted ahead while the first plan was scored (by key): the part that fits one takes it. */
+  prefit: Map<string, FitOutcome>;
   /** Called when a part holds its first compliant design (the run keeps the earliest). */
   compliantInHand(extraRoutings: number): void;
   /** Called after each of a part's rounds. */
@@ -262,7 +265,7 @@ export class SearchPart {
     while (out.length < ROUND && rest.length > 0) {
       const entry = rest.splice(this.pick(rest), 1)[0];
       const key = this.entryKey(entry);
-      if (entry.cost >= bar || this.ctx.options.done?.has(key)) continue;
+      if (entry.cost >= bar || this.ctx.options.done?.has(key) || this.ctx.prefit.has(key)) continue;
       out.push({ key, layout: entry.layout, starts: entry.starts });
     }
     return out;
@@ -291,7 +294,7 @@ export class SearchPart {
       else round.push({ ...entry, key });
     }
     if (round.length === 0) return "widen";
-    const jobs = round.filter((e) => !options.done?.has(e.key));
+    const jobs = round.filter((e) => !options.done?.has(e.key) && !ctx.prefit.has(e.key));
     const outcomes = await ctx.fitter.fit(
       jobs.map((e) => ({ key: e.key, layout: e.layout, starts: e.starts })),
       (i, outcome) => {
@@ -308,7 +311,14 @@ export class SearchPart {
     const byKey = new Map(jobs.map((e, i) => [e.key, outcomes[i]]));
     for (const entry of round) {
       const previous = options.done?.get(entry.key);
-      const outcome = previous ?? byKey.get(entry.key);
+      // A layout scouted while the plan was scored: fitted then, taken (and journalled) now.
+      const scouted = previous ? undefined : ctx.prefit.get(entry.key);
+      if (scouted) {
+        ctx.prefit.delete(entry.key);
+        const { routed: _routed, ...fitted } = scouted;
+        options.onLayout?.({ key: entry.key, ...fitted } as JournalEntry);
+      }
+      const outcome = previous ?? scouted ?? byKey.get(entry.key);
       // Abandoned when the run was interrupted: a resumed run fits it.
       if (!outcome) continue;
       if (previous) {
