@@ -185,12 +185,19 @@ export interface Storm {
   bypass: Hydrograph | null;
   /** Further points of analysis of this storm (a site that drains two ways); empty when none. */
   points: AnalysisPoint[];
+  /**
+   * A system of ponds (`Case.system`): each pond's own inflow, by pond index (null: no direct
+   * inflow); `inflow` is then their sum, the system's inflow. Absent for a single pond.
+   */
+  inflows?: (Hydrograph | null)[];
+  /** A system of ponds: each pond's own allowable peak outflow (m3/s), by pond index; null where none is given. */
+  pondTargets?: (number | null)[];
 }
 
 /** A further point of analysis of a storm: the runoff reaching it and its allowable peak. */
 export interface AnalysisPoint {
   name: string;
-  /** Whether the pond's outflow (spillway included) reaches this point too. */
+  /** Whether the pond's outflow (spillway included) reaches this point too (a system's: the flow reaching its outfall). */
   pond: boolean;
   /** Runoff joining at this point, lag applied; null when only the pond's outflow reaches it. */
   bypass: Hydrograph | null;
@@ -264,6 +271,8 @@ export type Barrel = ({ shape: "circular"; diameter: number } | { shape: "box"; 
   outletInvert: number;
   manningN: number;
   entrance: string;
+  /** The outlet end's entrance, met by water flowing back into the barrel from a downstream pond; absent: `entrance`. */
+  outletEntrance?: string;
   keep: boolean;
 };
 
@@ -296,13 +305,34 @@ export interface Catalogue {
   elevationStep: number;
 }
 
+/** One pond of a system of ponds: its geometry, its outlet and where that outlet drains. */
+export interface SystemPond {
+  name: string;
+  pond: Pond;
+  outlet: Outlet;
+  /** Index of the pond its outlet drains into (its stage is the outlet's downstream level); -1: the outfall. */
+  to: number;
+}
+
+/** Ponds joined by their outlets (the case file's `ponds`). */
+export interface PondSystem {
+  ponds: SystemPond[];
+  /** Pond indices, every pond before the pond it drains into (upstream first). */
+  order: number[];
+}
+
 export interface Case {
   name: string;
   units: UnitSystem;
   /** Absolute path of the case file ("" when built in memory). */
   file: string;
-  /** The pond given, or (no pond in the file) the pond sized from `site`. */
+  /**
+   * The pond given, or (no pond in the file) the pond sized from `site`. For a system of ponds: the
+   * first pond that drains to the outfall (with `outlet` its outlet); commands read `system` then.
+   */
   pond: Pond;
+  /** A system of ponds (the file's `ponds`, even a list of one); absent for a single `pond`. */
+  system?: PondSystem;
   /** Site limits, when the file gives them. */
   site?: Site;
   /** How the pond was sized from the site, when the file gives no pond. */

@@ -101,6 +101,8 @@ export interface StormHydrology {
   /** The area bypassing the pond, lag applied; null without `hydrology.bypass`. */
   bypass: AreaHydrograph | null;
   points: PointHydrology[];
+  /** A system of ponds: the runoff of each pond's own drainage area (`hydrology.ponds`), by pond name. */
+  posts: { pond: string; area: AreaHydrograph }[];
   /** Rational method: the allowable release (m3/s) of the duration sweep (the explicit target, else the pre-development peak). */
   allowable: number | null;
   /** Rational method: the duration sweep of the post-development area (null without an allowable release). */
@@ -116,6 +118,8 @@ export interface CaseHydrology {
   twoYearRainfall: number | null;
   catchments: Record<AreaName, Catchment | null>;
   points: HydrologyPoint[];
+  /** A system of ponds: each pond's drainage area (`hydrology.ponds`), by pond name, in the file's order. */
+  pondAreas: { pond: string; catchment: Catchment }[];
   /** Per storm of the case, in order; null for a storm without a rainfall. */
   storms: (StormHydrology | null)[];
 }
@@ -177,9 +181,11 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
       post: p.post ? catchment(p.post, `${path}.post`, cv, twoYearRainfall) : null,
     };
   });
+  const pondAreas = Object.entries(h.ponds ?? {}).map(([pond, area]) => ({ pond, catchment: catchment(area, `hydrology.ponds.${pond}`, cv, twoYearRainfall) }));
+  if (h.ponds !== undefined) checkPondAreas(file, cv);
   const curves: Record<string, IdfCurve> = emptyRecord();
   for (const [name, idf] of Object.entries(h.idf ?? {})) curves[name] = idfCurve(idf, `hydrology.idf.${name}`, cv);
-  const result: CaseHydrology = { nrcs, runoffMethod, twoYearRainfall, catchments, points, storms: file.storms.map(() => null) };
+  const result: CaseHydrology = { nrcs, runoffMethod, twoYearRainfall, catchments, points, pondAreas, storms: file.storms.map(() => null) };
   if (cv.problems.length > before) return result;
   const allAreas = hydrologyAreas(result);
 
@@ -197,11 +203,17 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
     }
     const start = cv.problems.length;
     const rainfall = stormRainfall(storm.rainfall, `${path}.rainfall`, cv, curves);
-    if (!storm.inflow && !catchments.post) need("hydrology.post", `the post-development area: ${path} (${storm.name}) derives its inflow from it`);
+    if (file.ponds) {
+      if (pondAreas.length === 0 && !storm.inflows) need("hydrology.ponds", `each pond's drainage area: ${path} (${storm.name}) derives the ponds' inflows from them`);
+      if (rainfall?.kind === "idf" && pondAreas.length > 0) {
+        cv.problem(`${path}.rainfall.idf`, show(storm.rainfall.idf), "a 24-hour depth or a hyetograph (NRCS method): the rational method's critical duration is not derived for a system's ponds; give their inflows");
+      }
+    } else if (!storm.inflow && !catchments.post) need("hydrology.post", `the post-development area: ${path} (${storm.name}) derives its inflow from it`);
     if (rainfall === null || cv.problems.length > start) return;
     const method = rainfall.kind === "idf" ? "rational" : "nrcs";
-    for (const { key, catchment: c } of allAreas) {
-      const where = key.includes(":") ? `hydrology.points[${points.findIndex((p) => p.name === key.slice(0, key.lastIndexOf(":")))}].${key.slice(key.lastIndexOf(":") + 1)}` : `hydrology.${key}`;
+    const pointPath = (key: string) => `hydrology.points[${points.findIndex((p) => p.name === key.slice(0, key.lastIndexOf(":")))}].${key.slice(key.lastIndexOf(":") + 1)}`;
+    const areas = [...allAreas.map(({ key, catchment: c }) => ({ where: key.includes(":") ? pointPath(key) : `hydrology.${key}`, c })), ...pondAreas.map((a) => ({ where: `hydrology.ponds.${a.pond}`, c: a.catchment }))];
+    for (const { where, c } of areas) {
       if (method === "nrcs" && c.curveNumber === null) {
         need(`${where}.curveNumber`, `a curve number: ${path} (${storm.name}) gives a 24-hour rainfall or a hyetograph (NRCS method)`);
       }
@@ -213,7 +225,7 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
     if (cv.problems.length > start) return;
     const explicitTarget = storm.target === undefined ? null : cv.flowOf(storm.target, `${path}.target`);
     result.storms[index] =
-      rainfall.kind === "idf" ? rationalStorm(rainfall, catchments, points, explicitTarget) : nrcsStorm(rainfall, catchments, points, nrcs, runoffMethod);
+      rainfall.kind === "idf" ? rationalStorm(rainfall, catchments, points, explicitTarget) : nrcsStorm(rainfall, catchments, points, pondAreas, nrcs, runoffMethod);
   });
   return result;
 }
@@ -225,10 +237,24 @@ export function lagged(h: AreaHydrograph, lag: number): AreaHydrograph {
   return { ...h, hydrograph: { times, flows: h.hydrograph.flows }, timeOfPeak: h.timeOfPeak + lag };
 }
 
+/** `hydrology.ponds` only in a system, naming its ponds; `hydrology.post` not beside it. */
+function checkPondAreas(file: CaseFile, cv: Converter): void {
+  if (!file.ponds) {
+    cv.problem("hydrology.ponds", "drainage areas by pond", "no hydrology.ponds in a case with one pond (its post-development area is hydrology.post)");
+    return;
+  }
+  const names = file.ponds.map((p) => p.name);
+  for (const key of Object.keys(file.hydrology?.ponds ?? {})) {
+    if (!names.includes(key)) cv.problem(`hydrology.ponds.${key}`, show(key), `the name of a pond (${names.join(", ")})`);
+  }
+  if (file.hydrology?.post) cv.problem("hydrology.post", "one post-development area beside hydrology.ponds", "each pond's drainage area under hydrology.ponds (by the pond's name)");
+}
+
 function nrcsStorm(
   rainfall: Exclude<StormRainfall, { kind: "idf" }>,
   catchments: Record<AreaName, Catchment | null>,
   points: readonly HydrologyPoint[],
+  pondAreas: CaseHydrology["pondAreas"],
   options: NrcsOptions,
   runoffMethod: RunoffMethod,
 ): StormHydrology {
@@ -240,6 +266,7 @@ function nrcsStorm(
     post: area(catchments.post),
     bypass: area(catchments.bypass),
     points: points.map((p) => ({ name: p.name, pond: p.pond, pre: area(p.pre), post: area(p.post) })),
+    posts: pondAreas.map((a) => ({ pond: a.pond, area: area(a.catchment)! })),
     allowable: null,
     sweep: null,
     durations: null,
@@ -285,6 +312,7 @@ function rationalStorm(
     post: postHydrograph,
     bypass: joining(catchments.bypass),
     points: points.map((p) => ({ name: p.name, pond: p.pond, pre: peakStorm(p.pre), post: joining(p.post) })),
+    posts: [],
     allowable,
     sweep,
     durations,

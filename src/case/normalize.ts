@@ -1,7 +1,7 @@
 // Turns a schema-valid case file into the SI model, checking what spans several fields.
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import type { BypassFile, CaseFile, Length, OutletFile } from "./schema.js";
+import type { BypassFile, CaseFile, Length, OutletFile, PondFile } from "./schema.js";
 import type { AnalysisPoint, Case, Catalogue, Criteria, Hydrograph, Outlet, Pond, Storage, Storm, Tailwater } from "../model.js";
 import { normalizeExfiltration } from "./exfiltration.js";
 import { CaseError, describeIoError, show } from "./errors.js";
@@ -18,6 +18,7 @@ import { normalizeUnderground } from "./underground.js";
 import { normalizeSite, siteSizing, sitePond, sizingSummary } from "./site.js";
 import type { PondChoice } from "../sizing/pondChoice.js";
 import { bareSizeWarnings } from "./sizePlausibility.js";
+import { normalizeSystem, outfallPond, pondNames, stormInflows } from "./system.js";
 
 export { Converter } from "./converter.js";
 
@@ -34,19 +35,25 @@ export interface NormalizeContext {
 export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
   const cv = new Converter(file.units, context.label);
   const hydrology = caseHydrology(file, cv);
-  const storms = file.storms.map((storm, i) => normalizeStorm(storm, i, cv, context, hydrology.storms[i]));
-  const names = new Set<string>();
+  const names = file.ponds ? pondNames(file) : null;
+  const storms = file.storms.map((storm, i) => normalizeStorm(storm, i, cv, context, hydrology.storms[i], names));
+  const stormNames = new Set<string>();
   file.storms.forEach((storm, i) => {
-    if (names.has(storm.name)) cv.problem(`storms[${i}].name`, show(storm.name), "a storm name not used by another storm");
-    names.add(storm.name);
+    if (stormNames.has(storm.name)) cv.problem(`storms[${i}].name`, show(storm.name), "a storm name not used by another storm");
+    stormNames.add(storm.name);
   });
   const criteria = normalizeCriteria(file, cv);
-  const site = file.site ? normalizeSite(file, cv) : undefined;
+  const system = file.ponds ? normalizeSystem(file, cv, (p, c) => normalizePond(p, file.units, c), (o, c, path) => normalizeOutlet(o, c, path)) : undefined;
+  const site = file.site && !file.ponds ? normalizeSite(file, cv) : undefined;
   const tailwater = normalizeTailwater(file, cv);
-  const outlet = file.outlet ? normalizeOutlet(file.outlet, cv, "outlet") : undefined;
-  let pond: Pond | null = file.pond ? normalizePond(file, cv) : null;
+  // The system's pond at the outfall stands for the case where one pond is read (see Case.pond).
+  const atOutfall = system ? outfallPond(system) : -1;
+  const outlet = system ? system.ponds[atOutfall]?.outlet : file.outlet ? normalizeOutlet(file.outlet, cv, "outlet") : undefined;
+  let pond: Pond | null = system ? (system.ponds[atOutfall]?.pond ?? null) : file.pond ? normalizePond(file.pond, file.units, cv) : null;
   let sizing: PondChoice | null = null;
-  if (!file.pond && !site) cv.problem("pond", "nothing (the field is missing)", "a pond (bottom, top, storage), or a site section to size one from");
+  if (file.ponds) {
+    // A system: its ponds are checked in system.ts.
+  } else if (!file.pond && !site) cv.problem("pond", "nothing (the field is missing)", "a pond (bottom, top, storage), or a site section to size one from");
   else if (!pond && site && cv.problems.length === 0) {
     // No pond given: the pond chosen from the site limits for the routed estimates.
     sizing = siteSizing(file, site, storms, criteria, tailwater, outlet?.spillway);
@@ -59,6 +66,7 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
     units: file.units,
     file: context.file,
     pond: pond!,
+    ...(system ? { system } : {}),
     site,
     sizing: sizing ? sizingSummary(sizing) : undefined,
     tailwater,
@@ -74,8 +82,8 @@ export function normalizeCase(file: CaseFile, context: NormalizeContext): Case {
   return result;
 }
 
-function normalizePond(file: CaseFile, cv: Converter): Pond {
-  const p = file.pond!;
+/** A pond section in SI; problems name `pond.` paths (a system's ponds re-root them, system.ts). */
+function normalizePond(p: PondFile, units: CaseFile["units"], cv: Converter): Pond {
   const bottom = cv.length(p.bottom, "pond.bottom");
   const top = cv.length(p.top, "pond.top");
   const pool = cv.optionalLength(p.permanentPool, "pond.permanentPool", bottom);
@@ -84,7 +92,7 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
     cv.problem("pond.permanentPool", show(p.permanentPool), "an elevation from pond.bottom up to (not including) pond.top");
   }
   const s = p.storage;
-  const L = baseLength(file.units);
+  const L = baseLength(units);
   let storage: Storage;
   if (s.prismoid) {
     storage = {
@@ -101,7 +109,7 @@ function normalizePond(file: CaseFile, cv: Converter): Pond {
     const elevations = rows.map((r) => r[0] * L);
     const values = s.stageArea
       ? s.stageArea.map((r, i) => cv.quantity(parsePondArea, r[1], `pond.storage.stageArea[${i}][1]`))
-      : s.stageStorage!.map((r) => r[1] * baseVolume(file.units));
+      : s.stageStorage!.map((r) => r[1] * baseVolume(units));
     if (s.stageArea) cv.increasing(values, false, "area", (i) => ({ path: `pond.storage.stageArea[${i}][1]`, found: s.stageArea![i][1] }));
     if (elevations[0] > bottom + 1e-9) {
       cv.problem(`pond.storage.${kind}[0][0]`, show(rows[0][0]), `a first elevation at or below pond.bottom (${show(p.bottom)})`);
@@ -134,19 +142,32 @@ function normalizeTailwater(file: CaseFile, cv: Converter): Tailwater {
 }
 
 /** A storm's inflow and target: given explicitly, or derived from its rainfall (explicit values win). */
-function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext, derived: StormHydrology | null): Storm {
+function normalizeStorm(storm: CaseFile["storms"][number], index: number, cv: Converter, context: NormalizeContext, derived: StormHydrology | null, ponds: string[] | null): Storm {
   const path = `storms[${index}]`;
+  const limits = stormLimits(storm, index, cv, derived?.pre?.peak ?? null);
+  const ceiling = stormCeiling(storm, path, cv, context, derived);
+  // Runoff joining the flow at the point of analysis (a system's: the flow reaching its outfall) and at further points.
+  const joining = {
+    bypass: storm.bypass ? readBypass(storm.bypass, `${path}.bypass`, cv, context) : (derived?.bypass?.hydrograph ?? null),
+    points: stormPoints(storm, path, cv, context, derived),
+  };
+  if (ponds) {
+    const read = (source: { file?: string; series?: [number, number | string][] }, where: string) => readHydrograph(source, where, cv, context);
+    return { name: storm.name, returnPeriod: storm.returnPeriod, ...limits, ...stormInflows(storm, index, ponds, cv, read, derived), ceiling, ...joining };
+  }
+  for (const field of ["inflows", "pondTargets"] as const) {
+    if (storm[field] !== undefined) cv.problem(`${path}.${field}`, "a value per pond", `no ${field} in a case with one pond (${field} name the ponds of a system: ponds[])`);
+  }
   const inflow: Hydrograph = storm.inflow || !derived?.post ? readHydrograph(storm.inflow, `${path}.inflow`, cv, context) : derived.post.hydrograph;
   return {
     name: storm.name,
     returnPeriod: storm.returnPeriod,
-    ...stormLimits(storm, index, cv, derived?.pre?.peak ?? null),
+    ...limits,
     inflow,
     // A rational storm whose inflow is derived is routed over its range of durations.
     ...(!storm.inflow && derived?.durations ? { durations: derived.durations } : {}),
-    ceiling: stormCeiling(storm, path, cv, context, derived),
-    bypass: storm.bypass ? readBypass(storm.bypass, `${path}.bypass`, cv, context) : (derived?.bypass?.hydrograph ?? null),
-    points: stormPoints(storm, path, cv, context, derived),
+    ceiling,
+    ...joining,
   };
 }
 
@@ -196,7 +217,7 @@ function stormCeiling(storm: CaseFile["storms"][number], path: string, cv: Conve
 }
 
 /** A hydrograph given as a CSV file or a series of [minutes, flow] pairs, in SI. */
-function readHydrograph(source: { file?: string; series?: [number, number | string][] } | undefined, path: string, cv: Converter, context: NormalizeContext): Hydrograph {
+export function readHydrograph(source: { file?: string; series?: [number, number | string][] } | undefined, path: string, cv: Converter, context: NormalizeContext): Hydrograph {
   let minutes: number[] = [];
   let flows: number[] = [];
   if (source?.series) {

@@ -237,6 +237,8 @@ export const idfSchema = z
 export const hydrologySchema = z.object({
   pre: catchmentSchema.optional(),
   post: catchmentSchema.optional(),
+  /** A system of ponds: the post-development drainage area of each pond, by the name of the pond it drains to. */
+  ponds: z.record(z.string(), catchmentSchema, { error: "an object from pond name to the drainage area that drains to it" }).optional(),
   twoYearRainfall: positiveDepth.optional(),
   initialAbstractionRatio: z.union([z.literal(0.2), z.literal(0.05)], { error: "0.2 or 0.05" }).optional(),
   peakRateFactor: finite.refine((v) => v >= 100 && v <= 700, { message: "a peak rate factor from 100 to 700 (484 standard)" }).optional(),
@@ -356,12 +358,18 @@ export const stormSchema = z
     releaseLimits: z.array(releaseLimitSchema, { error: "a list of release limits" }).min(1, { message: "at least one release limit" }).optional(),
     targetSource: sourceLabel,
     inflow: inflowSchema.optional(),
+    /** A system of ponds: each pond's own inflow, by pond name (a pond not named has none). */
+    inflows: z.record(z.string(), inflowSchema, { error: "an object from pond name to an inflow (file or series)" }).optional(),
+    /** A system of ponds: allowable peak outflow of named ponds' outlets (outfit's addition; the target applies at the outfall). */
+    pondTargets: z
+      .record(z.string(), positiveQuantity(flowSchema, FLOW_UNITS, "an allowable peak outflow"), { error: "an object from pond name to an allowable peak outflow" })
+      .optional(),
     rainfall: rainfallSchema.optional(),
     bypass: bypassSchema.optional(),
     points: z.array(stormPointSchema, { error: "a list of further points of analysis" }).min(1, { message: "at least one point" }).optional(),
   })
   .superRefine((storm, ctx) => {
-    if (storm.inflow === undefined && storm.rainfall === undefined) {
+    if (storm.inflow === undefined && storm.rainfall === undefined && storm.inflows === undefined) {
       ctx.addIssue({ code: "custom", path: ["inflow"], message: "an inflow, or a rainfall to derive it from the hydrology section", input: undefined });
     }
   });
@@ -419,6 +427,14 @@ export const outletSchema = z.object({
   riser: riserSchema.optional(),
   barrel: barrelSchema.optional(),
   spillway: spillwaySchema.optional(),
+});
+
+/** One pond of a system: its name, geometry and outlet, and where the outlet drains (another pond's name or "outfall"). */
+export const systemPondSchema = z.object({
+  name: z.string({ error: "a pond name (text)" }).min(1, { message: "a non-empty pond name" }),
+  pond: pondSchema,
+  outlet: outletSchema,
+  to: z.string({ error: 'another pond\'s name or "outfall"' }).min(1, { message: 'another pond\'s name or "outfall"' }),
 });
 
 export const catalogueSchema = z.object({
@@ -490,6 +506,8 @@ export const caseSchema = z.object({
   name: z.string({ error: "a case name (text)" }),
   units: z.enum(["US", "SI"], { error: '"US" or "SI"' }),
   pond: pondSchema.optional(),
+  /** A system of ponds joined by their outlets, instead of `pond` and `outlet`. */
+  ponds: z.array(systemPondSchema, { error: "a list of ponds (name, pond, outlet, to)" }).min(1, { message: "at least one pond" }).optional(),
   site: siteSchema.optional(),
   tailwater: tailwaterSchema.optional(),
   storms: z.array(stormSchema, { error: "a list of storms" }).min(1, { message: "at least one storm" }),
@@ -503,6 +521,8 @@ export const caseSchema = z.object({
 
 export type CaseFile = z.infer<typeof caseSchema>;
 export type OutletFile = z.infer<typeof outletSchema>;
+export type SystemPondFile = z.infer<typeof systemPondSchema>;
+export type PondFile = z.infer<typeof pondSchema>;
 export type StormFile = z.infer<typeof stormSchema>;
 export type CatalogueFile = z.infer<typeof catalogueSchema>;
 export type StorageFile = z.infer<typeof storageSchema>;

@@ -34,7 +34,7 @@ export interface ChamberSolution {
 
 /** The barrel's headwater above its inlet invert as a function of flow for one tailwater, and (from
  * the curve only) the flow at a headwater. */
-interface BarrelLaw {
+export interface BarrelLaw {
   headwater: (q: number) => number;
   flow: ((head: number) => number) | null;
   /** The curve's last node (flow, headwater): beyond it the headwater is at least that (see
@@ -49,7 +49,8 @@ function barrelLaw(b: Barrel, tw: number, exact: boolean): BarrelLaw {
   return { headwater: (q) => curveHeadwater(curve, q), flow: (head) => curveFlow(curve, head), last: { flow: curve.flow[n - 1], headwater: curve.headwater[n - 1] } };
 }
 
-function solveFlow(outlet: Outlet, ws: number, law: BarrelLaw): number {
+/** The chamber's flow for a barrel given by its law (a curve, the pointwise HDS-5 forms, or a link's table of them). */
+export function solveFlow(outlet: Outlet, ws: number, law: BarrelLaw): number {
   const b = outlet.barrel as Barrel;
   const free = openingsFlow(outlet, ws, -Infinity);
   if (!(free > 0)) return 0;

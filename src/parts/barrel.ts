@@ -17,6 +17,8 @@ const barrelCommon = {
   outletInvert: lengthSchema,
   manningN: positive,
   entrance: z.enum(ENTRANCES, { error: `an entrance among ${ENTRANCES.join(", ")}` }),
+  /** The outlet end's entrance, for water entering there (reverse flow between ponds); default `entrance`. */
+  outletEntrance: z.enum(ENTRANCES, { error: `an entrance among ${ENTRANCES.join(", ")}` }).optional(),
   keep,
 };
 export const barrelSchema = z.discriminatedUnion(
@@ -42,11 +44,14 @@ export function barrelToSI(b: BarrelFile, cv: Conversion, path: string): Barrel 
     outletInvert: cv.length(b.outletInvert, `${path}.outletInvert`),
     manningN: b.manningN,
     entrance: b.entrance,
+    ...(b.outletEntrance !== undefined ? { outletEntrance: b.outletEntrance } : {}),
     keep: b.keep ?? false,
   };
-  const row = ENTRANCE_TABLE[b.entrance];
-  if (row.shape !== b.shape) {
-    cv.problem(`${path}.entrance`, show(b.entrance), `an entrance for a ${b.shape} barrel (${entrancesFor(b.shape).join(", ")})`);
+  for (const field of ["entrance", "outletEntrance"] as const) {
+    const name = b[field];
+    if (name !== undefined && ENTRANCE_TABLE[name].shape !== b.shape) {
+      cv.problem(`${path}.${field}`, show(name), `an entrance for a ${b.shape} barrel (${entrancesFor(b.shape).join(", ")})`);
+    }
   }
   return b.shape === "circular"
     ? { shape: "circular", diameter: cv.length(b.diameter, `${path}.diameter`), ...common }
@@ -61,6 +66,7 @@ export function barrelToFile(b: Barrel, units: UnitSystem): BarrelFile {
     outletInvert: u.length(b.outletInvert),
     manningN: b.manningN,
     entrance: b.entrance as never,
+    ...(b.outletEntrance !== undefined ? { outletEntrance: b.outletEntrance as never } : {}),
     ...(b.keep ? { keep: true } : {}),
   };
   return b.shape === "circular" ? { shape: "circular", diameter: smallSize(b.diameter, units), ...common } : { shape: "box", span: u.length(b.span), rise: u.length(b.rise), ...common };
