@@ -6,7 +6,7 @@
 import type { Case, Outlet } from "../model.js";
 import { routeCase, type StormRouting } from "../routing/routeCase.js";
 import { RULES, ruleOf } from "./rules/registry.js";
-import type { Check, RoutingVariant, RuleInput, VariantOutlet } from "./rules/rule.js";
+import type { Check, Rule, RoutingVariant, RuleInput, VariantOutlet } from "./rules/rule.js";
 import { cloggedOutlet, cloggingApplies } from "./rules/clogging.js";
 
 export type { Check, CheckKind } from "./rules/rule.js";
@@ -15,24 +15,30 @@ export type { Check, CheckKind } from "./rules/rule.js";
 export type OutletRouter = (outlet: Outlet) => readonly StormRouting[];
 
 /** Every variant some rule names, with the outlet it routes. */
-const VARIANTS: ReadonlyMap<RoutingVariant, VariantOutlet> = new Map(RULES.flatMap((r) => Object.entries(r.variants ?? {})));
+function variantsOf(rules: readonly Rule[]): ReadonlyMap<RoutingVariant, VariantOutlet> {
+  return new Map(rules.flatMap((r) => Object.entries(r.variants ?? {})));
+}
+const VARIANTS = variantsOf(RULES);
 
-/** `direct`: rules that rate the outlet themselves use the direct evaluation (see `RuleInput.direct`). */
-export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[], router: OutletRouter = (o) => routeCase(c, o).storms, direct = false): Check[] {
+/**
+ * `direct`: rules that rate the outlet themselves use the direct evaluation (see `RuleInput.direct`).
+ * `rules`: the rules to evaluate (default every rule; a system of ponds judges some at the outfall).
+ */
+export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRouting[], router: OutletRouter = (o) => routeCase(c, o).storms, direct = false, rules: readonly Rule[] = RULES): Check[] {
   const checks: Check[] = [];
   const routings: Record<RoutingVariant, readonly StormRouting[]> & { design: readonly StormRouting[] } = { design: storms };
-  for (const [name, variant] of VARIANTS) {
+  for (const [name, variant] of rules === RULES ? VARIANTS : variantsOf(rules)) {
     const changed = variant(c, outlet);
     if (changed) routings[name] = router(changed);
   }
   const input: RuleInput = { case: c, outlet, routings, direct };
-  for (const rule of RULES) rule.evaluate(input, checks);
+  for (const rule of rules) rule.evaluate(input, checks);
   const clog = c.criteria.clogging;
   if (clog) {
     const clogged = cloggedOutlet(outlet, clog.fraction);
     const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) }, direct, condition: "clogged" };
     const words = `${+(100 * clog.fraction).toPrecision(6)} % clogged${clog.label === null ? "" : `, ${clog.label}`}`;
-    for (const rule of RULES) {
+    for (const rule of rules) {
       if (!cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;
       const from = checks.length;
       rule.evaluate(cloggedInput, checks);

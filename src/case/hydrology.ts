@@ -183,6 +183,9 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
   });
   const pondAreas = Object.entries(h.ponds ?? {}).map(([pond, area]) => ({ pond, catchment: catchment(area, `hydrology.ponds.${pond}`, cv, twoYearRainfall) }));
   if (h.ponds !== undefined) checkPondAreas(file, cv);
+  if (file.ponds && h.post && (file.ponds.length > 1 || h.ponds)) {
+    cv.problem("hydrology.post", "one post-development area in a system of ponds", "each pond's drainage area under hydrology.ponds (by the pond's name)");
+  }
   const curves: Record<string, IdfCurve> = emptyRecord();
   for (const [name, idf] of Object.entries(h.idf ?? {})) curves[name] = idfCurve(idf, `hydrology.idf.${name}`, cv);
   const result: CaseHydrology = { nrcs, runoffMethod, twoYearRainfall, catchments, points, pondAreas, storms: file.storms.map(() => null) };
@@ -203,8 +206,8 @@ export function caseHydrology(file: CaseFile, cv: Converter): CaseHydrology {
     }
     const start = cv.problems.length;
     const rainfall = stormRainfall(storm.rainfall, `${path}.rainfall`, cv, curves);
-    if (file.ponds) {
-      if (pondAreas.length === 0 && !storm.inflows) need("hydrology.ponds", `each pond's drainage area: ${path} (${storm.name}) derives the ponds' inflows from them`);
+    if (file.ponds && !(file.ponds.length === 1 && catchments.post)) {
+      if (pondAreas.length === 0 && !storm.inflows && !storm.inflow) need("hydrology.ponds", `each pond's drainage area: ${path} (${storm.name}) derives the ponds' inflows from them`);
       if (rainfall?.kind === "idf" && pondAreas.length > 0) {
         cv.problem(`${path}.rainfall.idf`, show(storm.rainfall.idf), "a 24-hour depth or a hyetograph (NRCS method): the rational method's critical duration is not derived for a system's ponds; give their inflows");
       }
@@ -247,7 +250,6 @@ function checkPondAreas(file: CaseFile, cv: Converter): void {
   for (const key of Object.keys(file.hydrology?.ponds ?? {})) {
     if (!names.includes(key)) cv.problem(`hydrology.ponds.${key}`, show(key), `the name of a pond (${names.join(", ")})`);
   }
-  if (file.hydrology?.post) cv.problem("hydrology.post", "one post-development area beside hydrology.ponds", "each pond's drainage area under hydrology.ponds (by the pond's name)");
 }
 
 function nrcsStorm(

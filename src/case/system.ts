@@ -107,8 +107,13 @@ export function stormInflows(
   derived: StormHydrology | null,
 ): Pick<Storm, "inflow" | "inflows" | "pondTargets"> {
   const path = `storms[${index}]`;
-  if (storm.inflow !== undefined) cv.problem(`${path}.inflow`, "one inflow in a system of ponds", "each pond's inflow under inflows (an object from pond name to an inflow)");
   const inflows: (Hydrograph | null)[] = names.map(() => null);
+  // A `ponds` list of one takes a single pond's `inflow` (and its derived inflow) as well.
+  if (storm.inflow !== undefined) {
+    if (names.length > 1) cv.problem(`${path}.inflow`, "one inflow in a system of ponds", "each pond's inflow under inflows (an object from pond name to an inflow)");
+    else if (storm.inflows !== undefined) cv.problem(`${path}.inflow`, "inflow beside inflows", "either inflow or inflows");
+    else inflows[0] = read(storm.inflow, `${path}.inflow`);
+  } else if (names.length === 1 && storm.inflows === undefined && derived?.post) inflows[0] = derived.post.hydrograph;
   for (const key of Object.keys(storm.inflows ?? {})) {
     const i = names.indexOf(key);
     if (i < 0) cv.problem(`${path}.inflows.${key}`, show(key), `the name of a pond (${names.join(", ")})`);

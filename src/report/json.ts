@@ -135,6 +135,8 @@ export interface CheckJson {
   limit: number;
   slack: number;
   unit: string;
+  /** A system of ponds: the pond the check judges, or "outfall". */
+  pond?: string;
 }
 
 export function checkJson(c: Case, check: Check): CheckJson {
@@ -158,6 +160,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
     limit: convert(check.limit),
     slack: check.slack,
     unit: flow ? labels.flow : hours ? "h" : size ? (c.units === "US" ? "in" : "mm") : labels.length,
+    ...(check.pond !== undefined ? { pond: check.pond } : {}),
   };
 }
 

@@ -27,7 +27,7 @@ import { LinkEvaluator } from "../hydraulics/link.js";
 import { storageBreaks } from "../storage/curve.js";
 
 /** Uniform intervals of each stage axis over its pond's depth. */
-export const LINK_INTERVALS = 60;
+export const LINK_INTERVALS = 100;
 /** Grading above each onset on the stage axes: ratio of neighbouring intervals, first interval as a fraction of the uniform step. */
 const AXIS_GRADING_RATIO = 1.4;
 const AXIS_GRADING_SMALLEST = 1 / 16;

@@ -28,6 +28,8 @@ export interface Check {
    * outflow plus the storm's bypass) or a further point's name; null at the pond's outlet.
    */
   point: string | null;
+  /** A system of ponds: the pond the check judges, or "outfall" for the flow reaching the outfall; absent for one pond. */
+  pond?: string;
   passed: boolean;
   /** SI: m3/s for peaks, m (elevation) for stages, hours for drawdown, m for sizes; null when not reached. */
   value: number | null;
