@@ -202,6 +202,14 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     "",
     stormTable(c, routing, layout),
     ...storageLines(c, routing, layout),
+    ...assessmentLines(c, assessment, verbose, layout),
+  ];
+  return lines.join("\n");
+}
+
+/** What every routed report ends with: the checks, the warnings, how the step was chosen (verbose), the verdict and the caution. */
+export function assessmentLines(c: Case, assessment: Assessment, verbose: string[], layout: Layout): string[] {
+  return [
     "",
     checksTable(c, assessment.checks, layout),
     "",
@@ -212,7 +220,6 @@ export function routeReport(c: Case, routing: CaseRouting, assessment: Assessmen
     "",
     cautionText(layout),
   ];
-  return lines.join("\n");
 }
 
 /** How storms from rainfall were derived (the runoff and unit-hydrograph methods), when any are. */

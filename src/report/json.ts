@@ -168,6 +168,13 @@ export function checkJson(c: Case, check: Check): CheckJson {
 export function assessmentJson(c: Case, routing: CaseRouting, assessment: Assessment) {
   return {
     storms: routing.storms.map((s) => ({ ...stormJson(c, s), controlAtPeak: outletDetail(routing.outlet, c.tailwater, s.result.maxStage).control })),
+    ...verdictJson(c, assessment),
+  };
+}
+
+/** The checks, warnings, compliance and binding check of an assessment. */
+export function verdictJson(c: Case, assessment: Assessment) {
+  return {
     checks: assessment.checks.map((check) => checkJson(c, check)),
     warnings: assessment.warnings,
     compliant: assessment.compliant,

@@ -11,11 +11,11 @@ import { outletDetail } from "../hydraulics/outlet.js";
 import { formatter, significant, trimNumber } from "../format.js";
 import { storageCurve } from "../storage/curve.js";
 import { toCaseUnits, unitLabels } from "../units.js";
-import { checkJson, stormJson, withinBand } from "./json.js";
+import { stormJson, verdictJson, withinBand } from "./json.js";
 import { outletToFile } from "./outletFile.js";
 import { describeOutlet } from "./describe.js";
 import { CAUTION } from "./caution.js";
-import { cautionText, checksTable, governingLimitLines, verdictText, warningsText } from "./console.js";
+import { assessmentLines, governingLimitLines } from "./console.js";
 import { renderTable, wrap, PLAIN, type Column, type Layout, type Row } from "./terminal.js";
 import type { SeriesTable } from "./series.js";
 
@@ -77,10 +77,7 @@ export function systemRouteJson(c: Case, routing: SystemRouting, assessment: Ass
       controlAtPeak: outletDetail(routing.outlets[main], c.tailwater, s.result.ponds[main].maxStage).control,
       ponds: s.result.ponds.map((p, i) => pondJson(c, p, s.storm.pondTargets?.[i] ?? null)),
     })),
-    checks: assessment.checks.map((check) => checkJson(c, check)),
-    warnings: assessment.warnings,
-    compliant: assessment.compliant,
-    binding: assessment.binding ? checkJson(c, assessment.binding) : null,
+    ...verdictJson(c, assessment),
   };
 }
 
@@ -174,15 +171,7 @@ export function systemRouteReport(c: Case, routing: SystemRouting, assessment: A
     outfallTable(c, routing, layout),
     ...governingLimitLines(c),
     ...system.ponds.flatMap((p, i) => ["", wrap(p.to < 0 ? `Pond ${p.name} (drains to the outfall):` : `Pond ${p.name} (peak out: into ${drainsTo(system, i)} through its outlet; peak back: from ${drainsTo(system, i)} through it):`, layout.width), pondTable(c, routing, i, layout)]),
-    "",
-    checksTable(c, assessment.checks, layout),
-    "",
-    warningsText(assessment, layout),
-    ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),
-    "",
-    verdictText(assessment, layout),
-    "",
-    cautionText(layout),
+    ...assessmentLines(c, assessment, verbose, layout),
   ];
   return lines.join("\n");
 }
