@@ -1,7 +1,7 @@
 // `outfit design --size-pond`: pond and outlet designed together, written whole.
 import { existsSync, statSync } from "node:fs";
 import { join } from "node:path";
-import { emit, load, positiveNumber, UsageError } from "../../src/commands/common.js";
+import { emit, load, positiveNumber, refuseSystem, UsageError } from "../../src/commands/common.js";
 import { makeDirectory, printErr, writeFileAtomic } from "../../src/io.js";
 import { designPondAndOutlet } from "../pond/pondDesign.js";
 import { pondDesignCase, pondDesignJson, pondDesignText } from "../report/pondReport.js";
@@ -14,6 +14,7 @@ export const POND_DESIGN_CASE = "pond-and-outlet.json";
 export async function pondDesignCommand(path: string, options: DesignCommandOptions): Promise<number> {
   if (options.resume) throw new UsageError("--resume", "with --size-pond", "--resume only for an outlet search (without --size-pond)");
   const loaded = load(path, options.quiet === true);
+  refuseSystem(loaded, path, "design --size-pond");
   const c = loaded.case;
   if (options.out && existsSync(options.out) && !statSync(options.out).isDirectory()) {
     throw new UsageError("--out", options.out, "a directory for the results (this is a file)");

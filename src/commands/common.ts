@@ -32,6 +32,24 @@ export function load(path: string, quiet = false): LoadedCase {
   return loaded;
 }
 
+/**
+ * Commands that work on one pond only (design, its pond sizing, gather) refuse a system of ponds (a
+ * case with `ponds`) with a user error, exit 2: a system is routed and checked (route, rate, report,
+ * hydrograph, volume) and will be designed in a later version.
+ */
+export function refuseSystem(loaded: LoadedCase, path: string, command: string): void {
+  const system = loaded.case.system;
+  if (!system) return;
+  const single = system.ponds.length === 1 ? "; write a single pond as pond and outlet to design it" : "";
+  throw new CaseError([
+    {
+      where: `${basename(path)}: ponds`,
+      found: `a system of ${system.ponds.length} pond${system.ponds.length > 1 ? "s" : ""}`,
+      expected: `a case with one pond (pond and outlet): ${command} designs one pond's outlet; a system of ponds is routed and checked (outfit route, rate, report, hydrograph, volume) and will be designed in a later version${single}`,
+    },
+  ]);
+}
+
 export function positiveNumber(option: string, text: string | undefined): number | undefined {
   if (text === undefined) return undefined;
   const value = Number(text);

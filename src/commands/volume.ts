@@ -8,6 +8,7 @@ import { caseHydrology } from "../case/hydrology.js";
 import { DISTRIBUTION_TYPES, type DistributionType } from "../hydrology/distributions.js";
 import { tr55Group, type Tr55Group } from "../storage/estimate.js";
 import { caseEstimates, type StormEstimateInputs } from "../sizing/stormEstimates.js";
+import { systemEstimates, systemVolumeJson, systemVolumeText } from "../report/systemVolume.js";
 import { volumeJson, volumeText } from "../report/volume.js";
 import { layoutFor } from "../report/terminal.js";
 import { emit, load, UsageError } from "./common.js";
@@ -46,8 +47,13 @@ function sizedPondNote(c: Case): string {
 export function volumeCommand(path: string, options: VolumeCommandOptions): number {
   const type = typeOption(options.type);
   const { case: c } = load(path);
-  const estimates = caseEstimates(c, estimateInputs(path, c, type));
   const layout = layoutFor({ wide: options.wide, toFile: options.out !== undefined });
+  if (c.system && c.system.ponds.length > 1) {
+    const e = systemEstimates(c, c.system, estimateInputs(path, c, type));
+    emit(options.json ? JSON.stringify(systemVolumeJson(c, c.system, e), null, 2) : systemVolumeText(c, c.system, e, layout), options.out);
+    return 0;
+  }
+  const estimates = caseEstimates(c, estimateInputs(path, c, type));
   emit(options.json ? JSON.stringify(volumeJson(c, estimates), null, 2) : volumeText(c, estimates, c.sizing ? sizedPondNote(c) : null, layout), options.out);
   return 0;
 }
