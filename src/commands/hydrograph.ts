@@ -4,7 +4,7 @@ import { basename, join } from "node:path";
 import { caseSchema, type CaseFile } from "../case/schema.js";
 import { Converter } from "../case/normalize.js";
 import { CaseError } from "../case/errors.js";
-import { areaRunoff, caseHydrology, hydrologyAreas, lagged, stormAreaHydrograph } from "../case/hydrology.js";
+import { areaRunoff, caseHydrology, hydrologyAreas, lagged, stormAreaHydrograph, type Catchment } from "../case/hydrology.js";
 import { nrcsHydrograph } from "../hydrology/nrcsHydrograph.js";
 import { hydrographCsv, hydrographJson, hydrographText, type GivenValues, type HydrographItem } from "../report/hydrograph.js";
 import { layoutFor } from "../report/terminal.js";
@@ -32,25 +32,31 @@ export function hydrographCommand(path: string, options: HydrographCommandOption
     throw new UsageError("--storm", options.storm, `the name of a storm with a rainfall (${withRainfall.join(", ")})`);
   }
   const areas = hydrologyAreas(hydrology);
-  if (options.area !== undefined && !areas.some((a) => a.key === options.area)) {
-    throw new UsageError("--area", options.area, `an area of the hydrology section (${areas.map((a) => a.key).join(", ")})`);
+  const pondAreas = hydrology.pondAreas.map((a) => a.pond);
+  if (options.area !== undefined && !areas.some((a) => a.key === options.area) && !pondAreas.includes(options.area)) {
+    throw new UsageError("--area", options.area, `an area of the hydrology section (${[...areas.map((a) => a.key), ...pondAreas].join(", ")}${pondAreas.length ? "; a pond's drainage area by the pond's name" : ""})`);
   }
   const items: HydrographItem[] = [];
   hydrology.storms.forEach((s, stormIndex) => {
     if (!s || (options.storm !== undefined && c.storms[stormIndex].name !== options.storm)) return;
+    // NRCS: the peak under the other unit-duration choice too, so the difference is plain.
+    const other = hydrology.nrcs.unitDuration === "converged" ? "standard" : "converged";
+    const alternateOf = (catchment: Catchment) =>
+      s.method === "nrcs" && s.rainfall.kind !== "idf"
+        ? lagged(nrcsHydrograph(catchment.area, areaRunoff(catchment, hydrology.runoffMethod), catchment.tc, s.rainfall.curve, { ...hydrology.nrcs, unitDuration: other }), catchment.lag)
+        : null;
     for (const { key, catchment } of areas) {
       const result = stormAreaHydrograph(s, key);
       if (!result || (options.area !== undefined && options.area !== key)) continue;
-      // NRCS: the peak under the other unit-duration choice too, so the difference is plain.
-      const other = hydrology.nrcs.unitDuration === "converged" ? "standard" : "converged";
-      const alternate =
-        s.method === "nrcs" && s.rainfall.kind !== "idf"
-          ? lagged(nrcsHydrograph(catchment.area, areaRunoff(catchment, hydrology.runoffMethod), catchment.tc, s.rainfall.curve, { ...hydrology.nrcs, unitDuration: other }), catchment.lag)
-          : null;
-      items.push({ stormIndex, area: key, result, alternate, file: null });
+      items.push({ stormIndex, area: key, pond: false, result, alternate: alternateOf(catchment), file: null });
+    }
+    for (const post of s.posts) {
+      if (options.area !== undefined && options.area !== post.pond) continue;
+      const catchment = hydrology.pondAreas.find((a) => a.pond === post.pond)!.catchment;
+      items.push({ stormIndex, area: post.pond, pond: true, result: post.area, alternate: alternateOf(catchment), file: null });
     }
   });
-  if (items.length === 0) throw new UsageError("--area", options.area ?? "", "an area the selected storms have (hydrology.pre, post, bypass or a point's)");
+  if (items.length === 0) throw new UsageError("--area", options.area ?? "", `an area the selected storms have (hydrology.pre, post, bypass or a point's${pondAreas.length ? ", or a pond's under hydrology.ponds" : ""})`);
   if (options.out !== undefined) assignFiles(items, options.out, c.storms.map((s) => s.name));
   // Everything is computed before anything is written; each file is written whole.
   for (const item of items) if (item.file) writeFileAtomic(item.file, hydrographCsv(c, item.result.hydrograph));
@@ -59,6 +65,7 @@ export function hydrographCommand(path: string, options: HydrographCommandOption
     target: s.target !== undefined,
     bypass: s.bypass !== undefined,
     points: (s.points ?? []).map((p) => ({ name: p.name, target: p.target !== undefined, bypass: p.bypass !== undefined })),
+    inflows: Object.keys(s.inflows ?? {}),
   }));
   // --out names the CSV files; the tables always go to the terminal, so they fit it.
   const layout = layoutFor({ wide: options.wide });

@@ -17,13 +17,17 @@ export interface GivenValues {
   target: boolean;
   bypass: boolean;
   points: { name: string; target: boolean; bypass: boolean }[];
+  /** A system of ponds: the ponds whose inflow the storm gives explicitly. */
+  inflows: string[];
 }
 
 /** One hydrograph selected for output, with the CSV file it is written to (if any). */
 export interface HydrographItem {
   stormIndex: number;
-  /** The area's key (`hydrologyAreas`): "pre", "post", "bypass", or "<point>:pre" / "<point>:post". */
+  /** The area's key (`hydrologyAreas`): "pre", "post", "bypass", or "<point>:pre" / "<point>:post"; a pond's name when `pond`. */
   area: string;
+  /** The area is a pond's drainage area (a system of ponds, `hydrology.ponds`). */
+  pond: boolean;
   result: AreaHydrograph;
   /** NRCS: the same area computed with the other unit-duration choice (standard or converged); null otherwise. */
   alternate: AreaHydrograph | null;
@@ -69,8 +73,15 @@ function tcText(k: Catchment): string {
   return k.tcMethod === "flow path" ? `flow path (${k.travelTimes.length} segment${k.travelTimes.length > 1 ? "s" : ""})` : k.tcMethod;
 }
 
+/** A pond's drainage area in tables ("pond upper"). */
+function pondAreaLabel(pond: string): string {
+  return `pond ${pond}`;
+}
+
 /** What a derived hydrograph is used for in the routed case. */
-function usedAs(area: string, given: GivenValues): string {
+function usedAs(item: HydrographItem, given: GivenValues): string {
+  const area = item.area;
+  if (item.pond) return given.inflows.includes(area) ? "shown only (inflow given)" : `inflow of pond ${area}`;
   if (area === "post") return given.inflow ? "shown only (inflow given)" : "inflow";
   if (area === "pre") return given.target ? "shown only (target given)" : "target (its peak)";
   if (area === "bypass") return given.bypass ? "shown only (bypass given)" : "joins at the point of analysis";
@@ -104,9 +115,10 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     { head: "Tc from", narrow: "detail", label: "Tc from" },
   ];
   const areaRows: Row[] = [];
-  for (const { key, catchment: k } of hydrologyAreas(h)) {
+  const areas = [...hydrologyAreas(h).map((a) => ({ label: areaLabel(a.key), k: a.catchment })), ...h.pondAreas.map((a) => ({ label: pondAreaLabel(a.pond), k: a.catchment }))];
+  for (const { label, k } of areas) {
     areaRows.push([
-      areaLabel(key),
+      label,
       `${hu.area(k.area).toFixed(2)} ${hu.labels.area}`,
       k.curveNumber === null ? "-" : k.curveNumber.toFixed(1),
       k.runoffCoefficient === null ? "-" : k.runoffCoefficient.toFixed(2),
@@ -133,14 +145,14 @@ export function hydrographText(c: Case, h: CaseHydrology, items: HydrographItem[
     return [
       c.storms[item.stormIndex].name,
       rainfallText(c, s, r),
-      areaLabel(item.area),
+      item.pond ? pondAreaLabel(item.area) : areaLabel(item.area),
       depth(r.runoff),
       f.flow(r.peak),
       durationText(r.timeOfPeak),
       f.volume(r.volume),
       durationText(r.tc),
       r.unitDuration === null ? "-" : durationText(r.unitDuration),
-      usedAs(item.area, given[item.stormIndex]),
+      usedAs(item, given[item.stormIndex]),
       item.alternate === null ? "-" : `${f.flow(item.alternate.peak)} (D ${durationText(item.alternate.unitDuration!)}, ${percentChange(item.alternate.peak / r.peak - 1)})`,
     ];
   });
@@ -226,7 +238,7 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
         targetFrom: given[index].target ? "given" : c.storms[index].target === null ? null : "derived",
         areas: Object.fromEntries(
           mine.map((i) => [
-            i.area,
+            i.pond ? pondAreaLabel(i.area) : i.area,
             {
               rainfall: hu.depth(i.result.rainfall),
               runoff: hu.depth(i.result.runoff),
@@ -278,7 +290,10 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
       runoffMethod: h.runoffMethod,
       runoffRule: runoffMethodWords(h),
     },
-    areas: Object.fromEntries(hydrologyAreas(h).map((a) => [a.key, catchment(a.catchment)])),
+    areas: {
+      ...Object.fromEntries(hydrologyAreas(h).map((a) => [a.key, catchment(a.catchment)])),
+      ...(h.pondAreas.length ? { ponds: Object.fromEntries(h.pondAreas.map((a) => [a.pond, catchment(a.catchment)])) } : {}),
+    },
     storms,
   });
 }
