@@ -8,6 +8,9 @@ import { routeCase } from "../routing/routeCase.js";
 import { assess } from "../assess/assess.js";
 import { printErr, writeFileAtomic } from "../io.js";
 import { caseReport } from "../report/review/caseReport.js";
+import { systemCaseReport } from "../report/review/systemReport.js";
+import { routeSystemCase } from "../routing/routeSystem.js";
+import { assessSystem } from "../assess/systemAssess.js";
 import { designReport, type RoutedCandidate } from "../report/review/designReport.js";
 import { isDirectory, loadDesignRun } from "../report/review/designRun.js";
 import type { ReportDocument } from "../report/review/model.js";
@@ -76,12 +79,16 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
   } else {
     const loaded = load(input);
     const c = loaded.case;
-    if (!c.outlet) {
+    if (c.system && c.system.ponds.length > 1) {
+      const routing = routeSystemCase(c, undefined, routeOptions);
+      doc = systemCaseReport(c, routing, assessSystem(c, routing), input, settings(loaded, inputFilesOf(loaded)));
+    } else if (!c.outlet) {
       throw new CaseError([{ where: `${basename(input)}: outlet`, found: "nothing (the field is missing)", expected: "an outlet to report (elements, riser, barrel, spillway)" }]);
+    } else {
+      const inputs = settings(loaded, inputFilesOf(loaded));
+      const routing = routeCase(c, c.outlet, routeOptions);
+      doc = caseReport(c, { outlet: c.outlet, routing, assessment: assess(c, routing) }, input, inputs);
     }
-    const inputs = settings(loaded, inputFilesOf(loaded));
-    const routing = routeCase(c, c.outlet, routeOptions);
-    doc = caseReport(c, { outlet: c.outlet, routing, assessment: assess(c, routing) }, input, inputs);
   }
   const out = options.out ?? defaultOutput(input, directory, format as Format);
   if (format === "md") {
@@ -101,7 +108,13 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
 function inputFilesOf(loaded: LoadedCase): string[] {
   const file = loaded.case.file;
   const named = (source: { file?: string } | undefined) => (source?.file ? [resolve(dirname(file), source.file)] : []);
-  const inflows = loaded.data.storms.flatMap((s) => [...named(s.inflow), ...named(s.bypass), ...(s.points ?? []).flatMap((p) => named(p.bypass)), ...(s.releaseLimits ?? []).flatMap((r) => named(r.preHydrograph))]);
+  const inflows = loaded.data.storms.flatMap((s) => [
+    ...named(s.inflow),
+    ...Object.values(s.inflows ?? {}).flatMap(named),
+    ...named(s.bypass),
+    ...(s.points ?? []).flatMap((p) => named(p.bypass)),
+    ...(s.releaseLimits ?? []).flatMap((r) => named(r.preHydrograph)),
+  ]);
   return [file, ...inflows];
 }
 

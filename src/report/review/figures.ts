@@ -166,7 +166,7 @@ function stageDomain(c: Case): [number, number] {
 }
 
 /** A series cut at time `end` (hours), with the value at `end` interpolated. */
-function until(times: readonly number[], values: readonly number[], end: number): Point[] {
+export function until(times: readonly number[], values: readonly number[], end: number): Point[] {
   const out: Point[] = [];
   for (let i = 0; i < times.length; i++) {
     if (times[i] <= end) out.push([times[i], values[i]]);

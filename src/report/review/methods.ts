@@ -41,11 +41,27 @@ function methodsUsed(outlets: readonly Outlet[]): Method[] {
   ];
 }
 
+/** A system of ponds: the links' flow both ways and the routing of the ponds together. */
+const SYSTEM_METHODS: Method[] = [
+  {
+    part: "links between ponds",
+    method:
+      "a pond's outlet into another pond has that pond's stage as its downstream level; when it is higher the same parts carry water back with the levels swapped (a barrel entered at its outlet end, discharging into the chamber, which drains through the openings and rim); an outlet of a barrel alone is an equaliser pipe; tabulated over the upstream stage and over the two stages' difference near equal levels",
+    source: "the project's case format (systems of ponds); FHWA HDS-5 and the parts' sources above",
+  },
+  {
+    part: "routing of the system",
+    method: "the storage-indication (trapezoidal) step of every pond at once, the coupled equations solved by Newton's method; time step chosen and refined automatically",
+    source: "Chow, Maidment & Mays, Applied Hydrology (1988) sec. 8.2",
+  },
+];
+
 /** Methods of the case as a whole, beside the outlet's parts. */
-function caseMethods(c: Case, hydrology: CaseHydrology | null): string[][] {
+function caseMethods(c: Case, hydrology: CaseHydrology | null, system: boolean): string[][] {
   const rows: string[][] = [];
   if (c.storms.some((s) => s.bypass)) {
-    rows.push(["point of analysis", "the pond's outflow (spillway included) plus the bypassing runoff at each instant; its largest sum is the peak the target applies to (exact for the two broken lines)", "the case format, \"Bypass and the point of analysis\""]);
+    const flow = system ? "the flow reaching the outfall (every pond draining there, spillways included)" : "the pond's outflow (spillway included)";
+    rows.push(["point of analysis", `${flow} plus the bypassing runoff at each instant; its largest sum is the peak the target applies to (exact for the two broken lines)`, "the case format, \"Bypass and the point of analysis\""]);
   }
   if (hydrology && hydrology.storms.some((s) => s !== null)) {
     const sources = [...new Set(hydrology.storms.flatMap((s) => (s === null ? [] : [s.method])))];
@@ -58,13 +74,17 @@ function caseMethods(c: Case, hydrology: CaseHydrology | null): string[][] {
   return rows;
 }
 
-/** The methods and sources of a report on these outlets (each row from the parts the outlets use) and of the case's hydrology. */
-export function methodsTable(c: Case, outlets: readonly Outlet[], hydrology: CaseHydrology | null = null): TableBlock {
+/**
+ * The methods and sources of a report on these outlets (each row from the parts the outlets use) and
+ * of the case's hydrology; `system`: a system of ponds (links both ways, the ponds routed together).
+ */
+export function methodsTable(c: Case, outlets: readonly Outlet[], hydrology: CaseHydrology | null = null, system = false): TableBlock {
+  const methods = methodsUsed(outlets).map((m) => (system && m === SUBMERGENCE ? { ...m, method: m.method.replace("; no reverse flow", "; between ponds from whichever side is lower") } : m));
   return {
     kind: "table",
     caption: "Methods and their published sources",
     head: ["Part", "Method", "Source"],
     numeric: [false, false, false],
-    rows: [...caseMethods(c, hydrology), ...methodsUsed(outlets).map((m) => [m.part, m.method, m.source])],
+    rows: [...caseMethods(c, hydrology, system), ...[...methods, ...(system ? SYSTEM_METHODS : [])].filter((m) => !(system && m === ROUTING)).map((m) => [m.part, m.method, m.source])],
   };
 }
