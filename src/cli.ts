@@ -113,11 +113,17 @@ ${FITS}
 Colour only on a terminal, never when NO_COLOR is set, with TERM=dumb or through a pipe; control
 characters in a case's names are shown escaped.
 
+A system of ponds (ponds): every pond is routed with the others at each step; the tables give the
+flow reaching the outfall against each storm's target and, per pond, its maximum stage, the largest
+flow forward through its outlet and back through it, the volume that flowed back, its drawdown and
+mass balance; every check is named with its pond (or "outfall"); --json adds each storm's ponds.
+
 Examples:
   outfit route cases/demo/case.json
   outfit route cases/demo/case.json --json --out results/route.json
   outfit route cases/demo/case.json --csv-dir results/series
   outfit route cases/demo/case.json --step 1 --verbose
+  outfit route cases/two-ponds/case.json              # a system of two ponds
 
 Exit codes: 0 done; 1 not compliant (only with --check); ${EXIT_CODES.slice(8)}.`),
   )
@@ -130,6 +136,7 @@ program
   .option("--stage-step <length>", 'stage interval of the table (a length, not a time), e.g. 0.25 or "0.1 m" (default: the pond\'s depth / 24 rounded to 1, 2, 2.5 or 5 x 10^n: 0.25 ft for a 6 ft deep pond)')
   .option("--csv", "print CSV instead of a table (every part's flow)")
   .option("--json", "print JSON instead of a table")
+  .option("--pond <name>", "a system of ponds: only this pond (its link's table of both stages, or its rating at the outfall); needed with --csv")
   .option("--out <file>", "write the output to this file instead of the terminal")
   .option("--wide", WIDE)
   .addHelpText(
@@ -138,9 +145,15 @@ program
 Narrow terminals get the parts grouped (openings, rim, spillway, total, the limiting part); --wide or
 --csv adds each opening's flow, the barrel's, the chamber level and the barrel's HW/D.
 
+A system of ponds (ponds): each pond that drains into another pond gets its outlet's flow as a table
+of both ponds' stages (rows: its own stage; columns: the stage of the pond downstream; negative flow
+runs back), as many columns as fit the terminal (--wide: one per stage step); a pond at the outfall
+gets its rating as above.
+
 Examples:
   outfit rate cases/demo/case.json
   outfit rate cases/demo/case.json --stage-step 0.5 --csv --out rating.csv
+  outfit rate cases/two-ponds/case.json --pond upper --wide
 
 Exit codes: ${EXIT_CODES}.`),
   )
@@ -200,6 +213,9 @@ Examples:
   outfit design cases/demo/case.json --rank robust --budget 200000   # the designs that keep most reserve
   outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim
 
+A system of ponds (a case with ponds) is routed and checked (route, rate, report, hydrograph,
+volume) and will be designed in a later version: design refuses it with exit code 2.
+
 Exit codes: 0 done; 1 no compliant design (with --check); 2 bad input or a bad option (nothing is
 written); 3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on);
 4 internal error (a bug; OUTFIT_DEBUG=1 shows its stack).`),
@@ -234,7 +250,7 @@ program
   .option("--out <dir|file>", "write the hydrographs as CSV (minutes,flow): a directory (one <storm>-<area>.csv per storm and area), or a name ending in .csv for a single selected hydrograph")
   .option("--json", "print the results as JSON instead of tables")
   .option("--storm <name>", "only this storm")
-  .option("--area <pre|post>", "only this drainage area: pre (before development; its peak is the target) or post (after; the inflow)")
+  .option("--area <pre|post|pond>", "only this drainage area: pre (before development; its peak is the target), post (after; the inflow), or in a system of ponds the name of a pond whose drainage area is under hydrology.ponds")
   .option("--wide", WIDE)
   .addHelpText(
     "after",
@@ -252,6 +268,7 @@ Examples:
   outfit hydrograph cases/demo-rainfall/case.json --out hydrographs/
   outfit hydrograph cases/demo-rainfall/case.json --storm 10-yr --area post --out inflow-10yr.csv
   outfit hydrograph cases/demo-rainfall/case.json --json
+  outfit hydrograph cases/two-ponds/case.json --storm 10-yr --area upper
 
 Exit codes: ${EXIT_CODES}.`),
   )
@@ -278,6 +295,10 @@ it reaches in the case's pond and whether that stays at or below the storm's lim
 the freeboard level and, for a storm that keeps the spillway dry, the spillway crest; an underground
 system's top).
 
+A system of ponds: the estimates take all ponds' inflows together against the target at the outfall
+and compare with all ponds' storage below their freeboard levels; a pond with its own target
+(pondTargets) is also estimated on its own inflow (the output says how).
+
 ${FITS}
 Narrow terminals keep each method's volume on its row, and the stage and the fit as room allows;
 the rest (the storm's target and peak inflow, the notes) go on indented lines below the row.
@@ -286,6 +307,7 @@ Examples:
   outfit volume cases/demo/case.json --type II
   outfit volume cases/demo-rainfall/case.json --json
   outfit volume cases/demo/case.json --type II --out volume.txt
+  outfit volume cases/two-ponds/case.json                  # a system of two ponds
 
 Exit codes: ${EXIT_CODES}.`),
   )
@@ -345,12 +367,15 @@ over its event with the peaks in detail (at the point of analysis where a storm 
 stage, the checks with their slack, the methods with their sources and the caution. For a design
 run it compares the candidates
 and explains the binding check of each; every candidate is routed again from its own case file.
-It loads nothing from the network and prints on A4 or Letter.
+It loads nothing from the network and prints on A4 or Letter. A system of ponds gets each pond's
+storage, parts and rating (a link's flow by both ponds' stages), each storm's stages of every pond and
+flows through every link, a table per pond, and the checks per pond and at the outfall.
 
 Examples:
   outfit report cases/demo/case.json                       # writes cases/demo/case.report.html
   outfit report cases/demo/case.json --out review.html
   outfit report cases/demo/case.json --format md --out review/demo.md
+  outfit report cases/two-ponds/case.json                  # a system of two ponds
   outfit report results/                                   # a design run: writes results/report.html
 
 Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`),
