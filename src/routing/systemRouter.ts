@@ -94,6 +94,8 @@ const REDO_FACTOR = 1.5;
 /** Newton's method: most iterations per step, and the largest stage correction (m) at which it has converged. */
 const NEWTON_ITERATIONS = 40;
 const NEWTON_TOLERANCE = 1e-10;
+/** The step spans at most this fraction of the shortest time constant (the single router's). */
+const TIME_CONSTANT_FRACTION = 0.15;
 /** Level difference (m) over which a link's flow is taken as a chord for the time constant. */
 export const TAU_DIFFERENCE = 0.002;
 
@@ -155,7 +157,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   const fixed = options.step;
   const maxStep = options.maxStep ?? 600;
   const minStep = options.minStep ?? 1;
-  const tauFraction = options.timeConstantFraction ?? 0.15;
+  const tauFraction = options.timeConstantFraction ?? TIME_CONSTANT_FRACTION;
   const cursors = ponds.map((_, i) => new InflowCursor(inflows[i] ?? null, options.inflowFraction ?? 0.01));
   let tFirst = Infinity;
   let tLast = -Infinity;
