@@ -9,8 +9,9 @@ import { workersSection } from "./workers.js";
 import { inputsSection } from "./inputs.js";
 import { shardsSection } from "./shards.js";
 import { defaultsSection } from "./defaults.js";
+import { systemsSection } from "./systems.js";
 
-const sections: BenchSection[] = [routingSection, speedSection, searchSection, workersSection, defaultsSection, shardsSection, inputsSection];
+const sections: BenchSection[] = [routingSection, systemsSection, speedSection, searchSection, workersSection, defaultsSection, shardsSection, inputsSection];
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);
