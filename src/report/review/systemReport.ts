@@ -336,11 +336,11 @@ export function systemCaseReport(c: Case, routing: SystemRouting, assessment: As
     ]),
   );
   const storms = section("storms", "Storms routed", [outfallTable(c, routing)], stormSections);
-  const checks = section("checks", "Checks", [verdictNote(assessment), checksTable(c, assessment), { kind: "text", text: "Warnings:" }, warningsList(assessment)]);
+  const checks = section("checks", "Checks", [verdictNote(c, assessment), checksTable(c, assessment), { kind: "text", text: "Warnings:" }, warningsList(assessment)]);
   return {
     title: `Review report: ${c.name}`,
     subtitle: `The system of ponds of case file ${source}, routed together and checked by outfit.`,
-    verdict: verdictNote(assessment),
+    verdict: verdictNote(c, assessment),
     project: projectFacts(inputs.project, inputs.run),
     caution: CAUTION,
     sections: [
