@@ -60,7 +60,7 @@ export function linkRatingText(c: Case, system: PondSystem, index: number, ratin
   const to = system.ponds[p.to].name;
   const digits = c.units === "US" ? 2 : 3;
   const columns: Column[] = [
-    { head: `${p.name}\n(${f.labels.length})`, align: "right" },
+    { head: `Stage\n(${f.labels.length})`, align: "right" },
     ...rating.down.map((y): Column => ({ head: `${f.raw.length(y).toFixed(digits)}\n(${f.labels.flow})`, align: "right" })),
   ];
   const rows = rating.up.map((x, i) => [f.raw.length(x).toFixed(digits), ...rating.flows[i].map((q) => significant(f.raw.flow(q)))]);

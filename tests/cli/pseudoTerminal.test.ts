@@ -36,8 +36,12 @@ function renamedDemo(dir: string, name: string, storms: string[]): string {
     if (s.inflow.file) s.inflow.file = join(ROOT, "cases/demo", s.inflow.file);
   });
   if (json.criteria?.freeboard?.storm) json.criteria.freeboard.storm = storms[storms.length - 1];
+  return writeCase(join(dir, "case.json"), json);
+}
+
+/** A changed bundled case written to `file` (without its $schema, which is relative to cases/). */
+function writeCase(file: string, json: { $schema?: string }): string {
   delete json.$schema;
-  const file = join(dir, "case.json");
   writeFileSync(file, JSON.stringify(json, null, 2));
   return file;
 }
@@ -78,6 +82,39 @@ describe.skipIf(!haveScript())("colour and user text under a pseudo-terminal", (
       expect(run.status, run.screen).toBe(0);
       expect(run.screen).toContain("年確率");
       expect(screenProblems(run, columns), args[0]).toEqual([]);
+    }
+  }, 120_000);
+});
+
+/** cases/two-ponds with its ponds renamed (every reference to them too). */
+function renamedSystem(dir: string, upper: string, lower: string): string {
+  const json = JSON.parse(readFileSync(join(ROOT, "cases/two-ponds/case.json"), "utf8"));
+  const rename = (name: string) => (name === "upper" ? upper : name === "lower" ? lower : name);
+  for (const p of json.ponds) {
+    p.name = rename(p.name);
+    p.to = rename(p.to);
+  }
+  json.hydrology.ponds = Object.fromEntries(Object.entries(json.hydrology.ponds).map(([k, v]) => [rename(k), v]));
+  return writeCase(join(dir, "system.json"), json);
+}
+
+describe.skipIf(!haveScript())("a system of ponds' names under a pseudo-terminal", () => {
+  const dir = scratch();
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it.each([60, 80, 120])("pond names with escapes and in wide characters fit %i columns in route and volume, and rate and hydrograph from 80", (columns) => {
+    const file = renamedSystem(dir, "上池 \u001b[31mnorth\u001b[0m 🌧️", "下池 south\u0007");
+    // At 60 columns route and volume, as for a single pond (a rating's columns, and a hydrograph's
+    // row of storm, area, peak and volume with a long area name, do not fit there).
+    const narrow = columns === 60;
+    for (const args of [["route", file], ["volume", file, "--type", "II"], ...(narrow ? [] : [["rate", file], ["hydrograph", file]])]) {
+      const run = inTerminal(columns, args);
+      expect(run.status, run.screen).toBe(0);
+      expect(run.screen, args[0]).toContain("\\u001b[31mnorth\\u001b[0m");
+      expect(run.screen, args[0]).not.toMatch(/\u001b\[31mnorth|\u0007/);
+      // The escaped names are literal escape text by design: held to no stray control and the width.
+      expect(strayControls(run.screen), args[0]).toEqual([]);
+      expect(overwide(run.screen, columns), args[0]).toEqual([]);
     }
   }, 120_000);
 });
