@@ -13,7 +13,8 @@
 // storage over the rate at which its net outflow changes with its own stage, a link's flow taken as a
 // chord over at least TAU_DIFFERENCE of level difference so that levels at rest against each other do
 // not shrink the step to nothing); a step that ends where that limit is much shorter is done again.
-// Nothing is allocated per step: the state lives in Float64Arrays made once per routing.
+// Nothing is allocated per step: the state lives in Float64Arrays made once per routing. A step's
+// first try starts from the flows last computed (those at its start), not evaluated again.
 import type { Hydrograph, Pond } from "../model.js";
 import type { LinkTable } from "./linkTable.js";
 import type { CeilingApproach, RouteResult } from "./router.js";
@@ -323,10 +324,11 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
 
   let floored = false;
   /** Newton's method on the step equations for dt; true when converged. The stages end in `h`. */
-  const solveStep = (twoOverDt: number): boolean => {
+  const solveStep = (twoOverDt: number, fresh: boolean): boolean => {
     floored = false;
     for (let i = 0; i < n; i++) h[i] = h1[i];
-    flowsAt(h);
+    // The flows at the step's start are those last computed, unless a try of this step moved them.
+    if (!fresh) flowsAt(h);
     let norm = residual(twoOverDt);
     for (let iteration = 0; iteration < NEWTON_ITERATIONS; iteration++) {
       iterations++;
@@ -404,6 +406,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       }
     }
     let twoOverDt = 2 / dt;
+    let fresh = true;
     for (;;) {
       t2 = t + dt;
       twoOverDt = 2 / dt;
@@ -415,7 +418,8 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
         const to = ponds[i].to;
         if (to >= 0) N[to] += q1[i];
       }
-      const converged = solveStep(twoOverDt);
+      const converged = solveStep(twoOverDt, fresh);
+      fresh = false;
       if (fixed !== undefined) {
         if (!converged) unconverged++;
         break;
