@@ -77,6 +77,7 @@ describe("a system of ponds in the case file", () => {
     ["a pond's own bad field, at its path", (j: any) => (j.ponds[1].pond.top = 101), "case.json: ponds[1].pond.top: found 101, expected an elevation above pond.bottom (102)"],
     ["a pond's outlet's bad field, at its path", (j: any) => (j.ponds[0].outlet.elements[0].diameter = "eight"), "ponds[0].outlet.elements[0].diameter"],
     ["a tailwater rating with two ponds at the outfall", (j: any) => { j.ponds[1].to = "outfall"; j.tailwater = { rating: [[0, 99], [10, 100]] }; }, "tailwater.rating: found a tailwater rating with several ponds draining to the outfall"],
+    ["exfiltration in a pond of a system (the system router has none)", (j: any) => (j.ponds[0].pond.exfiltration = { rate: "0.5 in/h" }), "ponds[0].pond.exfiltration: found exfiltration in a system of ponds, expected no exfiltration in a pond of a system"],
     ["a drainage area for no pond", (j: any) => (j.hydrology = { ponds: { east: { area: 3, curveNumber: 80, tc: 20 } } }), 'hydrology.ponds.east: found "east", expected the name of a pond (north, middle, south)'],
     ["inflows in a case with one pond", (j: any) => { j.pond = pond(100); j.outlet = orifice(100); delete j.ponds; j.storms[0].inflow = series; }, "storms[0].inflows: found a value per pond, expected no inflows in a case with one pond"],
   ])("refuses %s, naming the path", (_name, change, expected) => {
