@@ -69,7 +69,21 @@ export function outfallRoutings(routing: SystemRouting): StormRouting[] {
   const main = routing.system.ponds.findIndex((p) => p.to < 0);
   return routing.storms.map(({ storm, result }) => ({
     storm,
-    result: { ...result.ponds[main], peakInflow: result.peakInflow, peakOutflow: result.peakOutflow, timeOfPeakOutflow: result.timeOfPeakOutflow, volumeIn: result.volumeIn, volumeOut: result.volumeOut, storageChange: result.storageChange, massBalanceError: result.massBalanceError, ceiling: result.ceiling },
+    result: {
+      ...result.ponds[main],
+      peakInflow: result.peakInflow,
+      peakOutflow: result.peakOutflow,
+      timeOfPeakOutflow: result.timeOfPeakOutflow,
+      peakAtPoint: result.peakAtPoint,
+      timeOfPeakAtPoint: result.timeOfPeakAtPoint,
+      bypassAtPeak: result.bypassAtPeak,
+      downstream: result.downstream,
+      volumeIn: result.volumeIn,
+      volumeOut: result.volumeOut,
+      storageChange: result.storageChange,
+      massBalanceError: result.massBalanceError,
+      ceiling: result.ceiling,
+    },
   }));
 }
 

@@ -1,6 +1,6 @@
 // Aligned console tables with a unit on every number.
 import type { Case } from "../model.js";
-import type { CaseRouting } from "../routing/routeCase.js";
+import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
 import type { Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
 import { formatter, quantityText, significant, trimNumber, type Formatter } from "../format.js";
@@ -63,7 +63,7 @@ export function stormTable(c: Case, routing: CaseRouting, layout: Layout = PLAIN
   });
   const table = renderTable(layout, columns, rows);
   const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakAtPoint, storm.target)) ? "\n! outside the target band" : "";
-  return [table.text + marks, ...pointLines(c, routing, layout), ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
+  return [table.text + marks, ...pointLines(c, routing.storms, layout), ...governingLimitLines(c).map((line) => wrap(line, layout.width, 4))].join("\n");
 }
 
 /** The storage table (exfiltration, surcharge, governing durations) with the line before it, or nothing. */
@@ -76,21 +76,25 @@ export function storageLines(c: Case, routing: CaseRouting, layout: Layout = PLA
  * What the point of analysis is, when a storm has a bypass, and each storm's flow at further points:
  * the reader sees where the target is measured.
  */
-export function pointLines(c: Case, routing: CaseRouting, layout: Layout = PLAIN): string[] {
+export function pointLines(c: Case, storms: readonly StormRouting[], layout: Layout = PLAIN): string[] {
   const f = formatter(c.units);
   const lines: string[] = [];
-  if (routing.storms.some(({ storm }) => storm.bypass)) {
-    lines.push("At point: the pond's outflow (spillway included) plus the runoff bypassing the pond, summed at each instant (the point of analysis); the target applies there.");
-    for (const { storm, result } of routing.storms) {
+  // A system of ponds: the flow reaching its outfall stands where one pond's outflow does.
+  const system = c.system !== undefined && c.system.ponds.length > 1;
+  const outflow = system ? "the flow reaching the outfall (every pond draining there, spillways included)" : "the pond's outflow (spillway included)";
+  if (storms.some(({ storm }) => storm.bypass)) {
+    lines.push(`At point: ${outflow} plus the runoff bypassing the ${system ? "ponds" : "pond"}, summed at each instant (the point of analysis); the target applies there.`);
+    for (const { storm, result } of storms) {
       if (!storm.bypass) continue;
-      lines.push(`  ${storm.name}: ${f.flow(result.peakAtPoint)} at ${(result.timeOfPeakAtPoint / 3600).toFixed(2)} h = outflow ${f.flow(result.peakAtPoint - result.bypassAtPeak)} + bypass ${f.flow(result.bypassAtPeak)} (bypass peak ${f.flow(hydrographPeak(storm.bypass))})`);
+      lines.push(`  ${storm.name}: ${f.flow(result.peakAtPoint)} at ${(result.timeOfPeakAtPoint / 3600).toFixed(2)} h = ${system ? "outfall" : "outflow"} ${f.flow(result.peakAtPoint - result.bypassAtPeak)} + bypass ${f.flow(result.bypassAtPeak)} (bypass peak ${f.flow(hydrographPeak(storm.bypass))})`);
     }
   }
-  const further = routing.storms.flatMap(({ storm, result }) =>
+  const further = storms.flatMap(({ storm, result }) =>
     storm.points.map((p) => {
       const peak = furtherPointPeak(storm, p, result);
       const target = p.target === null ? "no target" : `target ${f.flow(p.target)} (${percent(peak / p.target)})`;
-      return `  ${storm.name} at ${p.name}: ${f.flow(peak)}, ${target}; ${p.pond ? "pond outflow plus the runoff joining there" : "runoff not passing through the pond"}`;
+      const joined = system ? "the flow reaching the outfall plus the runoff joining there" : "pond outflow plus the runoff joining there";
+      return `  ${storm.name} at ${p.name}: ${f.flow(peak)}, ${target}; ${p.pond ? joined : `runoff not passing through the ${system ? "ponds" : "pond"}`}`;
     }),
   );
   if (further.length > 0) lines.push("Further points of analysis:", ...further);

@@ -15,7 +15,7 @@ import { stormJson, verdictJson, withinBand } from "./json.js";
 import { outletToFile } from "./outletFile.js";
 import { describeOutlet } from "./describe.js";
 import { CAUTION } from "./caution.js";
-import { assessmentLines, governingLimitLines } from "./console.js";
+import { assessmentLines, governingLimitLines, pointLines } from "./console.js";
 import { renderTable, wrap, PLAIN, type Column, type Layout, type Row } from "./terminal.js";
 import type { SeriesTable } from "./series.js";
 
@@ -88,33 +88,37 @@ export function singlePondJson(c: Case, s: StormRouting) {
   return [pondJson(c, { ...r, name, peakReverse: 0, timeOfPeakReverse: 0, volumeBack: 0, peakTotalInflow: r.peakInflow }, null)];
 }
 
-/** The storms at the outfall: peak, target and ratio, the system's inflow. */
+/** The storms at the outfall: peak, target and ratio (at the point of analysis with a bypass), the system's inflow. */
 function outfallTable(c: Case, routing: SystemRouting, layout: Layout): string {
   const f = formatter(c.units);
   const L = f.labels;
+  // With a bypass the target applies at the point of analysis: the flow reaching the outfall plus the bypass.
+  const atPoint = routing.storms.some(({ storm }) => storm.bypass);
   const columns: Column[] = [
     { head: "Storm" },
     { head: `Peak out\n(${L.flow})`, align: "right" },
+    ...(atPoint ? [{ head: `At point\n(${L.flow})`, align: "right" as const }] : []),
     { head: `Target\n(${L.flow})`, align: "right" },
-    { head: "Out/target\n(%)", align: "right" },
+    { head: atPoint ? "Point/target\n(%)" : "Out/target\n(%)", align: "right" },
     { head: "Peak at\n(min)", align: "right" },
     { head: "Return\n(yr)", align: "right", narrow: "detail" },
     { head: `Peak in\n(${L.flow})`, align: "right", narrow: "detail", label: "peak inflow, all ponds" },
   ];
   const rows: Row[] = routing.storms.map(({ storm, result }) => {
-    const inBand = withinBand(c, result.peakOutflow, storm.target);
+    const inBand = withinBand(c, result.peakAtPoint, storm.target);
     return [
       storm.name,
       significant(f.raw.flow(result.peakOutflow)),
+      ...(atPoint ? [storm.bypass ? significant(f.raw.flow(result.peakAtPoint)) : "-"] : []),
       storm.target === null ? "none" : significant(f.raw.flow(storm.target)),
-      storm.target ? { text: `${((100 * result.peakOutflow) / storm.target).toFixed(1)}${inBand ? "" : " !"}`, tone: inBand ? "pass" : "fail" } : "-",
+      storm.target ? { text: `${((100 * result.peakAtPoint) / storm.target).toFixed(1)}${inBand ? "" : " !"}`, tone: inBand ? "pass" : "fail" } : "-",
       (result.timeOfPeakOutflow / 60).toFixed(0),
       trimNumber(storm.returnPeriod, 2),
       significant(f.raw.flow(result.peakInflow)),
     ];
   });
-  const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakOutflow, storm.target)) ? "\n! outside the target band" : "";
-  return renderTable(layout, columns, rows).text + marks;
+  const marks = routing.storms.some(({ storm, result }) => storm.target !== null && !withinBand(c, result.peakAtPoint, storm.target)) ? "\n! outside the target band" : "";
+  return [renderTable(layout, columns, rows).text + marks, ...pointLines(c, outfallRoutings(routing), layout)].join("\n");
 }
 
 /** One pond's storms: stage, flows through its outlet both ways, what flowed back, drawdown. */
@@ -193,10 +197,18 @@ export function systemSeries(c: Case, routing: SystemRouting, k: number): Series
   const L = unitLabels(c.units);
   const ponds = routing.system.ponds;
   const curves = ponds.map((p) => storageCurve(p.pond));
-  const head = ["time (min)", `outfall (${L.flow})`, ...ponds.flatMap((p) => [`${p.name} inflow (${L.flow})`, `${p.name} stage (${L.length})`, `${p.name} storage (${L.volume})`, `${p.name} outflow (${L.flow})`])];
+  // With a bypass, the bypass and the flow at the point of analysis (outfall + bypass) at each time.
+  const bypass = series.bypass;
+  const head = [
+    "time (min)",
+    `outfall (${L.flow})`,
+    ...(bypass ? [`bypass (${L.flow})`, `at point (${L.flow})`] : []),
+    ...ponds.flatMap((p) => [`${p.name} inflow (${L.flow})`, `${p.name} stage (${L.length})`, `${p.name} storage (${L.volume})`, `${p.name} outflow (${L.flow})`]),
+  ];
   const rows = series.time.map((t, j) => [
     t / 60,
     u.flow(series.outfall[j]),
+    ...(bypass ? [u.flow(bypass[j]), u.flow(series.outfall[j] + bypass[j])] : []),
     ...ponds.flatMap((_, i) => [u.flow(series.inflow[i][j]), u.length(series.stage[i][j]), u.volume(curves[i].volume(series.stage[i][j])), u.flow(series.outflow[i][j])]),
   ]);
   return { head, rows };

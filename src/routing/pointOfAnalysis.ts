@@ -2,6 +2,7 @@
 // the pond, summed at each instant (case-format contract, "Bypass and the point of analysis"). The
 // router feeds each routing step to a tracker, which keeps the largest sum without allocating.
 import type { Hydrograph } from "../model.js";
+import type { RouteResult } from "./router.js";
 
 /** The largest flow at a point and when it occurred. */
 export interface PointPeak {
@@ -89,5 +90,55 @@ export class PointTracker {
 
   result(): PointPeak {
     return { peak: this.peak, time: this.time, bypass: this.bypassAtPeak };
+  }
+}
+
+/**
+ * The point of analysis (with a bypass) and the further points a routed flow reaches, tracked together
+ * by a router: a pond's outflow, or the flow reaching a system's outfall.
+ */
+export class PointsOfAnalysis {
+  readonly point: PointTracker | null;
+  readonly others: PointTracker[] | null;
+  /** The last time (s) any of them has a point (-Infinity with none): the routing goes on at least to it. */
+  readonly last: number;
+
+  constructor(bypass: Hydrograph | undefined, downstream: readonly Hydrograph[] | undefined) {
+    this.point = bypass ? new PointTracker(bypass) : null;
+    this.others = downstream?.map((h) => new PointTracker(h)) ?? null;
+    let last = this.point ? this.point.last : -Infinity;
+    if (this.others) for (const o of this.others) if (o.last > last) last = o.last;
+    this.last = last;
+  }
+
+  start(t: number, o: number): void {
+    this.point?.start(t, o);
+    if (this.others) for (const p of this.others) p.start(t, o);
+  }
+
+  step(t1: number, o1: number, t2: number, o2: number): void {
+    if (this.point) this.point.step(t1, o1, t2, o2);
+    if (this.others) for (const p of this.others) p.step(t1, o1, t2, o2);
+  }
+
+  finish(o: number): void {
+    this.point?.finish(o);
+    if (this.others) for (const p of this.others) p.finish(o);
+  }
+
+  /** The flow at the point of analysis at time t when the routed flow is o there (o alone without a bypass). */
+  atPoint(t: number, o: number): number {
+    return this.point ? o + this.point.at(t) : o;
+  }
+
+  /** A router's result fields at the points, given the routed flow's own peak and its time. */
+  result(peak: number, time: number): Pick<RouteResult, "peakAtPoint" | "timeOfPeakAtPoint" | "bypassAtPeak" | "downstream"> {
+    const point = this.point;
+    return {
+      peakAtPoint: point ? point.peak : peak,
+      timeOfPeakAtPoint: point ? point.time : time,
+      bypassAtPeak: point ? point.bypassAtPeak : 0,
+      downstream: this.others?.map((o) => o.result()),
+    };
   }
 }

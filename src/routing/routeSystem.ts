@@ -4,6 +4,7 @@
 import type { Case, Hydrograph, Outlet, PondSystem, Storm } from "../model.js";
 import { buildRatingTable, ratingBreaks, ratingOnsets, stageGrid, type RatingTable } from "./ratingTable.js";
 import { buildLinkTable, LINK_INTERVALS, type LinkTable } from "./linkTable.js";
+import { stormRouteOptions } from "./routeCase.js";
 import { routeSystem, type SystemRouteOptions, type SystemRouteResult, type SystemRoutePond } from "./systemRouter.js";
 
 
@@ -74,7 +75,7 @@ export function routeSystemCase(c: Case, outlets?: readonly Outlet[], options: R
   const routeOptions: SystemRouteOptions = { step: options.step, record: options.record };
   const storms = c.storms.map((storm) => ({
     storm,
-    result: routeSystem(ponds, stormInflows(storm, system), { ...routeOptions, ceiling: storm.ceiling?.hydrograph }),
+    result: routeSystem(ponds, stormInflows(storm, system), { ...routeOptions, ...stormRouteOptions(storm) }),
   }));
   return { system, outlets: [...used], ponds, tables, storms };
 }

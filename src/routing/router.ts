@@ -9,7 +9,7 @@ import type { Hydrograph } from "../model.js";
 import type { RatingTable } from "./ratingTable.js";
 import { interpolateAtStage } from "./ratingTable.js";
 import { hydrographVolume } from "../hydrology/hydrograph.js";
-import { PointTracker, type PointPeak } from "./pointOfAnalysis.js";
+import { PointsOfAnalysis, type PointPeak } from "./pointOfAnalysis.js";
 
 export interface RouteOptions {
   /** Fixed time step (s). Without it the router chooses and refines the step itself. */
@@ -239,14 +239,11 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
   const cLast = cTimes ? cTimes[cTimes.length - 1] : -Infinity;
   let cj = 0;
   let cMargin = Infinity;
-  const point = options.bypass ? new PointTracker(options.bypass) : null;
-  const others = options.downstream?.map((h) => new PointTracker(h)) ?? null;
-  point?.start(t, Q1);
-  if (others) for (const o of others) o.start(t, Q1);
+  const points = new PointsOfAnalysis(options.bypass, options.downstream);
+  const point = points.point;
+  points.start(t, Q1);
   // The routing goes on at least to the last bypass point, so every sum at a point is routed.
-  let tPoint = tLast;
-  if (point && point.last > tPoint) tPoint = point.last;
-  if (others) for (const o of others) if (o.last > tPoint) tPoint = o.last;
+  const tPoint = Math.max(tLast, points.last);
   let cOutflow = 0;
   let cLimit = 0;
   let cTime = 0;
@@ -262,7 +259,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       cTime = tt;
     }
   };
-  compareCeiling(t, point ? Q1 + point.at(t) : Q1);
+  compareCeiling(t, points.atPoint(t, Q1));
 
   const record = options.record === true;
   const series: RouteSeries | undefined = record ? { time: [t], inflow: [I1], outflow: [Q1], stage: [H1] } : undefined;
@@ -378,9 +375,8 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     if (H2 <= drained && !(H1 <= drained)) drainedAt = t2 - (dt * (drained - H2)) / (H1 - H2);
     else if (H2 > drained) drainedAt = NaN;
     // Exfiltration goes into the ground: the point of analysis receives the outlet's outflow.
-    if (point) point.step(t, Q1, t2, Q2);
-    if (others) for (const o of others) o.step(t, Q1, t2, Q2);
-    if (ceiling) compareCeiling(t2, point ? Q2 + point.at(t2) : Q2);
+    points.step(t, Q1, t2, Q2);
+    if (ceiling) compareCeiling(t2, points.atPoint(t2, Q2));
     if (record) {
       series!.time.push(t2);
       series!.inflow.push(I2);
@@ -405,8 +401,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
       if (O2 * (tEnd - t) < S2 - drainedStorage && t >= tPoint) break;
     }
   }
-  point?.finish(Q1);
-  if (others) for (const o of others) o.finish(Q1);
+  points.finish(Q1);
 
   const storageChange = S1 - S0;
   // Steps land on every inflow point in the automatic mode, so the trapezoid sum is the exact volume;
@@ -420,10 +415,7 @@ export function route(table: RatingTable, inflow: Hydrograph, options: RouteOpti
     peakInflow,
     peakOutflow,
     timeOfPeakOutflow,
-    peakAtPoint: point ? point.peak : peakOutflow,
-    timeOfPeakAtPoint: point ? point.time : timeOfPeakOutflow,
-    bypassAtPeak: point ? point.bypassAtPeak : 0,
-    downstream: others?.map((o) => o.result()),
+    ...points.result(peakOutflow, timeOfPeakOutflow),
     maxStage,
     timeOfMaxStage,
     maxStorage,

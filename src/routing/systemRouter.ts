@@ -20,6 +20,7 @@ import type { LinkTable } from "./linkTable.js";
 import type { CeilingApproach, RouteResult } from "./router.js";
 import { routingTally } from "./router.js";
 import { hydrographVolume } from "../hydrology/hydrograph.js";
+import { PointsOfAnalysis } from "./pointOfAnalysis.js";
 
 /** One pond as the system router sees it. */
 export interface SystemRoutePond {
@@ -43,8 +44,15 @@ export interface SystemRouteOptions {
   step?: number;
   /** Keep the series of every pond (for plots and CSV). */
   record?: boolean;
-  /** A hydrograph the flow reaching the outfall must stay under (release-limit form). */
+  /** A hydrograph the flow reaching the outfall (plus the bypass, with one) must stay under (release-limit form). */
   ceiling?: Hydrograph;
+  /**
+   * Runoff that bypasses every pond and joins the flow reaching the outfall at the point of analysis:
+   * the router tracks the largest sum (`peakAtPoint`), as the single router does with a pond's outflow.
+   */
+  bypass?: Hydrograph;
+  /** Runoff joining the flow reaching the outfall at further points (one per point): their largest sums in `downstream`. */
+  downstream?: readonly Hydrograph[];
   /** Seconds simulated after the last inflow point at most (default 10 days). */
   maxAfterInflow?: number;
   maxStep?: number;
@@ -69,6 +77,8 @@ export interface SystemSeries {
   time: number[];
   /** Flow reaching the outfall (m3/s). */
   outfall: number[];
+  /** With a bypass: the bypass at each time (outfall + bypass is the flow at the point of analysis). */
+  bypass?: number[];
   /** Per pond: stage (m), own inflow (m3/s), flow through its outlet (m3/s, negative back). */
   stage: number[][];
   inflow: number[][];
@@ -81,7 +91,7 @@ export interface SystemSeries {
 export interface SystemRouteResult
   extends Pick<
     RouteResult,
-    "peakInflow" | "peakOutflow" | "timeOfPeakOutflow" | "volumeIn" | "volumeOut" | "storageChange" | "massBalanceError" | "duration" | "steps" | "smallestStep" | "largestStep" | "refinedSteps" | "redoneSteps" | "clampedSteps" | "beyondTable" | "ceiling"
+    "peakInflow" | "peakOutflow" | "timeOfPeakOutflow" | "peakAtPoint" | "timeOfPeakAtPoint" | "bypassAtPeak" | "downstream" | "volumeIn" | "volumeOut" | "storageChange" | "massBalanceError" | "duration" | "steps" | "smallestStep" | "largestStep" | "refinedSteps" | "redoneSteps" | "clampedSteps" | "beyondTable" | "ceiling"
   > {
   ponds: PondRouteResult[];
   /** Newton iterations over all steps, and steps that did not converge in NEWTON_ITERATIONS (done again shorter, or kept with a fixed step). */
@@ -304,13 +314,20 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     peakSystemIn = sum;
   }
 
+  // The point of analysis: the flow reaching the outfall plus the bypass (the single router's tracker).
+  const points = new PointsOfAnalysis(options.bypass, options.downstream);
+  const point = points.point;
+  points.start(t, outfall1);
+  // The routing goes on at least to the last bypass point, so every sum at a point is routed.
+  const tPoint = Math.max(tLast, points.last);
   const ceiling = options.ceiling ? new CeilingTracker(options.ceiling) : null;
-  ceiling?.compare(t, outfall1);
+  ceiling?.compare(t, points.atPoint(t, outfall1));
 
   const record = options.record === true;
   const series: SystemSeries | undefined = record
     ? { time: [t], outfall: [outfall1], stage: ponds.map((_, i) => [h[i]]), inflow: ponds.map((_, i) => [I1[i]]), outflow: ponds.map((_, i) => [q[i]]) }
     : undefined;
+  if (series && point) series.bypass = [point.at(t)];
 
   let steps = 0;
   let smallest = Infinity;
@@ -496,10 +513,12 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       peakOutfall = outfall2;
       timeOfPeakOutfall = t2;
     }
-    ceiling?.compare(t2, outfall2);
+    points.step(t, outfall1, t2, outfall2);
+    ceiling?.compare(t2, points.atPoint(t2, outfall2));
     if (record) {
       series!.time.push(t2);
       series!.outfall.push(outfall2);
+      if (point) series!.bypass!.push(point.at(t2));
       for (let i = 0; i < n; i++) {
         series!.stage[i].push(h[i]);
         series!.inflow[i].push(I2[i]);
@@ -519,12 +538,13 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       if (S[i] > drainedStorage[i]) stored += S[i] - drainedStorage[i];
     }
     if (t >= tLast) {
-      if (allDrained || t >= tEnd) break;
+      if ((allDrained && t >= tPoint) || t >= tEnd) break;
       // With no inflow left the outflow only falls: if even the present flow to the outfall kept up
       // until the end could not empty the stored water, the system does not drain in the time.
-      if (outfall2 * (tEnd - t) < stored) break;
+      if (outfall2 * (tEnd - t) < stored && t >= tPoint) break;
     }
   }
+  points.finish(outfall1);
 
   let volumeIn = 0;
   let storageChange = 0;
@@ -576,6 +596,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     peakInflow: peakSystemIn,
     peakOutflow: peakOutfall,
     timeOfPeakOutflow: timeOfPeakOutfall,
+    ...points.result(peakOutfall, timeOfPeakOutfall),
     volumeIn,
     volumeOut: volumeOutfall,
     storageChange,

@@ -95,6 +95,33 @@ describe("route on a system of ponds", () => {
   });
 });
 
+describe("route on a system of ponds with a bypass", () => {
+  it("judges the target at the point of analysis (the flow reaching the outfall plus the bypass): JSON, tables and CSV say so", () => {
+    const json = JSON.parse(readFileSync(join(ROOT, CASE), "utf8"));
+    const bypass = { series: [[0, 0], [600, 2], [760, 9], [900, 3], [1200, 0]] };
+    const file = join(ROOT, "cases", "two-ponds", "with-bypass.tmp.json");
+    writeFileSync(file, JSON.stringify({ ...json, storms: json.storms.map((s: object) => ({ ...s, bypass })) }));
+    const dir = mkdtempSync(join(tmpdir(), "outfit-system-bypass-"));
+    try {
+      const routed = JSON.parse(outfit("route", file, "--json").stdout) as { storms: (StormJson & { peakAtPoint: number; bypassAtPeak: number; peakBypass: number })[]; checks: { pond?: string; kind: string; value: number; storm: string }[] };
+      for (const storm of routed.storms) {
+        expect(storm.peakAtPoint, storm.name).toBeGreaterThan(storm.peakOutflow);
+        expect(storm.peakAtPoint, storm.name).toBeLessThanOrEqual(storm.peakOutflow + storm.peakBypass + 1e-9);
+        expect(storm.ratio).toBeCloseTo(storm.peakAtPoint / storm.target!, 12);
+        const check = routed.checks.find((k) => k.pond === "outfall" && k.kind === "peak-upper" && k.storm === storm.name)!;
+        expect(check.value).toBeCloseTo(storm.peakAtPoint, 9);
+      }
+      const text = outfitWith({ COLUMNS: "80" }, "route", file);
+      expect(widest(text.stdout)).toBeLessThanOrEqual(80);
+      expect(text.stdout).toContain("At point: the flow reaching the outfall");
+      expect(outfit("route", file, "--csv-dir", dir).status).toBe(0);
+      expect(readFileSync(join(dir, "10-yr.csv"), "utf8").split("\n")[0]).toMatch(/^time \(min\),outfall \(cfs\),bypass \(cfs\),at point \(cfs\),/);
+    } finally {
+      rmSync(file);
+    }
+  });
+});
+
 describe("the other commands on a system of ponds", () => {
   it("design says that systems are routed and checked but designed in a later version (exit 2, no stack)", () => {
     const r = outfit("design", CASE);

@@ -229,19 +229,28 @@ function flowsChart(id: string, c: Case, routing: SystemRouting, k: number): str
   const references: ReferenceLine[] = [{ key: "zero", axis: "y", value: 0, label: "", style: { colour: INK, dash: "dotted", width: 1, marker: "none" } }];
   if (storm.target !== null) {
     const [low, high] = targetBand(storm.target, c.criteria);
-    bands.push({ key: "target-band", axis: "y", from: u.flow(low), to: u.flow(high), label: `target band at the outfall ${[low, high].map(f.flow).join(" to ")}`, colour: PALETTE.reddishPurple });
+    bands.push({ key: "target-band", axis: "y", from: u.flow(low), to: u.flow(high), label: `target band ${series.bypass ? "at the point of analysis" : "at the outfall"} ${[low, high].map(f.flow).join(" to ")}`, colour: PALETTE.reddishPurple });
   }
   const links: Series[] = ponds.flatMap((p, i) => (p.to < 0 ? [] : [{ key: `link-${i + 1}`, label: `${p.name} into ${ponds[p.to].name} (below 0: back)`, points: between(hoursOf, series.outflow[i].map(u.flow), window), style: { ...cycleStyle(i + 2), width: 1.8 } }]));
+  // With a bypass the target applies at the point of analysis: the flow reaching the outfall plus the bypass.
+  const bypass = series.bypass;
+  const atPoint: Series[] = bypass
+    ? [
+        { key: "bypass", label: "bypass", points: between(hoursOf, bypass.map(u.flow), window), style: { colour: PALETTE.bluishGreen, dash: "dotted", width: 2, marker: "triangle" } },
+        { key: "at-point", label: "at the point of analysis (outfall + bypass)", points: between(hoursOf, series.outfall.map((q, j) => u.flow(q + bypass[j])), window), style: { colour: INK, dash: "solid", width: 2.4, marker: "none" } },
+      ]
+    : [];
   return chart({
     id,
     key: "flows",
     title: `${storm.name}: flows`,
-    description: `The ponds' inflows together, the flow reaching the outfall and the flow through every link between ponds (negative where it runs back) from ${window[0].toFixed(1)} to ${window[1].toFixed(1)} h.`,
+    description: `The ponds' inflows together, the flow reaching the outfall${bypass ? ", the bypass and the flow at the point of analysis" : ""} and the flow through every link between ponds (negative where it runs back) from ${window[0].toFixed(1)} to ${window[1].toFixed(1)} h.`,
     x: { label: "Time from start of storm", unit: "h", domain: window },
     y: { label: "Flow", unit: f.labels.flow, includeZero: true },
     series: [
       { key: "inflow", label: "inflow, all ponds", points: between(hoursOf, total.map(u.flow), window), style: { colour: PALETTE.blue, dash: "solid", width: 2, marker: "none" } },
       { key: "outfall", label: "at the outfall", points: between(hoursOf, series.outfall.map(u.flow), window), style: { colour: PALETTE.vermillion, dash: "dashed", width: 2, marker: "square" } },
+      ...atPoint,
       ...links,
     ],
     bands,
@@ -265,17 +274,21 @@ function pondResultsTable(c: Case, routing: SystemRouting, k: number): TableBloc
   };
 }
 
-/** The flow reaching the outfall per storm, against its target. */
+/** The flow reaching the outfall per storm, against its target (at the point of analysis where a storm has a bypass). */
 function outfallTable(c: Case, routing: SystemRouting): TableBlock {
   const f = formatter(c.units);
+  const atPoint = routing.storms.some(({ storm }) => storm.bypass);
   return {
     kind: "table",
-    caption: "At the outfall: the ponds that drain there, together",
-    head: ["Storm", "Inflow, all ponds", "Peak at the outfall", "Target", "Outflow / target", "Inflow volume", "Mass balance"],
-    numeric: [false, true, true, true, true, true, true],
+    caption: atPoint
+      ? "At the outfall: the ponds that drain there, together; at point: that flow plus the runoff bypassing the ponds, summed at each instant (the target applies there)"
+      : "At the outfall: the ponds that drain there, together",
+    head: ["Storm", "Inflow, all ponds", "Peak at the outfall", ...(atPoint ? ["Peak at point"] : []), "Target", atPoint ? "Point / target" : "Outflow / target", "Inflow volume", "Mass balance"],
+    numeric: [false, true, true, ...(atPoint ? [true] : []), true, true, true, true],
     rows: routing.storms.map(({ storm, result }) => {
-      const ratio: Cell = storm.target === null ? { text: "no target" } : { text: percent(result.peakOutflow / storm.target), tone: withinBand(c, result.peakOutflow, storm.target) ? "pass" : "fail" };
-      return [storm.name, f.flow(result.peakInflow), f.flow(result.peakOutflow), storm.target === null ? "none" : targetText(c, storm), ratio, f.volume(result.volumeIn), `${significant(100 * result.massBalanceError)} %`];
+      const peak = result.peakAtPoint;
+      const ratio: Cell = storm.target === null ? { text: "no target" } : { text: percent(peak / storm.target), tone: withinBand(c, peak, storm.target) ? "pass" : "fail" };
+      return [storm.name, f.flow(result.peakInflow), f.flow(result.peakOutflow), ...(atPoint ? [storm.bypass ? f.flow(peak) : "-"] : []), storm.target === null ? "none" : targetText(c, storm), ratio, f.volume(result.volumeIn), `${significant(100 * result.massBalanceError)} %`];
     }),
   };
 }

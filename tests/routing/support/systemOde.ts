@@ -21,6 +21,8 @@ export interface SystemOdeResult {
   peakReverse: number[];
   /** Largest flow reaching the outfall (m3/s). */
   peakOutfall: number;
+  /** With `options.bypass`: the largest flow reaching the outfall plus the bypass at the same instant (m3/s). */
+  peakAtPoint: number;
   evaluations: number;
 }
 
@@ -33,6 +35,8 @@ export interface SystemOdeOptions {
   tolerance?: number;
   /** Each link's flow (up, down) instead of `linkFlow`, by pond index (e.g. the barrel tabulated). */
   links?: ((up: number, down: number) => number)[];
+  /** Runoff joining the flow reaching the outfall (the point of analysis): sampled with it, and its points are restarts. */
+  bypass?: Hydrograph;
 }
 
 /** Integrates the system's storage equations through one storm's inflows with odex. */
@@ -48,6 +52,7 @@ export function routeSystemByOde(c: Case, inflows: readonly (Hydrograph | null)[
   });
   const points = new Set<number>();
   for (const h of inflows) if (h) for (const t of h.times) points.add(t);
+  if (options.bypass) for (const t of options.bypass.times) points.add(t);
   const bounds = [...points].sort((a, b) => a - b);
   const end = bounds[bounds.length - 1] + (options.after ?? 0);
   if (end > bounds[bounds.length - 1]) bounds.push(end);
@@ -63,7 +68,9 @@ export function routeSystemByOde(c: Case, inflows: readonly (Hydrograph | null)[
   const peakForward = system.ponds.map(() => 0);
   const peakReverse = system.ponds.map(() => 0);
   let peakOutfall = 0;
-  const observe = (y: number[]) => {
+  let peakAtPoint = 0;
+  const bypassAt = (t: number) => (options.bypass ? segmentLine(options.bypass, t, t)[0] : 0);
+  const observe = (y: number[], t: number) => {
     const h = stages(y);
     let outfall = 0;
     for (let i = 0; i < n; i++) {
@@ -74,9 +81,10 @@ export function routeSystemByOde(c: Case, inflows: readonly (Hydrograph | null)[
       if (system.ponds[i].to < 0) outfall += q;
     }
     peakOutfall = Math.max(peakOutfall, outfall);
+    peakAtPoint = Math.max(peakAtPoint, outfall + bypassAt(t));
   };
   let y = system.ponds.map((p, i) => curves[i].volume(p.pond.pool));
-  observe(y);
+  observe(y, bounds[0]);
   let nextSample = bounds[0] + sampleStep;
   for (let s = 0; s + 1 < bounds.length; s++) {
     const t0 = bounds[s];
@@ -98,15 +106,15 @@ export function routeSystemByOde(c: Case, inflows: readonly (Hydrograph | null)[
     const result = solver.solve(rhs, t0, y, t1, (_step, xOld, x, yy, dense) => {
       while (nextSample <= x + 1e-9 && nextSample <= t1) {
         const value = nextSample <= xOld || dense === undefined || nextSample >= x ? yy : yy.map((_, i) => dense(i, nextSample));
-        observe(value);
+        observe(value, nextSample);
         nextSample += sampleStep;
       }
     });
     if (result.outcome !== Outcome.Converged) throw new Error(`odex did not converge on [${t0}, ${t1}] s`);
     y = result.y;
-    observe(y);
+    observe(y, t1);
   }
-  return { maxStage, peakForward, peakReverse, peakOutfall, evaluations };
+  return { maxStage, peakForward, peakReverse, peakOutfall, peakAtPoint, evaluations };
 }
 
 /** A hydrograph's line [value at t0, slope] over [t0, t1] (inside one segment of its points), zero outside its span. */
