@@ -56,6 +56,8 @@ export function pondCase(c: Case, system: PondSystem, index: number): Case {
     outlet: p.outlet,
     tailwater: p.to < 0 ? c.tailwater : { kind: "elevation", elevation: system.ponds[p.to].pond.pool },
     storms: c.storms.map((s) => pondStorm(s, index)),
+    // The plausibility of the pond's own sizes, under the single pond's path (re-rooted when reported).
+    sizeWarnings: (c.sizeWarnings ?? []).filter((w) => w.part.startsWith(`ponds[${index}].outlet`)).map((w) => ({ ...w, part: w.part.slice(`ponds[${index}].`.length) })),
   };
 }
 

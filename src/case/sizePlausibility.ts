@@ -34,7 +34,9 @@ export function bareSizeWarnings(file: CaseFile): SizeWarning[] {
     return typeof x === "number" ? x : NaN;
   };
   const out: SizeWarning[] = [];
-  const barrel = file.outlet?.barrel;
+  // A system of ponds: each pond's outlet under its own path (the catalogue is compared with the outfall's barrel).
+  const outlets = file.ponds ? file.ponds.map((p, i) => ({ outlet: p.outlet, root: `ponds[${i}].outlet` })) : file.outlet ? [{ outlet: file.outlet, root: "outlet" }] : [];
+  const barrel = file.ponds ? file.ponds.find((p) => p.to === "outfall")?.outlet.barrel : file.outlet?.barrel;
   const barrelRise = barrel ? si(barrelFileRise(barrel).value) : null;
   // The catalogue's orifices drain into the outlet's barrel, or at least into the catalogue's largest.
   const largestBarrel = barrelRise ?? (file.catalogue?.barrel ? Math.max(...file.catalogue.barrel.diameters.map(si)) : null);
@@ -50,11 +52,14 @@ export function bareSizeWarnings(file: CaseFile): SizeWarning[] {
       out.push({ part: path, reason: `${read(value)}: a ${f.length(size)} ${what} is implausibly large (over ${f.length(limit)}).${meant(value)}` });
     }
   };
-  /** A part's own size (`fileSizes`) under `at`. */
-  const checkSize = (at: string, s: FileSize) => check(`${at}.${s.field}`, s.value, s.what, s.intoBarrel ? barrelRise : null);
-  (file.outlet?.elements ?? []).forEach((e, i) => partOf(e).fileSizes(e).forEach((s) => checkSize(`outlet.elements[${i}]`, s)));
-  if (file.outlet?.riser) riserFileSizes(file.outlet.riser).forEach((s) => checkSize("outlet.riser", s));
-  if (barrel) checkSize("outlet.barrel", barrelFileRise(barrel));
+  for (const { outlet, root } of outlets) {
+    const rise = outlet.barrel ? si(barrelFileRise(outlet.barrel).value) : null;
+    /** A part's own size (`fileSizes`) under `at`. */
+    const checkSize = (at: string, s: FileSize) => check(`${at}.${s.field}`, s.value, s.what, s.intoBarrel ? rise : null);
+    (outlet.elements ?? []).forEach((e, i) => partOf(e).fileSizes(e).forEach((s) => checkSize(`${root}.elements[${i}]`, s)));
+    if (outlet.riser) riserFileSizes(outlet.riser).forEach((s) => checkSize(`${root}.riser`, s));
+    if (outlet.barrel) checkSize(`${root}.barrel`, barrelFileRise(outlet.barrel));
+  }
   const cat = file.catalogue;
   const catalogueInto = (rise: string) => `${barrelRise !== null ? "the" : "the largest"} ${rise} barrel it would drain into`;
   (cat?.orifice?.diameters ?? []).forEach((d, i) => check(`catalogue.orifice.diameters[${i}]`, d, "orifice", largestBarrel, catalogueInto));

@@ -96,3 +96,18 @@ describe("a system of ponds in the case file", () => {
     expect(c.storms[0].inflows![0]).toBe(c.storms[0].inflow);
   });
 });
+
+describe("a bare-number size in a pond's outlet", () => {
+  it("is warned of under that pond's path in the system's checks (a 12 ft orifice was meant as 12 in)", async () => {
+    const { routeSystemCase } = await import("../../src/routing/routeSystem.js");
+    const { assessSystem } = await import("../../src/assess/systemAssess.js");
+    const c = parseCase(
+      system((json) => {
+        json.ponds[1].outlet.elements[0].diameter = 12;
+      }),
+      { label: "case.json" },
+    ).case;
+    const warnings = assessSystem(c, routeSystemCase(c)).warnings.filter((w) => w.reason.includes("bare number"));
+    expect(warnings.map((w) => w.part)).toEqual(["ponds[1].outlet.elements[0].diameter"]);
+  });
+});
