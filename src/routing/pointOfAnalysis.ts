@@ -2,7 +2,6 @@
 // the pond, summed at each instant (case-format contract, "Bypass and the point of analysis"). The
 // router feeds each routing step to a tracker, which keeps the largest sum without allocating.
 import type { Hydrograph } from "../model.js";
-import type { RouteResult } from "./router.js";
 
 /** The largest flow at a point and when it occurred. */
 export interface PointPeak {
@@ -93,6 +92,16 @@ export class PointTracker {
   }
 }
 
+/** A router's results at the points (the fields of its result of the same names). */
+export interface PointsResult {
+  /** Largest flow at the point of analysis (the routed flow's own peak without a bypass), when (s), and the bypass's share of it. */
+  peakAtPoint: number;
+  timeOfPeakAtPoint: number;
+  bypassAtPeak: number;
+  /** The largest flow at each further point, when there are any. */
+  downstream: PointPeak[] | undefined;
+}
+
 /**
  * The point of analysis (with a bypass) and the further points a routed flow reaches, tracked together
  * by a router: a pond's outflow, or the flow reaching a system's outfall.
@@ -102,6 +111,8 @@ export class PointsOfAnalysis {
   readonly others: PointTracker[] | null;
   /** The last time (s) any of them has a point (-Infinity with none): the routing goes on at least to it. */
   readonly last: number;
+  /** Whether there is any point to track (a router skips `step` without: its arguments would be boxed for nothing). */
+  readonly active: boolean;
 
   constructor(bypass: Hydrograph | undefined, downstream: readonly Hydrograph[] | undefined) {
     this.point = bypass ? new PointTracker(bypass) : null;
@@ -109,6 +120,7 @@ export class PointsOfAnalysis {
     let last = this.point ? this.point.last : -Infinity;
     if (this.others) for (const o of this.others) if (o.last > last) last = o.last;
     this.last = last;
+    this.active = this.point !== null || this.others !== null;
   }
 
   start(t: number, o: number): void {
@@ -132,7 +144,7 @@ export class PointsOfAnalysis {
   }
 
   /** A router's result fields at the points, given the routed flow's own peak and its time. */
-  result(peak: number, time: number): Pick<RouteResult, "peakAtPoint" | "timeOfPeakAtPoint" | "bypassAtPeak" | "downstream"> {
+  result(peak: number, time: number): PointsResult {
     const point = this.point;
     return {
       peakAtPoint: point ? point.peak : peak,
