@@ -39,6 +39,64 @@ export function time(body: () => void, options: { rounds?: number; roundSeconds?
   return { seconds: perCall[0], median: perCall[Math.floor(rounds / 2)], calls };
 }
 
+/** Processor time of this process (user and system, all its threads) in seconds. */
+function cpuSeconds(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1e6;
+}
+
+export interface Comparison {
+  /** Processor seconds per call of each body: the fastest round's and the median round's. */
+  a: { fastest: number; median: number };
+  b: { fastest: number; median: number };
+  /** a / b in each round, sorted: its median, least and most. */
+  ratio: { median: number; least: number; most: number };
+}
+
+/**
+ * Compares the cost of two bodies by the processor time this process spends on each, in rounds that
+ * alternate between them (so both meet the same load from other work on a shared machine), each
+ * round about `roundSeconds` of the slower. Processor time, not wall time: on a machine whose cores
+ * other work holds, wall time counts the waits; the median ratio of the rounds is the figure.
+ */
+export function compare(a: () => void, b: () => void, options: { rounds?: number; roundSeconds?: number } = {}): Comparison {
+  const rounds = options.rounds ?? 9;
+  const roundSeconds = options.roundSeconds ?? 0.3;
+  const perCall = (body: () => void, calls: number) => {
+    const t0 = cpuSeconds();
+    for (let i = 0; i < calls; i++) body();
+    return (cpuSeconds() - t0) / calls;
+  };
+  // Warm-up, and the calls per round.
+  const callsFor = (body: () => void) => {
+    let calls = 1;
+    for (;;) {
+      const t = perCall(body, calls) * calls;
+      if (t > roundSeconds / 4) return Math.max(1, Math.round((calls * roundSeconds) / t));
+      calls *= 2;
+    }
+  };
+  const ca = callsFor(a);
+  const cb = callsFor(b);
+  const ta: number[] = [];
+  const tb: number[] = [];
+  const ratios: number[] = [];
+  for (let r = 0; r < rounds; r++) {
+    const x = perCall(a, ca);
+    const y = perCall(b, cb);
+    ta.push(x);
+    tb.push(y);
+    ratios.push(x / y);
+  }
+  const sorted = (v: number[]) => [...v].sort((p, q) => p - q);
+  const median = (v: number[]) => sorted(v)[Math.floor(v.length / 2)];
+  return {
+    a: { fastest: sorted(ta)[0], median: median(ta) },
+    b: { fastest: sorted(tb)[0], median: median(tb) },
+    ratio: { median: median(ratios), least: sorted(ratios)[0], most: sorted(ratios)[ratios.length - 1] },
+  };
+}
+
 let collector: (() => void) | undefined;
 /** A full garbage collection (exposed at run time, so `npm run bench` needs no node flag). */
 export function collectGarbage(): void {

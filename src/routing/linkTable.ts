@@ -26,6 +26,12 @@ import { barrelRise } from "../parts/barrel.js";
 import { LinkEvaluator } from "../hydraulics/link.js";
 import { storageBreaks } from "../storage/curve.js";
 
+/**
+ * Level difference (m) over which the system router takes a link's flow as a chord for its time
+ * constant, so that levels at rest against each other do not shrink the step to nothing.
+ */
+export const CHORD_DIFFERENCE = 0.002;
+
 /** Uniform intervals of each stage axis over its pond's depth. */
 export const LINK_INTERVALS = 100;
 /** Grading above each onset on the stage axes: ratio of neighbouring intervals, first interval as a fraction of the uniform step. */
@@ -108,6 +114,11 @@ export class LinkTable {
   dDown = 0;
   /** The last look-up fell outside the table (extrapolated). */
   beyond = false;
+  /**
+   * The cell of the last look-up (a number that differs between any two cells of either table): two
+   * look-ups in the same cell are on one bilinear piece (the system router's test of convergence).
+   */
+  cell = 0;
   private i = 0;
   private j = 0;
   private bi = 0;
@@ -130,43 +141,75 @@ export class LinkTable {
     let largest = 0;
     for (const q of gridFlow) if (Math.abs(q) > largest) largest = Math.abs(q);
     this.largestFlow = largest;
+    const inverse = (axis: Float64Array) => Float64Array.from({ length: axis.length - 1 }, (_, k) => 1 / (axis[k + 1] - axis[k]));
+    this.upInverse = inverse(up);
+    this.downInverse = inverse(down);
+    this.differenceInverse = inverse(difference);
   }
 
   /** Flow (m3/s, positive from the upstream pond into the downstream one) at two stages; sets `dUp`, `dDown`. */
   flow(x: number, y: number): number {
-    const d = x - y;
-    return d < this.band && d > -this.band ? this.inBand(x, d) : this.onGrid(x, y);
+    this.lookup(x, y);
+    return this.q;
   }
 
-  private onGrid(x: number, y: number): number {
-    const i = (this.i = walk(this.up, this.i, x));
-    const j = (this.j = walk(this.down, this.j, y));
-    const q = this.bilinear(this.gridFlow, i, j, this.down.length, this.up, this.down, x, y);
-    this.dUp = this.byX;
-    this.dDown = this.byY;
-    return q;
+  /** The flow of the last look-up (m3/s): the router reads it here, so that no number is boxed per call. */
+  q = 0;
+  private readonly pair = new Float64Array(2);
+  /** 1 / the width of each interval of the three axes. */
+  private readonly upInverse: Float64Array;
+  private readonly downInverse: Float64Array;
+  private readonly differenceInverse: Float64Array;
+
+  /** Sets `q`, `dUp`, `dDown`, `cell` and `beyond` at two stages. */
+  lookup(x: number, y: number): void {
+    this.pair[0] = x;
+    this.pair[1] = y;
+    this.lookupIn(this.pair, 0, 1);
   }
 
-  private inBand(x: number, d: number): number {
-    const i = (this.bi = walk(this.up, this.bi, x));
-    const k = (this.k = walk(this.difference, this.k, d));
-    const q = this.bilinear(this.bandFlow, i, k, this.difference.length, this.up, this.difference, x, d);
-    // Q(x, d) with d = x - y: dQ/dx at a fixed downstream stage is dQ/dx + dQ/dd; dQ/dy is -dQ/dd.
-    this.dUp = this.byX + this.byY;
-    this.dDown = -this.byY;
-    return q;
+  /** `lookup` with the downstream stage x[down] and the upstream one CHORD_DIFFERENCE above it (the router's chord near equal levels). */
+  lookupChord(x: Float64Array, down: number): void {
+    this.pair[0] = x[down] + CHORD_DIFFERENCE;
+    this.pair[1] = x[down];
+    this.lookupIn(this.pair, 0, 1);
   }
 
-  /** Partial derivatives of the last `bilinear` along its two axes. */
-  private byX = 0;
-  private byY = 0;
-
-  /** Bilinear interpolation in cell (i, j) of a table over axes `ax` and `ay` (row length `stride`) at (x, y). */
-  private bilinear(values: Float64Array, i: number, j: number, stride: number, ax: Float64Array, ay: Float64Array, x: number, y: number): number {
-    const hx = ax[i + 1] - ax[i];
-    const hy = ay[j + 1] - ay[j];
-    const u = (x - ax[i]) / hx;
-    const v = (y - ay[j]) / hy;
+  /**
+   * `lookup` at the stages x[up] and x[down]. The router passes its stage array and two indices, and
+   * the look-up is written out in one method, so that no number is boxed on the way in or out.
+   */
+  lookupIn(x: Float64Array, upAt: number, downAt: number): void {
+    const xu = x[upAt];
+    const xd = x[downAt];
+    const d = xu - xd;
+    const up = this.up;
+    const lastUp = up.length - 2;
+    // Within the band the table is over (upstream stage, difference), else over the two stages; the
+    // cells [k, k + 1] holding each coordinate (the first or last beyond the ends) are walked from the last ones.
+    const inBand = d < this.band && d > -this.band;
+    const other = inBand ? this.difference : this.down;
+    const y = inBand ? d : xd;
+    let i = inBand ? this.bi : this.i;
+    while (i < lastUp && xu > up[i + 1]) i++;
+    while (i > 0 && xu < up[i]) i--;
+    const lastOther = other.length - 2;
+    let j = inBand ? this.k : this.j;
+    while (j < lastOther && y > other[j + 1]) j++;
+    while (j > 0 && y < other[j]) j--;
+    if (inBand) {
+      this.bi = i;
+      this.k = j;
+    } else {
+      this.i = i;
+      this.j = j;
+    }
+    const stride = other.length;
+    const values = inBand ? this.bandFlow : this.gridFlow;
+    const gx = this.upInverse[i];
+    const gy = (inBand ? this.differenceInverse : this.downInverse)[j];
+    const u = (xu - up[i]) * gx;
+    const v = (y - other[j]) * gy;
     this.beyond = u > 1 || v > 1 || u < 0 || v < 0;
     const at = i * stride + j;
     const q00 = values[at];
@@ -175,19 +218,16 @@ export class LinkTable {
     const q11 = values[at + stride + 1];
     const qx0 = q00 + u * (q10 - q00);
     const qx1 = q01 + u * (q11 - q01);
-    this.byX = ((1 - v) * (q10 - q00) + v * (q11 - q01)) / hx;
-    this.byY = (qx1 - qx0) / hy;
-    return qx0 + v * (qx1 - qx0);
+    const byX = ((1 - v) * (q10 - q00) + v * (q11 - q01)) * gx;
+    const byY = (qx1 - qx0) * gy;
+    this.q = qx0 + v * (qx1 - qx0);
+    // Q(x, d) with d = x - y: dQ/dx at a fixed downstream stage is dQ/dx + dQ/dd; dQ/dy is -dQ/dd.
+    this.dUp = inBand ? byX + byY : byX;
+    this.dDown = inBand ? -byY : byY;
+    this.cell = inBand ? -1 - at : at;
   }
 }
 
-/** The cell [k, k + 1] of an increasing axis holding v (the first or last beyond its ends), walked from k. */
-function walk(axis: Float64Array, k: number, v: number): number {
-  const last = axis.length - 2;
-  while (k < last && v > axis[k + 1]) k++;
-  while (k > 0 && v < axis[k]) k--;
-  return k;
-}
 
 /** Rates a pond's outlet into another pond over both ponds' stages (see the file's head). */
 export function buildLinkTable(outlet: Outlet, upPond: Pond, downPond: Pond, intervals = LINK_INTERVALS): LinkTable {

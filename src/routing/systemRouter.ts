@@ -11,12 +11,12 @@
 // router: it lands on every pond's inflow points, limits the change of each pond's inflow per step to
 // 1 % of its peak, and limits the step to 0.15 of the shortest time constant among the ponds (a pond's
 // storage over the rate at which its net outflow changes with its own stage, a link's flow taken as a
-// chord over at least TAU_DIFFERENCE of level difference so that levels at rest against each other do
+// chord over at least CHORD_DIFFERENCE of level difference so that levels at rest against each other do
 // not shrink the step to nothing); a step that ends where that limit is much shorter is done again.
 // Nothing is allocated per step: the state lives in Float64Arrays made once per routing. A step's
 // first try starts from the flows last computed (those at its start), not evaluated again.
 import type { Hydrograph, Pond } from "../model.js";
-import type { LinkTable } from "./linkTable.js";
+import { CHORD_DIFFERENCE, type LinkTable } from "./linkTable.js";
 import type { CeilingApproach, RouteResult } from "./router.js";
 import { routingTally } from "./router.js";
 import { hydrographVolume } from "../hydrology/hydrograph.js";
@@ -59,6 +59,8 @@ export interface SystemRouteOptions {
   minStep?: number;
   inflowFraction?: number;
   timeConstantFraction?: number;
+  /** Automatic step: fraction of a link's own time constant a step may span (LINK_TIME_CONSTANT_FRACTION). */
+  linkTimeConstantFraction?: number;
 }
 
 /** One pond's results: a single pond's `RouteResult` (its outflow the forward flow through its own outlet) and what flowed back. */
@@ -105,20 +107,43 @@ const REDO_FACTOR = 1.5;
 /** Newton's method: most iterations per step, and the largest stage correction (m) at which it has converged. */
 const NEWTON_ITERATIONS = 40;
 const NEWTON_TOLERANCE = 1e-10;
+/**
+ * A step is converged when each pond's residual is no more than its storage holds in this much stage
+ * (m): `conserve` then gives the residual to the storage, so the mass balance closes and the stage is
+ * at most this far from the storage's (a thousandth of the contract's 0.003 m).
+ */
+const STAGE_TOLERANCE = 3e-6;
 /** The step spans at most this fraction of the shortest time constant (the single router's). */
 const TIME_CONSTANT_FRACTION = 0.15;
-/** Level difference (m) over which a link's flow is taken as a chord for the time constant. */
-export const TAU_DIFFERENCE = 0.002;
+/**
+ * The step spans at most this fraction of a link's own time constant (a pond's storage over the rate
+ * at which the link's flow changes with its level, near equal levels the chord's): the mode in which
+ * two ponds' levels even out through a link is fast and stiff, and the trapezoidal rule damps it
+ * (by (1 - r/2) / (1 + r/2) a step, r = dt / time constant) while it follows the slow inflows that
+ * drive the flow through the link to the accuracy of the step; the slow modes keep TIME_CONSTANT_FRACTION.
+ */
+export const LINK_TIME_CONSTANT_FRACTION = 1;
 
-/** A pond's inflow walked by a cursor: value at the end of a step (from the left) and at the start of the next (from the right). */
+/**
+ * A pond's inflow walked by a cursor. Its look-ups leave their results in fields (`value`, `nextPoint`,
+ * `rate`) instead of returning them, so that nothing is boxed per step.
+ */
 class InflowCursor {
   private j = 0;
   readonly first: number;
   readonly last: number;
   readonly peak: number;
   readonly change: number;
+  /** The value of the last `load`. */
+  value = 0;
+  /** After `advance(t)`: the next point after t (Infinity after the last) and |slope| of the segment holding t (0 outside). */
+  nextPoint = Infinity;
+  rate = 0;
+  /** The slope of each segment of the inflow (m3/s per s), made once per hydrograph. */
+  private readonly slopes: Float64Array;
   constructor(readonly h: Hydrograph | null, fraction: number) {
     const n = h ? h.times.length : 0;
+    this.slopes = h ? slopesOf(h.times, h.flows) : new Float64Array(0);
     this.first = n ? h!.times[0] : Infinity;
     this.last = n ? h!.times[n - 1] : -Infinity;
     let peak = 0;
@@ -126,38 +151,350 @@ class InflowCursor {
     this.peak = peak;
     this.change = fraction * peak;
   }
-  /** Value at t approached from the left (from the right when `right`): zero outside the points. */
-  at(t: number, right: boolean): number {
+  /** The time of the next `load` (s): a field, so that the call boxes nothing. */
+  t = 0;
+  /** Value at `t` approached from the left (from the right when `right`): zero outside the points. */
+  load(right: boolean): void {
     const h = this.h;
-    if (!h) return 0;
-    if (t < this.first || t > this.last) return 0;
-    if (t === this.first) return right ? h.flows[0] : 0;
-    if (t === this.last) return right ? 0 : h.flows[h.times.length - 1];
-    const times = h.times;
-    const end = times.length - 2;
-    let j = this.j;
-    while (j < end && times[j + 1] < t) j++;
-    while (j > 0 && times[j] >= t) j--;
-    this.j = j;
-    return h.flows[j] + ((h.flows[j + 1] - h.flows[j]) * (t - times[j])) / (times[j + 1] - times[j]);
+    const t = this.t;
+    if (!h || t < this.first || t > this.last) this.value = 0;
+    else if (t === this.first) this.value = right ? h.flows[0] : 0;
+    else if (t === this.last) this.value = right ? 0 : h.flows[h.times.length - 1];
+    else {
+      const times = h.times;
+      const end = times.length - 2;
+      let j = this.j;
+      while (j < end && times[j + 1] < t) j++;
+      while (j > 0 && times[j] >= t) j--;
+      this.j = j;
+      this.value = h.flows[j] + this.slopes[j] * (t - times[j]);
+    }
   }
-  /** The next point after t (Infinity after the last), and the slope of the segment holding t (0 outside). */
-  next(t: number): number {
+  /** Sets `nextPoint` and `rate` for the time `t`. */
+  advance(): void {
     const h = this.h;
-    if (!h || t >= this.last) return Infinity;
-    if (t < this.first) return this.first;
+    const t = this.t;
+    if (!h || t >= this.last) {
+      this.nextPoint = Infinity;
+      this.rate = 0;
+      return;
+    }
+    if (t < this.first) {
+      this.nextPoint = this.first;
+      this.rate = 0;
+      return;
+    }
     const times = h.times;
     let j = this.j;
     while (j < times.length - 2 && times[j + 1] <= t) j++;
     this.j = j;
-    return times[j + 1];
+    this.nextPoint = times[j + 1];
+    this.rate = Math.abs(this.slopes[j]);
   }
-  slope(t: number): number {
-    const h = this.h;
-    if (!h || t < this.first || t >= this.last) return 0;
-    this.next(t);
-    const j = this.j;
-    return Math.abs(h.flows[j + 1] - h.flows[j]) / (h.times[j + 1] - h.times[j]);
+}
+
+/**
+ * The state of a routing and the solution of one step: every array made once per routing, every
+ * result left in an array or a field (nothing boxed or allocated per step).
+ */
+class SystemStepper {
+  readonly n: number;
+  readonly to: Int32Array;
+  /** Ponds upstream first (every pond before the pond it drains into): the order of the elimination. */
+  readonly order: Int32Array;
+  readonly links: (LinkTable | null)[];
+  readonly floor: Float64Array;
+  readonly drained: Float64Array;
+  readonly stage: Float64Array[];
+  readonly storage: Float64Array[];
+  readonly outflow: (Float64Array | null)[];
+  /** The slope of each pond's storage and outflow in each cell of its grid (made once per table). */
+  readonly storageSlope: Float64Array[];
+  readonly outflowSlope: (Float64Array | null)[];
+  /** Each pond's cell of its stage grid (a cursor). */
+  readonly cell: Int32Array;
+  /** Stages being solved, a trial's stages, storage and its slope, flows through each outlet and their partial derivatives. */
+  readonly h: Float64Array;
+  readonly hTry: Float64Array;
+  readonly S: Float64Array;
+  readonly slopeS: Float64Array;
+  readonly q: Float64Array;
+  readonly dqUp: Float64Array;
+  readonly dqDown: Float64Array;
+  /** Residuals, the known side of each step equation, the elimination's diagonal and right-hand side, the Newton step. */
+  readonly F: Float64Array;
+  readonly N: Float64Array;
+  readonly D: Float64Array;
+  readonly R: Float64Array;
+  readonly delta: Float64Array;
+  /** Each pond's rate of net outflow with its own stage (the time constant's). */
+  readonly rates: Float64Array;
+  /** The start of the step: stages, storages, flows. */
+  readonly h1: Float64Array;
+  readonly S1: Float64Array;
+  readonly q1: Float64Array;
+  /**
+   * The pieces of the tables the last evaluation used (storage cell per pond, the link's cell), and
+   * those of the evaluation before: equal, the step's equations are linear between the two.
+   */
+  readonly pieces: Float64Array;
+  readonly piecesBefore: Float64Array;
+  /** 2 / dt of the step being solved (set before `solve`: a field, so that the call boxes nothing). */
+  twoOverDt = 0;
+  /** The last `residual` (sum of squares) and `timeConstant`. */
+  norm = 0;
+  tau = 0;
+  beyond = false;
+  floored = false;
+  iterations = 0;
+
+  constructor(
+    readonly ponds: readonly SystemRoutePond[],
+    readonly tauFraction: number,
+    /** Weight of the links' rates in the time constant: TIME_CONSTANT_FRACTION over the link's own fraction. */
+    readonly linkWeight: number,
+  ) {
+    const n = (this.n = ponds.length);
+    this.to = Int32Array.from(ponds, (p) => p.to);
+    this.order = upstreamFirst(this.to);
+    this.links = ponds.map((p) => p.link);
+    this.floor = Float64Array.from(ponds, (p) => p.pond.bottom);
+    this.drained = Float64Array.from(ponds, (p) => p.drainedStage);
+    this.stage = ponds.map((p) => p.stage);
+    this.storage = ponds.map((p) => p.storage);
+    this.outflow = ponds.map((p) => p.outflow);
+    this.storageSlope = ponds.map((p) => slopesOf(p.stage, p.storage));
+    this.outflowSlope = ponds.map((p) => (p.outflow ? slopesOf(p.stage, p.outflow) : null));
+    this.cell = new Int32Array(n);
+    const arrays = () => new Float64Array(n);
+    this.h = arrays();
+    this.hTry = arrays();
+    this.S = arrays();
+    this.slopeS = arrays();
+    this.q = arrays();
+    this.dqUp = arrays();
+    this.dqDown = arrays();
+    this.F = arrays();
+    this.N = arrays();
+    this.D = arrays();
+    this.R = arrays();
+    this.delta = arrays();
+    this.rates = arrays();
+    this.h1 = arrays();
+    this.S1 = arrays();
+    this.q1 = arrays();
+    this.pieces = new Float64Array(2 * n);
+    this.piecesBefore = new Float64Array(2 * n);
+  }
+
+  /** Pond i's storage at stage x (linear between the nodes of its grid), its slope, its cell. */
+  storageAt(i: number, x: number): void {
+    const z = this.stage[i];
+    const V = this.storage[i];
+    const last = z.length - 1;
+    let k = this.cell[i];
+    while (k < last - 1 && x > z[k + 1]) k++;
+    while (k > 0 && x < z[k]) k--;
+    this.cell[i] = k;
+    const s = (V[k + 1] - V[k]) / (z[k + 1] - z[k]);
+    this.slopeS[i] = s;
+    this.S[i] = V[k] + s * (x - z[k]);
+  }
+
+  /** Every pond's storage and the flow through every outlet at the stages `x`, and the table pieces used. */
+  flowsAt(x: Float64Array): void {
+    const n = this.n;
+    const { pieces, piecesBefore, q, dqUp, dqDown, to } = this;
+    const { cell, slopeS, S } = this;
+    for (let i = 0; i < n; i++) {
+      piecesBefore[2 * i] = pieces[2 * i];
+      piecesBefore[2 * i + 1] = pieces[2 * i + 1];
+      // The storage (as `storageAt`, written out: a call would box the stage).
+      const z = this.stage[i];
+      const V = this.storage[i];
+      const xi = x[i];
+      const last = z.length - 1;
+      let k = cell[i];
+      while (k < last - 1 && xi > z[k + 1]) k++;
+      while (k > 0 && xi < z[k]) k--;
+      cell[i] = k;
+      const slope = this.storageSlope[i][k];
+      slopeS[i] = slope;
+      S[i] = V[k] + slope * (xi - z[k]);
+      pieces[2 * i] = k;
+      const link = this.links[i];
+      if (link !== null) {
+        link.lookupIn(x, i, to[i]);
+        q[i] = link.q;
+        dqUp[i] = link.dUp;
+        dqDown[i] = link.dDown;
+        pieces[2 * i + 1] = link.cell;
+        if (link.beyond && x[i] > z[z.length - 1]) this.beyond = true;
+      } else {
+        const O = this.outflow[i]!;
+        const s = this.outflowSlope[i]![k];
+        q[i] = O[k] + s * (xi - z[k]);
+        dqUp[i] = s;
+        dqDown[i] = 0;
+        if (xi > z[last]) this.beyond = true;
+      }
+    }
+  }
+
+  /** Whether the last two evaluations used the same pieces of every table. */
+  samePieces(): boolean {
+    const { pieces, piecesBefore } = this;
+    for (let i = 0; i < pieces.length; i++) if (pieces[i] !== piecesBefore[i]) return false;
+    return true;
+  }
+
+  /** Whether every pond's residual is what its storage takes up by a stage change under STAGE_TOLERANCE. */
+  small(): boolean {
+    const { n, F, slopeS } = this;
+    for (let i = 0; i < n; i++) if (Math.abs(F[i]) > STAGE_TOLERANCE * this.twoOverDt * slopeS[i]) return false;
+    return true;
+  }
+
+  /** Residual of every pond's step equation at the flows and storages last computed; `norm` its sum of squares. */
+  residual(): void {
+    const { n, F, S, q, N, to } = this;
+    const twoOverDt = this.twoOverDt;
+    for (let i = 0; i < n; i++) F[i] = twoOverDt * S[i] + q[i] - N[i];
+    for (let i = 0; i < n; i++) if (to[i] >= 0) F[to[i]] -= q[i];
+    let sum = 0;
+    for (let i = 0; i < n; i++) sum += F[i] * F[i];
+    this.norm = sum;
+  }
+
+  /**
+   * The Newton step `delta` of the step equations at the flows last computed: J delta = -F, where pond
+   * i's row holds its own stage, the stage of the pond it drains into and those of the ponds draining
+   * into it. The ponds form a tree (each drains into one), so elimination from the upstream ponds down
+   * to the outfall and substitution back up solve it exactly in O(n), without pivoting: each column of
+   * J is diagonally dominant (2 S'/dt plus dQ/dh of the pond's own outlet on the diagonal, the same
+   * dQ/dh and the upstream links' below it).
+   */
+  newtonStep(): void {
+    const { n, D, R, F, to, order, slopeS, dqUp, dqDown, delta } = this;
+    const twoOverDt = this.twoOverDt;
+    for (let i = 0; i < n; i++) {
+      D[i] = twoOverDt * slopeS[i] + dqUp[i];
+      R[i] = -F[i];
+    }
+    for (let i = 0; i < n; i++) if (to[i] >= 0) D[to[i]] -= dqDown[i];
+    for (let k = 0; k < n; k++) {
+      const i = order[k];
+      const down = to[i];
+      if (down < 0 || D[i] === 0) continue;
+      // Row i: D_i d_i + dQ_i/dh_down d_down = R_i; the pond below holds -dQ_i/dh_i d_i.
+      D[down] += (dqUp[i] * dqDown[i]) / D[i];
+      R[down] += (dqUp[i] * R[i]) / D[i];
+    }
+    for (let k = n - 1; k >= 0; k--) {
+      const i = order[k];
+      const down = to[i];
+      const r = down < 0 ? R[i] : R[i] - dqDown[i] * delta[down];
+      delta[i] = D[i] !== 0 ? r / D[i] : 0;
+    }
+  }
+
+  /**
+   * Newton's method on the step equations for dt from the step's start; true when converged (the
+   * stages end in `h`). `fresh`: the flows last computed are those at the start (not evaluated again).
+   */
+  solve(fresh: boolean): boolean {
+    const { n, h, hTry, h1, delta, floor } = this;
+    this.floored = false;
+    for (let i = 0; i < n; i++) h[i] = h1[i];
+    if (!fresh) this.flowsAt(h);
+    this.residual();
+    let norm = this.norm;
+    for (let iteration = 0; iteration < NEWTON_ITERATIONS; iteration++) {
+      this.iterations++;
+      this.newtonStep();
+      // Backtracking: the full step unless it raises the residual.
+      let lambda = 1;
+      let accepted = false;
+      let moved = 0;
+      for (let attempt = 0; attempt < 8; attempt++) {
+        moved = 0;
+        for (let i = 0; i < n; i++) {
+          let x = h[i] + lambda * delta[i];
+          if (x < floor[i]) {
+            // A pond cannot hold less than nothing: it is empty (the single router's clamp).
+            x = floor[i];
+            this.floored = true;
+          }
+          hTry[i] = x;
+          const m = Math.abs(x - h[i]);
+          if (m > moved) moved = m;
+        }
+        this.flowsAt(hTry);
+        this.residual();
+        if (this.norm <= norm || moved <= NEWTON_TOLERANCE) {
+          norm = this.norm;
+          accepted = true;
+          break;
+        }
+        lambda *= 0.5;
+      }
+      for (let i = 0; i < n; i++) h[i] = hTry[i];
+      if (!accepted) this.flowsAt(h);
+      // Converged: a negligible move, a full step that stayed on the pieces of the tables its Jacobian
+      // came from (there the equations are linear, up to the links' bilinear cross term), or one whose
+      // residual each pond's storage alone would take up by a stage change under STAGE_TOLERANCE.
+      if (moved <= NEWTON_TOLERANCE || norm === 0) return true;
+      if (accepted && lambda === 1 && !this.floored && (this.samePieces() || this.small())) return true;
+    }
+    return false;
+  }
+
+  /**
+   * After a converged step: each pond's storage is set to what its step equation holds exactly at the
+   * flows found, so that no volume is lost or made by what Newton's method left (the residual of a
+   * step accepted on one piece of the tables, the links' bilinear cross term: a stage some micrometres
+   * off its storage at most). The mass balance then closes to rounding.
+   */
+  conserve(): void {
+    this.residual();
+    const { n, S, F } = this;
+    const halfDt = 1 / this.twoOverDt;
+    for (let i = 0; i < n; i++) S[i] -= F[i] * halfDt;
+  }
+
+  /**
+   * Time-constant limit of the step (`tau`): the shortest among the ponds at the stages `x` (flows
+   * computed) of a pond's storage slope over the rate at which its net outflow rises with its stage.
+   * A link's rate is its interpolant's slope (with the upstream stage, or minus it with the
+   * downstream one), but near equal levels (where it grows like 1/sqrt of the difference) no more
+   * than the chord from the level of the pond below to CHORD_DIFFERENCE above it (`chords`).
+   */
+  timeConstant(x: Float64Array): void {
+    const { n, links, to, dqUp, dqDown, slopeS, rates } = this;
+    for (let i = 0; i < n; i++) rates[i] = links[i] === null ? dqUp[i] : 0;
+    for (let j = 0; j < n; j++) {
+      const link = links[j];
+      if (link === null) continue;
+      let up = dqUp[j];
+      let down = -dqDown[j];
+      const d = x[j] - x[to[j]];
+      if (d < CHORD_DIFFERENCE && d > -CHORD_DIFFERENCE) {
+        link.lookupChord(x, to[j]);
+        const chord = Math.abs(link.q) / CHORD_DIFFERENCE;
+        if (chord < up) up = chord;
+        if (chord < down) down = chord;
+      }
+      rates[j] += this.linkWeight * up;
+      rates[to[j]] += this.linkWeight * down;
+    }
+    let tau = Infinity;
+    for (let i = 0; i < n; i++) {
+      if (rates[i] > 0) {
+        const t = (this.tauFraction * slopeS[i]) / rates[i];
+        if (t < tau) tau = t;
+      }
+    }
+    this.tau = tau;
   }
 }
 
@@ -182,24 +519,10 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   }
   const tEnd = tLast + (options.maxAfterInflow ?? TEN_DAYS);
 
-  // State and scratch (made once per routing).
-  const cell = new Int32Array(n);
-  const h = new Float64Array(n);
-  const hTry = new Float64Array(n);
-  const S = new Float64Array(n);
-  const slopeS = new Float64Array(n);
-  const q = new Float64Array(n);
-  const dqUp = new Float64Array(n);
-  const dqDown = new Float64Array(n);
-  const F = new Float64Array(n);
-  const J = new Float64Array(n * n);
-  const delta = new Float64Array(n);
-  const N = new Float64Array(n);
+  const stepper = new SystemStepper(ponds, tauFraction, tauFraction / (options.linkTimeConstantFraction ?? LINK_TIME_CONSTANT_FRACTION));
+  const { h, S, q, N, S1, q1, h1, to } = stepper;
   const I1 = new Float64Array(n);
   const I2 = new Float64Array(n);
-  const S1 = new Float64Array(n);
-  const q1 = new Float64Array(n);
-  const h1 = new Float64Array(n);
   const drainedStorage = new Float64Array(n);
   // Per pond results.
   const maxStage = new Float64Array(n);
@@ -215,77 +538,21 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   const drainedAt = new Float64Array(n);
   const S0 = new Float64Array(n);
 
-  const storageAt = (i: number, x: number): number => {
-    const p = ponds[i];
-    const z = p.stage;
-    const last = z.length - 1;
-    let k = cell[i];
-    while (k < last - 1 && x > z[k + 1]) k++;
-    while (k > 0 && x < z[k]) k--;
-    cell[i] = k;
-    const w = z[k + 1] - z[k];
-    const s = (p.storage[k + 1] - p.storage[k]) / w;
-    slopeS[i] = s;
-    return p.storage[k] + s * (x - z[k]);
-  };
-  let beyond = false;
-  /** Every pond's storage and the flow through every outlet at the stages `x` (cells from `storageAt`). */
-  const flowsAt = (x: Float64Array): void => {
-    for (let i = 0; i < n; i++) S[i] = storageAt(i, x[i]);
-    for (let i = 0; i < n; i++) {
-      const p = ponds[i];
-      if (p.link) {
-        q[i] = p.link.flow(x[i], x[p.to]);
-        dqUp[i] = p.link.dUp;
-        dqDown[i] = p.link.dDown;
-        if (p.link.beyond && x[i] > p.stage[p.stage.length - 1]) beyond = true;
-      } else {
-        const z = p.stage;
-        const O = p.outflow!;
-        const k = cell[i];
-        const s = (O[k + 1] - O[k]) / (z[k + 1] - z[k]);
-        q[i] = O[k] + s * (x[i] - z[k]);
-        dqUp[i] = s;
-        dqDown[i] = 0;
-        if (x[i] > z[z.length - 1]) beyond = true;
-      }
-    }
-  };
-  /** Residual of every pond's step equation at the flows and storages last computed. */
-  const residual = (twoOverDt: number): number => {
-    let worst = 0;
-    for (let i = 0; i < n; i++) F[i] = twoOverDt * S[i] + q[i] - N[i];
-    for (let i = 0; i < n; i++) {
-      const to = ponds[i].to;
-      if (to >= 0) F[to] -= q[i];
-    }
-    for (let i = 0; i < n; i++) worst += F[i] * F[i];
-    return worst;
-  };
-  /** Time constant limit of the step: the shortest among the ponds at the stages `x` (flows computed). */
-  const timeConstant = (x: Float64Array): number => {
-    let tau = Infinity;
-    for (let i = 0; i < n; i++) {
-      let rate = ponds[i].link ? linkRate(ponds[i].link!, x[i], x[ponds[i].to], dqUp[i]) : dqUp[i];
-      for (let j = 0; j < n; j++) if (ponds[j].to === i) rate += linkRate(ponds[j].link!, x[j], x[i], -dqDown[j]);
-      if (rate > 0) {
-        const t = (tauFraction * slopeS[i]) / rate;
-        if (t < tau) tau = t;
-      }
-    }
-    return tau;
-  };
-
   for (let i = 0; i < n; i++) {
     const p = ponds[i];
     h[i] = p.startStage;
-    cell[i] = 0;
-    drainedStorage[i] = p.drainedStage <= p.stage[0] ? 0 : storageAt(i, Math.min(p.drainedStage, p.stage[p.stage.length - 1]));
+    if (p.drainedStage <= p.stage[0]) drainedStorage[i] = 0;
+    else {
+      stepper.storageAt(i, Math.min(p.drainedStage, p.stage[p.stage.length - 1]));
+      drainedStorage[i] = S[i];
+    }
   }
-  flowsAt(h);
+  stepper.flowsAt(h);
   let t = tFirst;
   for (let i = 0; i < n; i++) {
-    I1[i] = cursors[i].at(t, true);
+    cursors[i].t = t;
+    cursors[i].load(true);
+    I1[i] = cursors[i].value;
     S1[i] = S[i];
     S0[i] = S[i];
     q1[i] = q[i];
@@ -303,16 +570,12 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     }
   }
   let outfall1 = 0;
-  for (let i = 0; i < n; i++) if (ponds[i].to < 0) outfall1 += q[i];
+  for (let i = 0; i < n; i++) if (to[i] < 0) outfall1 += q[i];
   let peakOutfall = outfall1;
   let timeOfPeakOutfall = t;
   let volumeOutfall = 0;
   let peakSystemIn = 0;
-  {
-    let sum = 0;
-    for (let i = 0; i < n; i++) sum += I1[i];
-    peakSystemIn = sum;
-  }
+  for (let i = 0; i < n; i++) peakSystemIn += I1[i];
 
   // The point of analysis: the flow reaching the outfall plus the bypass (the single router's tracker).
   const points = new PointsOfAnalysis(options.bypass, options.downstream);
@@ -334,67 +597,10 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   let largest = 0;
   let refined = 0;
   let redone = 0;
-  let iterations = 0;
   let unconverged = 0;
   let clamped = 0;
-  let tau = timeConstant(h);
-
-  let floored = false;
-  /** Newton's method on the step equations for dt; true when converged. The stages end in `h`. */
-  const solveStep = (twoOverDt: number, fresh: boolean): boolean => {
-    floored = false;
-    for (let i = 0; i < n; i++) h[i] = h1[i];
-    // The flows at the step's start are those last computed, unless a try of this step moved them.
-    if (!fresh) flowsAt(h);
-    let norm = residual(twoOverDt);
-    for (let iteration = 0; iteration < NEWTON_ITERATIONS; iteration++) {
-      iterations++;
-      // Jacobian of F at h.
-      J.fill(0);
-      for (let i = 0; i < n; i++) {
-        const to = ponds[i].to;
-        J[i * n + i] += twoOverDt * slopeS[i] + dqUp[i];
-        if (to >= 0) {
-          J[i * n + to] += dqDown[i];
-          J[to * n + i] -= dqUp[i];
-          J[to * n + to] -= dqDown[i];
-        }
-      }
-      for (let i = 0; i < n; i++) delta[i] = -F[i];
-      solveLinear(J, delta, n);
-      // Backtracking: the full step unless it raises the residual.
-      let lambda = 1;
-      let accepted = false;
-      let moved = 0;
-      for (let attempt = 0; attempt < 8; attempt++) {
-        moved = 0;
-        for (let i = 0; i < n; i++) {
-          let x = h[i] + lambda * delta[i];
-          const floor = ponds[i].pond.bottom;
-          if (x < floor) {
-            // A pond cannot hold less than nothing: it is empty (the single router's clamp).
-            x = floor;
-            floored = true;
-          }
-          hTry[i] = x;
-          const m = Math.abs(x - h[i]);
-          if (m > moved) moved = m;
-        }
-        flowsAt(hTry);
-        const tried = residual(twoOverDt);
-        if (tried <= norm || moved <= NEWTON_TOLERANCE) {
-          norm = tried;
-          accepted = true;
-          break;
-        }
-        lambda *= 0.5;
-      }
-      for (let i = 0; i < n; i++) h[i] = hTry[i];
-      if (!accepted) flowsAt(h);
-      if (moved <= NEWTON_TOLERANCE || norm === 0) return true;
-    }
-    return false;
-  };
+  stepper.timeConstant(h);
+  let tau = stepper.tau;
 
   while (true) {
     let dt: number;
@@ -407,10 +613,10 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       if (t < tLast) {
         for (let i = 0; i < n; i++) {
           const c = cursors[i];
-          const slope = c.slope(t);
-          if (slope > 0 && c.change / slope < dt) dt = c.change / slope;
-          const np = c.next(t);
-          if (np < next) next = np;
+          c.t = t;
+          c.advance();
+          if (c.rate > 0 && c.change / c.rate < dt) dt = c.change / c.rate;
+          if (c.nextPoint < next) next = c.nextPoint;
         }
       }
       const byInflow = dt;
@@ -422,26 +628,27 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
         else if (t + 1.5 * dt > next) dt = 0.5 * (next - t);
       }
     }
-    let twoOverDt = 2 / dt;
     let fresh = true;
     for (;;) {
       t2 = t + dt;
-      twoOverDt = 2 / dt;
+      const twoOverDt = 2 / dt;
       for (let i = 0; i < n; i++) {
-        I2[i] = cursors[i].at(t2, false);
+        cursors[i].t = t2;
+        cursors[i].load(false);
+        I2[i] = cursors[i].value;
         N[i] = I1[i] + I2[i] + twoOverDt * S1[i] - q1[i];
       }
-      for (let i = 0; i < n; i++) {
-        const to = ponds[i].to;
-        if (to >= 0) N[to] += q1[i];
-      }
-      const converged = solveStep(twoOverDt, fresh);
+      for (let i = 0; i < n; i++) if (to[i] >= 0) N[to[i]] += q1[i];
+      stepper.twoOverDt = twoOverDt;
+      const converged = stepper.solve(fresh);
+      if (converged && !stepper.floored) stepper.conserve();
       fresh = false;
       if (fixed !== undefined) {
         if (!converged) unconverged++;
         break;
       }
-      const tauEnd = timeConstant(h);
+      stepper.timeConstant(h);
+      const tauEnd = stepper.tau;
       if (!converged) {
         unconverged++;
         if (dt > minStep) {
@@ -458,7 +665,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       redone++;
     }
     if (fixed !== undefined) tau = Infinity;
-    if (floored) clamped++;
+    if (stepper.floored) clamped++;
 
     // Bookkeeping.
     steps++;
@@ -490,7 +697,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
         peakBack[i] = -b;
         timeOfPeakBack[i] = t2;
       }
-      if (ponds[i].to < 0) outfall2 += b;
+      if (to[i] < 0) outfall2 += b;
       systemIn += I2[i];
       if (h[i] > maxStage[i]) {
         maxStage[i] = h[i];
@@ -498,13 +705,13 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
         maxStorage[i] = S[i];
         drainedAt[i] = NaN;
       }
-      const drained = ponds[i].drainedStage;
+      const drained = stepper.drained[i];
       if (h[i] <= drained && !(h1[i] <= drained)) drainedAt[i] = t2 - (dt * (drained - h[i])) / (h1[i] - h[i]);
       else if (h[i] > drained) drainedAt[i] = NaN;
     }
     for (let i = 0; i < n; i++) {
       let total = I2[i] + (q[i] < 0 ? -q[i] : 0);
-      for (let j = 0; j < n; j++) if (ponds[j].to === i && q[j] > 0) total += q[j];
+      for (let j = 0; j < n; j++) if (to[j] === i && q[j] > 0) total += q[j];
       if (total > peakTotalIn[i]) peakTotalIn[i] = total;
     }
     if (systemIn > peakSystemIn) peakSystemIn = systemIn;
@@ -513,8 +720,8 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       peakOutfall = outfall2;
       timeOfPeakOutfall = t2;
     }
-    points.step(t, outfall1, t2, outfall2);
-    ceiling?.compare(t2, points.atPoint(t2, outfall2));
+    if (points.active) points.step(t, outfall1, t2, outfall2);
+    if (ceiling) ceiling.compare(t2, points.atPoint(t2, outfall2));
     if (record) {
       series!.time.push(t2);
       series!.outfall.push(outfall2);
@@ -530,11 +737,12 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     let allDrained = true;
     let stored = 0;
     for (let i = 0; i < n; i++) {
-      I1[i] = cursors[i].at(t, true);
+      // After a pond's last inflow point its inflow is zero; elsewhere it runs on from its value at t.
+      I1[i] = t === cursors[i].last ? 0 : t === cursors[i].first ? cursors[i].h!.flows[0] : I2[i];
       S1[i] = S[i];
       q1[i] = q[i];
       h1[i] = h[i];
-      if (h[i] > ponds[i].drainedStage) allDrained = false;
+      if (h[i] > stepper.drained[i]) allDrained = false;
       if (S[i] > drainedStorage[i]) stored += S[i] - drainedStorage[i];
     }
     if (t >= tLast) {
@@ -545,6 +753,8 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     }
   }
   points.finish(outfall1);
+  const beyond = stepper.beyond;
+  const iterations = stepper.iterations;
 
   let volumeIn = 0;
   let storageChange = 0;
@@ -636,58 +846,24 @@ class CeilingTracker {
   }
 }
 
-/**
- * How fast a link's flow changes with one pond's stage, for the time constant: the interpolant's
- * slope `slope`, but near equal levels (where it grows like 1/sqrt of the difference) no more than the
- * chord from the level of the other pond to TAU_DIFFERENCE away.
- */
-function linkRate(link: LinkTable, up: number, down: number, slope: number): number {
-  const d = up - down;
-  const size = d < 0 ? -d : d;
-  if (size >= TAU_DIFFERENCE) return slope;
-  const i0 = link.dUp;
-  const i1 = link.dDown;
-  const chord = Math.abs(link.flow(down + TAU_DIFFERENCE, down)) / TAU_DIFFERENCE;
-  link.dUp = i0;
-  link.dDown = i1;
-  return slope < chord ? slope : chord;
+/** Slopes of a broken line's segments, kept per table (by its values) so that each is made once. */
+const keptSlopes = new WeakMap<Float64Array, Float64Array>();
+
+/** The slope of each segment of y over x (a broken line): made once per pair of arrays. */
+function slopesOf(x: Float64Array, y: Float64Array): Float64Array {
+  let slopes = keptSlopes.get(y);
+  if (!slopes || slopes.length !== Math.max(0, y.length - 1)) {
+    slopes = new Float64Array(Math.max(0, y.length - 1));
+    for (let k = 0; k < slopes.length; k++) slopes[k] = (y[k + 1] - y[k]) / (x[k + 1] - x[k]);
+    keptSlopes.set(y, slopes);
+  }
+  return slopes;
 }
 
-/** Solves A x = b in place (b becomes x) by Gaussian elimination with partial pivoting; A is overwritten. */
-export function solveLinear(A: Float64Array, b: Float64Array, n: number): void {
-  for (let c = 0; c < n; c++) {
-    let pivot = c;
-    let best = Math.abs(A[c * n + c]);
-    for (let r = c + 1; r < n; r++) {
-      const v = Math.abs(A[r * n + c]);
-      if (v > best) {
-        best = v;
-        pivot = r;
-      }
-    }
-    if (best === 0) continue;
-    if (pivot !== c) {
-      for (let k = 0; k < n; k++) {
-        const tmp = A[c * n + k];
-        A[c * n + k] = A[pivot * n + k];
-        A[pivot * n + k] = tmp;
-      }
-      const tb = b[c];
-      b[c] = b[pivot];
-      b[pivot] = tb;
-    }
-    const d = A[c * n + c];
-    for (let r = c + 1; r < n; r++) {
-      const f = A[r * n + c] / d;
-      if (f === 0) continue;
-      for (let k = c; k < n; k++) A[r * n + k] -= f * A[c * n + k];
-      b[r] -= f * b[c];
-    }
-  }
-  for (let c = n - 1; c >= 0; c--) {
-    let s = b[c];
-    for (let k = c + 1; k < n; k++) s -= A[c * n + k] * b[k];
-    const d = A[c * n + c];
-    b[c] = d !== 0 ? s / d : 0;
-  }
+/** The ponds ordered so that every pond comes before the pond it drains into (`to`: -1 the outfall; no cycles). */
+export function upstreamFirst(to: Int32Array): Int32Array {
+  const n = to.length;
+  const depth = new Int32Array(n);
+  for (let i = 0; i < n; i++) for (let j = to[i], d = 1; j >= 0 && d <= n; j = to[j], d++) depth[i] = d;
+  return Int32Array.from(Array.from({ length: n }, (_, i) => i).sort((a, b) => depth[b] - depth[a] || a - b));
 }
