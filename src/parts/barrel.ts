@@ -97,6 +97,11 @@ export function barrelOutline(b: Barrel): Outline {
   return b.shape === "circular" ? { kind: "circle", diameter: b.diameter } : { kind: "rectangle", width: b.span, height: b.rise };
 }
 
+/** Barrel width across (m): a pipe's diameter, a box's span (its hole in the riser's wall). */
+export function barrelSpan(b: Barrel): number {
+  return b.shape === "circular" ? b.diameter : b.span;
+}
+
 /** Full cross-section area A (m2). */
 export function barrelArea(b: Barrel): number {
   return b.shape === "circular" ? (Math.PI * b.diameter * b.diameter) / 4 : b.span * b.rise;
