@@ -14,7 +14,19 @@ export interface Formatter {
   labels: ReturnType<typeof unitLabels>;
 }
 
+/** One formatter per unit system (a formatter holds no state): the rules word their checks at every evaluation of a search. */
+const FORMATTERS = new Map<UnitSystem, Formatter>();
+
 export function formatter(units: UnitSystem): Formatter {
+  let f = FORMATTERS.get(units);
+  if (!f) {
+    f = newFormatter(units);
+    FORMATTERS.set(units, f);
+  }
+  return f;
+}
+
+function newFormatter(units: UnitSystem): Formatter {
   const c = toCaseUnits(units);
   const labels = unitLabels(units);
   return {
@@ -44,9 +56,10 @@ export function significant(x: number): string {
   return x.toPrecision(3);
 }
 
-/** A check's value or limit in words: flows and elevations in case units, drawdown in hours. */
-export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hours" | "size", value: number | null): string {
+/** A check's value or limit in words: flows, elevations and lengths in case units, drawdown in hours, small sizes in in / mm. */
+export function quantityText(f: Formatter, quantity: "flow" | "elevation" | "hours" | "size" | "length", value: number | null): string {
   if (value === null) return "not drained";
+  if (quantity === "length") return f.length(value, f.units === "US" ? 2 : 3);
   return quantity === "flow" ? f.flow(value) : quantity === "hours" ? `${value.toFixed(1)} h` : quantity === "size" ? f.size(value) : f.elevation(value);
 }
 

@@ -240,6 +240,20 @@ export interface Criteria {
   extendedDetention: { storm: string | null; volume: number | null; hours: number; share: number; label: string | null }[];
   /** Smallest opening the rules permit (m: an orifice's diameter, or a rectangular orifice's smaller side); null when none. */
   minimumOpening: { size: number; label: string | null } | null;
+  /**
+   * Buildable geometry (m): the clear web between openings on one wall (and to a box's corners), the
+   * least spacing of distinct control levels, the least distance of weir crests and the tops of holes
+   * below the rim, and the usable width of a headwall (null: not limited). `labels` says where each
+   * limit comes from: the case's source (or null when it states the limit without one), or "common
+   * practice" for a default.
+   */
+  buildability: {
+    web: number;
+    levelSpacing: number;
+    rimClearance: number;
+    headwallWidth: number | null;
+    labels: { web: string | null; levelSpacing: string | null; rimClearance: string | null };
+  };
   /** Source labels of the criteria rules (null when the case gives none). */
   labels: { freeboard: string | null; drawdown: string | null; spillway: string | null; overtopping: string | null };
 }

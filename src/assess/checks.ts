@@ -39,7 +39,7 @@ export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRo
     const cloggedInput: RuleInput = { case: c, outlet: clogged, routings: { ...routings, design: router(clogged) }, direct, condition: "clogged" };
     const words = `${+(100 * clog.fraction).toPrecision(6)} % clogged${clog.label === null ? "" : `, ${clog.label}`}`;
     for (const rule of rules) {
-      if (!cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;
+      if (rule.asBuilt || !cloggingApplies(c, rule.kind, rule.comparison) || rule.routings.some((v) => v !== "design")) continue;
       const from = checks.length;
       rule.evaluate(cloggedInput, checks);
       for (let i = from; i < checks.length; i++) {
@@ -53,7 +53,7 @@ export function evaluateChecks(c: Case, outlet: Outlet, storms: readonly StormRo
   // Flow checks are listed storm by storm (upper then lower), the others rule by rule; clogged after
   // their unclogged twins.
   const stormIndex = new Map(storms.map((s, i) => [s.storm.name, i]));
-  const group = (check: Check) => (ruleOf(check).quantity === "flow" ? stormIndex.get(check.storm)! : storms.length + RULES.indexOf(ruleOf(check))) * 2 + (check.condition === "clogged" ? 1 : 0);
+  const group = (check: Check) => (ruleOf(check).quantity === "flow" && stormIndex.has(check.storm) ? stormIndex.get(check.storm)! : storms.length + RULES.indexOf(ruleOf(check))) * 2 + (check.condition === "clogged" ? 1 : 0);
   return checks.sort((a, b) => group(a) - group(b));
 }
 

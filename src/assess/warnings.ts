@@ -1,10 +1,10 @@
-// Parts used outside the range their formula or coefficient was published for, openings that do not
-// fit their wall, and numerical cautions of the routing. The search prefers designs without them.
+// Parts used outside the range their formula or coefficient was published for, and numerical cautions
+// of the routing. The search prefers designs without them. (Whether the openings fit their wall and
+// stay below the rim is judged by the buildability rules, rules/openingWeb.ts and its neighbours.)
 import type { Case, Element, Outlet } from "../model.js";
 import { drainedStage, type CaseRouting } from "../routing/routeCase.js";
 import { formatter, type Formatter } from "../format.js";
 import { partOf } from "../parts/registry.js";
-import { riserPerimeter } from "../parts/riser.js";
 import { barrelRise, barrelSizeWords } from "../parts/barrel.js";
 import { openingsFlow, outletDetail, outletDischarge } from "../hydraulics/outlet.js";
 import { chamberFlow } from "../hydraulics/chamber.js";
@@ -37,16 +37,9 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
     const kind = partOf(e);
     const part = partLabel(e, i, f);
     const add = (reason: string) => warnings.push({ part, reason });
-    // Its own range of validity (the kind's), then whether it is cut in the wall below the rim.
+    // Its own range of validity (the kind's).
     kind.warnings(e, { maxStage, floor: c.pond.bottom }, f).forEach(add);
-    if (outlet.riser && kind.room(e, maxStage) !== null) {
-      const topOfOpening = kind.top(e);
-      if (topOfOpening > outlet.riser.crest + 1e-9) {
-        add(`opening reaches ${f.elevation(topOfOpening)}, above the riser rim at ${f.elevation(outlet.riser.crest)}`);
-      }
-    }
   });
-  if (outlet.riser) warnings.push(...wallWarnings(outlet, maxStage, f));
   if (outlet.barrel) warnings.push(...barrelWarnings(c, outlet, routing, f));
   if (routing.table.heldNodes > 0) {
     warnings.push({ part: "outlet", reason: `the combined rating fell with rising stage at ${routing.table.heldNodes} stages and was held level there` });
@@ -59,30 +52,6 @@ export function outletWarnings(c: Case, outlet: Outlet, routing: CaseRouting): W
       warnings.push({
         part: "outlet",
         reason: `${storm.name}: the pond does not drain to ${f.elevation(drainedStage(c))} within ${(result.duration / 86400).toFixed(1)} days of the storm's start: the openings do not drain it to its ${c.pond.pool > c.pond.bottom ? "permanent pool" : "floor"}, or far too slowly`,
-      });
-    }
-  }
-  return warnings;
-}
-
-/** Openings at the same elevation must fit side by side in the riser's wall. */
-function wallWarnings(outlet: Outlet, maxStage: number, f: Formatter): Warning[] {
-  const riser = outlet.riser!;
-  const perimeter = riserPerimeter(riser);
-  const groups = new Map<number, number>();
-  for (const e of outlet.elements) {
-    const kind = partOf(e);
-    const room = kind.room(e, Math.min(maxStage, riser.crest));
-    if (room === null) continue;
-    const bottom = Math.round(kind.bottom(e) * 1e6) / 1e6;
-    groups.set(bottom, (groups.get(bottom) ?? 0) + room.width);
-  }
-  const warnings: Warning[] = [];
-  for (const [bottom, width] of groups) {
-    if (width > perimeter) {
-      warnings.push({
-        part: "outlet.riser",
-        reason: `openings at ${f.elevation(bottom)} need ${f.length(width)} of wall, more than the riser's perimeter of ${f.length(perimeter)}`,
       });
     }
   }

@@ -292,6 +292,7 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
       return { storm: r.storm ?? null, volume, hours: r.hours, share: r.share ?? 1, label: r.source ?? null };
     }),
     minimumOpening: c.minimumOpening ? { size: cv.length(c.minimumOpening.size, "criteria.minimumOpening.size"), label: c.minimumOpening.source ?? null } : null,
+    buildability: buildability(c.buildability, cv),
     labels: {
       freeboard: c.freeboard?.source ?? null,
       drawdown: c.drawdown?.source ?? null,
@@ -300,6 +301,27 @@ function normalizeCriteria(file: CaseFile, cv: Converter): Criteria {
     },
   };
 }
+
+/**
+ * Buildable geometry, each limit the case's or the default of common practice: a clear web of 6 in /
+ * 150 mm between openings (the minimum structural leg between openings in a precast wall, NPCA
+ * "Manhole sizing recommendations", 2010), control levels at least 0.25 ft / 75 mm apart, and crests and
+ * opening tops at least that far below the rim (the rim is one more control level).
+ */
+function buildability(b: NonNullable<CaseFile["criteria"]>["buildability"], cv: Converter): Criteria["buildability"] {
+  const us = cv.units === "US";
+  const label = (stated: unknown) => (stated === undefined ? COMMON_PRACTICE : (b?.source ?? null));
+  return {
+    web: cv.optionalLength(b?.web, "criteria.buildability.web", us ? 0.5 * FOOT : 0.15),
+    levelSpacing: cv.optionalLength(b?.levelSpacing, "criteria.buildability.levelSpacing", us ? 0.25 * FOOT : 0.075),
+    rimClearance: cv.optionalLength(b?.rimClearance, "criteria.buildability.rimClearance", us ? 0.25 * FOOT : 0.075),
+    headwallWidth: b?.headwallWidth === undefined ? null : cv.length(b.headwallWidth, "criteria.buildability.headwallWidth"),
+    labels: { web: label(b?.web), levelSpacing: label(b?.levelSpacing), rimClearance: label(b?.rimClearance) },
+  };
+}
+
+/** The label of a limit outfit takes from common practice (the case states none). */
+export const COMMON_PRACTICE = "common practice";
 
 /** A water-quality volume given as a runoff depth over an area (m3). */
 function waterQualityVolume(depth: number | string, area: number | string, cv: Converter, path: string): number {

@@ -416,10 +416,24 @@ export const criteriaSchema = z.object({
       { error: "a list of extended-detention rules" },
     )
     .optional(),
-  /** The smallest opening the rules permit (an orifice's diameter or a rectangular orifice's smaller side). */
+  /** The smallest opening the rules permit (each kind's size: an orifice's diameter or smaller side, a weir's length, a notch's width one minimum above its vertex). */
   minimumOpening: z.object({ size: positiveLength, source: sourceLabel }).optional(),
   /** Overtopping check's source label (the check itself always applies). */
   overtopping: z.object({ source: sourceLabel }).optional(),
+  /**
+   * Buildable geometry (defaults from common practice): the clear web between openings on one wall and
+   * to a box's corners, the least spacing of distinct control levels, the least distance of weir crests
+   * and the tops of holes below the rim, and the usable width of a headwall without a riser.
+   */
+  buildability: z
+    .object({
+      web: positiveLength.optional(),
+      levelSpacing: positiveLength.optional(),
+      rimClearance: positiveLength.optional(),
+      headwallWidth: positiveLength.optional(),
+      source: sourceLabel,
+    })
+    .optional(),
 });
 
 export const outletSchema = z.object({

@@ -17,6 +17,7 @@ interface Numbers {
   bottom: number; top: number; length: number; width: number;
   peaks: [number, number, number]; targets: [number, number, number]; flowDigits: number;
   freeboard: string; drawdownDepth: string;
+  buildability: { web: string; levelSpacing: string; rimClearance: string };
   low: { diameter: string; invert: number }; mid: { diameter: string; invert: number };
   weir: { length: number; crest: number };
   riser: { diameter: number; crest: number };
@@ -29,6 +30,7 @@ const US: Numbers = {
   bottom: 100, top: 105, length: 200, width: 100,
   peaks: [12, 22, 38], targets: [3.5, 8, 18], flowDigits: 2,
   freeboard: "1 ft", drawdownDepth: "0.1 ft",
+  buildability: { web: "6 in", levelSpacing: "0.25 ft", rimClearance: "0.25 ft" },
   low: { diameter: "4 in", invert: 100 }, mid: { diameter: "6 in", invert: 101.5 },
   weir: { length: 1.5, crest: 102.6 },
   riser: { diameter: 4, crest: 103.4 },
@@ -41,6 +43,7 @@ const SI: Numbers = {
   bottom: 50, top: 51.5, length: 60, width: 30,
   peaks: [0.34, 0.62, 1.08], targets: [0.1, 0.22, 0.5], flowDigits: 3,
   freeboard: "0.3 m", drawdownDepth: "0.03 m",
+  buildability: { web: "150 mm", levelSpacing: "75 mm", rimClearance: "75 mm" },
   low: { diameter: "100 mm", invert: 50 }, mid: { diameter: "150 mm", invert: 50.45 },
   weir: { length: 0.45, crest: 50.78 },
   riser: { diameter: 1.2, crest: 51.02 },
@@ -93,6 +96,13 @@ export function starterCase(units: UnitSystem): unknown {
       freeboard: { depth: n.freeboard },
       drawdown: { hours: 72, depth: n.drawdownDepth },
       spillway: { dryThrough: 100 },
+      buildability: {
+        "//": "What a drafter can build (these are the defaults, common practice): web, the clear wall between two openings and to a box's corners; levelSpacing, the least distance between distinct control levels; rimClearance, how far weir crests and opening tops stay below the riser's rim. Add headwallWidth where the openings are in a headwall without a riser.",
+        web: n.buildability.web,
+        levelSpacing: n.buildability.levelSpacing,
+        rimClearance: n.buildability.rimClearance,
+        source: "common practice",
+      },
     },
     outlet: {
       "//": "The outlet to rate and route: openings in the riser wall (orifices, weirs), the riser's rim, the barrel that drains the riser and the emergency spillway. Add \"keep\": true to a part for design to keep it as it is.",

@@ -126,7 +126,8 @@ export const cipollettiWeir: ElementPart<CipollettiWeir, CipollettiWeirFile> = {
   row: (e, f) => ["Cipolletti weir", `${f.length(e.length)} crest, sides 1 H : 4 V`, ...weirRowEnd(e.crest, e.coefficient, f)],
 
   cost: (e, w) => w.weir + w.weirLength * e.length,
-  openingSize: () => null,
+  // Its crest length, the narrowest width of the trapezoid.
+  openingSize: (e) => e.length,
   clogged: (e, open) => ({ ...e, coefficient: e.coefficient * open }),
   dischargeCoefficient: () => null,
 

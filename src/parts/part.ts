@@ -208,8 +208,13 @@ export interface ElementPart<E extends Element = Element, F extends ElementFileB
 
   /** Its terms of the cost proxy (the level it adds is counted by the caller). */
   cost(e: E, w: CostWeights): number;
-  /** The size the minimum-opening rule compares (m): an orifice's diameter or smaller side; null where the rule does not bind the kind. */
-  openingSize(e: E): number | null;
+  /**
+   * The size the minimum-opening rule compares with the smallest opening permitted, `minimum` (m): the
+   * narrowest passage its kind offers where debris of that size meets it (an orifice's diameter or
+   * smaller side, a weir's crest length, a notch's width one `minimum` above its vertex); null where
+   * the rule does not bind the kind (a manufactured device, sized by its maker).
+   */
+  openingSize(e: E, minimum: number): number | null;
   /** The part with `open` of its open area left (clogging). */
   clogged(e: E, open: number): E;
   /** Its orifice discharge coefficient Cd, null when it is not an orifice. */

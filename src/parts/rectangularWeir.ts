@@ -121,7 +121,8 @@ export const rectangularWeir: ElementPart<RectangularWeir, RectangularWeirFile> 
   row: (e, f) => ["rectangular weir", `${f.length(e.length)} long, ${e.endContractions} end contraction${e.endContractions === 1 ? "" : "s"}`, ...weirRowEnd(e.crest, e.coefficient, f)],
 
   cost: (e, w) => w.weir + w.weirLength * e.length,
-  openingSize: () => null,
+  // Its crest length (the water passes the whole length at any head).
+  openingSize: (e) => e.length,
   clogged: (e, open) => ({ ...e, coefficient: e.coefficient * open }),
   dischargeCoefficient: () => null,
 

@@ -113,6 +113,7 @@ export const regulator: ElementPart<Regulator, RegulatorFile> = {
   row: (e, f) => ["flow regulator", `rating of ${e.heads.length} points to ${f.length(e.heads[e.heads.length - 1])} of head`, `invert ${f.elevation(e.invert)}`, "maker's rating"],
 
   cost: () => 0,
+  // A manufactured device: its throat is the maker's to state against the rule.
   openingSize: () => null,
   clogged: (e, open) => ({ ...e, flows: e.flows.map((q) => q * open) }),
   dischargeCoefficient: () => null,

@@ -117,6 +117,11 @@ export function riserSection(r: Riser): number {
   return r.shape === "circular" ? r.diameter : r.length;
 }
 
+/** Width of the riser's wall the barrel leaves through (m): a round riser's diameter (its longest chord), a box's downstream side (its `width`). */
+export function barrelWallWidth(r: Riser): number {
+  return r.shape === "circular" ? r.diameter : r.width;
+}
+
 /** "4.00 ft riser", "4.00 ft x 3.00 ft box riser". */
 export function riserWords(r: Riser, f: Formatter): string {
   return r.shape === "circular" ? `${f.length(r.diameter)} riser` : `${f.length(r.length)} x ${f.length(r.width)} box riser`;

@@ -104,7 +104,9 @@ export const vNotchWeir: ElementPart<VNotchWeir, VNotchWeirFile> = {
   row: (e, f) => ["v-notch weir", `${trimNumber(e.angle, 2)} degree notch`, ...weirRowEnd(e.crest, e.coefficient, f)],
 
   cost: (_, w) => w.weir,
-  openingSize: () => null,
+  // Its width one minimum opening above the vertex, 2 m tan(angle/2): a notch narrower than that at
+  // that height closes to a slot below the size the rule permits.
+  openingSize: (e, minimum) => 2 * minimum * halfTangent(e.angle),
   clogged: (e, open) => ({ ...e, coefficient: e.coefficient * open }),
   dischargeCoefficient: () => null,
 

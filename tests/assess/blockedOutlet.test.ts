@@ -38,8 +38,14 @@ describe("blocked principal outlet", () => {
   });
 
   it("routes the spillway alone, once per evaluation, through the router it is given", () => {
-    const outlet = { elements: [{ type: "orifice" }], riser: {}, barrel: {}, spillway: { crest: 105 } } as unknown as Outlet;
+    const outlet = {
+      elements: [{ type: "orifice", shape: "circular", diameter: 0.1, count: 1, invert: 100, coefficient: 0.61, keep: false }],
+      riser: { shape: "circular", diameter: 1.2, crest: 104, coefficient: 1.66, orificeCoefficient: 0.6, keep: false },
+      barrel: { shape: "circular", diameter: 0.3, length: 20, inletInvert: 99.5, outletInvert: 99.2, manningN: 0.013, entrance: "concrete-square-headwall", keep: false },
+      spillway: { crest: 105 },
+    } as unknown as Outlet;
     expect(spillwayAlone(outlet)).toEqual({ elements: [], spillway: { crest: 105 } });
+    // (A whole outlet: every rule judges it, the buildability rules its riser and barrel too.)
     const seen: Outlet[] = [];
     const checks = evaluateChecks(c, outlet, [routed(hundred, 1, 103)], (o) => {
       seen.push(o);

@@ -18,8 +18,8 @@ describe("minimum opening", () => {
   const c = testCase([two], { minimumOpening: { size: 4 * INCH, label: "county ordinance 5.5" } });
 
   it("takes a circular diameter or a rectangle's smaller side", () => {
-    expect(smallestOpening(orifices([[6 * INCH], [0.3, 0.08]]))).toBe(0.08);
-    expect(smallestOpening({ elements: [] } as unknown as Outlet)).toBeNull();
+    expect(smallestOpening(orifices([[6 * INCH], [0.3, 0.08]]), 4 * INCH)).toEqual({ size: 0.08, index: 1 });
+    expect(smallestOpening({ elements: [] } as unknown as Outlet, 4 * INCH)).toBeNull();
   });
 
   it("slack (size - minimum) / minimum: 3 in fails by 25 %, 4 in is the edge, 6 in passes by 50 %", () => {

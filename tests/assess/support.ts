@@ -16,7 +16,7 @@ export function testCase(storms: Storm[], criteria: Partial<Case["criteria"]> = 
     pond: { bottom: 100, top: 106, pool: 100, storage: { kind: "prismoid", length: 60, width: 30, sideSlope: 3 } },
     tailwater: { kind: "free" } as Case["tailwater"],
     storms,
-    criteria: { over: 0, under: 0.1, freeboardDepth: 0.3, freeboardStorm: storms[storms.length - 1].name, drawdownHours: null, drawdownDepth: 0.03, spillwayDryThrough: 100, blockedOutlet: null, clogging: null, extendedDetention: [], minimumOpening: null, labels: { freeboard: null, drawdown: null, spillway: null, overtopping: null }, ...criteria },
+    criteria: { over: 0, under: 0.1, freeboardDepth: 0.3, freeboardStorm: storms[storms.length - 1].name, drawdownHours: null, drawdownDepth: 0.03, spillwayDryThrough: 100, blockedOutlet: null, clogging: null, extendedDetention: [], minimumOpening: null, buildability: { web: 0.15, levelSpacing: 0.075, rimClearance: 0.075, headwallWidth: null, labels: { web: "common practice", levelSpacing: "common practice", rimClearance: "common practice" } }, labels: { freeboard: null, drawdown: null, spillway: null, overtopping: null }, ...criteria },
     costs: {},
   };
 }

@@ -14,8 +14,35 @@ import { minimumOpeningRelease } from "./minimumOpeningRelease.js";
 import { surcharge } from "./surcharge.js";
 import { exfiltrationDrain } from "./exfiltrationDrain.js";
 import { furtherPointPeakRule } from "./furtherPointPeak.js";
+import { levelSpacing } from "./levelSpacing.js";
+import { rimClearance } from "./rimClearance.js";
+import { notchWidth } from "./notchWidth.js";
+import { openingWeb } from "./openingWeb.js";
+import { barrelFit } from "./barrelFit.js";
+import { barrelCapacity } from "./barrelCapacity.js";
 
-export const RULES: readonly Rule[] = [peakUpper, peakLower, belowPreHydrograph, freeboard, spillwayDry, drawdown, exfiltrationDrain, surcharge, overtopping, blockedOutlet, extendedDetention, minimumOpening, minimumOpeningRelease, furtherPointPeakRule];
+export const RULES: readonly Rule[] = [
+  peakUpper,
+  peakLower,
+  belowPreHydrograph,
+  freeboard,
+  spillwayDry,
+  drawdown,
+  exfiltrationDrain,
+  surcharge,
+  overtopping,
+  blockedOutlet,
+  extendedDetention,
+  minimumOpening,
+  minimumOpeningRelease,
+  furtherPointPeakRule,
+  levelSpacing,
+  rimClearance,
+  notchWidth,
+  openingWeb,
+  barrelFit,
+  barrelCapacity,
+];
 
 const BY_KIND = new Map<CheckKind, Rule>(RULES.map((r) => [r.kind, r]));
 

@@ -10,8 +10,8 @@ import { formatter } from "../../format.js";
  */
 export type CheckKind = string;
 
-/** What a check's value and limit measure (how they are converted and printed). */
-export type Quantity = "flow" | "elevation" | "hours" | "size";
+/** What a check's value and limit measure (how they are converted and printed): a length is a distance (ft / m), a size a small one (in / mm). */
+export type Quantity = "flow" | "elevation" | "hours" | "size" | "length";
 
 export interface Check {
   /** Stable identity: `${kind}:${storm}`; match checks by it, never by `name`. */
@@ -75,6 +75,12 @@ export interface Rule {
    * the option when one fails: no layout starting with it can comply. Absent: no such checks.
    */
   boundFirstLevel?(input: RuleInput, out: Check[]): void;
+  /**
+   * Judges the outlet as built (where its holes are, what its parts can carry), not a storm's routing:
+   * its checks are not evaluated again with the openings clogged (clogging changes the routing, not
+   * the structure).
+   */
+  asBuilt?: boolean;
   /** Slack the search must keep on a check of this rule (the aim), given the search's margin. */
   aim(c: Case, check: Check, margin: number): number;
   /** Why a check of this rule binds, in words. */
