@@ -114,7 +114,7 @@ export function routeOutlet(p: SearchProblem, file: OutletFile, outlet: Outlet):
     outlet,
     routing,
     assessment,
-    cost: outletCost(outlet, p.costs),
+    cost: outletCost(outlet, p.costs, p.case.criteria.buildability.levelSpacing),
     error,
     description: describeOutlet(outlet, formatter(p.case.units)),
     // Ranking by robustness needs the spread of every compliant design (routed where it was fitted).

@@ -8,6 +8,7 @@ import { COST_KEYS, COST_LENGTH_POWER, DEFAULT_COSTS_PER_FOOT, type CostWeights 
 import { partOf } from "../../src/parts/registry.js";
 import { riserCost } from "../../src/parts/riser.js";
 import { barrelCost } from "../../src/parts/barrel.js";
+import { levelCount } from "../../src/assess/rules/levelSpacing.js";
 
 /** Weights in SI (per m, per m2), from the defaults and the case's overrides. */
 export function costWeights(c: Case): CostWeights {
@@ -21,17 +22,20 @@ export function costWeights(c: Case): CostWeights {
   return weights;
 }
 
-/** Cost proxy of an outlet; kept parts cost nothing (they exist already). */
-export function outletCost(outlet: Outlet, w: CostWeights): number {
+/**
+ * Cost proxy of an outlet; kept parts cost nothing (they exist already). Control levels closer than
+ * `levelSpacing` (m) count as one (`buildability.levelSpacing`).
+ */
+export function outletCost(outlet: Outlet, w: CostWeights, levelSpacing: number): number {
   let cost = 0;
-  const levels = new Set<number>();
+  const levels: number[] = [];
   for (const e of outlet.elements) {
     if (e.keep) continue;
     const kind = partOf(e);
-    if (kind.level) levels.add(Math.round(kind.bottom(e) * 1e6));
+    if (kind.level) levels.push(kind.bottom(e));
     cost += kind.cost(e, w);
   }
-  cost += w.level * levels.size;
+  cost += w.level * levelCount(levels, levelSpacing);
   if (outlet.riser && !outlet.riser.keep) cost += riserCost(outlet.riser, w);
   if (outlet.barrel && !outlet.barrel.keep) cost += barrelCost(outlet.barrel, w);
   return cost;

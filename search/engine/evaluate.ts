@@ -150,13 +150,13 @@ export function geometryViolations(p: SearchProblem, layout: Layout, vars: reado
 }
 
 /**
- * Geometric rules as residuals: levels ordered at least one step apart, openings below the rim,
- * elevations between the floor and the top less freeboard. Returns the number broken.
+ * Geometric rules as residuals: levels ordered at least the level spacing apart (`levelGapM`), openings
+ * and crests the rim clearance below the rim, elevations between the floor and the top less freeboard.
+ * Returns the number broken.
  */
 function geometryResiduals(p: SearchProblem, layout: Layout, vars: readonly number[], residuals: number[]): number {
   const depth = p.case.pond.top - p.case.pond.bottom;
   const z = elevations(p, layout, vars);
-  const step = p.stepM;
   let broken = 0;
   const push = (excess: number) => {
     const r = Math.max(0, excess) / depth;
@@ -165,15 +165,17 @@ function geometryResiduals(p: SearchProblem, layout: Layout, vars: readonly numb
   };
   const floor = p.floor;
   const ceiling = p.ceiling;
-  const all = [...z.levels, ...p.keptElevations].sort((a, b) => a - b);
-  for (let i = 1; i < all.length; i++) push(all[i - 1] + step - all[i] - 1e-9);
+  // Kept elements are as they are: only a pair with a designed level is the fit's to space (a pair of
+  // kept ones still has its residual, always zero, so that the residuals keep their number).
+  const all = [...z.levels.map((at) => ({ at, kept: false })), ...p.keptElevations.map((at) => ({ at, kept: true }))].sort((a, b) => a.at - b.at);
+  for (let i = 1; i < all.length; i++) push(all[i - 1].kept && all[i].kept ? 0 : all[i - 1].at + p.levelGapM - all[i].at - 1e-9);
   z.levels.forEach((level, i) => {
     push(floor - level);
     push(level - ceiling);
     const rim = z.rim ?? (p.keptRiser ? p.converter.length(p.keptRiser.crest, "outlet.riser.crest") : null);
     if (rim !== null) {
       const part = layout.levels[i];
-      const top = level + reachAboveLevel(part, step);
+      const top = level + reachAboveLevel(part, p);
       push(top - rim);
     }
   });

@@ -10,7 +10,7 @@ import { outletDischarge } from "../../src/hydraulics/outlet.js";
 import { hydrographDifference } from "../../src/storage/estimate.js";
 import { stageAtVolume } from "../../src/storage/stageAtVolume.js";
 import { aimBand, type SearchProblem, type Layout } from "./problem.js";
-import { caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, reachAboveLevel, variableCount } from "./layout.js";
+import { barrelCrown, caseElevation, designOutlet, designOutletFile, elevations, firstLevelFixed, layoutKey, reachAboveLevel, variableCount } from "./layout.js";
 import { geometryViolations, type Evaluation, type Evaluator } from "./evaluate.js";
 import { fileBottom } from "../../src/parts/registry.js";
 
@@ -36,11 +36,14 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
   const max: number[] = [];
   const n = variableCount(p, l) - (l.riser ? 1 : 0);
   for (let i = 0; i < n; i++) {
-    min.push(p.floor + (p.lowestFloats ? 0 : p.stepM));
+    min.push(p.floor + (p.lowestFloats ? 0 : p.levelGapM));
     max.push(p.ceiling);
   }
   if (l.riser) {
-    min.push(p.floor + p.stepM);
+    // The rim keeps the rim clearance above the barrel's crown (the rim-clearance rule), on the lattice.
+    const crown = barrelCrown(p, l);
+    const aboveCrown = crown === null ? -Infinity : Math.ceil((crown + p.rimClearanceM) / p.stepM - 1e-9) * p.stepM;
+    min.push(Math.max(p.floor + p.stepM, aboveCrown));
     max.push(p.case.pond.top);
   }
   return { min, max };
@@ -85,7 +88,7 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
   /** Places variable `index` between `low` and `stage` so that the storm's peak reaches its aim. */
   const place = (index: number, storm: Storm | undefined, low: number) => {
     // A floating lowest level starts just above a kept element at the floor, or at a held pool.
-    let stage = p.poolHeldByTailwater ? p.case.pond.pool + (p.floorTaken ? p.stepM : 0) : p.floor + p.stepM;
+    let stage = p.poolHeldByTailwater ? p.case.pond.pool + (p.floorTaken ? p.levelGapM : 0) : p.floor + p.levelGapM;
     let peak = Infinity;
     if (storm) {
       vars[index] = high;
@@ -153,13 +156,13 @@ export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, p
     const previous = level > 0 ? z(level - 1) : -Infinity;
     const index = vars.length;
     vars.push(high);
-    place(index, storm, previous + p.stepM);
+    place(index, storm, previous + p.levelGapM);
   }
   if (l.riser) {
     const index = vars.length;
     vars.push(high);
-    const tops = elevations(p, l, trial()).levels.map((e, i) => e + reachAboveLevel(l.levels[i], p.stepM));
-    place(index, storms[storms.length - 1], Math.max(p.floor + p.stepM, ...tops));
+    const tops = elevations(p, l, trial()).levels.map((e, i) => e + reachAboveLevel(l.levels[i], p));
+    place(index, storms[Math.min(l.levels.length, storms.length - 1)], Math.max(p.floor + p.stepM, ...tops));
   }
   return vars;
 }

@@ -10,7 +10,7 @@ import { baseLength } from "../../src/units.js";
 import type { PartOption } from "../../src/parts/part.js";
 import { explicit, placed } from "../../src/parts/registry.js";
 import { designedRiser, explicitRiser } from "../../src/parts/riser.js";
-import { resizedBarrel } from "../../src/parts/barrel.js";
+import { barrelRise, barrelToSI, resizedBarrel } from "../../src/parts/barrel.js";
 import { explicitSpillway } from "../../src/parts/spillway.js";
 import type { Layout, SearchProblem } from "./problem.js";
 
@@ -41,12 +41,19 @@ export function variableNames(p: SearchProblem, l: Layout): string[] {
 }
 
 /**
- * How far above its level a part reaches on the wall, for the rule that openings stay below the rim: a
- * closed opening's height; for a notch (open above: height 0) one elevation step, so that its crest
- * sits at least a step below the rim.
+ * How far below the rim a part's level must sit: a closed opening's height and, for any part, the
+ * rim clearance (`buildability.rimClearance`), at least one elevation step (a notch, open above, has
+ * height 0).
  */
-export function reachAboveLevel(part: PartOption, step: number): number {
-  return part.height > 0 ? part.height : step;
+export function reachAboveLevel(part: PartOption, p: SearchProblem): number {
+  return Math.max(part.height + p.rimClearanceM, p.stepM);
+}
+
+/** The crown of the layout's barrel where it leaves the riser (m), null without a barrel. */
+export function barrelCrown(p: SearchProblem, l: Layout): number | null {
+  if (!p.barrel) return null;
+  const b = barrelToSI(l.barrel ? resizedBarrel(p.barrel, l.barrel.size) : p.barrel, p.converter, "outlet.barrel");
+  return b.inletInvert + barrelRise(b);
 }
 
 /** Elevation of the floor in the file's own form (so that it normalizes to exactly pond.pool). */

@@ -9,6 +9,7 @@ import type { SearchProblem, Layout } from "./problem.js";
 import type { PartOption, SizeOption } from "../../src/parts/part.js";
 import { bottomOf, otherKinds } from "../../src/parts/registry.js";
 import { riserPerimeter, riserToSI } from "../../src/parts/riser.js";
+import { chordArc } from "../../src/parts/wall.js";
 import { aimBand } from "./problem.js";
 import { targetBand } from "../../src/assess/rules/band.js";
 import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount } from "./layout.js";
@@ -82,18 +83,21 @@ function perimeterOf(p: SearchProblem, r: NonNullable<SearchProblem["keptRiser"]
 }
 
 /**
- * A riser size takes a set of levels when every level's openings fit its perimeter side by side and
- * it is wider than the barrel it sits on (common practice).
+ * A riser size takes a set of levels when each level's openings fit its perimeter side by side with
+ * the clear web after each (each opening the arc of its chord), and the barrel fits its wall with the
+ * web at each side (the opening-web and barrel-fit rules, for a level alone: a bound, not the check).
  */
-function riserFits(levels: PartOption[], riser: SizeOption, barrel: SizeOption | null): boolean {
-  const widest = Math.max(0, ...levels.map((part) => part.width));
-  return Math.PI * riser.sizeM >= widest && (!barrel || riser.sizeM > barrel.sizeM);
+function riserFits(p: SearchProblem, levels: PartOption[], riser: SizeOption, barrel: SizeOption | null): boolean {
+  const d = riser.sizeM;
+  const web = p.case.criteria.buildability.web;
+  const fits = levels.every((part) => part.count * (chordArc(d, part.width / part.count) + web) <= Math.PI * d + 1e-9);
+  return fits && (!barrel || barrel.sizeM <= d - 2 * web + 1e-9);
 }
 
 /** Riser sizes for a set of levels: the smallest two whose perimeter takes every level's openings. */
 export function riserChoices(p: SearchProblem, levels: PartOption[], barrel: SizeOption | null): (SizeOption | null)[] {
   if (p.keptRiser || p.riserOptions.length === 0) return [null];
-  return p.riserOptions.filter((r) => riserFits(levels, r, barrel)).slice(0, 2);
+  return p.riserOptions.filter((r) => riserFits(p, levels, r, barrel)).slice(0, 2);
 }
 
 /** Barrel sizes worth fitting: the smallest that can carry the largest target at the freeboard stage, and the next. */
@@ -329,7 +333,7 @@ export function* layoutScores(p: SearchProblem, layouts: Layout[], size: number)
 export function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   const vars = p.existing && p.existing.vars.length === variableCount(p, layout) ? p.existing.vars : stagedStart(p, layout, evaluator, true);
   const e = evaluator.evaluate(layout, vars);
-  return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
+  return { score: e.objective, cost: outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
 }
 
 /**
@@ -380,14 +384,14 @@ export function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluat
   // Staged without the barrel (fast), judged with it.
   const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator, true) : [];
   const e = evaluator.evaluate(layout, vars);
-  return { score: e.objective, cost: outletCost(e.outlet, p.costs) };
+  return { score: e.objective, cost: outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
 }
 
 /** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
 export function layoutCost(p: SearchProblem, layout: Layout): number {
   const n = variableCount(p, layout);
-  const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.stepM);
-  return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs);
+  const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.levelGapM);
+  return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs, p.case.criteria.buildability.levelSpacing);
 }
 
 /** Free flow of a part with its invert or crest at 0 under a head (m3/s), with the case's coefficients. */
@@ -447,10 +451,10 @@ export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
     return [list[at - 1], list[at + 1]].filter((o): o is T => o !== undefined);
   };
   for (const riser of step(p.riserOptions, layout.riser)) {
-    if (riserFits(layout.levels, riser, layout.barrel)) out.push({ ...layout, riser });
+    if (riserFits(p, layout.levels, riser, layout.barrel)) out.push({ ...layout, riser });
   }
   for (const barrel of step(p.barrelOptions, layout.barrel)) {
-    if (!layout.riser || layout.riser.sizeM > barrel.sizeM) out.push({ ...layout, barrel });
+    if (!layout.riser || riserFits(p, [], layout.riser, barrel)) out.push({ ...layout, barrel });
   }
   return out;
 }

@@ -16,6 +16,7 @@ import { aimMargin } from "../../src/assess/rules/peakUpper.js";
 import type { OptionContext, PartOption, SizeOption } from "../../src/parts/part.js";
 import { catalogueOptions, elementToSI, explicit, fileBottom, inCatalogueForm, partOf, sameElement } from "../../src/parts/registry.js";
 import { riserSize } from "../../src/parts/riser.js";
+import { levelCount } from "../../src/assess/rules/levelSpacing.js";
 import { barrelSize } from "../../src/parts/barrel.js";
 
 /** The discrete part of a design (which parts, counts, sizes); its elevations are the fit's variables (layout.ts). */
@@ -71,6 +72,13 @@ export interface SearchProblem {
    * lattice (k * stepM) is written back to the case file as exactly k steps in case units.
    */
   stepM: number;
+  /**
+   * Least spacing of designed control levels (m): the case's `buildability.levelSpacing` rounded up to
+   * whole elevation steps (at least one), so that levels on the lattice keep it.
+   */
+  levelGapM: number;
+  /** Least distance of a crest or an opening's top below the rim (m): the case's `buildability.rimClearance`. */
+  rimClearanceM: number;
   /**
    * Lowest opening elevation (m): the permanent pool, or the pond floor when a constant tailwater at
    * or above the pool holds it (openings below the pool are then drowned, not a drain).
@@ -142,7 +150,7 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     throw new CaseError([{ where: `${label}: storms`, found: "no storm with a target", expected: "at least one storm with a target for the search to aim at" }]);
   }
 
-  const parts = catalogueOptions(optionContext(c, catFile, converter));
+  const parts = permitted(c, catalogueOptions(optionContext(c, catFile, converter)), converter);
   if (parts.length === 0 && keptElements.length === 0) {
     throw new CaseError([{ where: `${label}: catalogue`, found: "no orifice diameters or weir sizes", expected: "at least one orifice diameter or weir size" }]);
   }
@@ -173,6 +181,8 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     file,
     converter,
     stepM,
+    levelGapM: Math.max(1, Math.ceil(c.criteria.buildability.levelSpacing / stepM - 1e-9)) * stepM,
+    rimClearanceM: c.criteria.buildability.rimClearance,
     floor,
     poolHeldByTailwater,
     lowestFloats: false,
@@ -188,7 +198,8 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     barrelOptions,
     spillway: outlet.spillway,
     parts,
-    maxLevels: Math.max(0, cat.maxStages - new Set(keptElevations.map((z) => Math.round(z * 1e6))).size),
+    // Kept elements closer than the level spacing are one control level (the rule's count).
+    maxLevels: Math.max(0, cat.maxStages - levelCount(keptElevations, c.criteria.buildability.levelSpacing)),
     grid: stageGrid(c.pond, [], gridStepOnLattice),
     inflows: searchInflows(c),
     costs: costWeights(c),
@@ -235,6 +246,20 @@ function existingOutlet(p: SearchProblem, file: OutletFile, label: string): Exis
   const vars = designed.map(at).filter((_, i) => i > 0 || p.lowestFloats);
   if (riser && file.riser) vars.push(converter.length(file.riser.crest, "outlet.riser.crest"));
   return { file, outlet, layout, vars };
+}
+
+/**
+ * The options that keep to the minimum opening (each kind's `openingSize`): a layout with any other
+ * fails the rule whatever its elevations. All of them when none does (the search then shows why).
+ */
+function permitted(c: Case, options: PartOption[], converter: Converter): PartOption[] {
+  const minimum = c.criteria.minimumOpening?.size;
+  if (minimum === undefined) return options;
+  const kept = options.filter((o) => {
+    const size = o.part.openingSize(elementToSI(o.file as ElementFile, converter, "catalogue"), minimum);
+    return size === null || size >= minimum * (1 - 1e-12);
+  });
+  return kept.length > 0 ? kept : options;
 }
 
 /** What the parts need to turn the catalogue into options. */

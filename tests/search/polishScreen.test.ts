@@ -23,7 +23,7 @@ describe("polish screens steps by the geometric rules", () => {
       // Start with the rim on the lattice just over the top opening, so that a step down breaks the rule that openings stay below it.
       const start = stagedStart(p, layout, new Evaluator(p)).map((x) => snap(p, x));
       const top = layout.levels[layout.levels.length - 1];
-      const topOf = start[start.length - 2] + reachAboveLevel(top, p.stepM);
+      const topOf = start[start.length - 2] + reachAboveLevel(top, p);
       start[start.length - 1] = Math.ceil(topOf / p.stepM - 1e-9) * p.stepM;
       const a = new Evaluator(p);
       const b = new Evaluator(p);
