@@ -12,6 +12,7 @@ import { CAUTION } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { limitingPart } from "./limiting.js";
 import { storageTable } from "./storageNotes.js";
+import { wallLines } from "./wall.js";
 import { paint, PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 export function hours(h: number | null): string {
@@ -180,6 +181,12 @@ function limitWord(check: Check): string {
   return ruleOf(check).comparison === "at least" ? ">=" : "<=";
 }
 
+/** Where each opening sits on its wall (lines, then a blank line), or nothing without openings in a wall. */
+function wallSection(c: Case, routing: CaseRouting, assessment: Assessment, layout: Layout): string[] {
+  const lines = wallLines(c, routing.outlet, assessment.wall);
+  return lines.length ? [...lines.map((line) => wrap(line, layout.width, 4)), ""] : [];
+}
+
 export function warningsText(assessment: Assessment, layout: Layout = PLAIN): string {
   if (assessment.warnings.length === 0) return "Warnings: none";
   return ["Warnings:", ...assessment.warnings.map((w) => wrap(`  - ${w.part}: ${w.reason}`, layout.width, 4))].join("\n");
@@ -217,6 +224,7 @@ export function assessmentLines(c: Case, assessment: Assessment, verbose: string
     "",
     checksTable(c, assessment.checks, layout),
     "",
+    ...wallSection(c, routing, assessment, layout),
     warningsText(assessment, layout),
     ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),
     "",

@@ -12,6 +12,7 @@ import { CAUTION } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { storageJsonFields } from "./storageNotes.js";
+import { wallJson } from "./wall.js";
 
 export interface StormJson {
   name: string;
@@ -146,6 +147,7 @@ export function checkJson(c: Case, check: Check): CheckJson {
   const flow = quantity === "flow";
   const hours = quantity === "hours";
   const size = quantity === "size";
+  // Elevations and lengths alike in the case's length unit.
   const convert = (x: number) => (flow ? u.flow(x) : hours ? x : size ? u.smallLength(x) : u.length(x));
   return {
     name: check.name,
@@ -179,6 +181,7 @@ export function verdictJson(c: Case, assessment: Assessment) {
     warnings: assessment.warnings,
     compliant: assessment.compliant,
     binding: assessment.binding ? checkJson(c, assessment.binding) : null,
+    wall: wallJson(c, routing.outlet, assessment.wall),
   };
 }
 

@@ -17,7 +17,7 @@ import type { ProjectFile } from "../../case/schema.js";
 import type { CaseHydrology } from "../../case/hydrology.js";
 import { hydrologySection } from "./hydrology.js";
 import { methodsTable } from "./methods.js";
-import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, warningsList } from "./tables.js";
+import { caseFacts, checksTable, partsTable, ratingTable, resultsTable, stormSummary, stormsTable, verdictNote, wallTable, warningsList } from "./tables.js";
 import { FigureCounter, section, type Block, type ReportDocument, type Section } from "./model.js";
 import { storageBlocks } from "./storage.js";
 import type { StormEstimateInputs } from "../../sizing/stormEstimates.js";
@@ -72,6 +72,7 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     : "";
   const rating = section(`${prefix}rating`, "Outlet and rating", [
     partsTable(c, outlet),
+    ...(assessment.wall.openings.length ? [wallTable(c, outlet, assessment.wall)] : []),
     figures.figure(`${prefix}outlet-drawing`, "Outlet structure, elevation",
       `The outlet drawn to one scale across and up: left, a section through the ${outlet.riser ? "riser" : "headwall"} with the pond floor, the barrel leaving its base, the top of embankment, the spillway crest and the freeboard line; right, the ${outlet.riser ? "riser's wall developed (its perimeter unrolled)" : "headwall"} with every opening at its elevation and place (the openings of one level spaced evenly around the wall where the outlet gives no places); dashed: each storm's peak stage.`,
       (id) => outletDrawing(id, drawingInput(c, outlet, routing.storms))),

@@ -15,7 +15,9 @@ import { niceStep, ratingGrid, ratingRows } from "../rating.js";
 import { baseLength } from "../../units.js";
 import { partOf } from "../../parts/registry.js";
 import { riserRow } from "../../parts/riser.js";
-import { barrelRow } from "../../parts/barrel.js";
+import { barrelRow, barrelSizeWords } from "../../parts/barrel.js";
+import type { PlacedOpening, WallPlan } from "../../parts/placement.js";
+import { placeWords, wallHeading } from "../wall.js";
 import { spillwayRow } from "../../parts/spillway.js";
 import type { Cell, FactsBlock, ListBlock, NoteBlock, TableBlock } from "./model.js";
 
@@ -104,6 +106,26 @@ export function partsTable(c: Case, outlet: Outlet): TableBlock {
   if (outlet.barrel) rows.push(["barrel", ...barrelRow(outlet.barrel, f)]);
   if (outlet.spillway) rows.push(["spillway", ...spillwayRow(outlet.spillway, f)]);
   return { kind: "table", caption: `Outlet: ${describeOutlet(outlet, f)}`, head: ["Part", "Kind", "Size", "Elevation", "Coefficient"], numeric: [false, false, false, true, false], rows };
+}
+
+/** Where each opening sits on its wall (and the barrel's hole): one row per opening, for the drafter. */
+export function wallTable(c: Case, outlet: Outlet, plan: WallPlan): TableBlock {
+  const f = formatter(c.units);
+  const L = f.labels.length;
+  const row = (label: string, part: string, o: PlacedOpening, bottom: string) => [label, part, `${o.opening} of ${o.count}`, placeWords(o, f), f.raw.length(o.station).toFixed(2), `${bottom} ${f.elevation(o.bottom)}`, f.raw.length(o.top).toFixed(c.units === "US" ? 2 : 3), f.raw.length(o.width).toFixed(c.units === "US" ? 2 : 3)];
+  const rows = plan.openings.map((o) => {
+    const e = outlet.elements[o.element];
+    return row(`E${o.element + 1}`, partOf(e).label(e, f), o, partOf(e).bottomField);
+  });
+  if (plan.barrel && outlet.barrel) rows.push(row("barrel", `${barrelSizeWords(outlet.barrel, f)} barrel`, plan.barrel, "invert"));
+  const web = plan.web !== null && plan.closest ? `; the smallest clear web is ${f.size(plan.web)}` : "";
+  return {
+    kind: "table",
+    caption: `Openings on the wall (${wallHeading(outlet, plan, f)})${web}. Station: along the wall from the same datum, clockwise in plan.`,
+    head: ["Part", "Kind", "Opening", "Place", `Station (${L})`, "Invert or crest", `Top (${L})`, `Width (${L})`],
+    numeric: [false, false, false, false, true, true, true, true],
+    rows,
+  };
 }
 
 /** The outlet's rating, grouped by part (as `outfit rate --wide`), at a round stage step; units in the headings. */
