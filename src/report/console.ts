@@ -107,13 +107,13 @@ export function checkValue(c: Case, check: Check, value: number | null): string 
 }
 
 /**
- * A check's slack in words: the fraction of its limit as a percentage, and for an elevation check
- * first the distance to its limit in ft or m ("0.52 ft (10.5 %)"), which is what an engineer
- * compares with a freeboard or a crest.
+ * A check's slack in words: the fraction of its limit as a percentage, and for an elevation or a length
+ * check first the distance to its limit in ft or m ("0.52 ft (10.5 %)"), which is what an engineer
+ * compares with a freeboard, a crest or a spacing.
  */
 export function slackText(units: Case["units"], check: Check): string {
   const rule = ruleOf(check);
-  if (rule.quantity !== "elevation" || check.value === null) return percent(check.slack);
+  if ((rule.quantity !== "elevation" && rule.quantity !== "length") || check.value === null) return percent(check.slack);
   const margin = rule.comparison === "at least" ? check.value - check.limit : check.limit - check.value;
   const digits = units === "US" ? 2 : 3;
   const text = formatter(units).length(margin, digits);
