@@ -59,6 +59,12 @@ export interface WallPlan {
   web: number | null;
   /** The two holes the smallest web is between. */
   closest: [HoleRef, HoleRef] | null;
+  /**
+   * Openings left off the wall: of an element with more openings than its wall can hold with a web
+   * after each, those beyond one more than it holds (the extra one already shows the web lost); 0 as
+   * a rule.
+   */
+  unplaced: number;
 }
 
 export interface PlacementLimits {
@@ -132,6 +138,7 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
   const perimeter = closes ? length : null;
   const along = (chord: number) => (wall.kind === "round riser" ? chordArc(wall.diameter, chord) : chord);
   const holes: Hole[] = [];
+  let unplaced = 0;
   outlet.elements.forEach((e, element) => {
     const kind = partOf(e);
     const bottom = kind.bottom(e);
@@ -141,7 +148,9 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
     const one = kind.opening(e);
     const count = one ? Math.max(1, Math.round(room.width / one.width)) : 1;
     const width = one ? one.width : room.width;
-    for (let k = 1; k <= count; k++) {
+    const placeable = Math.min(count, holdable(length, along(width), limits.web));
+    unplaced += count - placeable;
+    for (let k = 1; k <= placeable; k++) {
       holes.push({ ref: { kind: "opening", element, opening: k }, station: 0, along: along(width), width, bottom, top: one ? kind.top(e) : top, count, fixed: false });
     }
   });
@@ -173,7 +182,7 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
       h.station = settle(h, others);
     }
   }
-  if (perimeter !== null) for (const h of holes) h.station = ((h.station % perimeter) + perimeter) % perimeter;
+  if (perimeter !== null && Number.isFinite(perimeter)) for (const h of holes) h.station = ((h.station % perimeter) + perimeter) % perimeter;
 
   let web: number | null = null;
   let closest: [HoleRef, HoleRef] | null = null;
@@ -195,7 +204,7 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
       count: h.count,
       station: h.station,
       // Round to a millionth of a degree: the round stations read as whole degrees.
-      angle: wall.kind === "round riser" ? Math.round((360e6 * h.station) / length!) / 1e6 : null,
+      angle: wall.kind === "round riser" ? (Number.isFinite(length) ? Math.round((360e6 * h.station) / length!) / 1e6 : 0) : null,
       side: box ? box.side : null,
       offset: box ? box.offset : wall.kind === "headwall" ? h.station : null,
       bottom: h.bottom,
@@ -206,20 +215,41 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
   const openings = holes.flatMap((h) => (h.ref.kind === "opening" ? [placedOpening(h, h.ref.element, h.ref.opening)] : []));
   openings.sort((x, y) => x.element - y.element || x.opening - y.opening);
   const barrelHole = holes.find((h) => h.ref.kind === "barrel");
-  return { wall, openings, barrel: barrelHole ? placedOpening(barrelHole, -1, 1) : null, web, closest };
+  return { wall, openings, barrel: barrelHole ? placedOpening(barrelHole, -1, 1) : null, web, closest, unplaced };
 }
+
+/** Most openings of one element placed on a wall of unstated length (a headwall as wide as they need). */
+const MOST_OPENINGS = 64;
+
+/**
+ * How many openings of one element the placement places: all that a wall of `length` holds with a web
+ * after each and one more (which already shows the web lost), at most MOST_OPENINGS; so that an absurd
+ * count (a mistyped case) costs no more than a full wall.
+ */
+function holdable(length: number | null, along: number, web: number): number {
+  if (length === null || !Number.isFinite(length)) return MOST_OPENINGS;
+  return Math.max(1, Math.min(MOST_OPENINGS, Math.floor(length / (along + web)) + 1));
+}
+
+/** Most round stations each way from a side's middle. */
+const ROUND_STEPS = 100;
 
 /** A web this many times the required one is enough: the placement seeks no more. */
 const ENOUGH_WEBS = 2;
 /** Stations whose smallest web is within this share of the required web of the best count as as good. */
 const AS_GOOD = 0.05;
 
-/** Round stations of a wall: every 5 degrees of a round riser; every half web from each side's middle of a box, or from a headwall's middle (to 50 webs each way when its width is not stated). */
+/**
+ * Round stations of a wall: every 5 degrees of a round riser; every half web from each side's middle
+ * of a box, or from a headwall's middle (to 50 webs each way when its width is not stated), at most
+ * ROUND_STEPS each way (a wider step on a side of more than ROUND_STEPS half webs).
+ */
 function roundStations(wall: Wall, web: number): number[] {
   if (wall.kind === "round riser") return Array.from({ length: 72 }, (_, i) => (Math.PI * wall.diameter * i) / 72);
-  const step = web / 2;
   const out: number[] = [];
   const around = (middle: number, half: number) => {
+    const step = Math.max(web / 2, half / ROUND_STEPS);
+    if (!(step > 0) || !Number.isFinite(step)) return void out.push(middle);
     for (let k = 0; k * step <= half; k++) out.push(middle + k * step, ...(k > 0 ? [middle - k * step] : []));
   };
   if (wall.kind === "box riser") {

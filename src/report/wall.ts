@@ -54,6 +54,8 @@ export interface WallJson {
   closest?: [string, string];
   openings: WallHoleJson[];
   barrel?: WallHoleJson;
+  /** Openings left off the wall (more of one element than it holds with a web after each); left out when none. */
+  unplaced?: number;
 }
 
 function refLabel(ref: HoleRef, outlet: Outlet): string {
@@ -87,6 +89,7 @@ export function wallJson(c: Case, outlet: Outlet, plan: WallPlan): WallJson {
       return hole(o, `E${o.element + 1}`, partOf(e).label(e, f), o.element);
     }),
     ...(plan.barrel && outlet.barrel ? { barrel: hole(plan.barrel, "barrel", `${barrelSizeWords(outlet.barrel, f)} barrel`, null) } : {}),
+    ...(plan.unplaced > 0 ? { unplaced: plan.unplaced } : {}),
   };
 }
 
@@ -135,6 +138,7 @@ export function wallLines(c: Case, outlet: Outlet, plan: WallPlan): string[] {
     const size = notch ? `, ${f.length(first.width)} wide at ${f.elevation(first.top)}` : "";
     lines.push(`  E${index + 1} ${kind.label(e, f)}: ${listed(openings.map((o) => position(o, f)))}; ${kind.bottomField} ${f.elevation(first.bottom)}${size}`);
   }
+  if (plan.unplaced > 0) lines.push(`  ${plan.unplaced} more opening${plan.unplaced > 1 ? "s" : ""}: no room left on the wall`);
   if (plan.barrel) lines.push(`  barrel: ${position(plan.barrel, f)}; invert ${f.elevation(plan.barrel.bottom)}, crown ${f.elevation(plan.barrel.top)}`);
   if (plan.web !== null && plan.closest && wallLength(wall) !== null) {
     lines.push(`  smallest clear web ${f.size(plan.web)} (${refLabel(plan.closest[0], outlet)} and ${refLabel(plan.closest[1], outlet)})`);

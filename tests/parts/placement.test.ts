@@ -136,6 +136,24 @@ describe("openings placed on their wall", () => {
     expect(offsets.map((x) => x / FOOT)).toEqual([expect.closeTo(-1.5, 9), expect.closeTo(0, 9), expect.closeTo(1.5, 9)]);
   });
 
+  it("an absurd count costs no more than a full wall: 123456789 orifices of 1 ft on a 4 ft riser place the 8 it holds and one more", () => {
+    // Perimeter 4 pi = 12.566 ft; each takes 4 asin(1/4) = 1.0107 ft of arc and a 0.5 ft web after it:
+    // floor(12.566 / 1.5107) = 8 fit, the 9th already shows the web lost ((12.566 - 9 x 1.0107) / 9 = 0.386 ft at best).
+    const plan = placeOpenings(outletOf([orifice(1 * FOOT, 100, 123456789)], roundRiser(4 * FOOT, 103)), limits);
+    expect(plan.openings).toHaveLength(9);
+    expect(plan.unplaced).toBe(123456789 - 9);
+    expect(plan.web!).toBeLessThanOrEqual(((Math.PI * 4 - 9 * 4 * Math.asin(0.25)) / 9) * FOOT + 1e-9);
+    expect(plan.web!).toBeLessThan(WEB);
+  });
+
+  it("a box side of a kilometre is searched at most a hundred round stations each way from its middle", () => {
+    const box = { shape: "box", length: 1000, width: 1, crest: 103, coefficient: 1.66, orificeCoefficient: 0.6, keep: false };
+    const plan = placeOpenings(outletOf([orifice(0.3, 100, 3)], box), limits);
+    expect(plan.openings).toHaveLength(3);
+    expect(plan.unplaced).toBe(0);
+    expect(plan.web!).toBeGreaterThanOrEqual(WEB);
+  });
+
   it("a notch reaches the rim: a 90 degree v-notch 2 ft below a 4 ft riser's rim is 4 ft wide there", () => {
     const notch = { type: "weir", shape: "v-notch", angle: 90, crest: 100, coefficient: 1.38, keep: false };
     const plan = placeOpenings(outletOf([notch], roundRiser(4 * FOOT, 100 + 2 * FOOT)), limits);
