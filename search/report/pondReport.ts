@@ -2,7 +2,7 @@
 // smaller that failed; as text and JSON, and the case file of the proposal.
 import { formatter, trimNumber } from "../../src/format.js";
 import { toCaseUnits } from "../../src/units.js";
-import { stormTable, checksTable, verdictText, cautionText, warningsText, warningCount, storageLines } from "../../src/report/console.js";
+import { stormTable, checksTable, verdictText, cautionText, wallSection, warningsText, warningCount, storageLines } from "../../src/report/console.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
 import { routeJson } from "../../src/report/json.js";
 import { CAUTION } from "../../src/report/caution.js";
@@ -92,6 +92,7 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
       "",
       checksTable(d.chosen.problem.case, best.assessment.checks, layout),
       "",
+      ...wallSection(d.chosen.problem.case, best.routing, best.assessment, layout),
       warningsText(best.assessment, layout),
       "",
       verdictText(d.chosen.problem.case, best.assessment, layout),

@@ -182,7 +182,7 @@ function limitWord(check: Check): string {
 }
 
 /** Where each opening sits on its wall (lines, then a blank line), or nothing without openings in a wall. */
-function wallSection(c: Case, routing: CaseRouting, assessment: Assessment, layout: Layout): string[] {
+export function wallSection(c: Case, routing: CaseRouting, assessment: Assessment, layout: Layout): string[] {
   const lines = wallLines(c, routing.outlet, assessment.wall);
   return lines.length ? [...lines.map((line) => wrap(line, layout.width, 4)), ""] : [];
 }
