@@ -127,7 +127,7 @@ describe("registry", () => {
   it("lists one rule per kind, each with its words", () => {
     const kinds = RULES.map((r) => r.kind);
     expect(new Set(kinds).size).toBe(kinds.length);
-    expect(kinds.sort()).toEqual(["below-pre-hydrograph", "blocked-outlet", "drawdown", "exfiltration-drain", "extended-detention", "freeboard", "further-point-peak", "minimum-opening", "minimum-opening-release", "overtopping", "peak-lower", "peak-upper", "spillway-dry", "surcharge"]);
+    expect(kinds.sort()).toEqual(["barrel-capacity", "barrel-fit", "below-pre-hydrograph", "blocked-outlet", "drawdown", "exfiltration-drain", "extended-detention", "freeboard", "further-point-peak", "level-spacing", "minimum-opening", "minimum-opening-release", "notch-width", "opening-web", "overtopping", "peak-lower", "peak-upper", "rim-clearance", "spillway-dry", "surcharge"]);
     const c = testCase([two], { drawdownHours: 24 });
     for (const check of evaluateChecks(c, NO_SPILLWAY, [routed(two, 1, 101)])) {
       const rule = ruleOf(check);
