@@ -20,9 +20,14 @@ interface Reported {
   variantOf?: number;
 }
 
+/** "1 warning", "2 warnings". */
+function counted(n: number): string {
+  return `${n} warning${n > 1 ? "s" : ""}`;
+}
+
 /** What the status should read: the verdict and, when there are any, the warnings beside it. */
 function words(compliant: boolean, warnings: number): string {
-  return `${compliant ? "compliant" : "not compliant"}${warnings === 0 ? "" : `, ${warnings} warning${warnings > 1 ? "s" : ""}`}`;
+  return `${compliant ? "compliant" : "not compliant"}${warnings === 0 ? "" : `, ${counted(warnings)}`}`;
 }
 
 describe("warnings beside the word compliant", () => {
@@ -34,7 +39,9 @@ describe("warnings beside the word compliant", () => {
     expect(run.status).toBe(0);
     stdout = run.stdout;
     candidates = JSON.parse(readFileSync(join(dir, "results.json"), "utf8")).candidates;
-    warned = candidates.find((c) => c.compliant && c.warnings.length > 1)!;
+    // (Since the buildability rules the budget's compliant candidate with two warnings, a 3 ft weir
+    // and a v-notch in a 3 ft riser, is no longer proposed; one with a single warning is.)
+    warned = candidates.find((c) => c.compliant && c.warnings.length > 0)!;
   });
 
   it("design's table and summary.txt: every candidate's status carries its count of warnings", () => {
@@ -57,7 +64,7 @@ describe("warnings beside the word compliant", () => {
     const run = outfit("route", join(dir, warned.caseFile));
     expect(run.status).toBe(0);
     const n = warned.warnings.length;
-    expect(run.stdout).toContain(`\nCompliant, ${n} warnings; binding check: `);
+    expect(run.stdout).toContain(`\nCompliant, ${counted(n)}; binding check: `);
     const listed = run.stdout.split("Warnings:\n")[1].split("\n\n")[0].split("\n").filter((line) => line.startsWith("  - "));
     expect(listed).toHaveLength(n);
   });
@@ -67,12 +74,12 @@ describe("warnings beside the word compliant", () => {
     expect(outfit("report", join(dir, warned.caseFile), "--format", "md", "--out", out).status).toBe(0);
     const md = readFileSync(out, "utf8");
     const banner = md.split("\n").find((line) => line.startsWith("> **Pass.**"))!;
-    expect(banner).toMatch(new RegExp(`^> \\*\\*Pass\\.\\*\\* Compliant, ${warned.warnings.length} warnings: every check passes \\(see the warnings: `));
+    expect(banner).toMatch(new RegExp(`^> \\*\\*Pass\\.\\*\\* Compliant, ${counted(warned.warnings.length)}: every check passes \\(see the warnings: `));
     // Markdown escapes the brackets of "outlet.elements[1]".
     for (const w of warned.warnings) expect(banner.replace(/\\([[\]])/g, "$1")).toContain(w.part);
     const html = join(dir, "warned.html");
     expect(outfit("report", join(dir, warned.caseFile), "--out", html).status).toBe(0);
-    expect(readFileSync(html, "utf8")).toMatch(new RegExp(`<div class="note pass" role="note"><strong>Pass</strong>Compliant, ${warned.warnings.length} warnings: every check passes`));
+    expect(readFileSync(html, "utf8")).toMatch(new RegExp(`<div class="note pass" role="note"><strong>Pass</strong>Compliant, ${counted(warned.warnings.length)}: every check passes`));
   });
 
   it("the design run's report: the Compliant column answers with the warnings beside yes or no", () => {
@@ -80,7 +87,7 @@ describe("warnings beside the word compliant", () => {
     expect(outfit("report", dir, "--format", "md", "--out", out).status).toBe(0);
     const md = readFileSync(out, "utf8");
     const row = md.split("\n").find((line) => line.startsWith(`| #${warned.rank} |`))!;
-    expect(row).toMatch(new RegExp(`\\| yes, ${warned.warnings.length} warnings \\|$`));
+    expect(row).toMatch(new RegExp(`\\| yes, ${counted(warned.warnings.length)} \\|$`));
   });
 
   it("route's verdict on a failing outlet too: NOT compliant, with its warnings (cases/demo: a weir and the barrel)", () => {
