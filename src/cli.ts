@@ -392,8 +392,10 @@ program
     helpAfter(`
 The drawing: a section through the riser (or headwall) with the pond floor, the barrel leaving its
 base, the top of embankment, the spillway crest and the freeboard line; the riser's wall developed
-(its perimeter unrolled) with every opening at its elevation and place (the openings of one level
-spaced evenly around the wall); each storm's peak stage, routed as in route; one scale across and up.
+(its perimeter unrolled, seen from outside) with every opening at its elevation and at the place route
+prints for it (a round riser from the barrel's centreline, 0 degrees at the left edge, angles marked;
+a box riser from its downstream side's left end, sides named); each storm's peak stage, routed as in
+route; one scale across and up.
 
 Examples:
   outfit drawing cases/demo/case.json                      # writes cases/demo/case.outlet.svg

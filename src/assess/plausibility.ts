@@ -7,6 +7,7 @@
 import type { Case, Outlet } from "../model.js";
 import type { CaseRouting } from "../routing/routeCase.js";
 import { formatter } from "../format.js";
+import { isHole, outlineHeight, outlineWidth } from "../parts/outline.js";
 import { partOf } from "../parts/registry.js";
 import { riserAcross } from "../parts/riser.js";
 import { barrelRise } from "../parts/barrel.js";
@@ -30,7 +31,10 @@ export function implausibleInputWarnings(c: Case, outlet: Outlet, routing: CaseR
     const what = kind.bottomField;
     if (low > top + 1e-9) warnings.push({ part, reason: `${what} ${f.elevation(low)} is above the top of embankment ${f.elevation(top)}: it can pass water only when the pond overtops` });
     if (low < bottom - 1e-9) warnings.push({ part, reason: `${what} ${f.elevation(low)} is below the pond floor ${f.elevation(bottom)}: there is no storage below the floor to drain` });
-    const opening = kind.opening(e);
+    const outline = kind.outline(e);
+    const height = outlineHeight(outline);
+    // A closed opening cut in the wall (not a notch, open to the rim; not a device mounted on it).
+    const opening = isHole(outline) && height !== null ? { width: outlineWidth(outline, 0), height } : null;
     if (opening) {
       if (riserWidth !== null && opening.width > riserWidth + 1e-9) {
         warnings.push({ part, reason: `opening ${f.length(opening.width)} wide is wider than the riser (${f.length(riserWidth)}): it cannot be cut in its wall` });

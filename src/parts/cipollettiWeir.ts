@@ -98,8 +98,6 @@ export const cipollettiWeir: ElementPart<CipollettiWeir, CipollettiWeirFile> = {
   bottom: (e) => e.crest,
   top: (e) => e.crest,
   widthAt: (e, stage) => (stage > e.crest ? topWidth(e, stage - e.crest) : 0),
-  room: (e, upTo) => ({ width: topWidth(e, upTo - e.crest), height: Math.max(upTo - e.crest, 0) }),
-  opening: () => null,
   count: () => 1,
   outline: (e) => ({ kind: "notch", bottomWidth: e.length, spreadPerHeight: SIDE_SLOPE }),
   breaks(e, out) {

@@ -83,8 +83,6 @@ export const circularOrifice: ElementPart<CircularOrifice, CircularOrificeFile> 
     const y = stage - (e.invert + r);
     return Math.abs(y) < r ? e.count * 2 * Math.sqrt(r * r - y * y) : 0;
   },
-  room: (e) => ({ width: e.count * e.diameter, height: e.diameter }),
-  opening: (e) => ({ width: e.diameter, height: e.diameter }),
   count: (e) => e.count,
   outline: (e) => ({ kind: "circle", diameter: e.diameter }),
   breaks(e, out) {

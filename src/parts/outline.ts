@@ -24,3 +24,8 @@ export function outlineHeight(o: Outline): number | null {
   if (o.kind === "notch") return null;
   return o.kind === "circle" ? o.diameter : o.height;
 }
+
+/** A hole cut in the wall (a device is mounted on it instead: it takes no part in the wall's webs). */
+export function isHole(o: Outline): boolean {
+  return o.kind !== "device";
+}

@@ -39,12 +39,6 @@ export interface Method {
   source: string;
 }
 
-/** The room a part takes on the wall that holds it (m): across the wall (a group's openings side by side) and up it. */
-export interface Room {
-  width: number;
-  height: number;
-}
-
 /** What a part's range of validity is judged against: the highest stage routed and the pond's floor (m). */
 export interface Routed {
   maxStage: number;
@@ -179,13 +173,12 @@ export interface ElementPart<E extends Element = Element, F extends ElementFileB
   top(e: E): number;
   /** Width of the water surface across its opening(s) at a stage (m); 0 below its bottom. */
   widthAt(e: E, stage: number): number;
-  /** The room it takes on its wall when the water stands at `upTo` (a notch is cut up to there); null when it is not cut in the wall. */
-  room(e: E, upTo: number): Room | null;
-  /** One closed opening's own size (m), null for a notch (open above) or a device. */
-  opening(e: E): Room | null;
   /** Identical openings side by side at its bottom (an orifice's `count`; 1 for a notch or a device). */
   count(e: E): number;
-  /** One opening's outline on its wall, relative to its bottom (the outlet drawing draws it). */
+  /**
+   * One opening's outline on its wall, relative to its bottom: the one geometry of its openings on the
+   * wall, which the placement (placement.ts), the buildability rules and the outlet drawing read.
+   */
   outline(e: E): Outline;
   /** Elevations where its rating has a kink (bottom, an opening's top, a rating's points), pushed into `out`. */
   breaks(e: E, out: number[]): void;

@@ -1,43 +1,43 @@
-// Where each opening sits on its wall: a station along the wall (wall.ts) and its invert or crest, so
-// that a drafter can draw the outlet (a developed elevation of the wall: stations across, elevations
-// up). Every opening of every element cut in the wall is a hole: a rectangle on the developed wall,
-// as wide as its chord (a round riser's curved wall gives it the arc the chord subtends) and from its
-// bottom to its top (a notch or weir reaches the top of its plate: the rim of a riser, or without a
-// riser the highest stage routed). The barrel's hole sits at station 0 of a riser; a box's corners
-// and a headwall's ends are holes of no width and no height limits, so that openings keep the web
-// from them too.
+// Where each opening sits on its wall: a station along the developed wall and the place a drafter reads
+// (wall.ts: an angle around a round riser, a side and an offset on a box riser, an offset on a
+// headwall), and its invert or crest. Every opening of every element cut in the wall is a hole: a
+// rectangle on the developed wall, as wide as its outline (part.ts `outline`; a round riser's curved
+// wall gives it the arc its chord subtends) and from its bottom to its top (a notch or weir reaches
+// the top of its plate: the rim of a riser, or without a riser the highest stage routed). The
+// barrel's hole sits on its centreline (station 0 of a round riser, the middle of a box's downstream
+// side); a box's corners and a stated headwall's ends are holes of no width and no height limits, so
+// that openings keep the web from them too. A device (a flow regulator) is mounted on the wall, not
+// cut in it: it is placed after the holes where it overlaps none, and takes no part in the webs.
 //
 // The clear web between two holes is the distance between the rectangles on the developed wall (across,
 // up, or diagonally between corners), negative by the smaller overlap when they overlap. outfit places
 // the widest openings first, then again with all the others placed each that has less than enough web:
 // twice the required one, less a twentieth of it. Each goes to the round station (a multiple of 5
 // degrees on a round riser, of half the web from a side's middle on a box or from a headwall's middle)
-// nearest the upstream face (the riser's side facing the pond; a headwall's middle) where it has
-// enough web, so openings gather on the upstream face, stacked where they are far enough apart in
-// elevation. Where no station gives enough, it goes where its smallest web is largest: sought at the
-// round stations and the middles of the free stretches between the others, taking among those within
-// a twentieth of the web of the best a round one nearest the upstream face, else the nearest middle.
-// On a headwall of unstated width the openings need only the web between them.
+// nearest the upstream face (facing the pond; a headwall's middle) where it has enough web, so
+// openings gather on the upstream face, stacked where they are far enough apart in elevation. Where no
+// station gives enough, it goes where its smallest web is largest: sought at the round stations and
+// the middles of the free stretches between the others, taking among those within a twentieth of the
+// web of the best a round one nearest the upstream face, else the nearest middle. Ties go to the
+// smaller station (to the left seen from outside). On a headwall of unstated width the openings need
+// only the web between them, and the headwall is as wide as they take with a web at each end.
 import type { Outlet } from "../model.js";
 import { partOf } from "./registry.js";
-import { barrelRise, barrelSpan } from "./barrel.js";
-import { boxCorners, boxSideAt, chordArc, wallCloses, wallLength, wallOf, type BoxSide, type Wall } from "./wall.js";
+import { barrelOutline } from "./barrel.js";
+import { isHole, outlineHeight, outlineWidth, type Outline } from "./outline.js";
+import { barrelStation, chordArc, faceMiddles, placeAt, upstreamStation, wallCloses, wallEdges, wallLength, wallOf, type Wall, type WallPlace } from "./wall.js";
 
-/** An opening of an element on its wall. */
+/** An opening of an element (or the barrel's hole, or a device) on its wall. */
 export interface PlacedOpening {
-  /** Index of the element in `outlet.elements`. */
+  /** Index of the element in `outlet.elements` (-1: the barrel). */
   element: number;
   /** Which of the element's `count` openings (1 to count). */
   opening: number;
   count: number;
-  /** Along the wall from its datum, clockwise in plan (m; a headwall's: to the right looking downstream). */
+  /** Its centre along the developed wall from its left edge (m; wall.ts). */
   station: number;
-  /** Round riser: degrees clockwise in plan from the barrel's centreline (the downstream face); null elsewhere. */
-  angle: number | null;
-  /** Box riser: the side, and the offset of the opening's centre from the side's middle (m, clockwise positive). */
-  side: BoxSide | null;
-  /** Box riser: from the middle of its side; headwall: from the middle line (m); null on a round riser. */
-  offset: number | null;
+  /** Where it sits, as a drafter reads it (wall.ts): an angle, a side and an offset, or an offset. */
+  place: WallPlace;
   /** Invert (an orifice) or crest (a weir) (m). */
   bottom: number;
   /** Top of the opening, or of a notch's plate (m). */
@@ -51,9 +51,13 @@ export type HoleRef = { kind: "opening"; element: number; opening: number } | { 
 
 export interface WallPlan {
   wall: Wall;
+  /** Length of the developed wall (m): a riser's perimeter, a headwall's stated width, or the width its openings take with a web at each end. */
+  width: number;
   /** Every opening of every element cut in the wall, element by element. */
   openings: PlacedOpening[];
-  /** The barrel's hole in a riser's wall (at station 0), null without a riser or a barrel. */
+  /** Devices mounted on the wall (flow regulators), element by element: placed where they overlap no hole, not holes themselves. */
+  devices: PlacedOpening[];
+  /** The barrel's hole in a riser's wall (on its centreline), null without a riser or a barrel. */
   barrel: PlacedOpening | null;
   /** Smallest clear web between two holes, or a hole and a corner or end (m); null with fewer than two. */
   web: number | null;
@@ -131,6 +135,13 @@ export function plateTop(outlet: Outlet, highestStage: number | null, bottom: nu
   return Math.max(top, bottom);
 }
 
+/** The hole an outline cut at `bottom` makes on the wall: its width (a notch's at the top of its plate), along the wall, and up to its top or the plate's. */
+function holeOf(outline: Outline, bottom: number, plate: number, along: (chord: number) => number): Pick<Hole, "along" | "width" | "bottom" | "top"> {
+  const height = outlineHeight(outline);
+  const width = outlineWidth(outline, plate - bottom);
+  return { along: along(width), width, bottom, top: height === null ? plate : bottom + height };
+}
+
 function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
   const wall = wallOf(outlet, limits.headwallWidth);
   const length = wallLength(wall);
@@ -138,31 +149,27 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
   const perimeter = closes ? length : null;
   const along = (chord: number) => (wall.kind === "round riser" ? chordArc(wall.diameter, chord) : chord);
   const holes: Hole[] = [];
+  const devices: Hole[] = [];
   let unplaced = 0;
   outlet.elements.forEach((e, element) => {
     const kind = partOf(e);
+    const outline = kind.outline(e);
     const bottom = kind.bottom(e);
-    const top = plateTop(outlet, limits.highestStage, bottom);
-    const room = kind.room(e, top);
-    if (room === null) return;
-    const one = kind.opening(e);
-    const count = one ? Math.max(1, Math.round(room.width / one.width)) : 1;
-    const width = one ? one.width : room.width;
-    const placeable = Math.min(count, holdable(length, along(width), limits.web));
+    const shape = holeOf(outline, bottom, plateTop(outlet, limits.highestStage, bottom), along);
+    const count = kind.count(e);
+    const placeable = Math.min(count, holdable(length, shape.along, limits.web));
     unplaced += count - placeable;
-    for (let k = 1; k <= placeable; k++) {
-      holes.push({ ref: { kind: "opening", element, opening: k }, station: 0, along: along(width), width, bottom, top: one ? kind.top(e) : top, count, fixed: false });
-    }
+    const into = isHole(outline) ? holes : devices;
+    for (let k = 1; k <= placeable; k++) into.push({ ref: { kind: "opening", element, opening: k }, station: 0, count, fixed: false, ...shape });
   });
   const b = outlet.barrel;
-  if (outlet.riser && b) {
-    const width = barrelSpan(b);
-    holes.push({ ref: { kind: "barrel" }, station: 0, along: along(width), width, bottom: b.inletInvert, top: b.inletInvert + barrelRise(b), count: 1, fixed: true });
+  const barrelAt = barrelStation(wall);
+  if (b && barrelAt !== null) {
+    holes.push({ ref: { kind: "barrel" }, station: barrelAt, count: 1, fixed: true, ...holeOf(barrelOutline(b), b.inletInvert, b.inletInvert, along) });
   }
-  const edges: number[] = wall.kind === "box riser" ? boxCorners(wall.length, wall.width) : wall.kind === "headwall" && wall.width !== null ? [-wall.width / 2, wall.width / 2] : [];
-  for (const station of edges) holes.push({ ref: { kind: "edge" }, station, along: 0, width: 0, bottom: -Infinity, top: Infinity, count: 1, fixed: true });
+  for (const station of wallEdges(wall)) holes.push({ ref: { kind: "edge" }, station, along: 0, width: 0, bottom: -Infinity, top: Infinity, count: 1, fixed: true });
 
-  const preferred = closes ? length! / 2 : 0;
+  const preferred = upstreamStation(wall);
   // Enough web: twice the required (a headwall of unstated width needs only the web itself).
   const cap = length === null ? limits.web : ENOUGH_WEBS * limits.web;
   const grid = nearestRoundStations(wall, limits.web, preferred, perimeter);
@@ -182,7 +189,30 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
       h.station = settle(h, others);
     }
   }
-  if (perimeter !== null && Number.isFinite(perimeter)) for (const h of holes) h.station = ((h.station % perimeter) + perimeter) % perimeter;
+  // Devices where they overlap no hole (nor each other).
+  const taken = [...placed];
+  for (const d of devices) {
+    d.station = settle(d, taken);
+    taken.push(d);
+  }
+  const onWall = [...holes, ...devices];
+  let width: number;
+  if (length !== null) {
+    width = length;
+    if (perimeter !== null && Number.isFinite(perimeter)) for (const h of onWall) h.station = ((h.station % perimeter) + perimeter) % perimeter;
+  } else {
+    // A headwall as wide as its openings take with a web at each end, its stations from its left end.
+    const left = onWall.length ? Math.min(...onWall.map((h) => h.station - h.along / 2)) : 0;
+    const right = onWall.length ? Math.max(...onWall.map((h) => h.station + h.along / 2)) : 0;
+    for (const h of onWall) h.station += limits.web - left;
+    width = right - left + 2 * limits.web;
+  }
+
+  // An element's openings numbered left to right along the wall (they are alike: a drafter counts them so).
+  const numbered = holes.filter((h) => h.ref.kind === "opening").concat(devices).sort((x, y) => elementOf(x) - elementOf(y) || x.station - y.station);
+  numbered.forEach((h, i) => {
+    if (h.ref.kind === "opening") h.ref.opening = i > 0 && elementOf(numbered[i - 1]) === h.ref.element ? (numbered[i - 1].ref as { opening: number }).opening + 1 : 1;
+  });
 
   let web: number | null = null;
   let closest: [HoleRef, HoleRef] | null = null;
@@ -196,26 +226,24 @@ function place(outlet: Outlet, limits: PlacementLimits): WallPlan {
       }
     }
   }
-  const placedOpening = (h: Hole, element: number, opening: number): PlacedOpening => {
-    const box = wall.kind === "box riser" ? boxSideAt(wall.length, wall.width, h.station) : null;
-    return {
-      element,
-      opening,
-      count: h.count,
-      station: h.station,
-      // Round to a millionth of a degree: the round stations read as whole degrees.
-      angle: wall.kind === "round riser" ? (Number.isFinite(length) ? Math.round((360e6 * h.station) / length!) / 1e6 : 0) : null,
-      side: box ? box.side : null,
-      offset: box ? box.offset : wall.kind === "headwall" ? h.station : null,
-      bottom: h.bottom,
-      top: h.top,
-      width: h.width,
-    };
-  };
-  const openings = holes.flatMap((h) => (h.ref.kind === "opening" ? [placedOpening(h, h.ref.element, h.ref.opening)] : []));
-  openings.sort((x, y) => x.element - y.element || x.opening - y.opening);
+  const placedOpening = (h: Hole): PlacedOpening => ({
+    element: h.ref.kind === "opening" ? h.ref.element : -1,
+    opening: h.ref.kind === "opening" ? h.ref.opening : 1,
+    count: h.count,
+    station: h.station,
+    place: placeAt(wall, h.station),
+    bottom: h.bottom,
+    top: h.top,
+    width: h.width,
+  });
+  const inOrder = (list: Hole[]) => list.filter((h) => h.ref.kind === "opening").map(placedOpening).sort((x, y) => x.element - y.element || x.opening - y.opening);
   const barrelHole = holes.find((h) => h.ref.kind === "barrel");
-  return { wall, openings, barrel: barrelHole ? placedOpening(barrelHole, -1, 1) : null, web, closest, unplaced };
+  return { wall, width, openings: inOrder(holes), devices: inOrder(devices), barrel: barrelHole ? placedOpening(barrelHole) : null, web, closest, unplaced };
+}
+
+/** The element a hole belongs to (-1: the barrel or an edge). */
+function elementOf(h: Hole): number {
+  return h.ref.kind === "opening" ? h.ref.element : -1;
 }
 
 /** Most openings of one element placed on a wall of unstated length (a headwall as wide as they need). */
@@ -247,18 +275,15 @@ const AS_GOOD = 0.05;
 function roundStations(wall: Wall, web: number): number[] {
   if (wall.kind === "round riser") return Array.from({ length: 72 }, (_, i) => (Math.PI * wall.diameter * i) / 72);
   const out: number[] = [];
-  const around = (middle: number, half: number) => {
+  const faces = wall.kind === "headwall" && wall.width === null ? [{ middle: 0, half: 50 * web }] : faceMiddles(wall);
+  for (const { middle, half } of faces) {
     const step = Math.max(web / 2, half / ROUND_STEPS);
-    if (!(step > 0) || !Number.isFinite(step)) return void out.push(middle);
+    if (!(step > 0) || !Number.isFinite(step)) {
+      out.push(middle);
+      continue;
+    }
     for (let k = 0; k * step <= half; k++) out.push(middle + k * step, ...(k > 0 ? [middle - k * step] : []));
-  };
-  if (wall.kind === "box riser") {
-    const { length, width } = wall;
-    around(0, width / 2);
-    around(width / 2 + length / 2, length / 2);
-    around(width + length, width / 2);
-    around(1.5 * width + 1.5 * length, length / 2);
-  } else around(0, wall.width === null ? 50 * web : wall.width / 2);
+  }
   return out;
 }
 
@@ -336,7 +361,7 @@ function bestStation(h: Hole, others: readonly Hole[], { perimeter, preferred, c
     exact.push(o.station);
     if (perimeter === null) exact.push(o.station - (o.along + h.along) / 2 - web, o.station + (o.along + h.along) / 2 + web);
   }
-  // The middle of the free stretch between any two others (clockwise from the first's edge to the
+  // The middle of the free stretch between any two others (along the wall, from the first's edge to the
   // second's; on a closed wall also all the way round from one's edge to its other edge).
   for (const a of others) {
     for (const b of others) {

@@ -73,8 +73,6 @@ export const rectangularOrifice: ElementPart<RectangularOrifice, RectangularOrif
   bottom: (e) => e.invert,
   top: (e) => e.invert + e.height,
   widthAt: (e, stage) => (stage > e.invert && stage < e.invert + e.height ? e.count * e.width : 0),
-  room: (e) => ({ width: e.count * e.width, height: e.height }),
-  opening: (e) => ({ width: e.width, height: e.height }),
   count: (e) => e.count,
   outline: (e) => ({ kind: "rectangle", width: e.width, height: e.height }),
   breaks(e, out) {

@@ -96,8 +96,6 @@ export const rectangularWeir: ElementPart<RectangularWeir, RectangularWeirFile> 
   bottom: (e) => e.crest,
   top: (e) => e.crest,
   widthAt: (e, stage) => (stage > e.crest ? e.length : 0),
-  room: (e, upTo) => ({ width: e.length, height: Math.max(upTo - e.crest, 0) }),
-  opening: () => null,
   count: () => 1,
   outline: (e) => ({ kind: "notch", bottomWidth: e.length, spreadPerHeight: 0 }),
   breaks(e, out) {

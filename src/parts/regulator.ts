@@ -92,8 +92,6 @@ export const regulator: ElementPart<Regulator, RegulatorFile> = {
   bottom: (e) => e.invert,
   top: (e) => e.invert,
   widthAt: () => 0,
-  room: () => null,
-  opening: () => null,
   count: () => 1,
   outline: () => ({ kind: "device", width: DRAWN_SIZE, height: DRAWN_SIZE }),
   breaks(e, out) {

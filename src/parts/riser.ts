@@ -13,7 +13,6 @@ import { villemonte } from "./submergence.js";
 import { weirCoefficientText } from "./weir.js";
 import type { Conversion, FileSize, Method, SizeOption } from "./part.js";
 import type { CostWeights } from "./cost.js";
-import { roundWall, type DevelopedWall } from "./wall.js";
 
 export const riserSchema = z.discriminatedUnion(
   "shape",
@@ -100,16 +99,6 @@ export function riserArea(r: Riser): number {
 /** The riser's widest and narrowest extent across (m): a round riser's diameter; a box's longer and shorter side. */
 export function riserAcross(r: Riser): { widest: number; narrowest: number } {
   return r.shape === "circular" ? { widest: r.diameter, narrowest: r.diameter } : { widest: Math.max(r.length, r.width), narrowest: Math.min(r.length, r.width) };
-}
-
-/**
- * Its wall unrolled (wall.ts): a round riser's perimeter from the point opposite the barrel; a box's
- * sides 1 to 4 counterclockwise seen from above from the left end of side 1, the side the barrel leaves
- * through at its middle (sides 1 and 3 `width` long, 2 and 4 `length`).
- */
-export function riserWall(r: Riser): DevelopedWall {
-  if (r.shape === "circular") return roundWall(riserPerimeter(r));
-  return { width: riserPerimeter(r), sides: [r.width, r.length, r.width, r.length], barrelAt: r.width / 2 };
 }
 
 /** Its width in a section along the barrel's axis (m): a round riser's diameter, a box's `length`. */

@@ -80,8 +80,6 @@ export const vNotchWeir: ElementPart<VNotchWeir, VNotchWeirFile> = {
   bottom: (e) => e.crest,
   top: (e) => e.crest,
   widthAt: (e, stage) => 2 * Math.max(stage - e.crest, 0) * halfTangent(e.angle),
-  room: (e, upTo) => ({ width: 2 * Math.max(upTo - e.crest, 0) * halfTangent(e.angle), height: Math.max(upTo - e.crest, 0) }),
-  opening: () => null,
   count: () => 1,
   outline: (e) => ({ kind: "notch", bottomWidth: 0, spreadPerHeight: halfTangent(e.angle) }),
   breaks(e, out) {

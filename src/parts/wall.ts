@@ -1,9 +1,18 @@
-// The wall that holds an outlet's openings: a round riser's curved wall, a box riser's four sides, or a
-// headwall where there is no riser. Positions along a wall are stations (m), measured clockwise in
-// plan from the datum: on a riser, the barrel's centreline where the barrel leaves it (the downstream
-// face when there is no barrel; on a box, the middle of its downstream side); on a headwall, its middle
-// line, positive to the right looking downstream. A box riser's `length` runs along the barrel, so
-// its downstream and upstream sides are `width` long and its right and left sides `length` long.
+// The wall that holds an outlet's openings (a round riser's curved wall, a box riser's four sides, or a
+// headwall where there is no riser) and the one way outfit says where an opening sits on it: as a
+// drafter reads the wall developed (unrolled) and seen from outside, from the pond, left to right.
+// - Round riser: the angle of the opening's centre from the barrel's centreline (0 degrees where the
+//   barrel leaves; 180 the upstream face, facing the pond), counterclockwise seen from above, which is
+//   left to right seen from outside; without a barrel from the middle of the downstream face.
+// - Box riser: the side, named as one looks downstream (`downstream`, the side the barrel leaves
+//   through, then `left`, `upstream` and `right`: their order left to right seen from outside), and the
+//   offset of the opening's centre from that side's left end seen from outside. A box's `length` runs
+//   along the barrel: its downstream and upstream sides are `width` long, its left and right `length`.
+// - Headwall: the offset of the centre from its left end seen from the pond.
+// A station is the distance along the developed wall from its left edge (m): around a round riser from
+// the barrel's centreline (the barrel's hole straddles both edges), around a box from the downstream
+// side's left end, along a headwall from its left end. The placement (placement.ts) gives each opening
+// its station and place; the rules, the text and JSON output and the outlet drawing read them there.
 import type { Outlet } from "../model.js";
 
 export type Wall =
@@ -12,9 +21,12 @@ export type Wall =
   /** No riser: the openings are in a headwall, of a stated usable width or (null) as wide as they need. */
   | { kind: "headwall"; width: number | null };
 
-/** A box riser's sides, clockwise in plan from the barrel's. */
-export const BOX_SIDES = ["downstream", "right", "upstream", "left"] as const;
+/** A box riser's sides in the order of its developed wall, left to right seen from outside. */
+export const BOX_SIDES = ["downstream", "left", "upstream", "right"] as const;
 export type BoxSide = (typeof BOX_SIDES)[number];
+
+/** Where one opening sits on its wall (see the file's head): an angle (degrees), or a side and an offset (m), or an offset (m). */
+export type WallPlace = { angle: number } | { side: BoxSide; offset: number } | { offset: number };
 
 /** The wall of an outlet: its riser's, or a headwall of the stated width. */
 export function wallOf(outlet: Outlet, headwallWidth: number | null): Wall {
@@ -23,7 +35,7 @@ export function wallOf(outlet: Outlet, headwallWidth: number | null): Wall {
   return r.shape === "circular" ? { kind: "round riser", diameter: r.diameter } : { kind: "box riser", length: r.length, width: r.width };
 }
 
-/** Length of the wall along its stations (m): a riser's perimeter, a headwall's width (null: not limited). */
+/** Length of the developed wall (m): a riser's perimeter, a headwall's stated width (null: not limited). */
 export function wallLength(w: Wall): number | null {
   return w.kind === "round riser" ? Math.PI * w.diameter : w.kind === "box riser" ? 2 * (w.length + w.width) : w.width;
 }
@@ -31,6 +43,56 @@ export function wallLength(w: Wall): number | null {
 /** The wall is closed on itself (a riser): stations wrap around. */
 export function wallCloses(w: Wall): boolean {
   return w.kind !== "headwall";
+}
+
+/** A box riser's sides' lengths, in the order of BOX_SIDES (m). */
+export function boxSides(length: number, width: number): [number, number, number, number] {
+  return [width, length, width, length];
+}
+
+/** Stations where the wall's faces meet or end: a box's corners (each side's left end), a stated headwall's two ends; none around a round riser. */
+export function wallEdges(w: Wall): number[] {
+  if (w.kind === "box riser") return [0, w.width, w.width + w.length, 2 * w.width + w.length];
+  return w.kind === "headwall" && w.width !== null ? [0, w.width] : [];
+}
+
+/** Station of the barrel's centreline on a riser's wall (a box's downstream side's middle); null on a headwall (the barrel leaves below and behind it). */
+export function barrelStation(w: Wall): number | null {
+  return w.kind === "round riser" ? 0 : w.kind === "box riser" ? w.width / 2 : null;
+}
+
+/** Station of the middle of the upstream face, facing the pond (a headwall's middle; 0 on one of unstated width). */
+export function upstreamStation(w: Wall): number {
+  if (w.kind === "round riser") return (Math.PI * w.diameter) / 2;
+  if (w.kind === "box riser") return 1.5 * w.width + w.length;
+  return w.width === null ? 0 : w.width / 2;
+}
+
+/** Stations of the middles of a wall's faces (a box's sides, a headwall), with half each face's length; none on a round riser. */
+export function faceMiddles(w: Wall): { middle: number; half: number }[] {
+  if (w.kind === "round riser") return [];
+  if (w.kind === "headwall") return w.width === null ? [] : [{ middle: w.width / 2, half: w.width / 2 }];
+  let start = 0;
+  return boxSides(w.length, w.width).map((side) => {
+    const face = { middle: start + side / 2, half: side / 2 };
+    start += side;
+    return face;
+  });
+}
+
+/** The place at a station of the wall (see the file's head); a round riser's angle to a millionth of a degree, so round stations read as whole degrees. */
+export function placeAt(w: Wall, station: number): WallPlace {
+  const length = wallLength(w);
+  const s = length !== null && wallCloses(w) && Number.isFinite(length) ? ((station % length) + length) % length : station;
+  if (w.kind === "round riser") return { angle: Number.isFinite(length) ? Math.round((360e6 * s) / length!) / 1e6 : 0 };
+  if (w.kind === "headwall") return { offset: s };
+  const sides = boxSides(w.length, w.width);
+  let start = 0;
+  for (let i = 0; i < 3; i++) {
+    if (s < start + sides[i]) return { side: BOX_SIDES[i], offset: s - start };
+    start += sides[i];
+  }
+  return { side: BOX_SIDES[3], offset: s - start };
 }
 
 /**
@@ -50,68 +112,4 @@ export function usableWidth(w: Wall, web: number): number | null {
  */
 export function chordArc(diameter: number, chord: number): number {
   return chord >= diameter ? (Math.PI * diameter) / 2 : diameter * Math.asin(chord / diameter);
-}
-
-/** A box's side at a station (stations from the middle of the downstream side), and the offset from its middle (m, clockwise positive). */
-export function boxSideAt(length: number, width: number, station: number): { side: BoxSide; offset: number } {
-  const perimeter = 2 * (length + width);
-  let s = ((station % perimeter) + perimeter) % perimeter;
-  // Shift so that the downstream side runs from 0 to `width`.
-  s = (s + width / 2) % perimeter;
-  const ends = [width, width + length, 2 * width + length, perimeter];
-  const middles = [width / 2, width + length / 2, 1.5 * width + length, 2 * width + 1.5 * length];
-  const i = ends.findIndex((end) => s < end);
-  const side = i < 0 ? 3 : i;
-  return { side: BOX_SIDES[side], offset: s - middles[side] };
-}
-
-/** The stations of a box's corners (from the middle of the downstream side, clockwise). */
-export function boxCorners(length: number, width: number): number[] {
-  return [width / 2, width / 2 + length, 1.5 * width + length, 1.5 * width + 2 * length];
-}
-
-// The same wall unrolled for the outlet drawing, and an opening's place on it as the drawing's input gives it.
-
-/**
- * Where one opening sits on its wall, its centre across:
- * - `angle`: around a round riser, in degrees counterclockwise seen from above from the barrel's axis;
- * - `side` and `offset`: on a box riser's side (1 to 4 counterclockwise seen from above, side 1 the one
- *   the barrel leaves through) or a headwall's one face (side 1), the offset (m) of its centre from the
- *   side's left end seen from outside.
- */
-export type WallPlace = { angle: number } | { side: number; offset: number };
-
-/** A wall unrolled: its faces left to right seen from outside (m). */
-export interface DevelopedWall {
-  /** Its length unrolled (m): a round riser's perimeter, a box's four sides, a headwall's width. */
-  width: number;
-  /** Its flat faces in the order unrolled (m each), numbered from 1; null for a round wall (places by angle). */
-  sides: readonly number[] | null;
-  /** Where the barrel's axis meets the wall, along it (m); null where the barrel does not leave through it. */
-  barrelAt: number | null;
-}
-
-/** A round wall of perimeter `width`, unrolled from the point opposite the barrel (so the barrel sits in its middle). */
-export function roundWall(width: number): DevelopedWall {
-  return { width, sides: null, barrelAt: width / 2 };
-}
-
-/** A headwall `width` wide: one face; the barrel leaves below and behind it. */
-export function headwallWall(width: number): DevelopedWall {
-  return { width, sides: [width], barrelAt: null };
-}
-
-/** A place's distance along the unrolled wall from its left edge (m). */
-export function alongWall(wall: DevelopedWall, place: WallPlace): number {
-  if ("angle" in place) {
-    if (wall.sides !== null) throw new Error(`an angle (${place.angle} deg) places an opening on a round riser only; this wall has ${wall.sides.length} flat side(s)`);
-    const turn = (((place.angle + 180) % 360) + 360) % 360;
-    return (turn / 360) * wall.width;
-  }
-  const sides = wall.sides;
-  if (sides === null) throw new Error(`a side (${place.side}) places an opening on a flat wall only; this wall is round (give an angle)`);
-  if (!Number.isInteger(place.side) || place.side < 1 || place.side > sides.length) throw new Error(`side ${place.side} of a wall with sides 1 to ${sides.length}`);
-  const length = sides[place.side - 1];
-  if (!(place.offset >= 0 && place.offset <= length)) throw new Error(`offset ${place.offset} m on side ${place.side}, which is ${length} m long`);
-  return sides.slice(0, place.side - 1).reduce((a, b) => a + b, 0) + place.offset;
 }

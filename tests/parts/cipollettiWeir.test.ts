@@ -6,6 +6,7 @@ import { parseCase, loadCase } from "../../src/case/load.js";
 import { FOOT } from "../../src/units.js";
 import { formatter } from "../../src/format.js";
 import { partOf, elementToFile } from "../../src/parts/registry.js";
+import { outlineHeight, outlineWidth } from "../../src/parts/outline.js";
 import { cipollettiWeir, type CipollettiWeir } from "../../src/parts/cipollettiWeir.js";
 import { outletWarnings } from "../../src/assess/warnings.js";
 import { routeCase } from "../../src/routing/routeCase.js";
@@ -63,9 +64,10 @@ describe("Cipolletti weir", () => {
     const kind = partOf(e);
     expect(kind.widthAt(e, 100.8)).toBeCloseTo(2 + 2 * 0.8 / 4, 12);
     expect(kind.widthAt(e, 99.5)).toBe(0);
-    expect(kind.room(e, 101)).toEqual({ width: 2.5, height: 1 });
+    // On its wall: 2.5 m wide 1 m above its crest, open to the top of its plate.
+    expect(outlineWidth(kind.outline(e), 1)).toBeCloseTo(2.5, 12);
+    expect(outlineHeight(kind.outline(e))).toBeNull();
     expect(kind.bottom(e)).toBe(100);
-    expect(kind.opening(e)).toBeNull();
   });
 
   it("is flagged below 0.2 ft of head, above a third of its length, and with its crest less than two heads above the floor", () => {

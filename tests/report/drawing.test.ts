@@ -1,15 +1,19 @@
 // The outlet's elevation drawing: every opening, level and the rim at its elevation through the
-// drawing's own scale (read back from the markup), openings of one level spaced evenly around the
-// riser's developed wall when the input gives no places and at their places (an angle, a side) when it
-// does, a notch cut to the rim (a Cipolletti's sides at 1 H : 4 V), a box riser's corners and barrel,
-// a headwall wide enough for its openings, and `outfit drawing` writing it alone as a standalone SVG.
+// drawing's own scale (read back from the markup), each opening on the developed wall at the place
+// the placement gives it (the same as route's --json `wall`): around a round riser its angle from the
+// barrel's centreline as that share of the perimeter from the wall's left edge, on a box riser its side
+// and offset from the side's left end, a notch cut to the rim (a Cipolletti's sides at 1 H : 4 V), a
+// box riser's corners and barrel, a headwall as wide as the placement makes it, and `outfit drawing`
+// writing it alone as a standalone SVG.
 import { describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { loadCase, parseCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
-import { drawingInput, placeOpenings } from "../../src/report/drawing/input.js";
+import { drawingInput } from "../../src/report/drawing/input.js";
+import { assess } from "../../src/assess/assess.js";
+import type { Case } from "../../src/model.js";
 import { partOf } from "../../src/parts/registry.js";
 import { outletDrawing } from "../../src/report/drawing/outletDrawing.js";
 import { DEMO, outfit } from "./support.js";
@@ -23,10 +27,17 @@ function attribute(svg: string, tag: RegExp, name: string): string {
   return a[1];
 }
 
+/** The drawing's input of a case's own outlet, its openings placed as route places them. */
+function drawn(k: Case) {
+  const routed = routeCase(k, k.outlet!);
+  return drawingInput(k, k.outlet!, routed.storms, assess(k, routed).wall);
+}
+
 describe("outlet elevation drawing", () => {
   const { case: c } = loadCase(DEMO);
   const routing = routeCase(c, c.outlet!);
-  const input = drawingInput(c, c.outlet!, routing.storms);
+  const plan = assess(c, routing).wall;
+  const input = drawingInput(c, c.outlet!, routing.storms, plan);
   const svg = outletDrawing("t", input);
   const scale = Number(attribute(svg, /<svg [^>]*>/, "data-scale"));
   const elevationTop = Number(attribute(svg, /<svg [^>]*>/, "data-elevation-top"));
@@ -82,69 +93,80 @@ describe("outlet elevation drawing", () => {
     for (const { storm, result } of routing.storms) expect(line).toContain(`${storm.name} ${(result.maxStage / 0.3048).toFixed(2)} ft`);
   });
 
-  it("spaces the openings of one level evenly around the wall when the input gives no places", () => {
-    const two = { ...input, openings: [{ ...input.openings[0], count: 2 }, { ...input.openings[1], bottom: input.openings[0].bottom }] };
-    expect(two.openings.every((o) => o.places === undefined)).toBe(true);
-    const places = placeOpenings(two);
-    const width = input.structure.wall.width;
-    // Three openings at one level: centres at 1/6, 3/6 and 5/6 of the wall.
-    expect(places[0][0]).toBeCloseTo(width / 6, 9);
-    expect(places[0][1]).toBeCloseTo(width / 2, 9);
-    expect(places[1][0]).toBeCloseTo((5 * width) / 6, 9);
+  it("draws each opening at the station the placement gives it, the one route --json prints in its wall", () => {
+    const run = outfit("route", DEMO, "--json");
+    expect(run.status, run.stderr).toBe(0);
+    const wall = (JSON.parse(run.stdout) as { wall: { length: number; openings: { element: number; station: number; angle: number }[] } }).wall;
+    const wallX = Number(attribute(svg, /<rect [^>]*data-wall=""[^>]*>/, "x"));
+    expect(Number(attribute(svg, /<rect [^>]*data-wall=""[^>]*>/, "data-width"))).toBeCloseTo(wall.length, 9);
+    expect(wall.openings.length).toBe(c.outlet!.elements.length);
+    for (const o of wall.openings) {
+      const group = new RegExp(`<g data-opening="E${o.element + 1}"[^>]*>(.*?)</g>`).exec(svg)![1];
+      // The shape's place in the markup, and its centre across: a circle's cx, a notch's crest's middle.
+      expect(Number(/data-place="([^"]*)"/.exec(group)![1])).toBeCloseTo(o.station, 9);
+      const circle = / cx="([^"]*)"/.exec(group);
+      const notch = /d="M[\d.]+ [\d.]+ L([\d.]+) [\d.]+ H([\d.]+)/.exec(group);
+      const cx = circle ? Number(circle[1]) : (Number(notch![1]) + Number(notch![2])) / 2;
+      expect(cx - wallX).toBeCloseTo(o.station * scale, 1);
+    }
   });
 
-  it("puts openings at the places the input gives: angles from the barrel around a round riser, the rest of their level still spaced evenly", () => {
-    const two = { ...input, openings: [{ ...input.openings[0], count: 2 }, { ...input.openings[1], bottom: input.openings[0].bottom }] };
-    const width = input.structure.wall.width;
-    // The round wall is unrolled from the point opposite the barrel: the barrel's axis (0 deg) in the middle,
-    // 90 deg counterclockwise (seen from above) three quarters along, 270 deg a quarter along.
-    const given = placeOpenings({ ...two, openings: [{ ...two.openings[0], places: [{ angle: 0 }, { angle: 90 }] }, two.openings[1]] });
-    expect(given[0][0]).toBeCloseTo(width / 2, 9);
-    expect(given[0][1]).toBeCloseTo((3 * width) / 4, 9);
-    // The opening without places is alone in its level's even spacing: the middle of the wall.
-    expect(given[1][0]).toBeCloseTo(width / 2, 9);
-    expect(placeOpenings({ ...two, openings: [{ ...two.openings[0], places: [{ angle: 270 }, { angle: -90 }] }, two.openings[1]] })[0]).toEqual([width / 4, width / 4]);
-    // A place per opening, and a side only on a flat wall.
-    expect(() => placeOpenings({ ...two, openings: [{ ...two.openings[0], places: [{ angle: 0 }] }, two.openings[1]] })).toThrow(/1 places for 2/);
-    expect(() => placeOpenings({ ...two, openings: [{ ...two.openings[0], places: [{ side: 1, offset: 0.2 }, { angle: 0 }] }, two.openings[1]] })).toThrow(/round/);
-    // Drawn there: the circle's centre at its place along the wall.
-    const svg2 = outletDrawing("p", { ...input, openings: [{ ...input.openings[0], places: [{ angle: 90 }] }, ...input.openings.slice(1)] });
-    const wallX = Number(attribute(svg2, /<rect [^>]*data-wall=""[^>]*>/, "x"));
-    const cx = Number(attribute(svg2, /<g data-opening="E1"[^>]*><circle [^>]*>/, "cx"));
-    expect(cx - wallX).toBeCloseTo(((3 * width) / 4 / 0.3048) * scale, 1);
+  it("develops a round riser from the barrel's centreline, seen from outside: an opening at an angle sits that share of the perimeter from the left edge, the barrel's hole at both edges, the angles marked along the foot", () => {
+    const riser = c.outlet!.riser as { diameter: number };
+    const perimeter = Math.PI * riser.diameter;
+    const wallX = Number(attribute(svg, /<rect [^>]*data-wall=""[^>]*>/, "x"));
+    for (const o of plan.openings) {
+      const angle = (o.place as { angle: number }).angle;
+      expect(o.station).toBeCloseTo((angle / 360) * perimeter, 9);
+      const group = new RegExp(`<g data-opening="E${o.element + 1}"[^>]*>(.*?)</g>`).exec(svg)![1];
+      expect(Number(/data-place="([^"]*)"/.exec(group)![1])).toBeCloseTo(((angle / 360) * perimeter) / 0.3048, 9);
+    }
+    // The barrel leaves at 0 degrees: its hole centred on the left edge, and again on the right (the same line of the riser).
+    const barrel = /<circle [^>]*data-barrel-opening=""[^>]*>/.exec(svg)![0];
+    expect(Number(attribute(barrel, /<circle [^>]*>/, "cx"))).toBeCloseTo(wallX, 1);
+    const seam = /<circle [^>]*data-seam=""[^>]*>/.exec(svg)![0];
+    expect(Number(attribute(seam, /<circle [^>]*>/, "cx"))).toBeCloseTo(wallX + (perimeter / 0.3048) * scale, 1);
+    expect(svg).toContain(`clip-path="url(#t-wall)"`);
+    expect([...svg.matchAll(/data-mark="([^"]*)"/g)].map((m) => m[1])).toEqual(["0 deg", "90 deg", "180 deg", "270 deg"]);
   });
 
-  it("draws a box riser's wall as its four sides (corners marked), places by side and offset, and a box barrel's opening as a rectangle on side 1", () => {
+  it("draws a box riser's wall as its four sides (corners marked, sides named), each opening at its side and offset from the side's left end, and a box barrel's opening as a rectangle on the downstream side", () => {
     const json = JSON.parse(readFileSync(DEMO, "utf8"));
     json.outlet.riser = { shape: "box", length: 5, width: 3, crest: 104.5 };
     json.outlet.barrel = { shape: "box", span: 2, rise: 1.5, length: 60, inletInvert: 99.5, outletInvert: 99.0, manningN: 0.013, entrance: "box-wingwall-30-75" };
     const k = parseCase(json, { file: DEMO }).case;
-    const d = drawingInput(k, k.outlet!, routeCase(k, k.outlet!).storms);
+    const routed = routeCase(k, k.outlet!);
+    const boxPlan = assess(k, routed).wall;
+    const d = drawingInput(k, k.outlet!, routed.storms, boxPlan);
     const ft = 0.3048;
-    // Sides 1 to 4 counterclockwise seen from above, side 1 (the barrel's) and 3 the box's width, 2 and 4 its length.
-    expect(d.structure.wall.sides!.map((x) => x / ft)).toEqual([3, 5, 3, 5].map((x) => expect.closeTo(x, 9)));
+    // Left to right seen from outside: downstream (the barrel's, 3 ft), left (5 ft), upstream (3 ft), right (5 ft).
+    expect(d.structure.wall.corners.map((x) => x / ft)).toEqual([3, 8, 11].map((x) => expect.closeTo(x, 9)));
     expect(d.structure.wall.width / ft).toBeCloseTo(16, 9);
-    expect(d.structure.wall.barrelAt! / ft).toBeCloseTo(1.5, 9);
-    const placed = placeOpenings({ ...d, openings: [{ ...d.openings[0], places: [{ side: 3, offset: 1 * ft }] }, ...d.openings.slice(1)] });
-    expect(placed[0][0] / ft).toBeCloseTo(3 + 5 + 1, 9);
-    expect(() => placeOpenings({ ...d, openings: [{ ...d.openings[0], places: [{ side: 5, offset: 0 }] }, ...d.openings.slice(1)] })).toThrow(/sides 1 to 4/);
-    expect(() => placeOpenings({ ...d, openings: [{ ...d.openings[0], places: [{ side: 1, offset: 4 * ft }] }, ...d.openings.slice(1)] })).toThrow(/long/);
-    expect(() => placeOpenings({ ...d, openings: [{ ...d.openings[0], places: [{ angle: 0 }] }, ...d.openings.slice(1)] })).toThrow(/round riser only/);
+    expect(d.barrel!.station! / ft).toBeCloseTo(1.5, 9);
+    const start: Record<string, number> = { downstream: 0, left: 3, upstream: 8, right: 11 };
+    for (const o of boxPlan.openings) {
+      const { side, offset } = o.place as { side: string; offset: number };
+      expect(o.station / ft).toBeCloseTo(start[side] + offset / ft, 9);
+      expect(d.openings[o.element].stations).toContain(o.station);
+    }
     const svg3 = outletDrawing("b", d);
     const s3 = Number(attribute(svg3, /<svg [^>]*>/, "data-scale"));
     expect([...svg3.matchAll(/data-corner="([^"]*)"/g)].map((m) => Number(m[1]))).toEqual([3, 8, 11].map((x) => expect.closeTo(x, 9)));
+    expect([...svg3.matchAll(/data-mark="([^"]*)"/g)].map((m) => m[1])).toEqual(["downstream", "left", "upstream", "right"]);
     const barrel = /<rect [^>]*data-barrel-opening=""[^>]*>/.exec(svg3)![0];
     expect(Number(attribute(barrel, /<rect [^>]*>/, "width"))).toBeCloseTo(2 * s3, 1);
     expect(Number(attribute(barrel, /<rect [^>]*>/, "height"))).toBeCloseTo(1.5 * s3, 1);
     const wallX = Number(attribute(svg3, /<rect [^>]*data-wall=""[^>]*>/, "x"));
     expect(Number(attribute(barrel, /<rect [^>]*>/, "x")) + s3 - wallX).toBeCloseTo(1.5 * s3, 1);
+    // Within the wall: nothing crosses a box's ends, so nothing is drawn twice.
+    expect(svg3).not.toContain("data-seam");
   });
 
   it("draws a Cipolletti weir as a trapezoidal notch from its crest to the rim, its sides at 1 H : 4 V (USBR Water Measurement Manual ch. 7 sec. 12)", () => {
     const json = JSON.parse(readFileSync(DEMO, "utf8"));
     json.outlet.elements[2] = { type: "weir", shape: "cipolletti", length: 3, crest: 103.0 };
     const k = parseCase(json, { file: DEMO }).case;
-    const d = drawingInput(k, k.outlet!, routeCase(k, k.outlet!).storms);
+    const d = drawn(k);
     expect(d.openings[2].outline).toEqual({ kind: "notch", bottomWidth: expect.closeTo(3 * 0.3048, 9), spreadPerHeight: 0.25 });
     const svg4 = outletDrawing("c", d);
     const s4 = Number(attribute(svg4, /<svg [^>]*>/, "data-scale"));
@@ -161,18 +183,20 @@ describe("outlet elevation drawing", () => {
     expect(x3 - x0).toBeCloseTo((3 + 2 * 0.25 * 1.5) * s4, 1);
   });
 
-  it("draws a headwall wide enough for its widest level of openings when there is no riser", () => {
+  it("draws a headwall as wide as the placement makes it when there is no riser, its openings where it puts them", () => {
     const json = JSON.parse(readFileSync(DEMO, "utf8"));
     delete json.outlet.riser;
     json.outlet.elements = [{ type: "orifice", shape: "circular", diameter: "12 in", count: 3, invert: 100 }];
     const k = parseCase(json, { file: DEMO }).case;
-    const d = drawingInput(k, k.outlet!, routeCase(k, k.outlet!).storms);
+    const d = drawn(k);
     expect(d.structure.kind).toBe("headwall");
-    // Three 1-ft openings with a 1-ft web each, and a margin: wider than 3 ft.
-    expect(d.structure.wall.width).toBeGreaterThan(3 * 0.3048);
-    const drawn = outletDrawing("h", d);
-    expect(drawn).toContain("Headwall (");
-    expect((drawn.match(/<circle [^>]*data-place=/g) ?? []).length).toBe(3);
+    // Three 1 ft openings, a 6 in web between them and at each end (common practice): 3 + 2 x 0.5 + 2 x 0.5 = 5 ft.
+    expect(d.structure.wall.width / 0.3048).toBeCloseTo(5, 9);
+    const drawing = outletDrawing("h", d);
+    expect(drawing).toContain("Headwall (5.00 ft wide)");
+    expect(drawing).toContain("the headwall seen from the pond");
+    const places = [...drawing.matchAll(/<circle [^>]*data-place="([^"]*)"/g)].map((m) => Number(m[1])).sort((a, b) => a - b);
+    expect(places).toEqual([1, 2.5, 4].map((x) => expect.closeTo(x, 9)));
   });
 
   it("`outfit drawing` writes the drawing alone as a standalone SVG file", () => {

@@ -51,7 +51,7 @@ interface Candidate {
   outlet: { elements: Element[]; riser?: { shape: string; diameter?: number; length?: number; width?: number; crest: number }; barrel?: { shape: string; diameter?: string | number; span?: number; rise?: number; inletInvert: number } };
   storms: { maxStage: number }[];
   checks: { kind: string; passed: boolean }[];
-  wall: { kind: string; length?: number; openings: Hole[]; barrel?: Hole };
+  wall: { kind: string; length: number; stated?: boolean; openings: Hole[]; barrel?: Hole };
 }
 
 /** The case's limits in its base unit (the defaults of common practice unless it states them). */
@@ -108,10 +108,12 @@ function broken(c: Candidate, limits: ReturnType<typeof limitsOf>): string[] {
     if (!c.checks.some((k) => k.kind === "barrel-capacity" && k.passed)) out.push("barrel capacity not shown to pass");
   }
   // The webs between the listed places: on a round riser the arc between the centres (the shorter
-  // way) less half of each hole's arc D asin(w / D); on a box or headwall the stations' distance less
-  // half of each width; up, the vertical gap; both apart, Pythagoras. A box's corners and a stated
-  // headwall's ends keep the web too.
-  if (c.wall.length !== undefined) {
+  // way) less half of each hole's arc D asin(w / D), the centre's arc from the barrel's (D/2) x angle;
+  // on a box or headwall the stations' distance less half of each width; up, the vertical gap; both
+  // apart, Pythagoras. A box's corners (its sides' left ends along its developed wall: downstream,
+  // left, upstream, right) and a stated headwall's ends (0 and its length) keep the web too. A headwall
+  // of unstated width is as wide as its openings need: no web is judged there.
+  if (c.wall.kind !== "headwall" || c.wall.stated) {
     const round = c.wall.kind === "round riser";
     const d = round ? riser!.diameter! : 0;
     const along = (w: number) => (round ? (w >= d ? (Math.PI * d) / 2 : d * Math.asin(w / d)) : w);
@@ -131,7 +133,7 @@ function broken(c: Candidate, limits: ReturnType<typeof limitsOf>): string[] {
         if (web < limits.web - TOL) out.push(`holes ${i} and ${j} ${web} apart`);
       }
     }
-    const edges = c.wall.kind === "box riser" ? [riser!.width! / 2, riser!.width! / 2 + riser!.length!, 1.5 * riser!.width! + riser!.length!, 1.5 * riser!.width! + 2 * riser!.length!] : c.wall.kind === "headwall" ? [-limits.headwall! / 2, limits.headwall! / 2] : [];
+    const edges = c.wall.kind === "box riser" ? [0, riser!.width!, riser!.width! + riser!.length!, 2 * riser!.width! + riser!.length!] : c.wall.kind === "headwall" ? [0, limits.headwall!] : [];
     for (const h of holes) for (const e of edges) if (apart(h.s, e) - h.a / 2 < limits.web - TOL) out.push(`a hole ${apart(h.s, e) - h.a / 2} from a corner or end`);
   }
   return out;

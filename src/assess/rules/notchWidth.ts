@@ -2,13 +2,14 @@
 // riser's rim, or without a riser the highest stage routed), a rectangular weir's length and a
 // Cipolletti weir's top width within the usable width of the wall: the plate, with the clear web at
 // each end, spans at most a round riser's diameter (the longest chord across it), a box riser's
-// longest side or a headwall's stated width (parts/wall.ts). Not checked on a headwall of unstated width.
+// longest side or a headwall's stated width (parts/wall.ts), each notch as wide as the placement puts it
+// on its wall (parts/placement.ts). Not checked on a headwall of unstated width.
 import { formatter } from "../../format.js";
 import { partOf } from "../../parts/registry.js";
-import { plateTop } from "../../parts/placement.js";
-import { usableWidth, wallOf } from "../../parts/wall.js";
+import { outlineHeight } from "../../parts/outline.js";
+import { usableWidth } from "../../parts/wall.js";
 import { failingSubjects, HAIR, makeCheck, type Rule } from "./rule.js";
-import { highestStage } from "./walls.js";
+import { wallPlan } from "./walls.js";
 
 export const notchWidth: Rule = {
   kind: "notch-width",
@@ -19,17 +20,15 @@ export const notchWidth: Rule = {
   evaluate(input, out) {
     const { case: c, outlet } = input;
     const b = c.criteria.buildability;
-    const usable = usableWidth(wallOf(outlet, b.headwallWidth), b.web);
+    // The notches as placed: each as wide as it is at the top of its plate.
+    const plan = wallPlan(input);
+    const usable = usableWidth(plan.wall, b.web);
     if (usable === null) return;
-    const top = highestStage(input);
     let widest: { index: number; width: number } | null = null;
-    for (let index = 0; index < outlet.elements.length; index++) {
-      const e = outlet.elements[index];
-      const kind = partOf(e);
-      if (kind.opening(e) !== null) continue;
-      const room = kind.room(e, plateTop(outlet, top, kind.bottom(e)));
-      if (room === null) continue;
-      if (widest === null || room.width > widest.width) widest = { index, width: room.width };
+    for (const o of plan.openings) {
+      const e = outlet.elements[o.element];
+      if (outlineHeight(partOf(e).outline(e)) !== null) continue;
+      if (widest === null || o.width > widest.width) widest = { index: o.element, width: o.width };
     }
     if (widest === null) return;
     const { index, width } = widest;

@@ -4,6 +4,7 @@
 import type { Outlet } from "../../model.js";
 import { formatter } from "../../format.js";
 import { partOf } from "../../parts/registry.js";
+import { isHole, outlineHeight } from "../../parts/outline.js";
 import { barrelRise } from "../../parts/barrel.js";
 import { HAIR, makeCheck, type Rule } from "./rule.js";
 
@@ -14,7 +15,7 @@ export function highestTop(outlet: Outlet): { top: number; index: number } | nul
   for (let index = 0; index < outlet.elements.length; index++) {
     const e = outlet.elements[index];
     const kind = partOf(e);
-    if (kind.room(e, kind.bottom(e)) === null) continue;
+    if (!isHole(kind.outline(e))) continue;
     const top = kind.top(e);
     if (highest === null || top > highest.top) highest = { top, index };
   }
@@ -35,7 +36,7 @@ export const rimClearance: Rule = {
     const { rimClearance: limit, labels } = c.criteria.buildability;
     const f = formatter(c.units);
     const clearance = outlet.riser!.crest - highest.top;
-    const which = highest.index < 0 ? "barrel crown" : `E${highest.index + 1} ${partOf(outlet.elements[highest.index]).opening(outlet.elements[highest.index]) ? "top" : "crest"}`;
+    const which = highest.index < 0 ? "barrel crown" : `E${highest.index + 1} ${outlineHeight(partOf(outlet.elements[highest.index]).outline(outlet.elements[highest.index])) === null ? "crest" : "top"}`;
     out.push(makeCheck("rim-clearance", "outlet", `${which} at least ${f.length(limit, c.units === "US" ? 2 : 3)} below the rim`, clearance, limit, (clearance - limit) / limit, labels.rimClearance));
   },
   aim: () => HAIR,

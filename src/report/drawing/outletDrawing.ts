@@ -1,8 +1,9 @@
 // The outlet structure as an elevation drawing, to scale (one scale across and up), as an SVG string:
 // on the left a section through the riser (or headwall) with the pond floor, the barrel leaving its
 // base through the embankment, the top of embankment, the spillway crest and the water levels; on the
-// right the riser's wall developed (its perimeter unrolled) with every opening at its elevation and
-// place. Levels are labelled on their lines and openings tagged E1, E2, ... beside them, each label
+// right the riser's wall developed (its perimeter unrolled, seen from outside: parts/wall.ts) with
+// every opening at its elevation and at the station the placement gave it, the wall's angles or sides
+// marked along its foot. Levels are labelled on their lines and openings tagged E1, E2, ... beside them, each label
 // where no other is (plot/labels.ts); a key below the drawing names each opening, the barrel and the
 // spillway in full, and every storm's peak stage (whether or not its label found room on its line).
 // The markup carries the scale and each feature's elevation in the case's units (`data-*`), so tests
@@ -14,7 +15,7 @@ import { FONT, INK, PALETTE, PAPER, cycleStyle } from "../plot/style.js";
 import { niceAxis } from "../plot/ticks.js";
 import { label, LabelPlacer, LABEL_FONT } from "../plot/labels.js";
 import { outlineHeight, outlineWidth, type Outline } from "../../parts/outline.js";
-import { placeOpenings, type DrawingInput } from "./input.js";
+import type { DrawingInput } from "./input.js";
 
 const WIDTH = 720;
 const LEFT = 62;
@@ -135,7 +136,7 @@ export function outletDrawing(id: string, input: DrawingInput): string {
   // Panel titles.
   const title = (x: number, text: string) => element("text", { x, y: 16, "font-size": 11.5, "font-weight": 600, fill: INK }, escapeMarkup(text));
   parts.push(title(sx0, "Section"));
-  parts.push(title(wx0, riser ? `${riser.words[0].toUpperCase()}${riser.words.slice(1)}, wall developed (perimeter ${f.length(s0.wall.width)})` : `Headwall (${f.length(s0.wall.width)} wide)`));
+  parts.push(title(wx0, riser ? `${riser.words[0].toUpperCase()}${riser.words.slice(1)}: wall unrolled, ${f.length(s0.wall.width)}` : `Headwall (${f.length(s0.wall.width)} wide)`));
 
   // Water in the pond stub up to the largest peak stage.
   const floorY = y(input.pond.bottom);
@@ -175,38 +176,62 @@ export function outletDrawing(id: string, input: DrawingInput): string {
 
   // The wall, developed: its outline, then every opening at its elevation and place.
   parts.push(element("rect", { x: wx0, y: rimY, width: wx1 - wx0, height: baseY - rimY, fill: "#f3f1ec", stroke: STRUCTURE, "stroke-width": 2, "data-wall": "", "data-width": String(u.length(s0.wall.width)), "data-base": String(u.length(base)), "data-top": String(u.length(wallTop)) }));
+  // Everything on the wall is clipped to it: a hole across the seam of a riser's wall (its left and
+  // right edges are one line of the riser) shows part at each edge.
+  const clip = `${id}-wall`;
+  parts.push(element("clipPath", { id: clip }, element("rect", { x: wx0, y: TOP - 20, width: wx1 - wx0, height: plotHeight + 40 })));
+  const onWall: string[] = [];
+  /** The stations a hole centred at `station`, `half` wide each side, is drawn at: itself, and across the seam of a wall that closes. */
+  const drawnAt = (station: number, half: number): { station: number; seam: boolean }[] => {
+    const at = [{ station, seam: false }];
+    if (!s0.wall.closes) return at;
+    if (station - half < 0) at.push({ station: station + s0.wall.width, seam: true });
+    if (station + half > s0.wall.width) at.push({ station: station - s0.wall.width, seam: true });
+    return at;
+  };
   // A box's corners: where one side ends and the next begins.
-  const sides = s0.wall.sides ?? [];
-  for (let k = 1, at = 0; k < sides.length; k++) {
-    at += sides[k - 1];
+  for (const at of s0.wall.corners) {
     parts.push(line(wx0 + at * scale, rimY, wx0 + at * scale, baseY, { stroke: STRUCTURE, "stroke-width": 0.8, "stroke-dasharray": "2 3", "data-corner": String(u.length(at)) }));
   }
-  if (b && s0.wall.barrelAt !== null) {
-    // The barrel leaves the riser at its base: its opening, behind the wall, where the wall says.
-    parts.push(outlineShape(b.outline, wx0 + s0.wall.barrelAt * scale, y(b.inletInvert), scale, rimY, { fill: "none", stroke: STRUCTURE, "stroke-width": 1.2, "stroke-dasharray": "4 3", "data-barrel-opening": "" }));
+  if (b && b.station !== null) {
+    // The barrel leaves the riser at its base: its opening, behind the wall, on its centreline.
+    const half = outlineWidth(b.outline, 0) / 2;
+    for (const at of drawnAt(b.station, half)) {
+      onWall.push(outlineShape(b.outline, wx0 + at.station * scale, y(b.inletInvert), scale, rimY, { fill: "none", stroke: STRUCTURE, "stroke-width": 1.2, "stroke-dasharray": "4 3", ...(at.seam ? { "data-seam": "" } : { "data-barrel-opening": "", "data-place": String(u.length(at.station)) }) }));
+    }
   }
-  const places = placeOpenings(input);
   const tags: { text: string; colour: string; box: { left: number; right: number; top: number; bottom: number }; key: string }[] = [];
   input.openings.forEach((o, i) => {
     const colour = cycleStyle(i).colour;
     const by = y(o.bottom);
     const height = outlineHeight(o.outline);
     const top = height === null ? wallTop : o.bottom + height;
+    const ol = o.outline;
+    const half = outlineWidth(ol, Math.max(wallTop - o.bottom, 0)) / 2;
     let left = Infinity;
     let rightmost = -Infinity;
-    const shapes = places[i].map((place) => {
-      const cx = wx0 + place * scale;
-      const ol = o.outline;
-      const half = (outlineWidth(ol, Math.max(wallTop - o.bottom, 0)) * scale) / 2;
-      left = Math.min(left, cx - half);
-      rightmost = Math.max(rightmost, cx + half);
-      return outlineShape(ol, cx, by, scale, rimY, { fill: PAPER, stroke: colour, "stroke-width": 1.8, "data-place": String(u.length(place)), ...(ol.kind === "device" ? { "stroke-dasharray": "3 2" } : {}) });
+    const shapes = o.stations.flatMap((station) => {
+      // Its tag goes beside the part of it within the wall.
+      left = Math.min(left, wx0 + Math.max(station - half, 0) * scale);
+      rightmost = Math.max(rightmost, wx0 + Math.min(station + half, s0.wall.width) * scale);
+      return drawnAt(station, half).map((at) =>
+        outlineShape(ol, wx0 + at.station * scale, by, scale, rimY, { fill: PAPER, stroke: colour, "stroke-width": 1.8, ...(at.seam ? { "data-seam": "" } : { "data-place": String(u.length(at.station)) }), ...(ol.kind === "device" ? { "stroke-dasharray": "3 2" } : {}) }));
     });
-    parts.push(element("g", { "data-opening": o.key, "data-bottom": String(u.length(o.bottom)), "data-top": String(u.length(top)) }, shapes.join("")));
+    onWall.push(element("g", { "data-opening": o.key, "data-bottom": String(u.length(o.bottom)), "data-top": String(u.length(top)) }, shapes.join("")));
     // The section shows each opening as a gap in the riser's left wall.
     parts.push(line(riserLeft, y(top), riserLeft, by, { stroke: colour, "stroke-width": 4 }));
-    tags.push({ text: o.key, colour, box: { left, right: rightmost, top: y(top), bottom: by }, key: o.key });
+    if (o.stations.length > 0) tags.push({ text: o.key, colour, box: { left, right: rightmost, top: y(top), bottom: by }, key: o.key });
   });
+  parts.push(element("g", { "clip-path": `url(#${clip})` }, onWall.join("")));
+  // How the places read, along the wall's foot: its angles, or its sides (before any other label).
+  for (const mark of s0.wall.marks) {
+    const mx = wx0 + mark.at * scale;
+    parts.push(line(mx, baseY, mx, baseY + 4, { stroke: STRUCTURE, "stroke-width": 1 }));
+    const anchor = mark.at <= 0 ? "start" : mark.at >= s0.wall.width ? "end" : "middle";
+    // Below the foot, or a line lower where a neighbour's mark takes the room.
+    const at = placer.place(mark.text, [[mx, baseY + 13, anchor], [mx, baseY + 25, anchor]]);
+    if (at) parts.push(element("g", { "data-mark": mark.text }, label(mark.text, at.x, at.y, at.anchor, STRUCTURE)));
+  }
   // The openings and the wall's outline are taken before any label is placed.
   for (const t of tags) placer.take(t.box);
 
@@ -245,7 +270,7 @@ export function outletDrawing(id: string, input: DrawingInput): string {
   const barY = TOP + plotHeight + 26;
   parts.push(element("g", { "data-scale-bar": String(bar), stroke: INK, "font-size": 10.5 },
     line(sx0, barY, sx0 + barPx, barY, { "stroke-width": 2 }) + line(sx0, barY - 4, sx0, barY + 4, {}) + line(sx0 + barPx, barY - 4, sx0 + barPx, barY + 4, {}) +
-    element("text", { x: sx0 + barPx + 8, y: barY, dy: "0.35em", stroke: "none", fill: INK }, escapeMarkup(`${trimNumber(bar, 3)} ${f.labels.length}; drawn to one scale across and up${riser ? "; the wall unrolled" : ""}${b && barrelShown < b.length ? "; the barrel cut short" : ""}`))));
+    element("text", { x: sx0 + barPx + 8, y: barY, dy: "0.35em", stroke: "none", fill: INK }, escapeMarkup(`${trimNumber(bar, 3)} ${f.labels.length}; drawn to one scale across and up${riser ? "; the wall unrolled and seen from outside" : "; the headwall seen from the pond"}${b && barrelShown < b.length ? "; the barrel cut short" : ""}`))));
   // The key.
   parts.push(element("g", { class: "key", "font-size": LABEL_FONT, fill: INK },
     key.map((k, i) => element("text", { x: sx0, y: keyTop + i * KEY_STEP, fill: i < input.openings.length ? cycleStyle(i).colour : INK }, escapeMarkup(k))).join("")));

@@ -121,7 +121,7 @@ export function wallTable(c: Case, outlet: Outlet, plan: WallPlan): TableBlock {
   const web = plan.web !== null && plan.closest ? `; the smallest clear web is ${f.size(plan.web)}` : "";
   return {
     kind: "table",
-    caption: `Openings on the wall (${wallHeading(outlet, plan, f)})${web}. Station: along the wall from the same datum, clockwise in plan.`,
+    caption: `Openings on the wall (${wallHeading(outlet, plan, f)})${web}. Station: along the developed wall from its left edge, seen from outside, as the outlet drawing shows it.`,
     head: ["Part", "Kind", "Opening", "Place", `Station (${L})`, "Invert or crest", `Top (${L})`, `Width (${L})`],
     numeric: [false, false, false, false, true, true, true, true],
     rows,
