@@ -92,7 +92,7 @@ export function pondDesignText(c: Case, d: PondDesign, layout: Layout = PLAIN): 
       "",
       checksTable(d.chosen.problem.case, best.assessment.checks, layout),
       "",
-      ...wallSection(d.chosen.problem.case, best.routing, best.assessment, layout),
+      ...wallSection(d.chosen.problem.case, best.assessment, layout),
       warningsText(best.assessment, layout),
       "",
       verdictText(d.chosen.problem.case, best.assessment, layout),

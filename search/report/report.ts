@@ -7,6 +7,7 @@ import type { SearchRun } from "../engine/run.js";
 import type { Candidate, RoutedOutlet } from "../engine/candidate.js";
 import { stormJson, checkJson } from "../../src/report/json.js";
 import { wallJson, wallLines } from "../../src/report/wall.js";
+import { outletWall } from "../../src/assess/assess.js";
 import { checkValue, complianceWords, governingLimitLines, hydrologyLines, slackText } from "../../src/report/console.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
 import { storageSummary } from "../../src/report/storageNotes.js";
@@ -40,7 +41,7 @@ function routedJson(p: SearchProblem, c: RoutedOutlet, explanation: string[]) {
     cost: c.cost,
     error: c.error,
     binding: binding ? { ...checkJson(p.case, binding), why: explanation[1]?.replace(/^why: /, "") ?? "" } : null,
-    wall: wallJson(p.case, c.outlet, c.assessment.wall),
+    wall: wallJson(p.case, c.outlet, outletWall(c.assessment)),
     explanation,
     ...(c.spread ? { spread: spreadJson(p.case, c.spread) } : {}),
   };
@@ -176,7 +177,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
     for (const warning of baseline.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
     for (const line of baseline.explanation) lines.push(w(`  ${line}`));
-    for (const line of wallLines(p.case, baseline.outlet, baseline.assessment.wall)) lines.push(w(`  ${line}`, 6));
+    for (const line of wallLines(p.case, baseline.outlet, outletWall(baseline.assessment))) lines.push(w(`  ${line}`, 6));
     lines.push(w(`  ${baselineVerdict(baseline, run.candidates, run.stoppedBecause)}`));
     if (p.limits.rankBy === "change") {
       lines.push(w(`  Ranked by the change measure, smallest first: ${CHANGE_WEIGHTS.addedOrRemoved} per part added or removed, ${CHANGE_WEIGHTS.resized} per part resized, ${CHANGE_WEIGHTS.moved} per part moved, plus ${CHANGE_WEIGHTS.distance} x the total move / pond depth.`));
@@ -194,7 +195,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
     for (const line of c.explanation) lines.push(w(`  ${line}`));
     if (c.spread) lines.push(w(`  ${spreadLine(p.case, c.spread)}`));
-    for (const line of wallLines(p.case, c.outlet, c.assessment.wall)) lines.push(w(`  ${line}`, 6));
+    for (const line of wallLines(p.case, c.outlet, outletWall(c.assessment))) lines.push(w(`  ${line}`, 6));
   });
   if (!run.success) {
     lines.push("", w("No compliant design was found. Why:"));

@@ -16,10 +16,11 @@ import { bindingCheck, evaluateChecks } from "./checks.js";
 import { cloggedOutlet } from "./rules/clogging.js";
 import { outletWarnings, type Warning } from "./warnings.js";
 import { implausibleInputWarnings } from "./plausibility.js";
-import type { Assessment } from "./assess.js";
+import type { Assessment, OutletWall } from "./assess.js";
+import { casePlan } from "./rules/walls.js";
 
-/** Rules on the flow leaving the system: flow checks on the design routing alone (the storm's peaks, the pre-development hydrograph). */
-export const OUTFALL_RULES: readonly Rule[] = RULES.filter((r) => r.quantity === "flow" && r.routings.every((v) => v === "design"));
+/** Rules on the flow leaving the system: flow checks on the design routing alone (the storm's peaks, the pre-development hydrograph); as-built rules judge each pond's own outlet. */
+export const OUTFALL_RULES: readonly Rule[] = RULES.filter((r) => r.quantity === "flow" && !r.asBuilt && r.routings.every((v) => v === "design"));
 
 /** A pond's own inflow, or none. */
 const NO_INFLOW: Hydrograph = { times: Float64Array.from([0, 60]), flows: new Float64Array(2) };
@@ -116,8 +117,10 @@ export function assessSystem(c: Case, routing: SystemRouting): Assessment {
   for (const check of evaluateChecks(c, routing.outlets[main], outfallRoutings(routing), cloggedRouter, false, OUTFALL_RULES)) checks.push(named(check, "outfall"));
   // Each pond: every rule on its own routing; a variant of its outlet routes the system again.
   const warnings: Warning[] = [];
+  const walls: OutletWall[] = [];
   system.ponds.forEach((p, i) => {
     const view = pondCase(c, system, i);
+    walls.push({ pond: p.name, outlet: routing.outlets[i], plan: casePlan(view, routing.outlets[i], pondRoutings(routing, i)) });
     const router = (outlet: Outlet) => pondRoutings(routeSystemCase(c, routing.outlets.map((o, k) => (k === i ? outlet : o))), i);
     for (const check of evaluateChecks(view, routing.outlets[i], pondRoutings(routing, i), router)) checks.push(named(check, p.name));
     const single = pondCaseRouting(routing, i);
@@ -126,7 +129,7 @@ export function assessSystem(c: Case, routing: SystemRouting): Assessment {
   for (const { storm, result } of routing.storms) {
     if (result.unconverged > 0) warnings.push({ part: `routing (${storm.name})`, reason: `${result.unconverged} steps of the system's routing did not converge within the iteration limit (kept as they ended): use a shorter step` });
   }
-  return { checks, warnings, compliant: checks.every((check) => check.passed), binding: bindingCheck(checks) };
+  return { checks, warnings, compliant: checks.every((check) => check.passed), binding: bindingCheck(checks), walls };
 }
 
 /** A pond's warning with its subject's path in the case file (`ponds[i].outlet...`, `ponds[i].pond...`). */

@@ -181,9 +181,9 @@ function limitWord(check: Check): string {
   return ruleOf(check).comparison === "at least" ? ">=" : "<=";
 }
 
-/** Where each opening sits on its wall (lines, then a blank line), or nothing without openings in a wall. */
-export function wallSection(c: Case, routing: CaseRouting, assessment: Assessment, layout: Layout): string[] {
-  const lines = wallLines(c, routing.outlet, assessment.wall);
+/** Where each opening sits on its wall, each pond's of a system (lines, then a blank line), or nothing without openings in a wall. */
+export function wallSection(c: Case, assessment: Assessment, layout: Layout): string[] {
+  const lines = assessment.walls.flatMap((w) => wallLines(c, w.outlet, w.plan, w.pond));
   return lines.length ? [...lines.map((line) => wrap(line, layout.width, 4)), ""] : [];
 }
 
@@ -224,7 +224,7 @@ export function assessmentLines(c: Case, assessment: Assessment, verbose: string
     "",
     checksTable(c, assessment.checks, layout),
     "",
-    ...wallSection(c, routing, assessment, layout),
+    ...wallSection(c, assessment, layout),
     warningsText(assessment, layout),
     ...(verbose.length ? ["", ...verbose.map((line) => wrap(line, layout.width))] : []),
     "",

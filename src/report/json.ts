@@ -1,7 +1,7 @@
 // JSON output in the case's units, with the fields the case-format contract names.
 import type { AnalysisPoint, Case } from "../model.js";
 import type { CaseRouting, StormRouting } from "../routing/routeCase.js";
-import type { Assessment } from "../assess/assess.js";
+import { outletWall, type Assessment } from "../assess/assess.js";
 import type { Check } from "../assess/checks.js";
 import { toCaseUnits } from "../units.js";
 import { targetBand, withinTargetBand } from "../assess/rules/band.js";
@@ -171,6 +171,7 @@ export function assessmentJson(c: Case, routing: CaseRouting, assessment: Assess
   return {
     storms: routing.storms.map((s) => ({ ...stormJson(c, s), controlAtPeak: outletDetail(routing.outlet, c.tailwater, s.result.maxStage).control })),
     ...verdictJson(c, assessment),
+    wall: wallJson(c, routing.outlet, outletWall(assessment)),
   };
 }
 
@@ -181,7 +182,6 @@ export function verdictJson(c: Case, assessment: Assessment) {
     warnings: assessment.warnings,
     compliant: assessment.compliant,
     binding: assessment.binding ? checkJson(c, assessment.binding) : null,
-    wall: wallJson(c, routing.outlet, assessment.wall),
   };
 }
 

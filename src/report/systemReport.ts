@@ -13,6 +13,7 @@ import { storageCurve } from "../storage/curve.js";
 import { toCaseUnits, unitLabels } from "../units.js";
 import { stormJson, verdictJson, withinBand } from "./json.js";
 import { outletToFile } from "./outletFile.js";
+import { wallJson } from "./wall.js";
 import { describeOutlet } from "./describe.js";
 import { CAUTION } from "./caution.js";
 import { assessmentLines, governingLimitLines, pointLines } from "./console.js";
@@ -71,7 +72,7 @@ export function systemRouteJson(c: Case, routing: SystemRouting, assessment: Ass
     case: c.name,
     units: c.units,
     caution: CAUTION,
-    ponds: system.ponds.map((p, i) => ({ name: p.name, to: p.to < 0 ? "outfall" : system.ponds[p.to].name, outlet: outletToFile(routing.outlets[i], c.units) })),
+    ponds: system.ponds.map((p, i) => ({ name: p.name, to: p.to < 0 ? "outfall" : system.ponds[p.to].name, outlet: outletToFile(routing.outlets[i], c.units), wall: wallJson(c, routing.outlets[i], assessment.walls[i].plan) })),
     storms: routing.storms.map((s, k) => ({
       ...stormJson(c, outfall[k]),
       controlAtPeak: outletDetail(routing.outlets[main], c.tailwater, s.result.ponds[main].maxStage).control,

@@ -153,11 +153,11 @@ export function wallHeading(outlet: Outlet, plan: WallPlan, f: Formatter): strin
       : `headwall ${f.length(plan.width)} wide${wall.width === null ? " (as its openings need)" : ""}; offsets from its left end seen from the pond`;
 }
 
-/** The wall in words: a heading, one line per element on it (its openings' places and its invert or crest), the barrel and the smallest web. */
-export function wallLines(c: Case, outlet: Outlet, plan: WallPlan): string[] {
+/** The wall in words: a heading (naming the pond of a system's), one line per element on it (its openings' places and its invert or crest), the barrel and the smallest web. */
+export function wallLines(c: Case, outlet: Outlet, plan: WallPlan, pond: string | null = null): string[] {
   const f = formatter(c.units);
   if (plan.openings.length === 0 && plan.devices.length === 0) return [];
-  const lines = [`Openings on the wall (${wallHeading(outlet, plan, f)}):`];
+  const lines = [`Openings on the wall${pond === null ? "" : ` of ${pond}`} (${wallHeading(outlet, plan, f)}):`];
   const byElement = new Map<number, PlacedOpening[]>();
   for (const o of [...plan.openings, ...plan.devices].sort((x, y) => x.element - y.element || x.opening - y.opening)) byElement.set(o.element, [...(byElement.get(o.element) ?? []), o]);
   for (const [index, openings] of byElement) {

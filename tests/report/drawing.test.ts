@@ -12,7 +12,7 @@ import { join } from "node:path";
 import { loadCase, parseCase } from "../../src/case/load.js";
 import { routeCase } from "../../src/routing/routeCase.js";
 import { drawingInput } from "../../src/report/drawing/input.js";
-import { assess } from "../../src/assess/assess.js";
+import { assess, outletWall } from "../../src/assess/assess.js";
 import type { Case } from "../../src/model.js";
 import { partOf } from "../../src/parts/registry.js";
 import { outletDrawing } from "../../src/report/drawing/outletDrawing.js";
@@ -30,13 +30,13 @@ function attribute(svg: string, tag: RegExp, name: string): string {
 /** The drawing's input of a case's own outlet, its openings placed as route places them. */
 function drawn(k: Case) {
   const routed = routeCase(k, k.outlet!);
-  return drawingInput(k, k.outlet!, routed.storms, assess(k, routed).wall);
+  return drawingInput(k, k.outlet!, routed.storms, outletWall(assess(k, routed)));
 }
 
 describe("outlet elevation drawing", () => {
   const { case: c } = loadCase(DEMO);
   const routing = routeCase(c, c.outlet!);
-  const plan = assess(c, routing).wall;
+  const plan = outletWall(assess(c, routing));
   const input = drawingInput(c, c.outlet!, routing.storms, plan);
   const svg = outletDrawing("t", input);
   const scale = Number(attribute(svg, /<svg [^>]*>/, "data-scale"));
@@ -136,7 +136,7 @@ describe("outlet elevation drawing", () => {
     json.outlet.barrel = { shape: "box", span: 2, rise: 1.5, length: 60, inletInvert: 99.5, outletInvert: 99.0, manningN: 0.013, entrance: "box-wingwall-30-75" };
     const k = parseCase(json, { file: DEMO }).case;
     const routed = routeCase(k, k.outlet!);
-    const boxPlan = assess(k, routed).wall;
+    const boxPlan = outletWall(assess(k, routed));
     const d = drawingInput(k, k.outlet!, routed.storms, boxPlan);
     const ft = 0.3048;
     // Left to right seen from outside: downstream (the barrel's, 3 ft), left (5 ft), upstream (3 ft), right (5 ft).

@@ -164,8 +164,9 @@ describe("buildable proposals", () => {
   it("every bundled case: every proposal ranked compliant is buildable and lists each opening's place", { timeout: 900_000 }, () => {
     for (const name of readdirSync(join(ROOT, "cases")).sort()) {
       if (name === "loophole-catalogue") continue;
+      // Only a case with a catalogue is designed (a system of ponds is routed, not designed).
+      if (!(JSON.parse(readFileSync(join(ROOT, "cases", name, "case.json"), "utf8")) as { catalogue?: unknown }).catalogue) continue;
       const { json, candidates } = designed(name, "4000");
-      if (!(json as { catalogue?: unknown }).catalogue) continue;
       const limits = limitsOf(json as Parameters<typeof limitsOf>[0]);
       for (const c of candidates.filter((k) => k.compliant)) expect(broken(c, limits), `${name} candidate ${c.rank}`).toEqual([]);
     }

@@ -2,7 +2,7 @@
 // methods and the caution.
 import type { Case, Hydrograph, Outlet } from "../../model.js";
 import { drainedStage, type CaseRouting } from "../../routing/routeCase.js";
-import type { Assessment } from "../../assess/assess.js";
+import { outletWall, type Assessment } from "../../assess/assess.js";
 import { formatter } from "../../format.js";
 import { CAUTION } from "../caution.js";
 import { hydrographChart, prePostChart, ratingChart, stageChart, storageChart } from "./figures.js";
@@ -72,10 +72,10 @@ export function outletSections(c: Case, routed: RoutedOutlet, figures: FigureCou
     : "";
   const rating = section(`${prefix}rating`, "Outlet and rating", [
     partsTable(c, outlet),
-    ...(assessment.wall.openings.length ? [wallTable(c, outlet, assessment.wall)] : []),
+    ...(outletWall(assessment).openings.length ? [wallTable(c, outlet, outletWall(assessment))] : []),
     figures.figure(`${prefix}outlet-drawing`, "Outlet structure, elevation",
       `The outlet drawn to one scale across and up: left, a section through the ${outlet.riser ? "riser" : "headwall"} with the pond floor, the barrel leaving its base, the top of embankment, the spillway crest and the freeboard line; right, the ${outlet.riser ? "riser's wall developed (its perimeter unrolled)" : "headwall"} seen from outside, with every opening at its elevation and at the place the wall table gives it (a round riser unrolled from the barrel's centreline, 0 degrees at the left edge); dashed: each storm's peak stage.`,
-      (id) => outletDrawing(id, drawingInput(c, outlet, routing.storms, assessment.wall))),
+      (id) => outletDrawing(id, drawingInput(c, outlet, routing.storms, outletWall(assessment)))),
     figures.figure(`${prefix}rating`, "Rating, part by part", `Outflow of each part and the total (thick solid) against stage. Diamonds: each storm's target at its maximum stage, the bar spanning its target band; dots: the routed peak outflow at the maximum stage. The flow axis ends at twice the largest target or peak; larger flows run off the right edge and are listed in the table below.${throttleNote}`, (id) => ratingChart(id, c, outlet, routing.storms)),
     ratingTable(c, outlet),
     tables.full ? stageStorageDischargeTable(c, outlet, inputs.stageStep ?? defaultStageStep(c)) : { kind: "text", text: tables.note ?? "" },
