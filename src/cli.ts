@@ -386,7 +386,8 @@ program
   .command("drawing")
   .description("draw the outlet structure as an elevation, to scale, alone as an SVG file (the report's figure)")
   .argument("<case>", "case file (JSON) with an outlet, e.g. a candidate written by design --out")
-  .option("--out <file>", "where to write the SVG (default: CASE.outlet.svg beside the case file)")
+  .option("--out <file>", "where to write the SVG (default: CASE.outlet.svg beside the case file); a system of ponds: a directory, or a .svg file with --pond")
+  .option("--pond <name>", "a system of ponds: only this pond's outlet")
   .addHelpText(
     "after",
     helpAfter(`
@@ -397,9 +398,15 @@ prints for it (a round riser from the barrel's centreline, 0 degrees at the left
 a box riser from its downstream side's left end, sides named); each storm's peak stage, routed as in
 route; one scale across and up.
 
+A system of ponds: one drawing per pond's outlet, with that pond's levels and its peak stages in the
+system routed together (CASE.<pond>.outlet.svg beside the case file, or <pond>.outlet.svg in the
+directory --out names).
+
 Examples:
   outfit drawing cases/demo/case.json                      # writes cases/demo/case.outlet.svg
   outfit drawing out/demo/candidate-01.json --out outlet.svg
+  outfit drawing cases/two-ponds/case.json                 # case.upper.outlet.svg, case.lower.outlet.svg
+  outfit drawing cases/two-ponds/case.json --pond lower --out lower.svg
 
 Exit codes: 0 written; ${EXIT_CODES.slice(8)}.`),
   )

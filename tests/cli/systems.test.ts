@@ -180,7 +180,7 @@ describe("the other commands on a system of ponds", () => {
     expect(html).toContain("Pond upper");
     expect(outfit("report", CASE, "--format", "md", "--out", join(dir, "md", "r.md")).status).toBe(0);
     const route = JSON.parse(outfit("route", CASE, "--json").stdout) as { storms: StormJson[] };
-    const svg = readFileSync(join(dir, "md", "r.fig-07-storm-2-stages.svg"), "utf8");
+    const svg = readFileSync(join(dir, "md", "r.fig-09-storm-2-stages.svg"), "utf8");
     const [d0, d1] = attribute(svg, "data-y-domain");
     const [r0, r1] = attribute(svg, "data-y-range");
     for (const [k, pond] of route.storms[1].ponds.entries()) {
@@ -189,6 +189,42 @@ describe("the other commands on a system of ponds", () => {
       // Within half a pixel of the plot's height.
       expect(Math.abs(Math.max(...ys) - pond.maxStage)).toBeLessThan((0.5 * (d1 - d0)) / Math.abs(r1 - r0));
     }
+  });
+});
+
+describe("the drawing of each pond's outlet", () => {
+  const route = JSON.parse(outfit("route", CASE, "--json").stdout) as { storms: StormJson[] };
+  const storm = (k: number, svg: string) => Number(new RegExp(`data-level="stage" data-storm="${route.storms[k].name}" data-value="([^"]*)"`).exec(svg)![1]);
+
+  it("drawing writes one per pond, each with that pond's peak stages in the system and its own levels", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-system-drawing-"));
+    expect(outfit("drawing", CASE, "--out", dir).status).toBe(0);
+    expect(readdirSync(dir).sort()).toEqual(["lower.outlet.svg", "upper.outlet.svg"]);
+    const [upper, lower] = ["upper", "lower"].map((name) => readFileSync(join(dir, `${name}.outlet.svg`), "utf8"));
+    route.storms.forEach((s, k) => {
+      expect(storm(k, upper)).toBeCloseTo(s.ponds[0].maxStage, 9);
+      expect(storm(k, lower)).toBeCloseTo(s.ponds[1].maxStage, 9);
+    });
+    // The upper pond's outlet is the equaliser pipe alone: an endwall with the pipe's opening through it.
+    expect(upper).toContain("data-barrel-opening");
+    expect(upper).not.toContain("data-opening=");
+    expect(lower).toContain('data-opening="E3"');
+    expect(Number(/data-level="top" data-value="([^"]*)"/.exec(upper)![1])).toBeCloseTo(108, 9);
+    expect(Number(/data-level="top" data-value="([^"]*)"/.exec(lower)![1])).toBeCloseTo(107, 9);
+    // One pond into a single file; several ponds into a file, or an unknown pond, are usage errors.
+    expect(outfit("drawing", CASE, "--pond", "lower", "--out", join(dir, "one.svg")).status).toBe(0);
+    expect(readFileSync(join(dir, "one.svg"), "utf8")).toBe(lower);
+    expect(outfit("drawing", CASE, "--out", join(dir, "both.svg")).status).toBe(2);
+    expect(outfit("drawing", CASE, "--pond", "middle").status).toBe(2);
+  });
+
+  it("the system's report holds a drawing of each pond's outlet", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-system-report-drawing-"));
+    expect(outfit("report", CASE, "--format", "md", "--out", join(dir, "r.md")).status).toBe(0);
+    const files = readdirSync(dir).filter((f) => f.includes("outlet-drawing")).sort();
+    expect(files).toEqual(["r.fig-02-pond-1-outlet-drawing.svg", "r.fig-05-pond-2-outlet-drawing.svg"]);
+    const lower = readFileSync(join(dir, files[1]), "utf8");
+    route.storms.forEach((s, k) => expect(storm(k, lower)).toBeCloseTo(s.ponds[1].maxStage, 9));
   });
 });
 

@@ -50,7 +50,8 @@ export function caseCommands(): TerminalCommand[] {
       commands.push({ label: `route ${name}`, args: ["route", path], codes: [0], coloured: true });
       commands.push({ label: `rate ${name}`, args: ["rate", path], codes: [0], coloured: true });
       commands.push({ label: `report ${name}`, args: ["report", path, "--out", "<tmp>/report.html"], codes: [0], coloured: false });
-      commands.push({ label: `drawing ${name}`, args: ["drawing", path, "--out", "<tmp>/outlet.svg"], codes: [0], coloured: false });
+      // A system of ponds draws each pond's outlet into a directory.
+      commands.push({ label: `drawing ${name}`, args: ["drawing", path, "--out", file.ponds ? "<tmp>" : "<tmp>/outlet.svg"], codes: [0], coloured: false });
     }
     commands.push({ label: `volume ${name}`, args: ["volume", path, "--type", "II"], codes: [0], coloured: true });
     if (file.site !== undefined) commands.push({ label: `pond ${name}`, args: ["pond", path, "--type", "II"], codes: [0, 1], coloured: true });

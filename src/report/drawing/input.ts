@@ -9,7 +9,7 @@ import type { Case, Outlet } from "../../model.js";
 import type { StormRouting } from "../../routing/routeCase.js";
 import { formatter, type Formatter } from "../../format.js";
 import { partOf } from "../../parts/registry.js";
-import type { Outline } from "../../parts/outline.js";
+import { outlineWidth, type Outline } from "../../parts/outline.js";
 import type { WallPlan } from "../../parts/placement.js";
 import { BOX_SIDES, boxSides, wallEdges } from "../../parts/wall.js";
 import { riserSection, riserWords } from "../../parts/riser.js";
@@ -90,7 +90,16 @@ export function drawingInput(c: Case, outlet: Outlet, storms: readonly StormRout
   const wall = drawnWall(plan, f);
   const freeboardLine = c.pond.top - c.criteria.freeboardDepth;
   let structure: DrawingInput["structure"];
-  if (riser) {
+  // A barrel alone (an equaliser pipe between two ponds): an endwall around the pipe's inlet, a web
+  // above its crown, the pipe's opening through it.
+  const pipe = !riser && openings.length === 0 && outlet.barrel ? outlet.barrel : null;
+  let pipeStation: number | null = null;
+  if (pipe) {
+    const web = c.criteria.buildability.web;
+    const width = outlineWidth(barrelOutline(pipe), barrelRise(pipe)) + 2 * web;
+    pipeStation = width / 2;
+    structure = { kind: "headwall", wall: { width, closes: false, corners: [], marks: [] }, top: pipe.inletInvert + barrelRise(pipe) + web, base, words: "endwall at the pipe's inlet" };
+  } else if (riser) {
     structure = { kind: "riser", across: riserSection(riser), wall, rim: riser.crest, base, words: riserWords(riser, f) };
   } else {
     // A headwall to the freeboard line, or a web above its highest opening.
@@ -104,7 +113,7 @@ export function drawingInput(c: Case, outlet: Outlet, storms: readonly StormRout
     structure,
     openings,
     barrel: b
-      ? { outline: barrelOutline(b), rise: barrelRise(b), inletInvert: b.inletInvert, outletInvert: b.outletInvert, length: b.length, words: `${barrelSizeWords(b, f)} barrel, ${f.length(b.length, 1)} long`, station: plan.barrel?.station ?? null }
+      ? { outline: barrelOutline(b), rise: barrelRise(b), inletInvert: b.inletInvert, outletInvert: b.outletInvert, length: b.length, words: `${barrelSizeWords(b, f)} barrel, ${f.length(b.length, 1)} long`, station: plan.barrel?.station ?? pipeStation }
       : null,
     spillway: outlet.spillway ? { crest: outlet.spillway.crest, words: spillwayWords(outlet.spillway, f) } : null,
     stages: storms.map((s) => ({ name: s.storm.name, stage: s.result.maxStage })),
