@@ -212,9 +212,15 @@ Examples:
   outfit design cases/wet-value/case.json --rank change         # fixes of the existing outlet, smallest first
   outfit design cases/demo/case.json --rank robust --budget 200000   # the designs that keep most reserve
   outfit design cases/wet-value/case.json --vary elevations     # only move its inverts, crests and rim
+  outfit design cases/two-ponds/case.json --out out/two-ponds   # a system of two ponds, designed together
 
-A system of ponds (a case with ponds) is routed and checked (route, rate, report, hydrograph,
-volume) and will be designed in a later version: design refuses it with exit code 2.
+A system of ponds (a case with ponds): the outlets of all ponds are designed together from the
+catalogue, every design routed as the system (the ponds together, flow both ways) and judged by every
+check (targets at the outfall, the rest per pond); an outlet that is a barrel alone (an equaliser
+pipe) is sized from the catalogue's barrels; kept parts stay. The explanation names the pond and the
+check that binds and what relaxes it; the existing system is row 0; --json gives each candidate's
+ponds (name, outlet). Budgets, workers, --resume, --shard and gather work as for one pond (a storm
+routed through a system counts one routing per pond). --size-pond sizes one pond only.
 
 Exit codes: 0 done; 1 no compliant design (with --check); 2 bad input or a bad option (nothing is
 written); 3 interrupted by SIGINT or SIGTERM (results of the work done are written; --resume goes on);
@@ -368,8 +374,9 @@ stage, the checks with their slack, the methods with their sources and the cauti
 run it compares the candidates
 and explains the binding check of each; every candidate is routed again from its own case file.
 It loads nothing from the network and prints on A4 or Letter. A system of ponds gets each pond's
-storage, parts and rating (a link's flow by both ponds' stages), each storm's stages of every pond and
-flows through every link, a table per pond, and the checks per pond and at the outfall.
+storage, parts, outlet drawing and rating (a link's flow by both ponds' stages), each storm's stages
+of every pond and flows through every link, a table per pond, and the checks per pond and at the
+outfall; a design run on a system compares its candidates and reports the first in full.
 
 Examples:
   outfit report cases/demo/case.json                       # writes cases/demo/case.report.html

@@ -3,7 +3,7 @@
 import { existsSync, readdirSync, rmSync, statSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { availableParallelism } from "node:os";
-import { emit, load, positiveNumber, refuseSystem, UsageError } from "../../src/commands/common.js";
+import { emit, load, positiveNumber, UsageError } from "../../src/commands/common.js";
 import { makeDirectory, printErr, writeFileAtomic } from "../../src/io.js";
 import { buildProblem, type DesignLimits } from "../engine/problem.js";
 import { KEPT, runSearch, type JournalEntry } from "../engine/run.js";
@@ -70,7 +70,6 @@ function removeStale(dir: string, keep: number): string[] {
 export async function designCommand(path: string, options: DesignCommandOptions): Promise<number> {
   if (options.sizePond) return pondDesignCommand(path, options);
   const loaded = load(path, options.quiet === true);
-  refuseSystem(loaded, path, options.gather ? "gather" : "design");
   const c = loaded.case;
   const margin = positiveNumber("--margin", options.margin);
   const limits = designLimits(options);

@@ -1,7 +1,7 @@
 // The baseline of value engineering: the case's own outlet, routed through the `route` path,
 // assessed, costed and explained like a candidate, and what each alternative saves against it.
 import type { SearchProblem } from "./problem.js";
-import { routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
+import { routeOutlet, routeSystemOutlets, type Candidate, type RoutedOutlet } from "./candidate.js";
 import { explainExisting } from "./explain.js";
 import { complianceWords } from "../../src/report/console.js";
 
@@ -12,7 +12,10 @@ export interface Baseline extends RoutedOutlet {
 /** Routes and assesses the existing outlet (null when the case has none). */
 export function assessBaseline(p: SearchProblem): Baseline | null {
   if (!p.existing) return null;
-  const routed = routeOutlet(p, p.existing.file, p.existing.outlet);
+  // A system: every pond's outlet as the case gives it, routed together.
+  const routed = p.system
+    ? routeSystemOutlets(p, p.system.ponds.map((d) => d.problem.file.outlet ?? {}), p.case.system!.ponds.map((q) => q.outlet))
+    : routeOutlet(p, p.existing.file, p.existing.outlet);
   return { ...routed, explanation: explainExisting(p, routed) };
 }
 
@@ -35,7 +38,7 @@ export function saving(baseline: RoutedOutlet, c: RoutedOutlet): Saving {
 export function baselineVerdict(baseline: Baseline, candidates: readonly Candidate[], stoppedBecause: string): string {
   const compliant = candidates.filter((c) => c.assessment.compliant);
   // "The existing outlet is compliant, 2 warnings; ...": its warnings beside the word.
-  const is = `The existing outlet is ${complianceWords(baseline.assessment)}`;
+  const is = `The existing ${baseline.system ? "system" : "outlet"} is ${complianceWords(baseline.assessment)}`;
   if (!baseline.assessment.compliant) {
     if (compliant.length === 0) return `${is}, and the search found no compliant fix in the catalogue (it stopped because ${stoppedBecause}).`;
     const smallest = [...compliant].sort((a, b) => (a.changes?.score ?? 0) - (b.changes?.score ?? 0) || a.cost - b.cost)[0];

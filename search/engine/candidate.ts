@@ -9,10 +9,12 @@ import { assess, type Assessment } from "../../src/assess/assess.js";
 import { describeOutlet } from "../../src/report/describe.js";
 import { formatter } from "../../src/format.js";
 import type { SearchProblem, Layout } from "./problem.js";
-import { designOutlet } from "./layout.js";
+import { designFiles, designOutlet } from "./layout.js";
+import { routeSystemCase, type SystemRouting } from "../../src/routing/routeSystem.js";
+import { assessSystem, outfallRoutings } from "../../src/assess/systemAssess.js";
 import { outletCost } from "./cost.js";
 import { changeList, type ChangeList } from "./changes.js";
-import { spreadOf, type Spread } from "../../src/assess/spread.js";
+import { spreadOf, systemSpreadOf, type Spread } from "../../src/assess/spread.js";
 
 /** An outlet routed through the `route` path, assessed and costed (a candidate, or the existing outlet). */
 export interface RoutedOutlet {
@@ -29,6 +31,12 @@ export interface RoutedOutlet {
    * reserve under each: for every compliant design when ranking by robustness, else for those shown.
    */
   spread: Spread | null;
+  /**
+   * A system of ponds: every pond's outlet file and outlet, and the system routed together through the
+   * `route` path; the fields above then stand for the pond at the outfall (its outlet; the flow
+   * reaching the outfall as its routing), and `assessment` and `cost` are the system's.
+   */
+  system?: { files: OutletFile[]; outlets: Outlet[]; routing: SystemRouting };
 }
 
 export interface Candidate extends RoutedOutlet {
@@ -47,7 +55,41 @@ export interface Candidate extends RoutedOutlet {
 }
 
 export function finalizeCandidate(p: SearchProblem, layout: Layout, vars: number[], file: OutletFile): Candidate {
+  if (p.system) {
+    const files = designFiles(p, layout, vars);
+    return candidateFrom(p, layout, vars, routeSystemOutlets(p, files, files.map((f, i) => designOutlet(p.system!.ponds[i].problem, f))));
+  }
   return candidateFrom(p, layout, vars, routeDesign(p, file));
+}
+
+/**
+ * A system of ponds with these outlets routed together through the `route` path, assessed (checks at
+ * the outfall and per pond), costed (every pond's designed parts) and described pond by pond.
+ */
+export function routeSystemOutlets(p: SearchProblem, files: OutletFile[], outlets: Outlet[]): RoutedOutlet {
+  const c = p.case;
+  const system = c.system!;
+  const routing = routeSystemCase(c, outlets);
+  const assessment = assessSystem(c, routing);
+  const main = system.ponds.findIndex((q) => q.to < 0);
+  const storms = outfallRoutings(routing);
+  let error = 0;
+  for (const { storm, result } of storms) {
+    if (storm.target) error = Math.max(error, Math.abs(result.peakAtPoint / storm.target - 1));
+  }
+  const f = formatter(c.units);
+  return {
+    file: files[main],
+    outlet: outlets[main],
+    routing: { outlet: outlets[main], table: routing.tables[main]!, storms },
+    assessment,
+    cost: outlets.reduce((sum, o) => sum + outletCost(o, p.costs, c.criteria.buildability.levelSpacing), 0),
+    error,
+    description: system.ponds.map((q, i) => `${q.name}: ${describeOutlet(outlets[i], f)}`).join("; "),
+    // Ranking by robustness needs the spread of every compliant design.
+    spread: p.limits.rankBy === "robust" && assessment.compliant ? systemSpreadOf(c, outlets) : null,
+    system: { files, outlets, routing },
+  };
 }
 
 /** A design's outlet file routed through the `route` path, assessed and costed. */
@@ -61,7 +103,7 @@ export function candidateFrom(p: SearchProblem, layout: Layout, vars: number[], 
     ...routed,
     layout,
     vars,
-    changes: p.existing ? changeList(p, p.existing.outlet, routed.outlet) : null,
+    changes: p.existing ? (p.system ? systemChanges(p, routed) : changeList(p, p.existing.outlet, routed.outlet)) : null,
     rankByChange: p.limits.rankBy === "change" && p.existing !== null,
     pareto: false,
     variantOf: null,
@@ -72,6 +114,21 @@ export function candidateFrom(p: SearchProblem, layout: Layout, vars: number[], 
 /** The design routed under the spread (on the route path's rating, as the candidate itself). */
 export function designSpread(p: SearchProblem, outlet: Outlet): Spread {
   return spreadOf(p.case, outlet, { direct: p.options.referencePath });
+}
+
+/** A routed design's spread: a system's, its ponds routed together under each departure; else its outlet's. */
+export function routedSpread(p: SearchProblem, routed: RoutedOutlet): Spread {
+  return routed.system ? systemSpreadOf(p.case, routed.system.outlets) : designSpread(p, routed.outlet);
+}
+
+/** A system's changes against the system as given, pond by pond (each named with its pond), one measure. */
+function systemChanges(p: SearchProblem, routed: RoutedOutlet): ChangeList {
+  const system = p.case.system!;
+  const lists = p.system!.ponds.map((d, i) => changeList(d.problem, system.ponds[i].outlet, routed.system!.outlets[i]));
+  return {
+    changes: lists.flatMap((list, i) => list.changes.map((change) => ({ ...change, part: `${system.ponds[i].name}: ${change.part}`, text: `${system.ponds[i].name}: ${change.text}` }))),
+    score: lists.reduce((sum, list) => sum + list.score, 0),
+  };
 }
 
 /**

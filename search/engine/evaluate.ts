@@ -2,6 +2,8 @@
 // every check's slack into a residual. The fit is driven by the checks generically, so a rule added
 // to the assessment later needs no change here.
 import type { Outlet, Storm } from "../../src/model.js";
+import { routeSystemCase, type SystemRouting } from "../../src/routing/routeSystem.js";
+import { outfallRoutings, pondRoutings, systemChecks } from "../../src/assess/systemAssess.js";
 import type { OutletFile } from "../../src/case/schema.js";
 import { buildRatingTable, lazyRatingTable } from "../../src/routing/ratingTable.js";
 import { routeSearchInflow } from "../../src/routing/durations.js";
@@ -10,11 +12,14 @@ import { evaluateChecks, type Check } from "../../src/assess/checks.js";
 import { partOf } from "../../src/parts/registry.js";
 import type { SearchProblem, Layout } from "./problem.js";
 import { ruleOf } from "../../src/assess/rules/registry.js";
-import { designOutlet, designOutletFile, elevations, reachAboveLevel } from "./layout.js";
+import { designFiles, designOutlet, designOutletFile, elevations, pondVariables, reachAboveLevel } from "./layout.js";
 
 export interface Evaluation {
   vars: number[];
+  /** The outlet file (a system's: the pond at the outfall's, `files` holding every pond's). */
   file: OutletFile;
+  /** A system of ponds: every pond's outlet file, in the system's order. */
+  files?: OutletFile[];
   outlet: Outlet;
   storms: StormRouting[];
   checks: Check[];
@@ -30,6 +35,30 @@ export interface Evaluation {
 /** Outlets whose routings an evaluator keeps for the checks (least recently used dropped). */
 const VARIANT_MEMO_SIZE = 8;
 
+/**
+ * Intervals of the links' stage axes in the search's routings of a system (routing/linkTable.ts;
+ * `route` uses LINK_INTERVALS): a link whose outlet is designed is tabulated again at every
+ * evaluation. Reported candidates are routed again through the `route` path.
+ */
+export const SEARCH_LINK_INTERVALS = 40;
+
+/**
+ * A routing kept by key in a memo of VARIANT_MEMO_SIZE, most recently used last (the variants met at
+ * every evaluation stay while clogged outlets pass through), made when missing.
+ */
+function remembered<T>(memo: Map<string, T>, key: string, make: () => T): T {
+  const known = memo.get(key);
+  if (known !== undefined) {
+    memo.delete(key);
+    memo.set(key, known);
+    return known;
+  }
+  const made = make();
+  if (memo.size >= VARIANT_MEMO_SIZE) memo.delete(memo.keys().next().value!);
+  memo.set(key, made);
+  return made;
+}
+
 /** Weight of geometric violations, per pond depth of violation. */
 const GEOMETRY_WEIGHT = 20;
 
@@ -40,8 +69,47 @@ export class Evaluator {
   /** Routings of the checks' outlets (variants, clogged) by their content, most recent last. */
   private readonly variantRoutings = new Map<string, StormRouting[]>();
   private readonly drained: number;
-  constructor(readonly problem: SearchProblem) {
+  /** A system of ponds: each pond's evaluator (its staged starts), counting into this one. */
+  private readonly pondEvaluators: (Evaluator | null)[] = [];
+  /** Routings of the systems the checks' variants ask for, by their outlets, most recent last. */
+  private readonly systemVariants = new Map<string, SystemRouting>();
+  constructor(
+    readonly problem: SearchProblem,
+    /** Whose routings these are too (a pond's evaluator within a system's). */
+    private readonly parent: Evaluator | null = null,
+  ) {
     this.drained = drainedStage(problem.case);
+  }
+
+  /** A system of ponds: the evaluator of pond `index` on its view of the case (its routings counted here too). */
+  pond(index: number): Evaluator {
+    let e = this.pondEvaluators[index];
+    if (!e) {
+      e = new Evaluator(this.problem.system!.ponds[index].problem, this);
+      this.pondEvaluators[index] = e;
+    }
+    return e;
+  }
+
+  /** Adds routings to this evaluator's count (and its parent's). */
+  private count(routings: number): void {
+    this.routings += routings;
+    this.parent?.count(routings);
+  }
+
+  /**
+   * A system of ponds routed on the search's link tables; each storm through the system counts as
+   * one routing per pond (it replaces that many single-pond routings).
+   */
+  routeSystem(outlets: readonly Outlet[]): SystemRouting {
+    const c = this.problem.case;
+    this.count(c.storms.length * outlets.length);
+    return routeSystemCase(c, outlets, { linkIntervals: this.problem.options.referencePath ? undefined : SEARCH_LINK_INTERVALS });
+  }
+
+  /** A system routed for a check's variant, remembered by its outlets as `routeVariant` does. */
+  private routeSystemVariant(outlets: readonly Outlet[]): SystemRouting {
+    return remembered(this.systemVariants, JSON.stringify(outlets), () => this.routeSystem(outlets));
   }
 
   /**
@@ -54,18 +122,7 @@ export class Evaluator {
   routeVariant(outlet: Outlet): StormRouting[] {
     const p = this.problem;
     if (p.options.referencePath) return this.routeStorms(outlet, p.case.storms);
-    const key = JSON.stringify(outlet);
-    const known = this.variantRoutings.get(key);
-    if (known) {
-      // Most recently used last: the variants met at every evaluation stay while clogged outlets pass through.
-      this.variantRoutings.delete(key);
-      this.variantRoutings.set(key, known);
-      return known;
-    }
-    const routed = this.routeStorms(outlet, p.case.storms);
-    if (this.variantRoutings.size >= VARIANT_MEMO_SIZE) this.variantRoutings.delete(this.variantRoutings.keys().next().value!);
-    this.variantRoutings.set(key, routed);
-    return routed;
+    return remembered(this.variantRoutings, JSON.stringify(outlet), () => this.routeStorms(outlet, p.case.storms));
   }
 
   /** Routes the given storms through an outlet on the search grid: on a lazy table (the stages the
@@ -74,7 +131,7 @@ export class Evaluator {
     const p = this.problem;
     const options = { grid: p.grid, direct: p.options.referencePath };
     const table = p.options.referencePath ? buildRatingTable(p.case.pond, outlet, p.case.tailwater, options) : lazyRatingTable(p.case.pond, outlet, p.case.tailwater, options);
-    this.routings += storms.length;
+    this.count(storms.length);
     return storms.map((storm) => ({
       storm,
       result: routeSearchInflow(table, p.inflows.get(storm) ?? storm.inflow, { drainedStage: this.drained, startStage: p.case.pond.pool, ...stormRouteOptions(storm) }),
@@ -84,6 +141,7 @@ export class Evaluator {
   evaluate(layout: Layout, vars: readonly number[]): Evaluation {
     const p = this.problem;
     this.evaluations++;
+    if (p.system) return this.evaluateSystem(layout, vars);
     const file = designOutletFile(p, layout, vars);
     const outlet = designOutlet(p, file);
     const storms = this.routeStorms(outlet, p.case.storms);
@@ -98,6 +156,42 @@ export class Evaluator {
       file,
       outlet,
       storms,
+      checks,
+      residuals,
+      objective,
+      compliant: violations === 0 && checks.every((c) => c.passed),
+      violations,
+    };
+  }
+
+  /**
+   * A system of ponds: every pond's outlet built, the system routed together, the system's checks (at the
+   * outfall and per pond) as residuals, and each designed pond's range and geometric rules.
+   */
+  private evaluateSystem(layout: Layout, vars: readonly number[]): Evaluation {
+    const p = this.problem;
+    const ponds = p.system!.ponds;
+    const files = designFiles(p, layout, vars);
+    const outlets = files.map((file, i) => designOutlet(ponds[i].problem, file));
+    const routing = this.routeSystem(outlets);
+    const checks = systemChecks(p.case, routing, (o) => this.routeSystemVariant(o));
+    const residuals = checkResiduals(p, checks);
+    const split = pondVariables(p, layout, vars);
+    let violations = 0;
+    ponds.forEach((d, i) => {
+      if (d.kind !== "designed") return;
+      rangeResiduals(d.problem, outlets[i], pondRoutings(routing, i), residuals);
+      violations += geometryResiduals(d.problem, layout.ponds![i], split[i], residuals);
+    });
+    let objective = 0;
+    for (const r of residuals) objective += r * r;
+    const main = p.case.system!.ponds.findIndex((q) => q.to < 0);
+    return {
+      vars: [...vars],
+      file: files[main],
+      files,
+      outlet: outlets[main],
+      storms: outfallRoutings(routing),
       checks,
       residuals,
       objective,
@@ -146,6 +240,10 @@ function rangeResiduals(p: SearchProblem, outlet: Outlet, storms: readonly Storm
 
 /** Geometric rules a design breaks (ordering, openings above the rim, elevation limits): no routing needed. */
 export function geometryViolations(p: SearchProblem, layout: Layout, vars: readonly number[]): number {
+  if (p.system) {
+    const split = pondVariables(p, layout, vars);
+    return p.system.ponds.reduce((n, d, i) => n + (d.kind === "designed" ? geometryResiduals(d.problem, layout.ponds![i], split[i], []) : 0), 0);
+  }
   return geometryResiduals(p, layout, vars, []);
 }
 

@@ -1,7 +1,7 @@
 // Explanations: which check binds each candidate, which elevation relaxes it and by how much (each
 // floating elevation moved one step, the candidate routed again), and, when nothing is compliant, why
 // in engineering terms.
-import type { Hydrograph } from "../../src/model.js";
+import type { Hydrograph, Outlet } from "../../src/model.js";
 import { storageShortfall } from "../../src/assess/storageShortfall.js";
 import { shortfallLines } from "../../src/report/shortfall.js";
 import type { Check } from "../../src/assess/checks.js";
@@ -12,7 +12,7 @@ import { baseLength, type UnitSystem } from "../../src/units.js";
 import { outletDischarge } from "../../src/hydraulics/outlet.js";
 import type { SearchProblem } from "./problem.js";
 import { caseElevation, designOutlet, designOutletFile, variableNames } from "./layout.js";
-import { finalizeCandidate, routeOutlet, type Candidate, type RoutedOutlet } from "./candidate.js";
+import { finalizeCandidate, routeOutlet, routeSystemOutlets, type Candidate, type RoutedOutlet } from "./candidate.js";
 import type { OutletFile } from "../../src/case/schema.js";
 import { fileBottom, placed } from "../../src/parts/registry.js";
 import { describeElement } from "../../src/report/describe.js";
@@ -58,7 +58,7 @@ interface Movable {
 export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
   const names = variableNames(p, c.layout);
   const { min, max } = variableBounds(p, c.layout);
-  return explainMoves(p, c, c.vars.map((value, i) => ({
+  const lines = explainMoves(p, c, c.vars.map((value, i) => ({
     name: names[i],
     value,
     min: min[i],
@@ -69,20 +69,68 @@ export function explainCandidate(p: SearchProblem, c: Candidate): string[] {
       return finalizeCandidate(p, c.layout, vars, designOutletFile(p, c.layout, vars));
     },
   })));
+  return p.system ? [...lines, ...pipeMoves(p, c)] : lines;
+}
+
+/**
+ * A system: the pipes one catalogue size up or down that relax its binding check (routed again with
+ * that pipe), the best first, at most two; nothing when the design has no pipe or no such size helps.
+ */
+function pipeMoves(p: SearchProblem, c: Candidate): string[] {
+  const binding = c.assessment.binding;
+  if (!binding) return [];
+  const f = formatter(p.case.units);
+  const moves: { text: string; gain: number; breaks: boolean }[] = [];
+  p.system!.ponds.forEach((d, i) => {
+    const own = c.layout.ponds![i];
+    if (d.kind !== "pipe" || !own.barrel) return;
+    const at = d.problem.barrelOptions.indexOf(own.barrel);
+    for (const barrel of [d.problem.barrelOptions[at - 1], d.problem.barrelOptions[at + 1]]) {
+      if (!barrel) continue;
+      const layout = { ...c.layout, ponds: c.layout.ponds!.map((l, k) => (k === i ? { ...l, barrel } : l)) };
+      const moved = finalizeCandidate(p, layout, c.vars, designOutletFile(p, layout, c.vars));
+      const after = moved.assessment.checks.find((check) => check.key === binding.key)!;
+      if (!relaxesVisibly(p.case.units, binding, after)) continue;
+      const breaks = c.assessment.compliant && !moved.assessment.compliant;
+      const next = moved.assessment.binding!;
+      const cost = breaks ? `; but then ${next.name} fails, slack ${slackText(p.case.units, next)}` : "";
+      moves.push({
+        gain: after.slack - binding.slack,
+        breaks,
+        text: `the pipe of pond ${d.name} one size ${barrel.sizeM > own.barrel.sizeM ? "larger" : "smaller"}, ${f.size(barrel.sizeM)}: ${ruleOf(binding).subject(binding)} ${change(p, binding, after)}, slack ${slackText(p.case.units, binding)} -> ${slackText(p.case.units, after)}${cost}`,
+      });
+    }
+  });
+  moves.sort((a, b) => Number(a.breaks) - Number(b.breaks) || b.gain - a.gain);
+  return moves.slice(0, 2).map((m) => `relax: ${m.text}`);
 }
 
 /** The existing outlet's explanation: its binding check and the single-step moves of its parts that relax it. */
 export function explainExisting(p: SearchProblem, existing: RoutedOutlet): string[] {
+  if (p.system) {
+    // A system: every pond's parts moved in turn, the system routed again with that pond's outlet changed.
+    const system = existing.system!;
+    const movables = p.system.ponds.flatMap((d, i) =>
+      outletMovables(d.problem, system.files[i], system.outlets[i], (changed) => {
+        const files = system.files.map((file, k) => (k === i ? changed : file));
+        return routeSystemOutlets(p, files, files.map((file, k) => (k === i ? designOutlet(d.problem, file) : system.outlets[k])));
+      }).map((m) => ({ ...m, name: `${m.name} of pond ${d.name}` })),
+    );
+    return explainMoves(p, existing, movables);
+  }
+  return explainMoves(p, existing, outletMovables(p, existing.file, existing.outlet, (changed) => routeOutlet(p, changed, designOutlet(p, changed))));
+}
+
+/** The elevations of an outlet's parts that may move (not kept, not held by the limits), each routed again by `routedWith`. */
+function outletMovables(p: SearchProblem, file: OutletFile, outlet: Outlet, routedWith: (changed: OutletFile) => RoutedOutlet): Movable[] {
   const f = formatter(p.case.units);
-  const file = existing.file;
   const movables: Movable[] = [];
-  const routedWith = (changed: OutletFile) => routeOutlet(p, changed, designOutlet(p, changed));
   // Parts that stay as they are (kept, or held by the limits) are not moved.
   (file.elements ?? []).forEach((e, i) => {
     if (p.keptElements.includes(e)) return;
     const value = p.converter.length(fileBottom(e), "outlet.elements");
     movables.push({
-      name: describeElement(existing.outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
+      name: describeElement(outlet.elements[i], f).replace(/ at [^ ]+ \S+$/, ""),
       value,
       min: p.floor,
       max: p.ceiling,
@@ -104,7 +152,7 @@ export function explainExisting(p: SearchProblem, existing: RoutedOutlet): strin
       moved: (x) => routedWith({ ...file, riser: { ...riser, crest: caseElevation(p, x) } }),
     });
   }
-  return explainMoves(p, existing, movables);
+  return movables;
 }
 
 function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): string[] {
@@ -189,6 +237,13 @@ export function explainInfeasible(p: SearchProblem, plan: LayoutPlan, closest: C
     );
   }
   const routings = closest.map((c) => c.routing.storms);
+  if (p.system) {
+    // A system: the checks its closest candidates fail, pond by pond and at the outfall.
+    const failing = [...new Set(closest.flatMap((c) => c.assessment.checks.filter((k) => !k.passed).map((k) => k.name)))];
+    if (failing.length > 0) lines.push(`The closest systems tried fail: ${failing.slice(0, 6).join("; ")}${failing.length > 6 ? "; ..." : ""}. Allow other sizes in the catalogue, more storage in the pond that binds, or a larger budget.`);
+    else lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
+    return lines;
+  }
   lines.push(...whyNothingComplies({ case: p.case, closest: routings, firstLevelBound: plan.viableFirst === 0 }, closest.map((c) => c.assessment.checks)));
   if (lines.length === 0) lines.push("No layout tried met every check; see the closest candidates and their binding checks.");
   lines.push(...shortfallLines(p.case, storageShortfall(p.case, routings[0] ?? null)));

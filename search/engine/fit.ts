@@ -32,6 +32,11 @@ export interface FitResult {
 
 /** Lower and upper bounds of each variable (m). */
 export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; max: number[] } {
+  if (p.system) {
+    // A system: each pond's bounds, one pond after the other.
+    const bounds = p.system.ponds.map((d, i) => variableBounds(d.problem, l.ponds![i]));
+    return { min: bounds.flatMap((b) => b.min), max: bounds.flatMap((b) => b.max) };
+  }
   const min: number[] = [];
   const max: number[] = [];
   const n = variableCount(p, l) - (l.riser ? 1 : 0);
@@ -59,6 +64,8 @@ export function variableBounds(p: SearchProblem, l: Layout): { min: number[]; ma
  * storm.
  */
 export function stagedStart(p: SearchProblem, l: Layout, evaluator: Evaluator, plain = false): number[] {
+  // A system: each designed pond staged on its own view of the case (the storms that reach it).
+  if (p.system) return p.system.ponds.flatMap((d, i) => (variableCount(d.problem, l.ponds![i]) > 0 ? stagedStart(d.problem, l.ponds![i], evaluator.pond(i), plain) : []));
   const { min, max } = variableBounds(p, l);
   const storms = p.targeted;
   const vars: number[] = [];

@@ -4,7 +4,7 @@
 import { Evaluator } from "./evaluate.js";
 import { fitLayout } from "./fit.js";
 import type { SearchProblem, Layout } from "./problem.js";
-import { candidateFrom, packRoute, routeDesign, verdictOf, type PackedRoute, type Verdict } from "./candidate.js";
+import { candidateFrom, finalizeCandidate, packRoute, routeDesign, verdictOf, type PackedRoute, type Verdict } from "./candidate.js";
 import { designOutletFile } from "./layout.js";
 
 export interface FitSettings {
@@ -40,6 +40,8 @@ export interface LayoutIndex {
   levels: number[];
   riser: number;
   barrel: number;
+  /** A system of ponds: each pond's layout as positions in its own problem's lists. */
+  ponds?: LayoutIndex[];
 }
 
 function position<T>(list: readonly T[], existing: readonly (T | null)[], item: T | null): number {
@@ -56,6 +58,7 @@ function item<T>(list: readonly T[], existing: readonly (T | null)[], index: num
 }
 
 export function layoutIndex(p: SearchProblem, l: Layout): LayoutIndex {
+  if (p.system) return { levels: [], riser: -1, barrel: -1, ponds: p.system.ponds.map((d, i) => layoutIndex(d.problem, l.ponds![i])) };
   const own = p.existing?.layout;
   return {
     levels: l.levels.map((part) => position(p.parts, own?.levels ?? [], part)),
@@ -65,6 +68,7 @@ export function layoutIndex(p: SearchProblem, l: Layout): LayoutIndex {
 }
 
 export function layoutAt(p: SearchProblem, index: LayoutIndex): Layout {
+  if (p.system) return { levels: [], riser: null, barrel: null, ponds: p.system.ponds.map((d, i) => layoutAt(d.problem, index.ponds![i])) };
   const own = p.existing?.layout;
   return {
     levels: index.levels.map((i) => item(p.parts, own?.levels ?? [], i)!),
@@ -84,6 +88,12 @@ export function fitJob(p: SearchProblem, layout: Layout, key: string, settings: 
 /** A layout fitted, then its designs routed through the `route` path: what a fitter hands back. */
 export function fitAndRoute(p: SearchProblem, layout: Layout, key: string, settings: FitSettings): FitOutcome {
   const outcome = fitJob(p, layout, key, settings);
+  if (p.system) {
+    // A system: its verdicts only (its routing's link tables do not cross as plain data); the main
+    // thread routes again the designs that end in the kept ranking.
+    outcome.verdicts = outcome.designs.map((vars) => verdictOf(finalizeCandidate(p, layout, vars, designOutletFile(p, layout, vars))));
+    return outcome;
+  }
   const routed = outcome.designs.map((vars) => routeDesign(p, designOutletFile(p, layout, vars)));
   outcome.routed = routed.map(packRoute);
   outcome.verdicts = routed.map((r, d) => verdictOf(candidateFrom(p, layout, outcome.designs[d], r)));

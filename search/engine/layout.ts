@@ -15,7 +15,18 @@ import { explicitSpillway } from "../../src/parts/spillway.js";
 import type { Layout, SearchProblem } from "./problem.js";
 
 export function layoutKey(l: Layout): string {
+  // A system of ponds: each pond's layout by its place in the system.
+  if (l.ponds) return l.ponds.map((pond, i) => `${i + 1}: ${layoutKey(pond)}`).join(" || ");
   return [...l.levels.map((p) => p.key), `riser ${l.riser ? String(l.riser.size) : "-"}`, `barrel ${l.barrel ? String(l.barrel.size) : "-"}`].join(" | ");
+}
+
+/**
+ * A layout's family: the part at its first level ("" for a layout without levels; a pipe's: its size);
+ * a system's: its ponds' families together.
+ */
+export function familyOf(layout: Layout): string {
+  if (layout.ponds) return layout.ponds.map((l) => l.levels[0]?.key ?? (l.barrel ? `pipe ${String(l.barrel.size)}` : "")).join(" + ");
+  return layout.levels[0]?.key ?? "";
 }
 
 /**
@@ -28,16 +39,39 @@ export function firstLevelFixed(p: SearchProblem, l: Layout): boolean {
 
 /** Number of floating elevations: the free levels, then the rim when the riser is designed. */
 export function variableCount(p: SearchProblem, l: Layout): number {
+  if (p.system) return p.system.ponds.reduce((n, d, i) => n + variableCount(d.problem, l.ponds![i]), 0);
   return l.levels.length - (firstLevelFixed(p, l) ? 1 : 0) + (l.riser ? 1 : 0);
 }
 
 /** Names of the variables, for explanations. */
 export function variableNames(p: SearchProblem, l: Layout): string[] {
+  if (p.system) return p.system.ponds.flatMap((d, i) => variableNames(d.problem, l.ponds![i]).map((name) => `${name} of pond ${d.name}`));
   const names: string[] = [];
   const first = firstLevelFixed(p, l) ? 1 : 0;
   for (let i = first; i < l.levels.length; i++) names.push(`level ${i + 1} (${l.levels[i].words})`);
   if (l.riser) names.push("riser rim");
   return names;
+}
+
+/** A system of ponds: the variables of a system layout split by pond (each pond's own, in order). */
+export function pondVariables(p: SearchProblem, l: Layout, vars: readonly number[]): number[][] {
+  let at = 0;
+  return p.system!.ponds.map((d, i) => {
+    const n = variableCount(d.problem, l.ponds![i]);
+    at += n;
+    return vars.slice(at - n, at);
+  });
+}
+
+/** A system of ponds: every pond's outlet in case-file form (a pipe's resized, a fixed pond's as given), in the system's order. */
+export function designFiles(p: SearchProblem, l: Layout, vars: readonly number[]): OutletFile[] {
+  const split = pondVariables(p, l, vars);
+  return p.system!.ponds.map((d, i) => designOutletFile(d.problem, l.ponds![i], split[i]));
+}
+
+/** What identifies a design's outlets: the outlet file, or a system's files of every pond. */
+export function designText(p: SearchProblem, l: Layout, vars: readonly number[]): string {
+  return JSON.stringify(p.system ? designFiles(p, l, vars) : designOutletFile(p, l, vars));
 }
 
 /**
@@ -95,6 +129,11 @@ export function elevations(p: SearchProblem, l: Layout, vars: readonly number[])
  * planner's quick scoring of options (the openings govern at the small storms it scores on).
  */
 export function designOutletFile(p: SearchProblem, l: Layout, vars: readonly number[], plain = false): OutletFile {
+  if (p.system) {
+    // A system: the pond at the outfall's outlet stands for the design (`designFiles` holds them all).
+    const main = p.case.system!.ponds.findIndex((q) => q.to < 0);
+    return designFiles(p, l, vars)[main];
+  }
   const units = p.case.units;
   const z = elevations(p, l, vars);
   const kept = p.keptElements.map((e) => explicit(e, units));

@@ -10,9 +10,9 @@ import type { PartOption, SizeOption } from "../../src/parts/part.js";
 import { bottomOf, otherKinds } from "../../src/parts/registry.js";
 import { riserPerimeter, riserToSI } from "../../src/parts/riser.js";
 import { chordArc } from "../../src/parts/wall.js";
-import { aimBand } from "./problem.js";
+import { aimBand, pondLayoutAsGiven } from "./problem.js";
 import { targetBand } from "../../src/assess/rules/band.js";
-import { caseElevation, designOutlet, designOutletFile, layoutKey, variableCount } from "./layout.js";
+import { caseElevation, designOutlet, designOutletFile, familyOf, layoutKey, variableCount } from "./layout.js";
 import { Evaluator } from "./evaluate.js";
 import { layoutAt, layoutIndex } from "./fitJob.js";
 import { chunked, stagedItem, type ScoreChunk, type ScoreItem, type ScoreOutcome, type ScoreValue, type Scored, type Scoring } from "./scoring.js";
@@ -47,6 +47,8 @@ export interface LayoutPlan {
   viableFirst: number;
   /** The surviving first-level options themselves. */
   firstOptions: PartOption[];
+  /** A system of ponds: each designed pond's own plan (null for a pipe or a fixed pond), in the system's order. */
+  ponds?: (LayoutPlan | null)[];
 }
 
 /**
@@ -147,6 +149,7 @@ const LAYOUT_CHUNK = 4;
  * these first-level options (by key) start a layout (a part of the search widening its own plan).
  */
 export function* planning(p: SearchProblem, beam: number, families?: ReadonlySet<string>, onScored?: (scored: ScoredLayout[]) => void): Scoring<LayoutPlan> {
+  if (p.system) return yield* systemPlanning(p, beam, families, onScored);
   if (p.fixedLayout) {
     const layout = p.fixedLayout;
     const [own] = yield [{ items: [{ kind: "existing", layout: layoutIndex(p, layout) }] }];
@@ -302,6 +305,7 @@ export function extensionPeak(p: SearchProblem, levels: PartOption[], storm: Sto
  * the search beyond the planned and neighbouring layouts; seeded, so runs repeat.
  */
 export function sampleLayouts(p: SearchProblem, plan: LayoutPlan, rng: () => number, count: number, bar: number): Layout[] {
+  if (p.system) return sampleSystems(p, plan, rng, count, bar);
   const out: Layout[] = [];
   const maxLevels = Math.min(p.maxLevels, p.targeted.length);
   if (maxLevels === 0 || plan.firstOptions.length === 0 || p.fixedLayout) return out;
@@ -333,7 +337,7 @@ export function* layoutScores(p: SearchProblem, layouts: Layout[], size: number)
 export function existingScore(p: SearchProblem, layout: Layout, evaluator: Evaluator): { score: number; cost: number } {
   const vars = p.existing && p.existing.vars.length === variableCount(p, layout) ? p.existing.vars : stagedStart(p, layout, evaluator, true);
   const e = evaluator.evaluate(layout, vars);
-  return { score: e.objective, cost: outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
+  return { score: e.objective, cost: p.system ? layoutCost(p, layout) : outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
 }
 
 /**
@@ -341,6 +345,8 @@ export function existingScore(p: SearchProblem, layout: Layout, evaluator: Evalu
  * options that released least at the smallest storm, so the closest candidates can be shown.
  */
 export function closestLayouts(p: SearchProblem, plan: LayoutPlan, count: number): Layout[] {
+  // A system's plan prunes nothing by the first level's bound (its combinations are scored whole).
+  if (p.system) return [];
   const barrel = barrelChoices(p)[0];
   const out: Layout[] = [];
   for (const record of [...plan.pruned].sort((a, b) => a.peak - b.peak)) {
@@ -357,6 +363,8 @@ export function closestLayouts(p: SearchProblem, plan: LayoutPlan, count: number
  * (then it is too large to list, and only sampled).
  */
 export function layoutSpace(p: SearchProblem, plan: LayoutPlan, limit: number): Layout[] | null {
+  // A system's space is the product of its ponds' spaces: sampled, not listed.
+  if (p.system) return null;
   const out: Layout[] = [];
   const maxLevels = Math.min(p.maxLevels, p.targeted.length);
   if (maxLevels === 0 || plan.firstOptions.length === 0) return out;
@@ -384,11 +392,12 @@ export function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluat
   // Staged without the barrel (fast), judged with it.
   const vars = variableCount(p, layout) > 0 ? stagedStart(p, layout, evaluator, true) : [];
   const e = evaluator.evaluate(layout, vars);
-  return { score: e.objective, cost: outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
+  return { score: e.objective, cost: p.system ? layoutCost(p, layout) : outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
 }
 
 /** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
 export function layoutCost(p: SearchProblem, layout: Layout): number {
+  if (p.system) return p.system.ponds.reduce((sum, d, i) => sum + layoutCost(d.problem, layout.ponds![i]), 0);
   const n = variableCount(p, layout);
   const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.levelGapM);
   return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs, p.case.criteria.buildability.levelSpacing);
@@ -437,6 +446,15 @@ function partNeighbours(p: SearchProblem, part: PartOption): PartOption[] {
 export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
   const out: Layout[] = [];
   if (p.fixedLayout) return out;
+  if (p.system) {
+    // A system: one pond's layout one step away (a pipe one size up or down), the others as they are.
+    p.system.ponds.forEach((d, i) => {
+      const own = layout.ponds![i];
+      const near = d.kind === "designed" ? neighbourLayouts(d.problem, own) : d.kind === "pipe" ? pipeSizesNear(d.problem, own) : [];
+      for (const n of near) out.push({ ...layout, ponds: layout.ponds!.map((l, k) => (k === i ? n : l)) });
+    });
+    return out;
+  }
   layout.levels.forEach((part, i) => {
     for (const other of partNeighbours(p, part)) {
       const levels = [...layout.levels];
@@ -462,20 +480,25 @@ export function neighbourLayouts(p: SearchProblem, layout: Layout): Layout[] {
 /** Scores a chunk with a fresh evaluator. */
 export function scoreChunk(p: SearchProblem, chunk: ScoreChunk): ScoreOutcome {
   const evaluator = new Evaluator(p);
-  const values = chunk.items.map((item): ScoreValue => {
-    const none = { score: 0, cost: 0, peak: 0, drawdown: null, pruned: false, bounded: false };
-    switch (item.kind) {
-      case "first":
-        return { ...none, ...firstLevelScore(p, p.parts[item.part], evaluator) };
-      case "extend":
-        return { ...none, peak: extensionPeak(p, item.levels.map((i) => p.parts[i]), p.targeted[item.storm], evaluator) };
-      case "staged":
-        return { ...none, ...stagedScore(p, layoutAt(p, item.layout), evaluator) };
-      case "existing":
-        return { ...none, ...existingScore(p, layoutAt(p, item.layout), evaluator) };
-    }
-  });
+  const values = chunk.items.map((item) => scoreItem(p, item, evaluator));
   return { values, routings: evaluator.routings, evaluations: evaluator.evaluations };
+}
+
+function scoreItem(p: SearchProblem, item: ScoreItem, evaluator: Evaluator): ScoreValue {
+  const none = { score: 0, cost: 0, peak: 0, drawdown: null, pruned: false, bounded: false };
+  switch (item.kind) {
+    case "first":
+      return { ...none, ...firstLevelScore(p, p.parts[item.part], evaluator) };
+    case "extend":
+      return { ...none, peak: extensionPeak(p, item.levels.map((i) => p.parts[i]), p.targeted[item.storm], evaluator) };
+    case "staged":
+      return { ...none, ...stagedScore(p, layoutAt(p, item.layout), evaluator) };
+    case "existing":
+      return { ...none, ...existingScore(p, layoutAt(p, item.layout), evaluator) };
+    case "pond":
+      // A system's pond, on its own view of the case (its routings counted in this chunk's).
+      return scoreItem(p.system!.ponds[item.pond].problem, item.item, evaluator.pond(item.pond));
+  }
 }
 
 /** Answers a scoring generator in this thread. */
@@ -494,3 +517,109 @@ export function scoreHere<T>(p: SearchProblem, scoring: Scoring<T>): Scored<T> {
   return { result: step.value, routings, evaluations };
 }
 
+
+// A system of ponds (`SearchProblem.system`): its plan, random layouts and pipe sizes.
+
+/** Most combinations of the ponds' choices a system's plan scores whole. */
+const SYSTEM_COMBINATIONS = 64;
+/** Most combinations listed before the best are chosen (beyond it the ponds' choices are cut). */
+const COMBINATIONS_LISTED = 5000;
+
+/** A pipe's sizes one step from its size now. */
+function pipeSizesNear(p: SearchProblem, layout: Layout): Layout[] {
+  const at = p.barrelOptions.findIndex((o) => o === layout.barrel);
+  return [p.barrelOptions[at - 1], p.barrelOptions[at + 1]].filter((b) => b !== undefined).map((barrel) => ({ levels: [], riser: null, barrel }));
+}
+
+/** Each pond's choices for the system's plan, best first, with their own scores: a designed pond's planned layouts, a pipe's sizes, a fixed pond's outlet as given. */
+function pondChoices(p: SearchProblem, plans: readonly (LayoutPlan | null)[], beam: number): { layout: Layout; score: number }[][] {
+  return p.system!.ponds.map((d, i) => {
+    if (d.kind === "designed") return plans[i]!.layouts.slice(0, 2 * beam).map((s) => ({ layout: s.layout, score: s.score }));
+    if (d.kind === "pipe") return d.problem.barrelOptions.map((barrel) => ({ layout: { levels: [], riser: null, barrel }, score: 0 }));
+    return [{ layout: pondLayoutAsGiven(d).layout, score: 0 }];
+  });
+}
+
+/** The best combinations of the ponds' choices by the sum of their scores (at most `limit`), in that order. */
+function bestCombinations(choices: { layout: Layout; score: number }[][], limit: number): Layout[][] {
+  // Each pond's list cut to its best few when the product is too long to list.
+  const lists = choices.map((list) => [...list]);
+  const product = () => lists.reduce((n, list) => n * list.length, 1);
+  while (product() > COMBINATIONS_LISTED) {
+    const longest = lists.reduce((a, list, i) => (list.length > lists[a].length ? i : a), 0);
+    lists[longest].pop();
+  }
+  let combos: { layouts: Layout[]; score: number }[] = [{ layouts: [], score: 0 }];
+  for (const list of lists) combos = combos.flatMap((c) => list.map((x) => ({ layouts: [...c.layouts, x.layout], score: c.score + x.score })));
+  return combos
+    .map((c, order) => ({ ...c, order }))
+    .sort((a, b) => a.score - b.score || a.order - b.order)
+    .slice(0, limit)
+    .map((c) => c.layouts);
+}
+
+/** A pond's scoring requests as the system's: each item wrapped with the pond's place, the outcomes handed back. */
+function* forPond<T>(index: number, scoring: Scoring<T>): Scoring<T> {
+  let step = scoring.next([]);
+  while (!step.done) {
+    const outcomes: ScoreOutcome[] = yield step.value.map((chunk) => ({ items: chunk.items.map((item): ScoreItem => ({ kind: "pond", pond: index, item })) }));
+    step = scoring.next(outcomes);
+  }
+  return step.value;
+}
+
+/**
+ * A system's plan: each designed pond's own plan on its view of the case (the storms reaching it, its
+ * share of the target), then the best combinations of the ponds' choices (a pipe's every size) scored
+ * whole: the system routed together at each pond's staged start, every check of the system.
+ * Value engineering adds the system as given and the layouts one step from it.
+ */
+function* systemPlanning(p: SearchProblem, beam: number, families?: ReadonlySet<string>, onScored?: (scored: ScoredLayout[]) => void): Scoring<LayoutPlan> {
+  const ponds = p.system!.ponds;
+  const results = new Map<string, ScoredLayout>();
+  function* scoreLayouts(layouts: Layout[], kind: "staged" | "existing"): Generator<ScoreChunk[], void, ScoreOutcome[]> {
+    const fresh = layouts.filter((l, i) => !results.has(layoutKey(l)) && layouts.findIndex((m) => layoutKey(m) === layoutKey(l)) === i && (!families || families.has(familyOf(l))));
+    if (fresh.length === 0) return;
+    const items = fresh.map((l): ScoreItem => (kind === "existing" ? { kind: "existing", layout: layoutIndex(p, l) } : stagedItem(p, l)));
+    const outcomes = yield chunked(items, LAYOUT_CHUNK);
+    const values = outcomes.flatMap((o) => o.values);
+    fresh.forEach((layout, i) => results.set(layoutKey(layout), { layout, score: values[i].score, cost: values[i].cost }));
+    onScored?.(fresh.map((layout) => results.get(layoutKey(layout))!));
+  }
+  const plans: (LayoutPlan | null)[] = [];
+  if (!p.fixedLayout) {
+    for (const [i, d] of ponds.entries()) plans.push(d.kind === "designed" ? yield* forPond(i, planning(d.problem, beam)) : null);
+    const combos = bestCombinations(pondChoices(p, plans, beam), SYSTEM_COMBINATIONS);
+    yield* scoreLayouts(
+      combos.map((layouts) => ({ levels: [], riser: null, barrel: null, ponds: layouts })),
+      "staged",
+    );
+  }
+  if (p.existing) {
+    yield* scoreLayouts([p.existing.layout], "existing");
+    if (!p.fixedLayout) yield* scoreLayouts(neighbourLayouts(p, p.existing.layout), "staged");
+  }
+  const layouts = [...results.values()].sort((a, b) => a.score - b.score);
+  return { layouts, pruned: [], bounded: [], viableFirst: layouts.length, firstOptions: [], ponds: plans };
+}
+
+/** Random system layouts: each pond's own random layout (a pipe's size at random), kept when they cost less than `bar`. */
+function sampleSystems(p: SearchProblem, plan: LayoutPlan, rng: () => number, count: number, bar: number): Layout[] {
+  const ponds = p.system!.ponds;
+  if (p.fixedLayout || !plan.ponds) return [];
+  const out: Layout[] = [];
+  for (let k = 0; k < count; k++) {
+    const layouts: Layout[] = [];
+    for (const [i, d] of ponds.entries()) {
+      if (d.kind === "designed") {
+        const own = plan.ponds[i] ? sampleLayouts(d.problem, plan.ponds[i]!, rng, 1, Infinity)[0] : undefined;
+        if (own) layouts.push(own);
+      } else if (d.kind === "pipe") layouts.push({ levels: [], riser: null, barrel: d.problem.barrelOptions[Math.floor(rng() * d.problem.barrelOptions.length)] });
+      else layouts.push(pondLayoutAsGiven(d).layout);
+    }
+    if (layouts.length !== ponds.length) continue;
+    const layout: Layout = { levels: [], riser: null, barrel: null, ponds: layouts };
+    if (layoutCost(p, layout) < bar) out.push(layout);
+  }
+  return out;
+}

@@ -6,6 +6,7 @@
 import { createHash } from "node:crypto";
 import type { Layout, SearchProblem } from "./problem.js";
 import type { LayoutPlan } from "./layouts.js";
+import { familyOf } from "./layout.js";
 
 /** The most parts a search is divided into (and so the most shards that each get work). */
 export const MAX_PARTS = 16;
@@ -19,11 +20,6 @@ export interface Partition {
   families: string[][];
   /** The part that owns a layout. */
   partOf(layout: Layout): number;
-}
-
-/** A layout's family: the part at its first level ("" for a layout without levels). */
-export function familyOf(layout: Layout): string {
-  return layout.levels[0]?.key ?? "";
 }
 
 /** Parts wanted for a budget of routings (null: a time budget, which takes the most). */

@@ -18,6 +18,7 @@ import { catalogueOptions, elementToSI, explicit, fileBottom, inCatalogueForm, p
 import { riserSize } from "../../src/parts/riser.js";
 import { levelCount } from "../../src/assess/rules/levelSpacing.js";
 import { barrelSize } from "../../src/parts/barrel.js";
+import { pondDesignView } from "./pondViews.js";
 
 /** The discrete part of a design (which parts, counts, sizes); its elevations are the fit's variables (layout.ts). */
 export interface Layout {
@@ -27,6 +28,29 @@ export interface Layout {
   riser: SizeOption | null;
   /** Size of the site barrel (null: a kept barrel or none). */
   barrel: SizeOption | null;
+  /**
+   * A system of ponds: each pond's layout, in the system's order (`SearchProblem.system`); the fields
+   * above are then empty. Its variables are the ponds' variables one pond after the other.
+   */
+  ponds?: Layout[];
+}
+
+/**
+ * What the search designs in one pond of a system: "designed", the single pond's search on the
+ * pond's view of the case (parts from the catalogue, its kept parts, its barrel and spillway as site
+ * data); "pipe", an outlet that is a barrel alone (an equaliser pipe), whose size is drawn from the
+ * catalogue's barrels; "fixed", nothing (a kept pipe, or the limits leave it as it is).
+ */
+export interface SystemPondDesign {
+  name: string;
+  kind: "designed" | "pipe" | "fixed";
+  /** The pond's own problem, built from its view (pondViews.ts). */
+  problem: SearchProblem;
+}
+
+/** A system of ponds designed together: its ponds, in the system's order. */
+export interface SystemDesign {
+  ponds: SystemPondDesign[];
 }
 
 export interface SearchOptions {
@@ -111,6 +135,14 @@ export interface SearchProblem {
   /** With `limits.vary` "elevations": the one layout the search fits. */
   fixedLayout: Layout | null;
   limits: DesignLimits;
+  /**
+   * A system of ponds: the ponds' problems; the search's layouts then hold every pond's layout
+   * (`Layout.ponds`) and every design is routed and judged as the system, together. The fields of
+   * the problem describing one pond are the pond at the outfall's (as `Case.pond` stands for it).
+   */
+  system?: SystemDesign;
+  /** A pond written as a `ponds` list of one: its name (designed as the single pond it is, written back as a list of one). */
+  listedPond?: string;
   grid: StageGrid;
   /**
    * The inflow each storm is routed on in the search (a long fine record thinned, volume kept: see
@@ -123,6 +155,13 @@ export interface SearchProblem {
 }
 
 export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOptions> = {}, limits: DesignLimits = DEFAULT_LIMITS): SearchProblem {
+  if (c.system && c.system.ponds.length > 1) return buildSystemProblem(c, file, options, limits);
+  if (c.system) {
+    // A `ponds` list of one is the single pond: designed exactly as it, on the pond and outlet it names.
+    const { system, ...single } = c;
+    const { ponds, ...rest } = file;
+    return { ...buildProblem(single, { ...rest, pond: ponds![0].pond, outlet: ponds![0].outlet }, options, limits), listedPond: system.ponds[0].name };
+  }
   const label = c.file ? c.file.split(/[\\/]/).pop()! : "case";
   if (!c.catalogue || !file.catalogue) {
     throw new CaseError([{ where: `${label}: catalogue`, found: "nothing (the field is missing)", expected: "a catalogue of parts the search may use (orifice, weir, riser, barrel sizes)" }]);
@@ -217,6 +256,92 @@ export function buildProblem(c: Case, file: CaseFile, options: Partial<SearchOpt
     }
   }
   return problem;
+}
+
+/** Whether a pond's outlet file is a barrel alone (an equaliser pipe between two ponds). */
+export function isPipe(outlet: OutletFile): boolean {
+  return outlet.barrel !== undefined && (outlet.elements?.length ?? 0) === 0 && outlet.riser === undefined;
+}
+
+/**
+ * A system of ponds: each pond's problem on its view of the case (pondViews.ts), what the search
+ * designs in it, and the problem of the whole (the pond at the outfall's fields standing for one pond).
+ */
+function buildSystemProblem(c: Case, file: CaseFile, options: Partial<SearchOptions>, limits: DesignLimits): SearchProblem {
+  const system = c.system!;
+  const label = c.file ? c.file.split(/[\\/]/).pop()! : "case";
+  if (!c.catalogue || !file.catalogue) {
+    throw new CaseError([{ where: `${label}: catalogue`, found: "nothing (the field is missing)", expected: "a catalogue of parts the search may use for the ponds' outlets (orifice, weir, riser, barrel sizes)" }]);
+  }
+  const ponds = system.ponds.map((p, i): SystemPondDesign => {
+    const view = pondDesignView(c, file, i);
+    const outlet = view.file.outlet!;
+    const pipe = isPipe(outlet);
+    const kind = pipe ? (outlet.barrel!.keep || limits.vary !== "all" || limits.keepBarrel || !file.catalogue!.barrel?.diameters.length ? "fixed" : "pipe") : "designed";
+    let problem: SearchProblem;
+    try {
+      problem = buildProblem(view.case, view.file, options, kind === "designed" ? limits : DEFAULT_LIMITS);
+    } catch (error) {
+      // The pond's own problems, under its path in the case file.
+      if (error instanceof CaseError) throw new CaseError(error.problems.map((q) => ({ ...q, where: q.where.replace(/: (outlet|pond|storms)/, `: ponds[${i}].$1`) })));
+      throw error;
+    }
+    if (kind === "pipe") {
+      // The pipe as given is one of its sizes, whether or not the catalogue lists it.
+      const own = barrelSize(outlet.barrel!, (value) => problem.converter.length(value, "outlet.barrel.diameter"));
+      if (own && !problem.barrelOptions.some((o) => Math.abs(o.sizeM - own.sizeM) < 1e-9)) problem.barrelOptions = [...problem.barrelOptions, own].sort((a, b) => a.sizeM - b.sizeM);
+    }
+    return { name: p.name, kind, problem };
+  });
+  const main = system.ponds.findIndex((p) => p.to < 0);
+  const carrier = ponds[main].problem;
+  const problem: SearchProblem = {
+    ...carrier,
+    case: c,
+    file,
+    targeted: c.storms.filter((s) => s.target !== null).sort((a, b) => a.returnPeriod - b.returnPeriod),
+    existing: null,
+    fixedLayout: null,
+    limits,
+    system: { ponds },
+  };
+  if (problem.targeted.length === 0) {
+    throw new CaseError([{ where: `${label}: storms`, found: "no storm with a target", expected: "at least one storm with a target at the outfall for the search to aim at" }]);
+  }
+  if (ponds.every((d) => d.kind === "fixed" || (d.problem.fixedLayout === null && d.problem.parts.length === 0 && d.problem.riserOptions.length === 0 && d.problem.barrelOptions.length === 0))) {
+    throw new CaseError([{ where: `${label}: ponds`, found: "nothing the search may change in any pond's outlet", expected: "at least one pond's outlet the catalogue can design (openings, a riser, a barrel or a pipe size not kept)" }]);
+  }
+  problem.existing = systemExisting(problem);
+  if (limits.vary === "elevations" && problem.existing) problem.fixedLayout = problem.existing.layout;
+  return problem;
+}
+
+/** A pond's layout as the case gives it: its existing layout, or (a pipe) its size, or nothing designed. */
+export function pondLayoutAsGiven(d: SystemPondDesign): { layout: Layout; vars: number[] } {
+  const p = d.problem;
+  if (d.kind === "designed" && p.existing) return { layout: p.existing.layout, vars: p.existing.vars };
+  const own = p.file.outlet?.barrel ? barrelSize(p.file.outlet.barrel, (value) => p.converter.length(value, "outlet.barrel.diameter")) : null;
+  const barrel = d.kind === "pipe" && own ? (p.barrelOptions.find((o) => Math.abs(o.sizeM - own.sizeM) < 1e-9) ?? null) : null;
+  return { layout: { levels: [], riser: null, barrel }, vars: [] };
+}
+
+/**
+ * The existing system (value engineering), when a pond's outlet is a design of its own (openings or
+ * a riser) or a pipe: every pond's layout as given; the outlet standing for it is the pond at the
+ * outfall's.
+ */
+function systemExisting(p: SearchProblem): ExistingOutlet | null {
+  const ponds = p.system!.ponds;
+  if (!ponds.some((d) => (d.kind === "designed" && d.problem.existing) || d.kind === "pipe")) return null;
+  const given = ponds.map(pondLayoutAsGiven);
+  const main = p.case.system!.ponds.findIndex((q) => q.to < 0);
+  const at = ponds[main].problem;
+  return {
+    file: at.existing?.file ?? at.file.outlet ?? {},
+    outlet: p.case.system!.ponds[main].outlet,
+    layout: { levels: [], riser: null, barrel: null, ponds: given.map((g) => g.layout) },
+    vars: given.flatMap((g) => g.vars),
+  };
 }
 
 /**

@@ -16,7 +16,7 @@ import { planning, type LayoutPlan, type ScoredLayout } from "./layouts.js";
 import { fitAndRoute, type FitOutcome } from "./fitJob.js";
 import { layoutKey } from "./layout.js";
 import { journalable, screenKey, scoreWith, type ChunkScorer, type ScoreOutcome, type Scored, type Scoring } from "./scoring.js";
-import { compareCandidates, compareVerdicts, designSpread, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
+import { compareCandidates, compareVerdicts, routedSpread, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { designOutletFile } from "./layout.js";
 import { explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
@@ -80,7 +80,9 @@ export interface SearchRun {
 export function markVariants(ranked: Candidate[]): void {
   const first = new Map<string, number>();
   ranked.forEach((c, i) => {
-    const signature = c.layout.levels.map((part) => part.key).join(" | ");
+    // A system's openings: each pond's, pond by pond.
+    const openings = (layout: typeof c.layout) => layout.levels.map((part) => part.key).join(" | ");
+    const signature = c.layout.ponds ? c.layout.ponds.map(openings).join(" || ") : openings(c.layout);
     const at = first.get(signature);
     c.variantOf = at === undefined ? null : at + 1;
     if (at === undefined) first.set(signature, i);
@@ -217,7 +219,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   markVariants(ranked);
   const shown = ranked.slice(0, options.top);
   // Every design shown says how it fares under the spread (ranked by robustness, each has it already).
-  for (const c of shown) c.spread ??= designSpread(p, c.outlet);
+  for (const c of shown) c.spread ??= routedSpread(p, c);
   const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
   shown.forEach((c, i) => (c.explanation = explanations[i]));
   const success = ranked.some((c) => c.assessment.compliant);

@@ -15,7 +15,9 @@ export type ScoreItem =
   /** A whole layout at its staged start, every check (the fit's objective) and its cost. */
   | { kind: "staged"; layout: LayoutIndex }
   /** The existing outlet's layout at its own elevations. */
-  | { kind: "existing"; layout: LayoutIndex };
+  | { kind: "existing"; layout: LayoutIndex }
+  /** A system of ponds: an item of pond `pond`'s own plan, scored on its view of the case. */
+  | { kind: "pond"; pond: number; item: ScoreItem };
 
 export interface ScoreValue {
   /** The fit's objective at the start (staged, existing), or the level's distance score (first). */

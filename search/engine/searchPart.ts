@@ -16,7 +16,7 @@ import { closestLayouts, layoutCost, layoutScores, layoutSpace, neighbourLayouts
 import type { Scored, Scoring } from "./scoring.js";
 import seedrandom from "seedrandom";
 import { createHash } from "node:crypto";
-import { designOutletFile, layoutKey } from "./layout.js";
+import { designOutletFile, designText, layoutKey } from "./layout.js";
 import { candidateFrom, compareVerdicts, finalizeCandidate, unpackRoute, verdictOf, type Candidate, type PackedRoute, type Verdict } from "./candidate.js";
 import type { FitJobRequest, LayoutFitter } from "./fitter.js";
 import type { Partition } from "./partition.js";
@@ -227,7 +227,8 @@ export class SearchPart {
 
   private designKey(layout: Layout, vars: number[]): { file: OutletFile; key: string } {
     const file = designOutletFile(this.ctx.p, layout, vars);
-    return { file, key: createHash("sha1").update(JSON.stringify(file)).digest("base64") };
+    // A system's design is every pond's outlet.
+    return { file, key: createHash("sha1").update(designText(this.ctx.p, layout, vars)).digest("base64") };
   }
 
   /**

@@ -13,6 +13,8 @@ import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, t
 import { storageSummary } from "../../src/report/storageNotes.js";
 import { CAUTION } from "../../src/report/caution.js";
 import { formatter } from "../../src/format.js";
+import { pondJson } from "../../src/report/systemReport.js";
+import type { OutletFile } from "../../src/case/schema.js";
 import { baselineVerdict, describeSaving, saving, type Baseline } from "../engine/baseline.js";
 import { CHANGE_WEIGHTS } from "../engine/changes.js";
 import { spreadJson, spreadLine } from "../../src/report/spread.js";
@@ -28,13 +30,28 @@ export function candidateCaseName(rank: number): string {
   return `candidate-${String(rank).padStart(2, "0")}.json`;
 }
 
+/**
+ * Every pond's outlet of a system (the contract's `ponds` of a design: name and outlet, ready to paste
+ * back into the case), or a pond written as a `ponds` list of one with its outlet.
+ */
+function pondsJson(p: SearchProblem, c: RoutedOutlet): { ponds: { name: string; outlet: OutletFile }[] } | Record<string, never> {
+  if (c.system) return { ponds: p.case.system!.ponds.map((q, i) => ({ name: q.name, outlet: c.system!.files[i] })) };
+  if (p.listedPond !== undefined) return { ponds: [{ name: p.listedPond, outlet: c.file }] };
+  return {};
+}
+
 /** An outlet routed and explained (a candidate or the existing outlet) in the contract's JSON. */
 function routedJson(p: SearchProblem, c: RoutedOutlet, explanation: string[]) {
   const binding = c.assessment.binding;
   return {
     description: c.description,
-    outlet: c.file,
-    storms: c.routing.storms.map((s) => stormJson(p.case, s)),
+    // A system's outlets are its ponds' (`ponds`); the storms' results are the flow reaching the outfall's, and each pond's.
+    ...(c.system ? {} : { outlet: c.file }),
+    ...pondsJson(p, c),
+    storms: c.routing.storms.map((s, k) => ({
+      ...stormJson(p.case, s),
+      ...(c.system ? { ponds: c.system.routing.storms[k].result.ponds.map((r, i) => pondJson(p.case, r, s.storm.pondTargets?.[i] ?? null)) } : {}),
+    })),
     checks: c.assessment.checks.map((check) => checkJson(p.case, check)),
     warnings: c.assessment.warnings,
     compliant: c.assessment.compliant,
@@ -115,7 +132,11 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
 /** The input case with the candidate's outlet, its inflow files and "$schema" pointing back at the originals. */
 export function candidateCase(p: SearchProblem, json: unknown, c: Candidate, outDir: string): unknown {
   const copy = JSON.parse(JSON.stringify(json)) as Record<string, unknown>;
-  copy.outlet = c.file;
+  const ponds = copy.ponds as { outlet: unknown }[] | undefined;
+  // A system's (or a pond listed alone): each pond's outlet in its place in `ponds`.
+  if (c.system) c.system.files.forEach((file, i) => (ponds![i].outlet = file));
+  else if (p.listedPond !== undefined) ponds![0].outlet = c.file;
+  else copy.outlet = c.file;
   rebaseCase(copy, p.case.file ? dirname(p.case.file) : process.cwd(), outDir);
   return copy;
 }
@@ -144,9 +165,21 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     { head: "Binding check", narrow: "detail" },
     { head: "Status", wrap: STATUS_WIDTH },
   ];
+  /** The freeboard storm's stage and the freeboard left: a system's pond with the least left (named). */
+  const freeboardOf = (c: RoutedOutlet): [string, string] => {
+    if (c.system) {
+      const k = c.system.routing.storms.findIndex((s) => s.storm.name === freeboardStorm);
+      if (k < 0) return ["-", "-"];
+      const ponds = c.system.routing.system.ponds;
+      const results = c.system.routing.storms[k].result.ponds;
+      const least = results.reduce((a, r, i) => (ponds[i].pond.top - r.maxStage < ponds[a].pond.top - results[a].maxStage ? i : a), 0);
+      return [`${f.raw.length(results[least].maxStage).toFixed(p.case.units === "US" ? 2 : 3)}`, `${f.raw.length(ponds[least].pond.top - results[least].maxStage).toFixed(2)} (${ponds[least].name})`];
+    }
+    const fb = c.routing.storms.find((s) => s.storm.name === freeboardStorm);
+    return fb ? [f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3), f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2)] : ["-", "-"];
+  };
   const row = (c: RoutedOutlet, label: string, pareto: boolean, variantOf: number | null): Row => {
     const storms = new Map(c.routing.storms.map((s) => [s.storm.name, s]));
-    const fb = storms.get(freeboardStorm);
     const status = complianceWords(c.assessment) + (variantOf !== null ? `, variant of #${variantOf}` : "");
     return [
       label,
@@ -155,8 +188,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
         const s = storms.get(n)!;
         return (100 * s.result.peakAtPoint / s.storm.target!).toFixed(1);
       }),
-      fb ? f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3) : "-",
-      fb ? f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2) : "-",
+      ...freeboardOf(c),
       `${c.cost.toFixed(1)}${pareto ? " *" : ""}`,
       ...(baseline ? [label === "0" ? "-" : savingCell(saving(baseline, c))] : []),
       c.assessment.binding ? `${c.assessment.binding.name}, slack ${slackText(p.case.units, c.assessment.binding)}` : "-",
@@ -173,7 +205,12 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   }
   if (shown.length === 0) lines.push(w("No candidate kept every geometric rule; nothing to show."));
   if (baseline) {
-    lines.push(w("Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.", 2), "", w(`Existing outlet: ${baseline.description}`));
+    const system = baseline.system !== undefined;
+    lines.push(
+      w(system ? "Row 0 is the existing system (every pond's outlet as the case gives it), routed together and assessed as given; Saving is its cost less the alternative's." : "Row 0 is the existing outlet (the case's outlet), routed and assessed as given; Saving is its cost less the alternative's.", 2),
+      "",
+      w(`${system ? "Existing system" : "Existing outlet"}: ${baseline.description}`),
+    );
     for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
     for (const warning of baseline.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
     for (const line of baseline.explanation) lines.push(w(`  ${line}`));
@@ -186,13 +223,14 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   shown.forEach((c, i) => {
     lines.push("", w(`Candidate ${i + 1}: ${c.description}${c.variantOf !== null ? ` (a variant of candidate ${c.variantOf}: the same openings)` : ""}`));
     if (baseline && c.changes) {
-      lines.push(w(`  against the existing outlet: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`));
-      if (c.changes.changes.length === 0) lines.push(w("  change: none (the existing outlet itself)"));
+      const existing = c.system ? "system" : "outlet";
+      lines.push(w(`  against the existing ${existing}: ${describeSaving(saving(baseline, c))}; change measure ${c.changes.score.toFixed(2)}`));
+      if (c.changes.changes.length === 0) lines.push(w(`  change: none (the existing ${existing} itself)`));
       for (const change of c.changes.changes) lines.push(w(`  change: ${change.text}`));
     }
     for (const check of c.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
     for (const warning of c.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
-    for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
+    if (!c.system) for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
     for (const line of c.explanation) lines.push(w(`  ${line}`));
     if (c.spread) lines.push(w(`  ${spreadLine(p.case, c.spread)}`));
     for (const line of wallLines(p.case, c.outlet, outletWall(c.assessment))) lines.push(w(`  ${line}`, 6));

@@ -14,6 +14,7 @@
 // when it is larger), and the tailwater 0.5 ft (0.15 m in SI cases) higher where the case has one.
 import type { Case, Hydrograph, Outlet, Storm, Tailwater } from "../model.js";
 import { routeCase, routeTable } from "../routing/routeCase.js";
+import { routeSystemCase, type SystemRouting } from "../routing/routeSystem.js";
 import { buildRatingTable } from "../routing/ratingTable.js";
 import { cloggedOutlet } from "./rules/clogging.js";
 import { limitLevel, type LimitReason } from "../storage/limitLevel.js";
@@ -36,7 +37,7 @@ export interface Departure {
 export interface DepartureReserve extends Departure {
   /** Least reserve (m) over the storms under this departure: limit level minus highest stage. */
   reserve: number;
-  /** The storm where it is least. */
+  /** The storm where it is least (a system's: the storm and the pond, "100-yr, pond upper"). */
   storm: string;
   /** What sets that storm's limit level. */
   by: LimitReason;
@@ -122,3 +123,40 @@ export function spreadOf(c: Case, outlet: Outlet, options: { direct?: boolean } 
   const worst = out.reduce((a, b) => (b.reserve < a.reserve ? b : a));
   return { reserve: worst.reserve, worst, departures: out, routings };
 }
+
+/**
+ * A system of ponds routed together under every departure of the spread (every pond's inflow and the
+ * bypass scaled, every pond's openings clogged, the tailwater at the outfall higher), and the least
+ * reserve under each over the storms and the ponds, each pond against its own limit level.
+ */
+export function systemSpreadOf(c: Case, outlets: readonly Outlet[]): Spread {
+  const system = c.system!;
+  const departures = spreadDepartures(c);
+  const clogging = Math.max(SPREAD_CLOGGING, c.criteria.clogging?.fraction ?? 0);
+  const out: DepartureReserve[] = [];
+  let routings = 0;
+  for (const d of departures) {
+    let routed: SystemRouting;
+    if (d.key.startsWith("inflow")) {
+      const factor = SPREAD_INFLOW[departures.indexOf(d)];
+      routed = routeSystemCase({ ...c, storms: c.storms.map((s) => ({ ...scaledStorm(s, factor), inflows: s.inflows?.map((h) => (h ? scaled(h, factor) : null)) })) }, outlets);
+    } else if (d.key === "clogged") {
+      routed = routeSystemCase(c, outlets.map((o) => cloggedOutlet(o, clogging)));
+    } else {
+      routed = routeSystemCase({ ...c, tailwater: raisedTailwater(c.tailwater, spreadTailwaterRise(c))! }, outlets);
+    }
+    routings += routed.storms.length * outlets.length;
+    let worst: DepartureReserve | null = null;
+    for (const { storm, result } of routed.storms) {
+      system.ponds.forEach((p, i) => {
+        const limit = limitLevel(p.pond, c.criteria, outlets[i].spillway, storm.returnPeriod);
+        const reserve = limit.level - result.ponds[i].maxStage;
+        if (worst === null || reserve < worst.reserve) worst = { ...d, reserve, storm: `${storm.name}, pond ${p.name}`, by: limit.by };
+      });
+    }
+    out.push(worst ?? { ...d, reserve: Infinity, storm: "", by: "freeboard level" });
+  }
+  const worst = out.reduce((a, b) => (b.reserve < a.reserve ? b : a));
+  return { reserve: worst.reserve, worst, departures: out, routings };
+}
+

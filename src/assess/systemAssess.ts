@@ -27,17 +27,21 @@ const NO_INFLOW: Hydrograph = { times: Float64Array.from([0, 60]), flows: new Fl
 
 /** A storm as one pond sees it: its own inflow, its own target (if the case gives one), no outfall rules. */
 export function pondStorm(storm: Storm, index: number): Storm {
-  const target = storm.pondTargets?.[index] ?? null;
-  const limit = target === null ? null : { form: "target" as const, flow: target, statement: "pond target", label: null };
+  return stormOfPond(storm, storm.inflows?.[index] ?? NO_INFLOW, storm.pondTargets?.[index] ?? null, "pond target", null);
+}
+
+/** A storm of one pond: its name and return period, the inflow, a plain target (or none) stated so, a bypass. */
+export function stormOfPond(storm: Storm, inflow: Hydrograph, target: number | null, statement: string, bypass: Hydrograph | null): Storm {
+  const limit = target === null ? null : { form: "target" as const, flow: target, statement, label: null };
   return {
     name: storm.name,
     returnPeriod: storm.returnPeriod,
     target,
     releaseLimits: limit ? [limit] : [],
     governingLimit: limit,
-    inflow: storm.inflows?.[index] ?? NO_INFLOW,
+    inflow,
     ceiling: null,
-    bypass: null,
+    bypass,
     points: [],
   };
 }
@@ -102,8 +106,14 @@ function named(check: Check, name: string): Check {
   return { ...check, key: `${check.key}@${name}`, name: `${name}: ${check.name}`, pond: name };
 }
 
-/** Every check, warning and the compliance of a routed system. */
-export function assessSystem(c: Case, routing: SystemRouting): Assessment {
+/** Routes the system with the given outlets (the checks' variants): by default through the `route` path. */
+export type SystemRouter = (outlets: readonly Outlet[]) => SystemRouting;
+
+/**
+ * Every check of a routed system: at the outfall and per pond (see the file's head). `route` routes
+ * the variants the rules ask for (the search passes its own, on its grids and remembered).
+ */
+export function systemChecks(c: Case, routing: SystemRouting, route: SystemRouter = (outlets) => routeSystemCase(c, outlets)): Check[] {
   const system = routing.system;
   const checks: Check[] = [];
   // At the outfall: the flow rules on the ponds' flows reaching it together; clogged, every pond clogged.
@@ -111,18 +121,28 @@ export function assessSystem(c: Case, routing: SystemRouting): Assessment {
   const clog = c.criteria.clogging;
   let clogged: StormRouting[] | null = null;
   const cloggedRouter = () => {
-    if (clogged === null) clogged = outfallRoutings(routeSystemCase(c, routing.outlets.map((o) => cloggedOutlet(o, clog!.fraction))));
+    if (clogged === null) clogged = outfallRoutings(route(routing.outlets.map((o) => cloggedOutlet(o, clog!.fraction))));
     return clogged;
   };
   for (const check of evaluateChecks(c, routing.outlets[main], outfallRoutings(routing), cloggedRouter, false, OUTFALL_RULES)) checks.push(named(check, "outfall"));
   // Each pond: every rule on its own routing; a variant of its outlet routes the system again.
+  system.ponds.forEach((p, i) => {
+    const view = pondCase(c, system, i);
+    const router = (outlet: Outlet) => pondRoutings(route(routing.outlets.map((o, k) => (k === i ? outlet : o))), i);
+    for (const check of evaluateChecks(view, routing.outlets[i], pondRoutings(routing, i), router)) checks.push(named(check, p.name));
+  });
+  return checks;
+}
+
+/** Every check, warning and the compliance of a routed system. */
+export function assessSystem(c: Case, routing: SystemRouting): Assessment {
+  const system = routing.system;
+  const checks = systemChecks(c, routing);
   const warnings: Warning[] = [];
   const walls: OutletWall[] = [];
   system.ponds.forEach((p, i) => {
     const view = pondCase(c, system, i);
     walls.push({ pond: p.name, outlet: routing.outlets[i], plan: casePlan(view, routing.outlets[i], pondRoutings(routing, i)) });
-    const router = (outlet: Outlet) => pondRoutings(routeSystemCase(c, routing.outlets.map((o, k) => (k === i ? outlet : o))), i);
-    for (const check of evaluateChecks(view, routing.outlets[i], pondRoutings(routing, i), router)) checks.push(named(check, p.name));
     const single = pondCaseRouting(routing, i);
     for (const w of [...outletWarnings(view, single.outlet, single), ...implausibleInputWarnings(view, single.outlet, single)]) warnings.push(rooted(w, p.name, i));
   });

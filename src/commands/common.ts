@@ -33,9 +33,8 @@ export function load(path: string, quiet = false): LoadedCase {
 }
 
 /**
- * Commands that work on one pond only (design, its pond sizing, gather) refuse a system of ponds (a
- * case with `ponds`) with a user error, exit 2: a system is routed and checked (route, rate, report,
- * hydrograph, volume) and will be designed in a later version.
+ * Commands that size one pond (design --size-pond) refuse a system of ponds (a case with `ponds`) with
+ * a user error, exit 2: a system's outlets are designed together by design, its ponds as given.
  */
 export function refuseSystem(loaded: LoadedCase, path: string, command: string): void {
   const system = loaded.case.system;
@@ -45,7 +44,7 @@ export function refuseSystem(loaded: LoadedCase, path: string, command: string):
     {
       where: `${basename(path)}: ponds`,
       found: `a system of ${system.ponds.length} pond${system.ponds.length > 1 ? "s" : ""}`,
-      expected: `a case with one pond (pond and outlet): ${command} designs one pond's outlet; a system of ponds is routed and checked (outfit route, rate, report, hydrograph, volume) and will be designed in a later version${single}`,
+      expected: `a case with one pond (pond and outlet): ${command} sizes one pond with its outlet; the outlets of a system of ponds are designed together by outfit design (without --size-pond), its ponds' sizes kept${single}`,
     },
   ]);
 }

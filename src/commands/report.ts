@@ -9,9 +9,9 @@ import { assess } from "../assess/assess.js";
 import { printErr, writeFileAtomic } from "../io.js";
 import { caseReport } from "../report/review/caseReport.js";
 import { systemCaseReport } from "../report/review/systemReport.js";
-import { routeSystemCase } from "../routing/routeSystem.js";
-import { assessSystem } from "../assess/systemAssess.js";
-import { designReport, type RoutedCandidate } from "../report/review/designReport.js";
+import { routeSystemCase, type SystemRouting } from "../routing/routeSystem.js";
+import { assessSystem, outfallRoutings } from "../assess/systemAssess.js";
+import { designReport, systemDesignReport, type RoutedCandidate } from "../report/review/designReport.js";
 import { isDirectory, loadDesignRun } from "../report/review/designRun.js";
 import type { ReportDocument } from "../report/review/model.js";
 import { renderHtml } from "../report/html/render.js";
@@ -66,16 +66,29 @@ export function reportCommand(input: string, options: ReportCommandOptions): num
   if (directory) {
     const run = loadDesignRun(input);
     for (const notice of run.notices) printErr(`outfit: note: ${notice}\n`);
+    const systems = new Map<RoutedCandidate, SystemRouting>();
     const routed: RoutedCandidate[] = run.candidates
       .map((candidate) => {
         const c = candidate.case;
+        if (c.system && c.system.ponds.length > 1) {
+          // A system's candidate: its ponds routed together; the flow reaching the outfall stands for its routing.
+          const system = routeSystemCase(c, undefined, routeOptions);
+          const main = system.ponds.findIndex((p) => p.to < 0);
+          const r: RoutedCandidate = { candidate, outlet: system.outlets[main], routing: { outlet: system.outlets[main], table: system.tables[main]!, storms: outfallRoutings(system) }, assessment: assessSystem(c, system) };
+          systems.set(r, system);
+          return r;
+        }
         const routing = routeCase(c, c.outlet!, routeOptions);
         return { candidate, outlet: c.outlet!, routing, assessment: assess(c, routing) };
       })
       .sort((a, b) => a.candidate.reported.rank - b.candidate.reported.rank);
     const best = loadCase(routed[0].candidate.file);
     const files = [join(input, "results.json"), ...run.candidates.flatMap((k) => inputFilesOf(loadCase(k.file)))];
-    doc = designReport(run, routed, settings(best, files));
+    const system = systems.get(routed[0]);
+    if (system) {
+      const inputs = settings(best, files);
+      doc = systemDesignReport(run, routed, systemCaseReport(best.case, system, routed[0].assessment, routed[0].candidate.file, inputs), inputs);
+    } else doc = designReport(run, routed, settings(best, files));
   } else {
     const loaded = load(input);
     const c = loaded.case;

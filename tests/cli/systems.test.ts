@@ -123,11 +123,11 @@ describe("route on a system of ponds with a bypass", () => {
 });
 
 describe("the other commands on a system of ponds", () => {
-  it("design says that systems are routed and checked but designed in a later version (exit 2, no stack)", () => {
-    const r = outfit("design", CASE);
+  it("design --size-pond says it sizes one pond (exit 2, no stack); design itself designs the system (tests/search/systemDesign.test.ts)", () => {
+    const r = outfit("design", CASE, "--size-pond");
     expect(r.status).toBe(2);
     expect(r.stderr).toContain("ponds: found a system of 2 ponds");
-    expect(r.stderr).toContain("will be designed in a later version");
+    expect(r.stderr).toContain("designed together by outfit design (without --size-pond)");
     expect(looksLikeStackTrace(r.stderr)).toBe(false);
   });
 

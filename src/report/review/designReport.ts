@@ -130,22 +130,26 @@ function explanationBlocks(c: Case, r: RoutedCandidate): Block[] {
   return blocks;
 }
 
-export function designReport(run: DesignRun, routed: readonly RoutedCandidate[], inputs: ReportInputs): ReportDocument {
-  const figures = new FigureCounter();
-  const best = routed[0];
-  const c = best.candidate.case;
+/** The run's facts: case, files, candidates (in `candidates`' words), why it stopped, its effort. */
+function runFacts(run: DesignRun, candidates: string): Block {
   const s = run.results.search;
-  const runFacts: Block = {
+  return {
     kind: "facts",
     rows: [
       ["Case", run.results.case],
       ["Input case file", run.results.caseFile],
       ["Results directory", run.directory],
-      ["Candidates", `${routed.length}, best first`],
+      ["Candidates", candidates],
       ["Search stopped because", s.stoppedBecause],
       ["Search effort", `${s.layouts} layouts, ${s.routings} routings, ${trimNumber(s.seconds, 1)} s, seed ${String(s.seed)}`],
     ],
   };
+}
+
+export function designReport(run: DesignRun, routed: readonly RoutedCandidate[], inputs: ReportInputs): ReportDocument {
+  const figures = new FigureCounter();
+  const best = routed[0];
+  const c = best.candidate.case;
   const compared = section("candidates", "Candidates compared", [
     comparisonTable(c, routed),
     ...baselineBlocks(run, routed),
@@ -173,7 +177,7 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
     project: projectFacts(inputs.project, inputs.run),
     caution: CAUTION,
     sections: [
-      section("run", "Design run", [runFacts]),
+      section("run", "Design run", [runFacts(run, `${routed.length}, best first`)]),
       compared,
       section("summary", "Case", [caseFacts(c), stormsTable(c)]),
       ...optional(hydrologySection(c, inputs.hydrology ?? null)),
@@ -184,3 +188,31 @@ export function designReport(run: DesignRun, routed: readonly RoutedCandidate[],
     ],
   };
 }
+
+/**
+ * The review report of a design run on a system of ponds: the run, the candidates compared (each
+ * routed again from its own case file, the ponds together), the existing system where the run had
+ * one, why each candidate binds, then the first candidate's own system report (`best`: its ponds,
+ * their outlets and drawings, every storm, the checks); the other candidates' are their own reports.
+ */
+export function systemDesignReport(run: DesignRun, routed: readonly RoutedCandidate[], best: ReportDocument, inputs: ReportInputs): ReportDocument {
+  const c = routed[0].candidate.case;
+  const others = routed.slice(1).map((r) => r.candidate.reported.caseFile);
+  const compared = section("candidates", "Candidates compared", [
+    { ...comparisonTable(c, routed), caption: "Candidates, best first (the flow reaching the outfall as a percentage of the target, at the point of analysis where a storm has a bypass; maximum stage of the pond at the outfall)" },
+    // The baseline is the existing system: every pond's outlet as the case gives it.
+    ...baselineBlocks(run, routed).map((b) => JSON.parse(JSON.stringify(b).replaceAll("existing outlet", "existing system").replaceAll("the case's outlet as given", "every pond's outlet as the case gives it")) as Block),
+    ...(others.length ? [{ kind: "text" as const, text: `The first candidate's system follows in full; each other candidate's is its own report: ${others.map((file) => `outfit report ${file}`).join(", ")}.` }] : []),
+  ], routed.map((r) => section(`candidate-${r.candidate.reported.rank}-why`, `Why candidate ${r.candidate.reported.rank}`, explanationBlocks(c, r))));
+  const verdict: NoteBlock = { ...verdictNote(c, routed[0].assessment) };
+  verdict.text = `Candidate ${routed[0].candidate.reported.rank}: ${verdict.text}`;
+  return {
+    title: `Design report: ${run.results.case}`,
+    subtitle: `Design run on a system of ponds in ${run.directory}: ${routed.length} candidate${routed.length === 1 ? "" : "s"}, each routed again from its own case file by outfit.`,
+    verdict,
+    project: projectFacts(inputs.project, inputs.run),
+    caution: CAUTION,
+    sections: [section("run", "Design run", [runFacts(run, `${routed.length}, best first (each a system of ${c.system!.ponds.length} ponds designed together)`)]), compared, ...best.sections.map((x) => (x.id === "summary" ? { ...x, title: `Candidate ${routed[0].candidate.reported.rank}: ${x.title.toLowerCase()}` } : x))],
+  };
+}
+
