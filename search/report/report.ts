@@ -173,7 +173,8 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
       const ponds = c.system.routing.system.ponds;
       const results = c.system.routing.storms[k].result.ponds;
       const least = results.reduce((a, r, i) => (ponds[i].pond.top - r.maxStage < ponds[a].pond.top - results[a].maxStage ? i : a), 0);
-      return [`${f.raw.length(results[least].maxStage).toFixed(p.case.units === "US" ? 2 : 3)}`, `${f.raw.length(ponds[least].pond.top - results[least].maxStage).toFixed(2)} (${ponds[least].name})`];
+      // The pond named, its unit written out (the cell is no bare number).
+      return [`${f.raw.length(results[least].maxStage).toFixed(p.case.units === "US" ? 2 : 3)}`, `${f.length(ponds[least].pond.top - results[least].maxStage)} at ${ponds[least].name}`];
     }
     const fb = c.routing.storms.find((s) => s.storm.name === freeboardStorm);
     return fb ? [f.raw.length(fb.result.maxStage).toFixed(p.case.units === "US" ? 2 : 3), f.raw.length(p.case.pond.top - fb.result.maxStage).toFixed(2)] : ["-", "-"];
