@@ -439,7 +439,10 @@ class SystemStepper {
         lambda *= 0.5;
       }
       for (let i = 0; i < n; i++) h[i] = hTry[i];
-      if (!accepted) this.flowsAt(h);
+      if (!accepted) {
+        this.flowsAt(h);
+        this.residual();
+      }
       // Converged: a negligible move, a full step that stayed on the pieces of the tables its Jacobian
       // came from (there the equations are linear, up to the links' bilinear cross term), or one whose
       // residual each pond's storage alone would take up by a stage change under STAGE_TOLERANCE.
@@ -456,7 +459,7 @@ class SystemStepper {
    * off its storage at most). The mass balance then closes to rounding.
    */
   conserve(): void {
-    this.residual();
+    // `F` holds the residual at the stages `solve` ended on (every evaluation there is followed by one).
     const { n, S, F } = this;
     const halfDt = 1 / this.twoOverDt;
     for (let i = 0; i < n; i++) S[i] -= F[i] * halfDt;
