@@ -188,7 +188,8 @@ function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): s
   // Moves that keep a compliant design compliant first, then by how much they relax the binding check.
   moves.sort((a, b) => Number(a.breaks) - Number(b.breaks) || b.gain - a.gain);
   if (moves.length > 0) lines.push(...moves.slice(0, 2).map((m) => `relax: ${m.text}`));
-  else lines.push(`relax: ${ruleOf(binding).remedy(binding)}`);
+  // A system's check names its pond (or the outfall): so does the remedy.
+  else lines.push(`relax: ${binding.pond === undefined ? "" : binding.pond === "outfall" ? "at the outfall, " : `in pond ${binding.pond}, `}${ruleOf(binding).remedy(binding)}`);
   return lines;
 }
 

@@ -35,7 +35,7 @@ export function candidateCaseName(rank: number): string {
  * back into the case), or a pond written as a `ponds` list of one with its outlet.
  */
 function pondsJson(p: SearchProblem, c: RoutedOutlet): { ponds: { name: string; outlet: OutletFile }[] } | Record<string, never> {
-  if (c.system) return { ponds: p.case.system!.ponds.map((q, i) => ({ name: q.name, outlet: c.system!.files[i] })) };
+  if (c.system) return { ponds: p.case.system!.ponds.map((q, i) => ({ name: q.name, outlet: c.system!.files[i], wall: wallJson(p.case, c.system!.outlets[i], c.assessment.walls[i].plan) })) };
   if (p.listedPond !== undefined) return { ponds: [{ name: p.listedPond, outlet: c.file }] };
   return {};
 }
@@ -58,7 +58,8 @@ function routedJson(p: SearchProblem, c: RoutedOutlet, explanation: string[]) {
     cost: c.cost,
     error: c.error,
     binding: binding ? { ...checkJson(p.case, binding), why: explanation[1]?.replace(/^why: /, "") ?? "" } : null,
-    wall: wallJson(p.case, c.outlet, outletWall(c.assessment)),
+    // A system's walls are its ponds' (`ponds[i].wall`).
+    ...(c.system ? {} : { wall: wallJson(p.case, c.outlet, outletWall(c.assessment)) }),
     explanation,
     ...(c.spread ? { spread: spreadJson(p.case, c.spread) } : {}),
   };
@@ -215,7 +216,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     for (const check of baseline.assessment.checks.filter((k) => !k.passed)) lines.push(w(`  fails: ${check.name}: ${checkValue(p.case, check, check.value)} (limit ${checkValue(p.case, check, check.limit)})`));
     for (const warning of baseline.assessment.warnings) lines.push(w(`  flag: ${warning.part}: ${warning.reason}`));
     for (const line of baseline.explanation) lines.push(w(`  ${line}`));
-    for (const line of wallLines(p.case, baseline.outlet, outletWall(baseline.assessment))) lines.push(w(`  ${line}`, 6));
+    for (const wall of baseline.assessment.walls) for (const line of wallLines(p.case, wall.outlet, wall.plan, wall.pond)) lines.push(w(`  ${line}`, 6));
     lines.push(w(`  ${baselineVerdict(baseline, run.candidates, run.stoppedBecause)}`));
     if (p.limits.rankBy === "change") {
       lines.push(w(`  Ranked by the change measure, smallest first: ${CHANGE_WEIGHTS.addedOrRemoved} per part added or removed, ${CHANGE_WEIGHTS.resized} per part resized, ${CHANGE_WEIGHTS.moved} per part moved, plus ${CHANGE_WEIGHTS.distance} x the total move / pond depth.`));
@@ -234,7 +235,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     if (!c.system) for (const line of storageSummary(p.case, c.routing)) lines.push(w(`  ${line}`));
     for (const line of c.explanation) lines.push(w(`  ${line}`));
     if (c.spread) lines.push(w(`  ${spreadLine(p.case, c.spread)}`));
-    for (const line of wallLines(p.case, c.outlet, outletWall(c.assessment))) lines.push(w(`  ${line}`, 6));
+    for (const wall of c.assessment.walls) for (const line of wallLines(p.case, wall.outlet, wall.plan, wall.pond)) lines.push(w(`  ${line}`, 6));
   });
   if (!run.success) {
     lines.push("", w("No compliant design was found. Why:"));
