@@ -5,7 +5,7 @@ import { toCaseUnits } from "../../src/units.js";
 import { stormTable, checksTable, verdictText, cautionText, wallSection, warningsText, warningCount, storageLines } from "../../src/report/console.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
 import { routeJson } from "../../src/report/json.js";
-import { CAUTION } from "../../src/report/caution.js";
+import { jsonHead } from "../../src/report/caution.js";
 import { pondFile } from "../../src/report/pondFile.js";
 import { shortfallLines } from "../../src/report/shortfall.js";
 import { storageShortfall } from "../../src/assess/storageShortfall.js";
@@ -127,11 +127,7 @@ export function pondDesignJson(c: Case, d: PondDesign) {
     ...(t.best ? { outlet: t.best.file, outletCost: t.best.cost, totalCost: t.totalCost! } : {}),
   });
   return {
-    tool: "outfit",
-    command: "design --size-pond",
-    case: c.name,
-    units: c.units,
-    caution: CAUTION,
+    ...jsonHead("design --size-pond", c),
     stoppedBecause: d.stoppedBecause,
     tradeOff: d.choice.options.map((o) => ({
       depth: u.length(o.depth),

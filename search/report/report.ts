@@ -11,7 +11,7 @@ import { outletWall } from "../../src/assess/assess.js";
 import { checkValue, complianceWords, governingLimitLines, hydrologyLines, slackText } from "../../src/report/console.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "../../src/report/terminal.js";
 import { storageSummary } from "../../src/report/storageNotes.js";
-import { CAUTION } from "../../src/report/caution.js";
+import { CAUTION, jsonHead } from "../../src/report/caution.js";
 import { formatter } from "../../src/format.js";
 import { pondJson } from "../../src/report/systemReport.js";
 import type { OutletFile } from "../../src/case/schema.js";
@@ -91,11 +91,7 @@ export function baselineJson(p: SearchProblem, b: Baseline, run: SearchRun) {
 
 export function designJson(p: SearchProblem, run: SearchRun, top: number) {
   return {
-    tool: "outfit",
-    command: "design",
-    case: p.case.name,
-    units: p.case.units,
-    caution: CAUTION,
+    ...jsonHead("design", p.case),
     caseFile: p.case.file,
     ...(p.case.hydrologyMethods ? { hydrologyMethods: p.case.hydrologyMethods } : {}),
     search: {

@@ -9,7 +9,7 @@ import type { Case } from "../model.js";
 import { pondCase } from "../assess/systemAssess.js";
 import { chainWords } from "../report/systemReport.js";
 import { downstreamStep, linkRating, linkRatingCsv, linkRatingJson, linkRatingText } from "../report/linkRating.js";
-import { CAUTION } from "../report/caution.js";
+import { CAUTION, jsonHead } from "../report/caution.js";
 import { wrap } from "../report/terminal.js";
 
 export interface RateCommandOptions {
@@ -60,7 +60,7 @@ function rateSystem(c: Case, options: RateCommandOptions): number {
     const rating = linkRating(system, i, step, downStep);
     return { json: linkRatingJson(c, system, i, rating), csv: () => linkRatingCsv(c, system, i, rating), text: () => linkRatingText(c, system, i, rating, layout) };
   });
-  if (options.json) emit(JSON.stringify({ tool: "outfit", command: "rate", case: c.name, units: c.units, caution: CAUTION, ponds: parts.map((p) => p.json) }, null, 2), options.out);
+  if (options.json) emit(JSON.stringify({ ...jsonHead("rate", c), ponds: parts.map((p) => p.json) }, null, 2), options.out);
   else if (options.csv) emit(parts[0].csv(), options.out);
   else {
     const head = wrap(`outfit rate: ${c.name} (${c.units} units), a system of ${names.length} ponds: ${chainWords(system)}`, layout.width);

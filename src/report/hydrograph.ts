@@ -8,7 +8,7 @@ import { formatter, percentChange, trimNumber } from "../format.js";
 import { hydrologyUnits, toCaseUnits } from "../units.js";
 import { cautionText } from "./console.js";
 import { withoutNulls } from "./withoutNulls.js";
-import { CAUTION } from "./caution.js";
+import { jsonHead } from "./caution.js";
 import { PLAIN, renderTable, STORM_NAME_WIDTH, wrap, type Column, type Layout, type Row } from "./terminal.js";
 
 /** Which of a storm's inflow, target and bypass (and its points' targets and bypasses) the case file gives explicitly (explicit values win). */
@@ -275,11 +275,7 @@ export function hydrographJson(c: Case, h: CaseHydrology, items: HydrographItem[
   const labels = formatter(c.units).labels;
   // Fields without a value (a rational area's curve number, an NRCS storm's sweep) are left out.
   return withoutNulls({
-    tool: "outfit",
-    command: "hydrograph",
-    case: c.name,
-    units: c.units,
-    caution: CAUTION,
+    ...jsonHead("hydrograph", c),
     unitLabels: { flow: labels.flow, volume: labels.volume, area: hu.labels.area, depth: hu.labels.depth, intensity: hu.labels.intensity, time: "min" },
     nrcs: {
       initialAbstractionRatio: h.nrcs.ratio,

@@ -8,7 +8,7 @@ import { targetBand, withinTargetBand } from "../assess/rules/band.js";
 import { PASS_TOLERANCE, upperFlowSlack } from "../assess/rules/rule.js";
 import { furtherPointPeak } from "../assess/rules/furtherPointPeak.js";
 import { ruleOf } from "../assess/rules/registry.js";
-import { CAUTION } from "./caution.js";
+import { jsonHead } from "./caution.js";
 import { outletToFile } from "./outletFile.js";
 import { outletDetail } from "../hydraulics/outlet.js";
 import { storageJsonFields } from "./storageNotes.js";
@@ -187,11 +187,7 @@ export function verdictJson(c: Case, assessment: Assessment) {
 
 export function routeJson(c: Case, routing: CaseRouting, assessment: Assessment, extra: Record<string, unknown> = {}) {
   return {
-    tool: "outfit",
-    command: "route",
-    case: c.name,
-    units: c.units,
-    caution: CAUTION,
+    ...jsonHead("route", c),
     outlet: outletToFile(routing.outlet, c.units),
     ...(c.hydrologyMethods ? { hydrologyMethods: c.hydrologyMethods } : {}),
     ...assessmentJson(c, routing, assessment),

@@ -6,7 +6,7 @@ import { formatter, significant } from "../format.js";
 import { toCaseUnits } from "../units.js";
 import { limitingPart, NOTICEABLE_REDUCTION, throttling } from "./limiting.js";
 import { PLAIN, renderTable, wrap, type Column, type Layout } from "./terminal.js";
-import { CAUTION } from "./caution.js";
+import { CAUTION, jsonHead } from "./caution.js";
 import { describeOutlet } from "./describe.js";
 import { barrelRise } from "../parts/barrel.js";
 import { partOf } from "../parts/registry.js";
@@ -160,11 +160,7 @@ export function ratingCsv(c: Case, outlet: Outlet, rows: RatingRow[]): string {
 export function ratingJson(c: Case, outlet: Outlet, rows: RatingRow[]) {
   const u = toCaseUnits(c.units);
   return {
-    tool: "outfit",
-    command: "rate",
-    case: c.name,
-    units: c.units,
-    caution: CAUTION,
+    ...jsonHead("rate", c),
     parts: partColumns(outlet),
     rows: rows.map(({ detail, storage }) => ({
       stage: u.length(detail.stage),

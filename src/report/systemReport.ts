@@ -15,7 +15,7 @@ import { stormJson, verdictJson, withinBand } from "./json.js";
 import { outletToFile } from "./outletFile.js";
 import { wallJson } from "./wall.js";
 import { describeOutlet } from "./describe.js";
-import { CAUTION } from "./caution.js";
+import { jsonHead } from "./caution.js";
 import { assessmentLines, governingLimitLines, pointLines } from "./console.js";
 import { renderTable, wrap, PLAIN, type Column, type Layout, type Row } from "./terminal.js";
 import type { SeriesTable } from "./series.js";
@@ -67,11 +67,7 @@ export function systemRouteJson(c: Case, routing: SystemRouting, assessment: Ass
   const main = system.ponds.findIndex((p) => p.to < 0);
   const outfall = outfallRoutings(routing);
   return {
-    tool: "outfit",
-    command: "route",
-    case: c.name,
-    units: c.units,
-    caution: CAUTION,
+    ...jsonHead("route", c),
     ponds: system.ponds.map((p, i) => ({ name: p.name, to: p.to < 0 ? "outfall" : system.ponds[p.to].name, outlet: outletToFile(routing.outlets[i], c.units), wall: wallJson(c, routing.outlets[i], assessment.walls[i].plan) })),
     storms: routing.storms.map((s, k) => ({
       ...stormJson(c, outfall[k]),
