@@ -33,6 +33,8 @@ const WARM_REPEATS = 3;
 /** Searches with other seeds before a warm one is timed: after one, the workers' compiled code is
  * still settling (the next search is 10-20 % slower on two workers than the ones after it). */
 const WARM_UPS = 2;
+/** Steps of the bare routing loop per thread in the cores' measurement (about 2 s on one core). */
+const BARE_STEPS = 2e8;
 
 /**
  * One search, cold (a fresh process state: the threads start and compile their code during the run,
@@ -72,11 +74,11 @@ async function timed(file: string, budget: number, workers: number, warm: boolea
  * like the warm runs; the wall seconds from the common start to the last one's end. With count 1,
  * the same search alone: count × alone / together is what the machine gives for independent work,
  * the ceiling of any pool of workers on it (the collector and compiler threads of every thread
- * share the same cores).
+ * share the same cores). With `bare` (a number of steps), the bare routing loop instead of the search.
  */
-async function sideBySide(file: string, budget: number, count: number): Promise<number> {
+async function sideBySide(file: string, budget: number, count: number, bare?: number): Promise<number> {
   const script = new URL("./sideBySideWorker.js", import.meta.url);
-  const threads = Array.from({ length: count }, () => new Worker(script, { workerData: { file, budget, warmUps: WARM_UPS } }));
+  const threads = Array.from({ length: count }, () => new Worker(script, { workerData: { file, budget, warmUps: WARM_UPS, bare } }));
   try {
     const next = (w: Worker) =>
       new Promise<{ seconds?: number }>((resolve, reject) => {
@@ -102,6 +104,18 @@ export const workersSection: BenchSection = {
   async run() {
     const cores = availableParallelism();
     console.log(`\nWorkers: the same search on 1 worker and on ${cores} (seed "bench"). Cold: a fresh start, from loading the case to the explained ranking (threads started and their code compiled during the run, as in a short run). Warm: the same threads after ${WARM_UPS} searches with other seeds (the steady state of a long run). Ceiling: the one-thread search alone, then ${cores} of them at once in their own threads (what the machine gives for wholly independent work). Busy: time on fits and scores over the workers' wall time. Load average before: ${load()}; on a loaded machine the ratio says little.`);
+    // The cores themselves: the bare routing loop (nothing allocated, so no collector work) alone in a
+    // worker thread, then on every core at once. What the searches side by side give below that is
+    // what their own collector and compiler threads take.
+    const bare: number[] = [];
+    const bareTogether: number[] = [];
+    for (let r = 0; r < WARM_REPEATS; r++) {
+      bare.push(await sideBySide(join("cases", "demo", "case.json"), 0, 1, BARE_STEPS));
+      bareTogether.push(await sideBySide(join("cases", "demo", "case.json"), 0, cores, BARE_STEPS));
+    }
+    const bareAlone = Math.min(...bare);
+    const bareAll = Math.min(...bareTogether);
+    console.log(`the cores (fastest of ${WARM_REPEATS} alternated): the bare routing loop (bench/bareLoop.ts, nothing allocated), ${BARE_STEPS.toExponential(0)} steps alone in a worker thread ${bareAlone.toFixed(2)} s; ${cores} at once ${bareAll.toFixed(2)} s: ${cores} cores give ${((cores * bareAlone) / bareAll).toFixed(2)}x one on work that leaves the collector idle`);
     for (const { name, budget } of CASES) {
       const file = join("cases", name, "case.json");
       console.log(`${name}, budget ${budget} routings:`);
