@@ -5,6 +5,7 @@ import { spawnSync } from "node:child_process";
 import { existsSync, readFileSync, readdirSync } from "node:fs";
 import { join } from "node:path";
 import type { BenchSection } from "./section.js";
+import { rankingText } from "./measure.js";
 
 const CLI = join(process.cwd(), "dist", "src", "cli.js");
 /** Runs of each configuration, alternated; the fastest counts (the least disturbed). */
@@ -20,8 +21,8 @@ function design(file: string, extra: string[]): Ran {
   const started = performance.now();
   const r = spawnSync(process.execPath, [CLI, "design", file, "--quiet", "--json", ...extra], { encoding: "utf8", maxBuffer: 1 << 28 });
   const wall = (performance.now() - started) / 1000;
-  const json = JSON.parse(r.stdout) as { search: { secondsToFirstCompliant?: number | null }; candidates: { outlet: unknown; cost: number }[] };
-  return { wall, first: json.search.secondsToFirstCompliant ?? null, ranking: JSON.stringify(json.candidates.map((c) => [c.outlet, c.cost])) };
+  const json = JSON.parse(r.stdout) as { search: { secondsToFirstCompliant?: number | null }; candidates: { outlet?: unknown; ponds?: unknown; cost: number }[] };
+  return { wall, first: json.search.secondsToFirstCompliant ?? null, ranking: rankingText(json.candidates) };
 }
 
 export const defaultsSection: BenchSection = {

@@ -134,3 +134,9 @@ export function report(heading: string, rows: [string, string][]): void {
   process.stdout.write(`\n${heading}\n`);
   for (const [label, value] of rows) process.stdout.write(`  ${label.padEnd(width)}  ${value}\n`);
 }
+
+/** A `design --json` ranking as text, to compare two runs: each candidate's design (a system's: its
+ * ponds' outlets) and cost. */
+export function rankingText(candidates: readonly { outlet?: unknown; ponds?: unknown; cost: number }[]): string {
+  return JSON.stringify(candidates.map((c) => [c.outlet ?? c.ponds, c.cost]));
+}

@@ -12,6 +12,7 @@ import { copyFileSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } f
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { BenchSection } from "./section.js";
+import { rankingText } from "./measure.js";
 
 const CLI = join(process.cwd(), "dist", "src", "cli.js");
 /** Routings of the divided search of the system of two ponds (each storm through the system counts
@@ -61,8 +62,7 @@ function wideCase(): string {
   return file;
 }
 
-/** A ranking's designs and costs (a system's candidates give their ponds' outlets). */
-const ranking = (r: Ran) => JSON.stringify(r.json.candidates.map((c) => [c.outlet ?? c.ponds, c.cost]));
+const ranking = (r: Ran) => rankingText(r.json.candidates);
 
 async function shardsAgainstOne(file: string): Promise<void> {
   const work = mkdtempSync(join(tmpdir(), "outfit-bench-shards-"));
