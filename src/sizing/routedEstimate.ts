@@ -10,6 +10,9 @@
 //   holds back the early part of the large storms);
 // - multi-stage (three storms or more): a level per storm, each a weir with its crest at the stage the
 //   storm below reaches through the levels below, sized for its storm.
+// With a bypass (a point of analysis) the routed peak is that of the pond's outflow and the bypass
+// summed at each instant, which the target applies to (case format, "Bypass and the point of
+// analysis"): the pond releases less, so it needs more storage than for its outflow alone.
 // Each is sized for the middle of the storm's target band (at most 10 % below the target: the band's
 // edges are where a design may land, and `design` aims inside them), `aimFactor`.
 // Under a fixed tailwater the orifice takes the head to the tailwater and the weirs are drowned by
@@ -25,6 +28,7 @@ import { routeStorm } from "../routing/durations.js";
 import { villemonte } from "../parts/submergence.js";
 import { storageCurve } from "../storage/curve.js";
 import { systemFootprint, systemTop } from "../storage/underground.js";
+import { sumHydrographs } from "../case/system.js";
 
 export type NotionalKind = "orifice" | "weir" | "two-stage" | "multi-stage";
 export const NOTIONAL_KINDS: readonly NotionalKind[] = ["orifice", "weir", "two-stage", "multi-stage"];
@@ -42,7 +46,7 @@ export interface NotionalResult {
   storage: number;
   /** The highest stage (m). */
   stage: number;
-  /** Routed peak outflow (m3/s). */
+  /** Routed peak outflow (m3/s); with a bypass, the peak at the point of analysis (outflow and bypass summed). */
   peak: number;
   /** The peak aimed at (m3/s). */
   aim: number;
@@ -127,17 +131,17 @@ export function routedEstimates(input: RoutedEstimateInput): RoutedEstimate[] {
   const depth = Math.max(pond.top - pond.pool, 1e-3);
   const factor = aimFactor(input.over, input.under);
 
-  /** Routes a storm through the sum of the parts. */
+  /** Routes a storm through the sum of the parts (with its bypass, the flow at the point of analysis is tracked). */
   const routeThrough = (storm: Storm, parts: readonly Part[]): RouteResult => {
     outflow.fill(0);
     for (const { size, column } of parts) for (let i = 0; i < n; i++) outflow[i] += size * column[i];
-    return routeStorm(table, storm, options);
+    return routeStorm(table, storm, storm.bypass ? { ...options, bypass: storm.bypass } : options);
   };
   const result = (kind: NotionalKind, storm: Storm, r: RouteResult, parts: readonly Part[], note: string | null): NotionalResult => ({
     kind,
     storage: Math.max(0, r.maxStorage - poolStorage),
     stage: r.maxStage,
-    peak: r.peakOutflow,
+    peak: r.peakAtPoint,
     aim: storm.target! * factor,
     orificeSize: parts[0].column === orificeColumn ? parts[0].size : 0,
     weirs: parts.filter((p) => p.column !== orificeColumn && p.size > 0).map((p) => ({ size: p.size, crest: crestOf.get(p.column)! })),
@@ -155,14 +159,15 @@ export function routedEstimates(input: RoutedEstimateInput): RoutedEstimate[] {
   if (targeted.length === 0) return [];
   const ordered = [...targeted].sort((a, b) => a.returnPeriod - b.returnPeriod || a.target! - b.target!);
   const smallest = ordered[0];
-  const needsNone = (storm: Storm) => storm.target! * factor >= peakOf(storm.inflow) && !storm.durations;
+  // With a bypass the target is the flow at the point of analysis: the inflow and the bypass together.
+  const needsNone = (storm: Storm) => storm.target! * factor >= peakOf(storm.bypass ? sumHydrographs([storm.inflow, storm.bypass]) : storm.inflow) && !storm.durations;
 
   /** A level added above `below`, sized so the storm's peak meets its aim (none when the levels below already release more). */
   const stage = (storm: Storm, below: Part[], column: Float64Array, guess: number): { parts: Part[]; r: RouteResult; note: string | null } => {
     const aim = storm.target! * factor;
     if (below.length > 0) {
       const alone = routeThrough(storm, below);
-      if (alone.peakOutflow >= aim) return { parts: [...below, { size: 0, column }], r: alone, note: "the levels below alone release more than this storm's target" };
+      if (alone.peakAtPoint >= aim) return { parts: [...below, { size: 0, column }], r: alone, note: "the levels below alone release more than this storm's target" };
     }
     const found = sizeFor(aim, guess, (size) => routeThrough(storm, [...below, { size, column }]));
     return { parts: [...below, { size: found.size, column }], r: found.r, note: null };
@@ -195,7 +200,7 @@ export function routedEstimates(input: RoutedEstimateInput): RoutedEstimate[] {
     const kinds = NOTIONAL_KINDS.filter((k) => k !== "multi-stage" || ordered.length >= 3);
     if (needsNone(storm)) {
       for (const kind of kinds) {
-        results.push({ kind, storage: 0, stage: pond.pool, peak: peakOf(storm.inflow), aim: storm.target! * factor, orificeSize: 0, weirs: [], governingDuration: null, note: "target at or above the peak inflow: no storage needed" });
+        results.push({ kind, storage: 0, stage: pond.pool, peak: peakOf(storm.bypass ? sumHydrographs([storm.inflow, storm.bypass]) : storm.inflow), aim: storm.target! * factor, orificeSize: 0, weirs: [], governingDuration: null, note: "target at or above the peak inflow: no storage needed" });
       }
     } else {
       const o = orificeOf(storm);
@@ -225,7 +230,7 @@ function peakOf(h: Hydrograph): number {
  * factors of 4 and close in by the Illinois variant of regula falsi on log size against log peak.
  */
 function sizeFor(target: number, guess: number, routeWith: (size: number) => RouteResult): { size: number; r: RouteResult } {
-  const miss = (r: RouteResult) => (r.peakOutflow > 0 ? Math.log(r.peakOutflow / target) : -50);
+  const miss = (r: RouteResult) => (r.peakAtPoint > 0 ? Math.log(r.peakAtPoint / target) : -50);
   let x = Math.log(Math.max(guess, 1e-12));
   let r = routeWith(Math.exp(x));
   let f = miss(r);
