@@ -226,6 +226,27 @@ describe("the drawing of each pond's outlet", () => {
     const lower = readFileSync(join(dir, files[1]), "utf8");
     route.storms.forEach((s, k) => expect(storm(k, lower)).toBeCloseTo(s.ponds[1].maxStage, 9));
   });
+
+  it("the system's report gives each pond's openings their places on its wall, as `route --json` does (a pond without openings has no table)", () => {
+    const dir = mkdtempSync(join(tmpdir(), "outfit-system-report-wall-"));
+    expect(outfit("report", CASE, "--format", "md", "--out", join(dir, "r.md")).status).toBe(0);
+    const md = readFileSync(join(dir, "r.md"), "utf8");
+    const tables = md.split("**Openings on the wall").slice(1);
+    const json = JSON.parse(outfit("route", CASE, "--json").stdout);
+    const walls = json.ponds.map((p: { wall: { openings: unknown[] } }) => p.wall).filter((w: { openings: unknown[] }) => w.openings.length > 0);
+    expect(tables).toHaveLength(walls.length);
+    expect(walls.length).toBeGreaterThan(0);
+    walls.forEach((wall: { openings: { label: string; station: number; width: number }[] }, i: number) => {
+      const rows = tables[i].split("\n").filter((line) => /^\| E\d+ /.test(line));
+      expect(rows).toHaveLength(wall.openings.length);
+      wall.openings.forEach((o, k) => {
+        const cells = rows[k].split("|").map((x) => x.trim());
+        expect(cells[1]).toBe(o.label);
+        expect(Number(cells[5])).toBeCloseTo(o.station, 2);
+        expect(Number(cells[8])).toBeCloseTo(o.width, 2);
+      });
+    });
+  });
 });
 
 function attribute(svg: string, name: string): number[] {

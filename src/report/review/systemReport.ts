@@ -26,7 +26,7 @@ import { casePlan } from "../../assess/rules/walls.js";
 import { defaultStageStep, stageStorageDischargeTable } from "./submittal.js";
 import { projectFacts } from "./project.js";
 import { methodsTable } from "./methods.js";
-import { checksTable, partsTable, ratingTable, stormsTable, verdictNote, warningsList } from "./tables.js";
+import { checksTable, partsTable, ratingTable, stormsTable, verdictNote, wallTable, warningsList } from "./tables.js";
 import { FigureCounter, section, type Cell, type FactsBlock, type ReportDocument, type Section, type TableBlock } from "./model.js";
 import type { ReportInputs } from "./caseReport.js";
 
@@ -117,18 +117,21 @@ function pondSection(c: Case, routing: SystemRouting, index: number, figures: Fi
   const view = pondCase(c, routing.system, index);
   const outlet = routing.outlets[index];
   const f = formatter(c.units);
+  const routed = pondRoutings(routing, index);
+  const plan = casePlan(view, outlet, routed);
   const blocks = [
     figures.figure(`pond-${index + 1}-storage`, `${p.name}: stage-storage`, `Storage of ${p.name} above its bottom (${f.elevation(p.pond.bottom)}) against stage, up to its top of embankment (${f.elevation(p.pond.top)}).`, (id) => storageChart(id, view, outlet)),
     partsTable(view, outlet),
+    ...(plan.openings.length ? [wallTable(view, outlet, plan)] : []),
     figures.figure(
       `pond-${index + 1}-outlet-drawing`,
       `${p.name}: outlet structure, elevation`,
-      `The outlet of ${p.name} (draining into ${drainsTo(routing.system, index)}) drawn to one scale across and up: left, a section through the ${outlet.riser ? "riser" : "headwall"} with the pond floor, the barrel leaving its base, the top of embankment, the spillway crest and the freeboard line; right, the ${outlet.riser ? "riser's wall developed (its perimeter unrolled)" : "headwall"} with every opening at its elevation and place; dashed: each storm's peak stage in ${p.name}.`,
-      (id) => outletDrawing(id, drawingInput(view, outlet, pondRoutings(routing, index), casePlan(view, outlet, pondRoutings(routing, index)))),
+      `The outlet of ${p.name} (draining into ${drainsTo(routing.system, index)}) drawn to one scale across and up: left, a section through the ${outlet.riser ? "riser" : "headwall"} with the pond floor, the barrel leaving its base, the top of embankment, the spillway crest and the freeboard line; right, the ${outlet.riser ? "riser's wall developed (its perimeter unrolled)" : "headwall"} seen from outside, with every opening at its elevation and at the place the wall table gives it; dashed: each storm's peak stage in ${p.name}.`,
+      (id) => outletDrawing(id, drawingInput(view, outlet, routed, plan)),
     ),
     ...(p.to < 0
       ? [
-          figures.figure(`pond-${index + 1}-rating`, `${p.name}: rating, part by part`, "Outflow of each part and the total (thick solid) against stage, under the case's tailwater. Diamonds: each storm's target at the outfall at this pond's maximum stage; dots: this pond's routed peak outflow.", (id) => ratingChart(id, view, outlet, pondRoutings(routing, index).map((s, k) => ({ ...s, storm: { ...s.storm, target: c.storms[k].target } })))),
+          figures.figure(`pond-${index + 1}-rating`, `${p.name}: rating, part by part`, "Outflow of each part and the total (thick solid) against stage, under the case's tailwater. Diamonds: each storm's target at the outfall at this pond's maximum stage; dots: this pond's routed peak outflow.", (id) => ratingChart(id, view, outlet, routed.map((s, k) => ({ ...s, storm: { ...s.storm, target: c.storms[k].target } })))),
           ratingTable(view, outlet),
           stageStorageDischargeTable(view, outlet, inputs.stageStep ?? defaultStageStep(view)),
         ]
