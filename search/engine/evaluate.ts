@@ -104,7 +104,8 @@ export class Evaluator {
   routeSystem(outlets: readonly Outlet[]): SystemRouting {
     const c = this.problem.case;
     this.count(c.storms.length * outlets.length);
-    return routeSystemCase(c, outlets, { linkIntervals: this.problem.options.referencePath ? undefined : SEARCH_LINK_INTERVALS });
+    if (this.problem.options.referencePath) return routeSystemCase(c, outlets);
+    return routeSystemCase(c, outlets, { linkIntervals: SEARCH_LINK_INTERVALS, grids: this.problem.system!.ponds.map((d) => d.problem.grid) });
   }
 
   /** A system routed for a check's variant, remembered by its outlets as `routeVariant` does. */

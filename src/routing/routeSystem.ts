@@ -2,7 +2,7 @@
 // the checks. Each pond at the outfall is rated exactly as a single pond is (its rating table under
 // the case's tailwater), each pond draining into another pond gets its link's table over both stages.
 import type { Case, Hydrograph, Outlet, PondSystem, Storm } from "../model.js";
-import { buildRatingTable, ratingBreaks, ratingOnsets, stageGrid, type RatingTable } from "./ratingTable.js";
+import { buildRatingTable, ratingBreaks, ratingOnsets, stageGrid, type RatingTable, type StageGrid } from "./ratingTable.js";
 import { buildLinkTable, LINK_INTERVALS, type LinkTable } from "./linkTable.js";
 import { stormRouteOptions } from "./routeCase.js";
 import { routeSystem, type SystemRouteOptions, type SystemRouteResult, type SystemRoutePond } from "./systemRouter.js";
@@ -30,6 +30,12 @@ export interface RouteSystemOptions {
   record?: boolean;
   /** Intervals of the links' stage axes (linkTable.ts); default LINK_INTERVALS. */
   linkIntervals?: number;
+  /**
+   * A stage grid per pond to rate on instead of one made for each outlet (the search's: one grid per
+   * pond on its elevation lattice, shared by every candidate, so that the rating sweeps reuse the free
+   * flows and chamber roots of the parts candidates share, as for one pond).
+   */
+  grids?: readonly (StageGrid | undefined)[];
 }
 
 /** Link tables kept by what they depend on (the checks' variants and the report route the same links again). */
@@ -54,13 +60,14 @@ export function systemPonds(c: Case, system: PondSystem, outlets: readonly Outle
   const ponds = system.ponds.map((p, i): SystemRoutePond => {
     const outlet = outlets[i];
     const common = { name: p.name, pond: p.pond, to: p.to, startStage: p.pond.pool, drainedStage: p.pond.pool + drainedDepth };
+    const shared = options.grids?.[i];
     if (p.to < 0) {
-      const table = buildRatingTable(p.pond, outlet, c.tailwater);
+      const table = buildRatingTable(p.pond, outlet, c.tailwater, { grid: shared });
       tables.push(table);
       return { ...common, stage: table.stage, storage: table.storage, outflow: table.outflow, link: null };
     }
     tables.push(null);
-    const grid = stageGrid(p.pond, ratingBreaks(p.pond, outlet), undefined, ratingOnsets(outlet, { kind: "free" }));
+    const grid = shared ?? stageGrid(p.pond, ratingBreaks(p.pond, outlet), undefined, ratingOnsets(outlet, { kind: "free" }));
     const link = linkTable(outlet, p.pond, system.ponds[p.to].pond, options.linkIntervals);
     return { ...common, stage: grid.stage, storage: grid.storage, outflow: null, link };
   });
