@@ -8,7 +8,7 @@
 // (`compare`): on a shared machine wall time counts the waits for a core.
 import { fileURLToPath } from "node:url";
 import { loadCase } from "../src/case/load.js";
-import { sumHydrographs } from "../src/case/system.js";
+import { sumHydrographs } from "../src/hydrology/hydrograph.js";
 import type { Hydrograph } from "../src/model.js";
 import { buildRatingTable } from "../src/routing/ratingTable.js";
 import { route, type RouteOptions } from "../src/routing/router.js";

@@ -7,7 +7,7 @@
 // staged starts use them; every fit and every candidate is judged by the system routed together.
 import type { Case, Storm, Tailwater } from "../../src/model.js";
 import type { CaseFile, OutletFile } from "../../src/case/schema.js";
-import { sumHydrographs } from "../../src/case/system.js";
+import { sumHydrographs } from "../../src/hydrology/hydrograph.js";
 import { hydrographVolume } from "../../src/hydrology/hydrograph.js";
 import { stormOfPond } from "../../src/assess/systemAssess.js";
 

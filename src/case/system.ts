@@ -6,6 +6,7 @@ import type { Hydrograph, Outlet, Pond, PondSystem, Storm } from "../model.js";
 import { Converter } from "./converter.js";
 import { show } from "./errors.js";
 import { own } from "../own.js";
+import { sumHydrographs } from "../hydrology/hydrograph.js";
 import type { StormHydrology } from "./hydrology.js";
 
 /** The name a pond's `to` gives for the system's outlet to the outside. */
@@ -134,27 +135,3 @@ export function stormInflows(
   return { inflow: sumHydrographs(inflows), inflows, pondTargets };
 }
 
-/** The sum of hydrographs (each linear between its points, zero outside them), on the union of their times. */
-export function sumHydrographs(list: readonly (Hydrograph | null)[]): Hydrograph {
-  const given = list.filter((h): h is Hydrograph => h !== null && h.times.length > 0);
-  if (given.length === 0) return { times: Float64Array.from([0, 60]), flows: new Float64Array(2) };
-  if (given.length === 1) return given[0];
-  const times = [...new Set(given.flatMap((h) => Array.from(h.times)))].sort((a, b) => a - b);
-  const flows = times.map((t) => given.reduce((sum, h) => sum + valueAt(h, t), 0));
-  return { times: Float64Array.from(times), flows: Float64Array.from(flows) };
-}
-
-/** A hydrograph's value at t: linear between points, zero before the first and after the last. */
-export function valueAt(h: Hydrograph, t: number): number {
-  const n = h.times.length;
-  if (t < h.times[0] || t > h.times[n - 1]) return 0;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (h.times[mid] <= t) lo = mid;
-    else hi = mid;
-  }
-  if (h.times[lo] === t || hi === lo) return h.flows[lo];
-  return h.flows[lo] + ((h.flows[hi] - h.flows[lo]) * (t - h.times[lo])) / (h.times[hi] - h.times[lo]);
-}

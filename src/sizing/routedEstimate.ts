@@ -28,7 +28,7 @@ import { routeStorm } from "../routing/durations.js";
 import { villemonte } from "../parts/submergence.js";
 import { storageCurve } from "../storage/curve.js";
 import { systemFootprint, systemTop } from "../storage/underground.js";
-import { sumHydrographs } from "../case/system.js";
+import { sumHydrographs } from "../hydrology/hydrograph.js";
 
 export type NotionalKind = "orifice" | "weir" | "two-stage" | "multi-stage";
 export const NOTIONAL_KINDS: readonly NotionalKind[] = ["orifice", "weir", "two-stage", "multi-stage"];
