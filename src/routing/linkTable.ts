@@ -119,10 +119,9 @@ export class LinkTable {
    * look-ups in the same cell are on one bilinear piece (the system router's test of convergence).
    */
   cell = 0;
-  private i = 0;
-  private j = 0;
-  private bi = 0;
-  private k = 0;
+  /** The two tables as the look-up walks them (each keeps its own cursors). */
+  private readonly grid: Plane;
+  private readonly closeLevels: Plane;
 
   constructor(
     readonly outlet: Outlet,
@@ -143,8 +142,8 @@ export class LinkTable {
     this.largestFlow = largest;
     const inverse = (axis: Float64Array) => Float64Array.from({ length: axis.length - 1 }, (_, k) => 1 / (axis[k + 1] - axis[k]));
     this.upInverse = inverse(up);
-    this.downInverse = inverse(down);
-    this.differenceInverse = inverse(difference);
+    this.grid = new Plane(false, down, inverse(down), gridFlow);
+    this.closeLevels = new Plane(true, difference, inverse(difference), bandFlow);
   }
 
   /** Flow (m3/s, positive from the upstream pond into the downstream one) at two stages; sets `dUp`, `dDown`. */
@@ -156,10 +155,8 @@ export class LinkTable {
   /** The flow of the last look-up (m3/s): the router reads it here, so that no number is boxed per call. */
   q = 0;
   private readonly pair = new Float64Array(2);
-  /** 1 / the width of each interval of the three axes. */
+  /** 1 / the width of each interval of the upstream stage axis. */
   private readonly upInverse: Float64Array;
-  private readonly downInverse: Float64Array;
-  private readonly differenceInverse: Float64Array;
 
   /** Sets `q`, `dUp`, `dDown`, `cell` and `beyond` at two stages. */
   lookup(x: number, y: number): void {
@@ -176,58 +173,92 @@ export class LinkTable {
   }
 
   /**
-   * `lookup` at the stages x[up] and x[down]. The router passes its stage array and two indices, and
-   * the look-up is written out in one method, so that no number is boxed on the way in or out.
+   * `lookup` at the stages x[up] and x[down]. The router passes its state array and two indices, and
+   * the pieces of the look-up (`Plane.locate`, `Plane.interpolate`) take arrays and indices and leave
+   * their results in fields, so that no number is boxed on the way in or out; each piece is small
+   * enough for V8 to inline it into the router's pass (a method of more than 460 bytes of bytecode it
+   * does not inline, and a call there costs the pass its loaded arrays).
    */
   lookupIn(x: Float64Array, upAt: number, downAt: number): void {
-    const xu = x[upAt];
-    const xd = x[downAt];
-    const d = xu - xd;
-    const up = this.up;
-    const lastUp = up.length - 2;
-    // Within the band the table is over (upstream stage, difference), else over the two stages; the
-    // cells [k, k + 1] holding each coordinate (the first or last beyond the ends) are walked from the last ones.
+    // Within the band the table is over (upstream stage, difference), else over the two stages.
+    const d = x[upAt] - x[downAt];
     const inBand = d < this.band && d > -this.band;
-    const other = inBand ? this.difference : this.down;
-    const y = inBand ? d : xd;
-    let i = inBand ? this.bi : this.i;
-    while (i < lastUp && xu > up[i + 1]) i++;
-    while (i > 0 && xu < up[i]) i--;
-    const lastOther = other.length - 2;
-    let j = inBand ? this.k : this.j;
-    while (j < lastOther && y > other[j + 1]) j++;
-    while (j > 0 && y < other[j]) j--;
-    if (inBand) {
-      this.bi = i;
-      this.k = j;
-    } else {
-      this.i = i;
-      this.j = j;
-    }
-    const stride = other.length;
-    const values = inBand ? this.bandFlow : this.gridFlow;
-    const gx = this.upInverse[i];
-    const gy = (inBand ? this.differenceInverse : this.downInverse)[j];
-    const u = (xu - up[i]) * gx;
-    const v = (y - other[j]) * gy;
-    this.beyond = u > 1 || v > 1 || u < 0 || v < 0;
-    const at = i * stride + j;
-    const q00 = values[at];
-    const q01 = values[at + 1];
-    const q10 = values[at + stride];
-    const q11 = values[at + stride + 1];
-    const qx0 = q00 + u * (q10 - q00);
-    const qx1 = q01 + u * (q11 - q01);
-    const byX = ((1 - v) * (q10 - q00) + v * (q11 - q01)) * gx;
-    const byY = (qx1 - qx0) * gy;
-    this.q = qx0 + v * (qx1 - qx0);
+    const plane = inBand ? this.closeLevels : this.grid;
+    plane.locate(this.up, this.upInverse, x, upAt, downAt);
+    plane.interpolate(this.upInverse);
+    this.q = plane.q;
+    this.beyond = plane.beyond;
     // Q(x, d) with d = x - y: dQ/dx at a fixed downstream stage is dQ/dx + dQ/dd; dQ/dy is -dQ/dd.
-    this.dUp = inBand ? byX + byY : byX;
-    this.dDown = inBand ? -byY : byY;
-    this.cell = inBand ? -1 - at : at;
+    this.dUp = inBand ? plane.byX + plane.byY : plane.byX;
+    this.dDown = inBand ? -plane.byY : plane.byY;
+    this.cell = inBand ? -1 - plane.at : plane.at;
   }
 }
 
+/**
+ * One of a link's two tables as the look-up walks it: its second axis (the downstream stage, or the
+ * difference of the levels), 1 / the width of each of its intervals, the flow at its nodes (rows by
+ * the upstream stage), and the cells of the last look-up in it.
+ */
+class Plane {
+  /** The cells [i, i + 1] and [j, j + 1] of the last look-up (the first or last beyond the ends), walked from there. */
+  i = 0;
+  j = 0;
+  /** The last look-up: where it fell in its cell (0 to 1 along each axis), the first node's index, whether it fell outside the table. */
+  u = 0;
+  v = 0;
+  at = 0;
+  beyond = false;
+  /** Its flow and partial derivatives in the upstream stage and the second coordinate. */
+  q = 0;
+  byX = 0;
+  byY = 0;
+  constructor(
+    /** Whether the second axis is the difference of the levels (the band's table). */
+    readonly difference: boolean,
+    readonly axis: Float64Array,
+    readonly inverse: Float64Array,
+    readonly flow: Float64Array,
+  ) {}
+
+  /** Walks the cursors to the cells holding the upstream stage x[upAt] and the second coordinate (from x[downAt]). */
+  locate(up: Float64Array, upInverse: Float64Array, x: Float64Array, upAt: number, downAt: number): void {
+    const xu = x[upAt];
+    const y = this.difference ? xu - x[downAt] : x[downAt];
+    const lastUp = up.length - 2;
+    let i = this.i;
+    while (i < lastUp && xu > up[i + 1]) i++;
+    while (i > 0 && xu < up[i]) i--;
+    const other = this.axis;
+    const lastOther = other.length - 2;
+    let j = this.j;
+    while (j < lastOther && y > other[j + 1]) j++;
+    while (j > 0 && y < other[j]) j--;
+    this.i = i;
+    this.j = j;
+    this.at = i * other.length + j;
+    const u = (xu - up[i]) * upInverse[i];
+    const v = (y - other[j]) * this.inverse[j];
+    this.u = u;
+    this.v = v;
+    this.beyond = u > 1 || v > 1 || u < 0 || v < 0;
+  }
+
+  /** Bilinear interpolation in the cell `locate` found: `q`, `byX`, `byY`. */
+  interpolate(upInverse: Float64Array): void {
+    const { u, v, at, flow } = this;
+    const stride = this.axis.length;
+    const q00 = flow[at];
+    const q01 = flow[at + 1];
+    const q10 = flow[at + stride];
+    const q11 = flow[at + stride + 1];
+    const qx0 = q00 + u * (q10 - q00);
+    const qx1 = q01 + u * (q11 - q01);
+    this.byX = ((1 - v) * (q10 - q00) + v * (q11 - q01)) * upInverse[this.i];
+    this.byY = (qx1 - qx0) * this.inverse[this.j];
+    this.q = qx0 + v * (qx1 - qx0);
+  }
+}
 
 /** Rates a pond's outlet into another pond over both ponds' stages (see the file's head). */
 export function buildLinkTable(outlet: Outlet, upPond: Pond, downPond: Pond, intervals = LINK_INTERVALS): LinkTable {
