@@ -13,8 +13,12 @@
 // storage over the rate at which its net outflow changes with its own stage, a link's flow taken as a
 // chord over at least CHORD_DIFFERENCE of level difference so that levels at rest against each other do
 // not shrink the step to nothing); a step that ends where that limit is much shorter is done again.
-// Nothing is allocated per step: the state lives in Float64Arrays made once per routing. A step's
-// first try starts from the flows last computed (those at its start), not evaluated again.
+// The ponds are taken upstream first (each before the pond it drains into), so that Newton's method
+// costs two passes over them an iteration: down the array the Newton step by substitution back, the
+// trial stages and the evaluation of every table; up the array, only while it goes on, the elimination
+// (`SystemStepper`). Nothing is allocated per step: the state is one Float64Array made once per
+// routing, a record per pond (see STRIDE). A step's first try starts from the flows last computed
+// (those at its start), not evaluated again.
 import type { Hydrograph, Pond } from "../model.js";
 import { CHORD_DIFFERENCE, type LinkTable } from "./linkTable.js";
 import type { CeilingApproach, RouteResult } from "./router.js";
@@ -109,7 +113,7 @@ const NEWTON_ITERATIONS = 40;
 const NEWTON_TOLERANCE = 1e-10;
 /**
  * A step is converged when each pond's residual is no more than its storage holds in this much stage
- * (m): `conserve` then gives the residual to the storage, so the mass balance closes and the stage is
+ * (m): the step's bookkeeping then gives the residual to the storage, so the mass balance closes and the stage is
  * at most this far from the storage's (a thousandth of the contract's 0.003 m).
  */
 const STAGE_TOLERANCE = 3e-6;
@@ -130,6 +134,10 @@ export const LINK_TIME_CONSTANT_FRACTION = 1;
  */
 class InflowCursor {
   private j = 0;
+  /** Its points (empty for none). */
+  readonly times: Float64Array;
+  readonly flows: Float64Array;
+  /** Its first and last times (Infinity and -Infinity for none), its peak, and the change it may make in a step. */
   readonly first: number;
   readonly last: number;
   readonly peak: number;
@@ -141,40 +149,40 @@ class InflowCursor {
   rate = 0;
   /** The slope of each segment of the inflow (m3/s per s), made once per hydrograph. */
   private readonly slopes: Float64Array;
-  constructor(readonly h: Hydrograph | null, fraction: number) {
-    const n = h ? h.times.length : 0;
+  constructor(h: Hydrograph | null, fraction: number) {
+    this.times = h ? h.times : new Float64Array(0);
+    this.flows = h ? h.flows : new Float64Array(0);
+    const n = this.times.length;
     this.slopes = h ? slopesOf(h.times, h.flows) : new Float64Array(0);
-    this.first = n ? h!.times[0] : Infinity;
-    this.last = n ? h!.times[n - 1] : -Infinity;
+    this.first = n ? this.times[0] : Infinity;
+    this.last = n ? this.times[n - 1] : -Infinity;
     let peak = 0;
-    if (h) for (let i = 0; i < n; i++) if (h.flows[i] > peak) peak = h.flows[i];
+    for (let i = 0; i < n; i++) if (this.flows[i] > peak) peak = this.flows[i];
     this.peak = peak;
     this.change = fraction * peak;
   }
   /** The time of the next `load` (s): a field, so that the call boxes nothing. */
   t = 0;
-  /** Value at `t` approached from the left (from the right when `right`): zero outside the points. */
+  /** Value at `t` approached from the left (from the right when `right`): zero outside the points (always, with none). */
   load(right: boolean): void {
-    const h = this.h;
     const t = this.t;
-    if (!h || t < this.first || t > this.last) this.value = 0;
-    else if (t === this.first) this.value = right ? h.flows[0] : 0;
-    else if (t === this.last) this.value = right ? 0 : h.flows[h.times.length - 1];
+    if (t < this.first || t > this.last) this.value = 0;
+    else if (t === this.first) this.value = right ? this.flows[0] : 0;
+    else if (t === this.last) this.value = right ? 0 : this.flows[this.flows.length - 1];
     else {
-      const times = h.times;
+      const times = this.times;
       const end = times.length - 2;
       let j = this.j;
       while (j < end && times[j + 1] < t) j++;
       while (j > 0 && times[j] >= t) j--;
       this.j = j;
-      this.value = h.flows[j] + this.slopes[j] * (t - times[j]);
+      this.value = this.flows[j] + this.slopes[j] * (t - times[j]);
     }
   }
   /** Sets `nextPoint` and `rate` for the time `t`. */
   advance(): void {
-    const h = this.h;
     const t = this.t;
-    if (!h || t >= this.last) {
+    if (t >= this.last) {
       this.nextPoint = Infinity;
       this.rate = 0;
       return;
@@ -184,7 +192,7 @@ class InflowCursor {
       this.rate = 0;
       return;
     }
-    const times = h.times;
+    const times = this.times;
     let j = this.j;
     while (j < times.length - 2 && times[j + 1] <= t) j++;
     this.j = j;
@@ -193,307 +201,357 @@ class InflowCursor {
   }
 }
 
+/*
+ * A pond's record in the stepper's `state`: STRIDE numbers a pond, pond i's from i * STRIDE. One array
+ * for every pond's numbers, so that a pass over the ponds loads one array: a pass over twenty arrays of
+ * two numbers each spends as long loading the arrays as on its arithmetic.
+ */
+/** The stage being solved, and the stage a trial starts from (m). */
+const H = 0;
+const BASE = 1;
+/** Storage (m3 above the floor) and its slope with stage (m2). */
+const STORAGE = 2;
+const SLOPE = 3;
+/** Flow through the pond's outlet (m3/s, negative back) and its partial derivatives in the pond's own stage and in the stage of the pond below (m2/s). */
+const FLOW = 4;
+const BY_OWN = 5;
+const BY_BELOW = 6;
+/** Its step equation's residual and known side, its row's diagonal and right-hand side after the elimination, its Newton step. */
+const RESIDUAL = 7;
+const KNOWN = 8;
+const DIAGONAL = 9;
+const RIGHT = 10;
+const STEP = 11;
 /**
- * The state of a routing and the solution of one step: every array made once per routing, every
- * result left in an array or a field (nothing boxed or allocated per step).
+ * What the ponds draining into it hand it in a pass up (zeroed as it takes them): minus their flows
+ * (its residual), their flows at the step's start (its known side), minus their links' partials in its
+ * stage and their rows' elimination (its diagonal, kept apart so that the sums are those of the
+ * elimination written out), their rows' elimination (its right-hand side), their links' rates (its
+ * time constant).
+ */
+const FLOW_ABOVE = 12;
+const KNOWN_ABOVE = 13;
+const PARTIAL_ABOVE = 14;
+const DIAGONAL_ABOVE = 15;
+const RIGHT_ABOVE = 16;
+const RATE_ABOVE = 17;
+/** The step's start: stage, storage, flow, its own inflow; its own inflow at the step's end. */
+const H1 = 18;
+const S1 = 19;
+const Q1 = 20;
+const I1 = 21;
+const I2 = 22;
+/** Its floor (m). */
+const FLOOR = 23;
+const STRIDE = 24;
+/** A pond's integers in `index`: the record of the pond below (-1 the outfall), its cell of its grid, its link's cell (`LinkTable.cell`) at the last evaluation. */
+const BELOW = 0;
+const CELL = 1;
+const LINK_CELL = 2;
+const INDEX_STRIDE = 3;
+
+/** A pond's tables as the stepper reads them. */
+class PondTables {
+  /** The slope of its storage and outflow in each cell of its grid (made once per table). */
+  readonly storageSlope: Float64Array;
+  readonly outflowSlope: Float64Array | null;
+  constructor(
+    readonly stage: Float64Array,
+    readonly storage: Float64Array,
+    /** A pond at the outfall: its outflow on `stage` (its rating table); null for a pond draining into another. */
+    readonly outflow: Float64Array | null,
+    readonly link: LinkTable | null,
+  ) {
+    this.storageSlope = slopesOf(stage, storage);
+    this.outflowSlope = outflow ? slopesOf(stage, outflow) : null;
+  }
+}
+
+/**
+ * The state of a routing and the solution of one step, the ponds upstream first (each before the pond
+ * it drains into), so that a pass up the array visits every pond after the ponds draining into it and
+ * a pass down the array every pond after the pond below. Every array is made once per routing, every
+ * result left in `state` or a field (nothing boxed or allocated per step).
+ *
+ * A Newton iteration is a pass down the array (`trial`): substitution back gives each pond's Newton
+ * step from the step of the pond below, then its trial stage, then its evaluation there (its storage
+ * and slope, the flow through its outlet and its partials: the pond below's stage is set by then)
+ * and its residual, from which the ponds draining into it take their flows as they come. A short
+ * loop sums the residuals' squares and tells whether every residual is small (`small`); the pass has
+ * told whether the evaluation stayed on the table pieces of the one before (`samePieces`): the test
+ * of convergence. Only if the iteration goes on, a pass up the array (`settle`) eliminates: each pond's
+ * row takes what the ponds draining into it hand down, and hands its own to the pond below. A step's
+ * first pass up also forms each pond's inflow, the known side of its step equation and its residual.
  */
 class SystemStepper {
   readonly n: number;
-  readonly to: Int32Array;
-  /** Ponds upstream first (every pond before the pond it drains into): the order of the elimination. */
-  readonly order: Int32Array;
-  readonly links: (LinkTable | null)[];
-  readonly floor: Float64Array;
-  readonly drained: Float64Array;
-  readonly stage: Float64Array[];
-  readonly storage: Float64Array[];
-  readonly outflow: (Float64Array | null)[];
-  /** The slope of each pond's storage and outflow in each cell of its grid (made once per table). */
-  readonly storageSlope: Float64Array[];
-  readonly outflowSlope: (Float64Array | null)[];
-  /** Each pond's cell of its stage grid (a cursor). */
-  readonly cell: Int32Array;
-  /** Stages being solved, a trial's stages, storage and its slope, flows through each outlet and their partial derivatives. */
-  readonly h: Float64Array;
-  readonly hTry: Float64Array;
-  readonly S: Float64Array;
-  readonly slopeS: Float64Array;
-  readonly q: Float64Array;
-  readonly dqUp: Float64Array;
-  readonly dqDown: Float64Array;
-  /** Residuals, the known side of each step equation, the elimination's diagonal and right-hand side, the Newton step. */
-  readonly F: Float64Array;
-  readonly N: Float64Array;
-  readonly D: Float64Array;
-  readonly R: Float64Array;
-  readonly delta: Float64Array;
-  /** Each pond's rate of net outflow with its own stage (the time constant's). */
-  readonly rates: Float64Array;
-  /** The start of the step: stages, storages, flows. */
-  readonly h1: Float64Array;
-  readonly S1: Float64Array;
-  readonly q1: Float64Array;
-  /**
-   * The pieces of the tables the last evaluation used (storage cell per pond, the link's cell), and
-   * those of the evaluation before: equal, the step's equations are linear between the two.
-   */
-  readonly pieces: Float64Array;
-  readonly piecesBefore: Float64Array;
-  /** 2 / dt of the step being solved (set before `solve`: a field, so that the call boxes nothing). */
+  /** Every pond's record (see STRIDE), and its integers (see INDEX_STRIDE). */
+  readonly state: Float64Array;
+  readonly index: Int32Array;
+  readonly tables: PondTables[];
+  /** 2 / dt of the step being solved, its end (s), and a trial's fraction of the Newton step (fields, so that the calls box nothing). */
   twoOverDt = 0;
-  /** The last `residual` (sum of squares) and `timeConstant`. */
+  t2 = 0;
+  lambda = 1;
+  /** The last pass up: sum of the residuals' squares, whether every residual is small, whether every pond stayed on its pieces. */
   norm = 0;
+  small = false;
+  samePieces = false;
+  /** The last trial's largest stage change (m), the last `timeConstant`. */
+  moved = 0;
   tau = 0;
   beyond = false;
   floored = false;
   iterations = 0;
 
   constructor(
-    readonly ponds: readonly SystemRoutePond[],
+    ponds: readonly SystemRoutePond[],
+    /** The pond each drains into (its place here), -1 the outfall. */
+    to: Int32Array,
+    /** Each pond's own inflow. */
+    readonly cursors: readonly InflowCursor[],
     readonly tauFraction: number,
     /** Weight of the links' rates in the time constant: TIME_CONSTANT_FRACTION over the link's own fraction. */
     readonly linkWeight: number,
   ) {
     const n = (this.n = ponds.length);
-    this.to = Int32Array.from(ponds, (p) => p.to);
-    this.order = upstreamFirst(this.to);
-    this.links = ponds.map((p) => p.link);
-    this.floor = Float64Array.from(ponds, (p) => p.pond.bottom);
-    this.drained = Float64Array.from(ponds, (p) => p.drainedStage);
-    this.stage = ponds.map((p) => p.stage);
-    this.storage = ponds.map((p) => p.storage);
-    this.outflow = ponds.map((p) => p.outflow);
-    this.storageSlope = ponds.map((p) => slopesOf(p.stage, p.storage));
-    this.outflowSlope = ponds.map((p) => (p.outflow ? slopesOf(p.stage, p.outflow) : null));
-    this.cell = new Int32Array(n);
-    const arrays = () => new Float64Array(n);
-    this.h = arrays();
-    this.hTry = arrays();
-    this.S = arrays();
-    this.slopeS = arrays();
-    this.q = arrays();
-    this.dqUp = arrays();
-    this.dqDown = arrays();
-    this.F = arrays();
-    this.N = arrays();
-    this.D = arrays();
-    this.R = arrays();
-    this.delta = arrays();
-    this.rates = arrays();
-    this.h1 = arrays();
-    this.S1 = arrays();
-    this.q1 = arrays();
-    this.pieces = new Float64Array(2 * n);
-    this.piecesBefore = new Float64Array(2 * n);
+    this.tables = ponds.map((p) => new PondTables(p.stage, p.storage, p.outflow, p.link));
+    this.state = new Float64Array(n * STRIDE);
+    this.index = new Int32Array(n * INDEX_STRIDE);
+    for (let i = 0; i < n; i++) {
+      this.state[i * STRIDE + FLOOR] = ponds[i].pond.bottom;
+      this.index[i * INDEX_STRIDE + BELOW] = to[i] < 0 ? -1 : to[i] * STRIDE;
+    }
   }
 
   /** Pond i's storage at stage x (linear between the nodes of its grid), its slope, its cell. */
   storageAt(i: number, x: number): void {
-    const z = this.stage[i];
-    const V = this.storage[i];
+    const { stage: z, storage: V } = this.tables[i];
     const last = z.length - 1;
-    let k = this.cell[i];
+    let k = this.index[i * INDEX_STRIDE + CELL];
     while (k < last - 1 && x > z[k + 1]) k++;
     while (k > 0 && x < z[k]) k--;
-    this.cell[i] = k;
+    this.index[i * INDEX_STRIDE + CELL] = k;
     const s = (V[k + 1] - V[k]) / (z[k + 1] - z[k]);
-    this.slopeS[i] = s;
-    this.S[i] = V[k] + s * (x - z[k]);
+    this.state[i * STRIDE + SLOPE] = s;
+    this.state[i * STRIDE + STORAGE] = V[k] + s * (x - z[k]);
   }
 
-  /** Every pond's storage and the flow through every outlet at the stages `x`, and the table pieces used. */
-  flowsAt(x: Float64Array): void {
-    const n = this.n;
-    const { pieces, piecesBefore, q, dqUp, dqDown, to } = this;
-    const { cell, slopeS, S } = this;
-    for (let i = 0; i < n; i++) {
-      piecesBefore[2 * i] = pieces[2 * i];
-      piecesBefore[2 * i + 1] = pieces[2 * i + 1];
-      // The storage (as `storageAt`, written out: a call would box the stage).
-      const z = this.stage[i];
-      const V = this.storage[i];
-      const xi = x[i];
-      const last = z.length - 1;
-      let k = cell[i];
-      while (k < last - 1 && xi > z[k + 1]) k++;
-      while (k > 0 && xi < z[k]) k--;
-      cell[i] = k;
-      const slope = this.storageSlope[i][k];
-      slopeS[i] = slope;
-      S[i] = V[k] + slope * (xi - z[k]);
-      pieces[2 * i] = k;
-      const link = this.links[i];
-      if (link !== null) {
-        link.lookupIn(x, i, to[i]);
-        q[i] = link.q;
-        dqUp[i] = link.dUp;
-        dqDown[i] = link.dDown;
-        pieces[2 * i + 1] = link.cell;
-        if (link.beyond && x[i] > z[z.length - 1]) this.beyond = true;
-      } else {
-        const O = this.outflow[i]!;
-        const s = this.outflowSlope[i]![k];
-        q[i] = O[k] + s * (xi - z[k]);
-        dqUp[i] = s;
-        dqDown[i] = 0;
-        if (xi > z[last]) this.beyond = true;
+  /**
+   * A pass up the array: the elimination of J delta = -F from the last evaluation, where pond i's row
+   * holds its own stage, the stage of the pond it drains into and those of the ponds draining into it.
+   * The ponds form a tree (each drains into one), so elimination from the upstream ponds down to the
+   * outfall and substitution back up (`trial`) solve it exactly in O(n), without pivoting: each column
+   * of J is diagonally dominant (2 S'/dt plus dQ/dh of the pond's own outlet on the diagonal, the same
+   * dQ/dh and the upstream links' below it). With `start`, first each pond's inflow at the step's end
+   * `t2`, the known side of its step equation,
+   *   N_i = I_i(t1) + I_i(t2) + 2 S_i(t1)/dt - Out_i(t1) + (flows in at t1 from the ponds draining into it),
+   * and its residual at the flows last computed (`norm` their sum of squares): a step's first pass.
+   */
+  settle(start: boolean): void {
+    const { n, state: s, index } = this;
+    const twoOverDt = this.twoOverDt;
+    let norm = 0;
+    for (let i = 0, o = 0, k = 0; i < n; i++, o += STRIDE, k += INDEX_STRIDE) {
+      const below = index[k + BELOW];
+      let f: number;
+      if (start) {
+        const c = this.cursors[i];
+        c.t = this.t2;
+        c.load(false);
+        s[o + I2] = c.value;
+        const known = s[o + I1] + c.value + twoOverDt * s[o + S1] - s[o + Q1] + s[o + KNOWN_ABOVE];
+        s[o + KNOWN] = known;
+        s[o + KNOWN_ABOVE] = 0;
+        const flow = s[o + FLOW];
+        f = twoOverDt * s[o + STORAGE] + flow - known + s[o + FLOW_ABOVE];
+        s[o + RESIDUAL] = f;
+        s[o + FLOW_ABOVE] = 0;
+        if (below >= 0) {
+          s[below + KNOWN_ABOVE] += s[o + Q1];
+          s[below + FLOW_ABOVE] -= flow;
+        }
+        norm += f * f;
+      } else f = s[o + RESIDUAL];
+      // Row i: D_i d_i + dQ_i/dh_below d_below = R_i; the row of the pond below holds -dQ_i/dh_i d_i.
+      const byOwn = s[o + BY_OWN];
+      const d = twoOverDt * s[o + SLOPE] + byOwn + s[o + PARTIAL_ABOVE] + s[o + DIAGONAL_ABOVE];
+      const r = s[o + RIGHT_ABOVE] - f;
+      s[o + DIAGONAL] = d;
+      s[o + RIGHT] = r;
+      s[o + PARTIAL_ABOVE] = 0;
+      s[o + DIAGONAL_ABOVE] = 0;
+      s[o + RIGHT_ABOVE] = 0;
+      if (below >= 0) {
+        const byBelow = s[o + BY_BELOW];
+        s[below + PARTIAL_ABOVE] -= byBelow;
+        if (d !== 0) {
+          s[below + DIAGONAL_ABOVE] += (byOwn * byBelow) / d;
+          s[below + RIGHT_ABOVE] += (byOwn * r) / d;
+        }
       }
     }
-  }
-
-  /** Whether the last two evaluations used the same pieces of every table. */
-  samePieces(): boolean {
-    const { pieces, piecesBefore } = this;
-    for (let i = 0; i < pieces.length; i++) if (pieces[i] !== piecesBefore[i]) return false;
-    return true;
-  }
-
-  /** Whether every pond's residual is what its storage takes up by a stage change under STAGE_TOLERANCE. */
-  small(): boolean {
-    const { n, F, slopeS } = this;
-    for (let i = 0; i < n; i++) if (Math.abs(F[i]) > STAGE_TOLERANCE * this.twoOverDt * slopeS[i]) return false;
-    return true;
-  }
-
-  /** Residual of every pond's step equation at the flows and storages last computed; `norm` its sum of squares. */
-  residual(): void {
-    const { n, F, S, q, N, to } = this;
-    const twoOverDt = this.twoOverDt;
-    for (let i = 0; i < n; i++) F[i] = twoOverDt * S[i] + q[i] - N[i];
-    for (let i = 0; i < n; i++) if (to[i] >= 0) F[to[i]] -= q[i];
-    let sum = 0;
-    for (let i = 0; i < n; i++) sum += F[i] * F[i];
-    this.norm = sum;
+    if (start) this.norm = norm;
   }
 
   /**
-   * The Newton step `delta` of the step equations at the flows last computed: J delta = -F, where pond
-   * i's row holds its own stage, the stage of the pond it drains into and those of the ponds draining
-   * into it. The ponds form a tree (each drains into one), so elimination from the upstream ponds down
-   * to the outfall and substitution back up solve it exactly in O(n), without pivoting: each column of
-   * J is diagonally dominant (2 S'/dt plus dQ/dh of the pond's own outlet on the diagonal, the same
-   * dQ/dh and the upstream links' below it).
+   * The pass down the array (see the class's head). With `move`, each pond's trial stage at `lambda`
+   * of the Newton step from its stage BASE, no lower than its floor (`substitute`: the Newton step
+   * first, by substitution back from the last elimination and the step of the pond below, and BASE the
+   * stage now solved); then each pond evaluated at its stage H (the pond below's is set by then): its
+   * storage and slope, the flow through its outlet and its partials, and its residual
+   * F_i = 2 S_i/dt + Out_i - In_i - N_i, In_i the flows of the ponds draining into it, which take theirs
+   * from it as they come. Then `norm`, `small`, `samePieces`.
    */
-  newtonStep(): void {
-    const { n, D, R, F, to, order, slopeS, dqUp, dqDown, delta } = this;
+  trial(move: boolean, substitute: boolean): void {
+    const { n, state: s, index, tables } = this;
+    const lambda = this.lambda;
     const twoOverDt = this.twoOverDt;
-    for (let i = 0; i < n; i++) {
-      D[i] = twoOverDt * slopeS[i] + dqUp[i];
-      R[i] = -F[i];
+    let moved = 0;
+    let same = true;
+    for (let i = n - 1, o = i * STRIDE, k = i * INDEX_STRIDE; i >= 0; i--, o -= STRIDE, k -= INDEX_STRIDE) {
+      const below = index[k + BELOW];
+      let x: number;
+      if (move) {
+        let base: number;
+        let step: number;
+        if (substitute) {
+          const r = below < 0 ? s[o + RIGHT] : s[o + RIGHT] - s[o + BY_BELOW] * s[below + STEP];
+          const d = s[o + DIAGONAL];
+          step = d !== 0 ? r / d : 0;
+          s[o + STEP] = step;
+          base = s[o + H];
+          s[o + BASE] = base;
+        } else {
+          base = s[o + BASE];
+          step = s[o + STEP];
+        }
+        x = base + lambda * step;
+        if (x < s[o + FLOOR]) {
+          // A pond cannot hold less than nothing: it is empty (the single router's clamp).
+          x = s[o + FLOOR];
+          this.floored = true;
+        }
+        s[o + H] = x;
+        const m = Math.abs(x - base);
+        if (m > moved) moved = m;
+      } else x = s[o + H];
+      // The storage in the cell of the grid holding the stage (walked from the last one).
+      const table = tables[i];
+      const z = table.stage;
+      const last = z.length - 2;
+      let c = index[k + CELL];
+      while (c < last && x > z[c + 1]) c++;
+      while (c > 0 && x < z[c]) c--;
+      if (c !== index[k + CELL]) same = false;
+      index[k + CELL] = c;
+      const slope = table.storageSlope[c];
+      s[o + SLOPE] = slope;
+      const storage = table.storage[c] + slope * (x - z[c]);
+      s[o + STORAGE] = storage;
+      const link = table.link;
+      let flow: number;
+      if (link !== null) {
+        link.lookupIn(s, o + H, below + H);
+        flow = link.q;
+        s[o + BY_OWN] = link.dUp;
+        s[o + BY_BELOW] = link.dDown;
+        if (link.cell !== index[k + LINK_CELL]) same = false;
+        index[k + LINK_CELL] = link.cell;
+        if (link.beyond && x > z[last + 1]) this.beyond = true;
+      } else {
+        const by = table.outflowSlope![c];
+        flow = table.outflow![c] + by * (x - z[c]);
+        s[o + BY_OWN] = by;
+        s[o + BY_BELOW] = 0;
+        if (x > z[last + 1]) this.beyond = true;
+      }
+      s[o + FLOW] = flow;
+      s[o + RESIDUAL] = twoOverDt * storage + flow - s[o + KNOWN];
+      if (below >= 0) s[below + RESIDUAL] -= flow;
     }
-    for (let i = 0; i < n; i++) if (to[i] >= 0) D[to[i]] -= dqDown[i];
-    for (let k = 0; k < n; k++) {
-      const i = order[k];
-      const down = to[i];
-      if (down < 0 || D[i] === 0) continue;
-      // Row i: D_i d_i + dQ_i/dh_down d_down = R_i; the pond below holds -dQ_i/dh_i d_i.
-      D[down] += (dqUp[i] * dqDown[i]) / D[i];
-      R[down] += (dqUp[i] * R[i]) / D[i];
+    this.moved = moved;
+    this.samePieces = same;
+    let norm = 0;
+    let small = true;
+    for (let o = 0; o < n * STRIDE; o += STRIDE) {
+      const f = s[o + RESIDUAL];
+      norm += f * f;
+      if (Math.abs(f) > STAGE_TOLERANCE * twoOverDt * s[o + SLOPE]) small = false;
     }
-    for (let k = n - 1; k >= 0; k--) {
-      const i = order[k];
-      const down = to[i];
-      const r = down < 0 ? R[i] : R[i] - dqDown[i] * delta[down];
-      delta[i] = D[i] !== 0 ? r / D[i] : 0;
-    }
+    this.norm = norm;
+    this.small = small;
   }
 
   /**
-   * Newton's method on the step equations for dt from the step's start; true when converged (the
-   * stages end in `h`). `fresh`: the flows last computed are those at the start (not evaluated again).
+   * Newton's method on the step equations for dt (`twoOverDt`) from the step's start to `t2`; true
+   * when converged (the stages end in H, RESIDUAL holds the residual there). `fresh`: the flows last
+   * computed are those at the start (not evaluated again).
    */
   solve(fresh: boolean): boolean {
-    const { n, h, hTry, h1, delta, floor } = this;
     this.floored = false;
-    for (let i = 0; i < n; i++) h[i] = h1[i];
-    if (!fresh) this.flowsAt(h);
-    this.residual();
+    if (!fresh) {
+      for (let o = 0; o < this.state.length; o += STRIDE) this.state[o + H] = this.state[o + H1];
+      this.trial(false, false);
+    }
+    this.settle(true);
     let norm = this.norm;
     for (let iteration = 0; iteration < NEWTON_ITERATIONS; iteration++) {
       this.iterations++;
-      this.newtonStep();
-      // Backtracking: the full step unless it raises the residual.
-      let lambda = 1;
+      if (iteration > 0) this.settle(false);
+      // Backtracking: the full step unless it raises the residual. Not accepted, the stages are the
+      // last trial's (evaluated).
+      this.lambda = 1;
       let accepted = false;
-      let moved = 0;
       for (let attempt = 0; attempt < 8; attempt++) {
-        moved = 0;
-        for (let i = 0; i < n; i++) {
-          let x = h[i] + lambda * delta[i];
-          if (x < floor[i]) {
-            // A pond cannot hold less than nothing: it is empty (the single router's clamp).
-            x = floor[i];
-            this.floored = true;
-          }
-          hTry[i] = x;
-          const m = Math.abs(x - h[i]);
-          if (m > moved) moved = m;
-        }
-        this.flowsAt(hTry);
-        this.residual();
-        if (this.norm <= norm || moved <= NEWTON_TOLERANCE) {
+        this.trial(true, attempt === 0);
+        if (this.norm <= norm || this.moved <= NEWTON_TOLERANCE) {
           norm = this.norm;
           accepted = true;
           break;
         }
-        lambda *= 0.5;
-      }
-      for (let i = 0; i < n; i++) h[i] = hTry[i];
-      if (!accepted) {
-        this.flowsAt(h);
-        this.residual();
+        this.lambda *= 0.5;
       }
       // Converged: a negligible move, a full step that stayed on the pieces of the tables its Jacobian
       // came from (there the equations are linear, up to the links' bilinear cross term), or one whose
       // residual each pond's storage alone would take up by a stage change under STAGE_TOLERANCE.
-      if (moved <= NEWTON_TOLERANCE || norm === 0) return true;
-      if (accepted && lambda === 1 && !this.floored && (this.samePieces() || this.small())) return true;
+      if (this.moved <= NEWTON_TOLERANCE || norm === 0) return true;
+      if (accepted && this.lambda === 1 && !this.floored && (this.samePieces || this.small)) return true;
     }
     return false;
   }
 
   /**
-   * After a converged step: each pond's storage is set to what its step equation holds exactly at the
-   * flows found, so that no volume is lost or made by what Newton's method left (the residual of a
-   * step accepted on one piece of the tables, the links' bilinear cross term: a stage some micrometres
-   * off its storage at most). The mass balance then closes to rounding.
-   */
-  conserve(): void {
-    // `F` holds the residual at the stages `solve` ended on (every evaluation there is followed by one).
-    const { n, S, F } = this;
-    const halfDt = 1 / this.twoOverDt;
-    for (let i = 0; i < n; i++) S[i] -= F[i] * halfDt;
-  }
-
-  /**
-   * Time-constant limit of the step (`tau`): the shortest among the ponds at the stages `x` (flows
+   * Time-constant limit of the step (`tau`): the shortest among the ponds at the stages solved (flows
    * computed) of a pond's storage slope over the rate at which its net outflow rises with its stage.
    * A link's rate is its interpolant's slope (with the upstream stage, or minus it with the
    * downstream one), but near equal levels (where it grows like 1/sqrt of the difference) no more
-   * than the chord from the level of the pond below to CHORD_DIFFERENCE above it (`chords`).
+   * than the chord from the level of the pond below to CHORD_DIFFERENCE above it. One pass up the
+   * array: a pond's rate is complete when the ponds draining into it have handed theirs.
    */
-  timeConstant(x: Float64Array): void {
-    const { n, links, to, dqUp, dqDown, slopeS, rates } = this;
-    for (let i = 0; i < n; i++) rates[i] = links[i] === null ? dqUp[i] : 0;
-    for (let j = 0; j < n; j++) {
-      const link = links[j];
-      if (link === null) continue;
-      let up = dqUp[j];
-      let down = -dqDown[j];
-      const d = x[j] - x[to[j]];
-      if (d < CHORD_DIFFERENCE && d > -CHORD_DIFFERENCE) {
-        link.lookupChord(x, to[j]);
-        const chord = Math.abs(link.q) / CHORD_DIFFERENCE;
-        if (chord < up) up = chord;
-        if (chord < down) down = chord;
-      }
-      rates[j] += this.linkWeight * up;
-      rates[to[j]] += this.linkWeight * down;
-    }
+  timeConstant(): void {
+    const { n, state: s, index, tables } = this;
     let tau = Infinity;
-    for (let i = 0; i < n; i++) {
-      if (rates[i] > 0) {
-        const t = (this.tauFraction * slopeS[i]) / rates[i];
+    for (let i = 0, o = 0, k = 0; i < n; i++, o += STRIDE, k += INDEX_STRIDE) {
+      const link = tables[i].link;
+      let rate = (link === null ? s[o + BY_OWN] : 0) + s[o + RATE_ABOVE];
+      s[o + RATE_ABOVE] = 0;
+      if (link !== null) {
+        const below = index[k + BELOW];
+        let up = s[o + BY_OWN];
+        let fall = -s[o + BY_BELOW];
+        const d = s[o + H] - s[below + H];
+        if (d < CHORD_DIFFERENCE && d > -CHORD_DIFFERENCE) {
+          link.lookupChord(s, below + H);
+          const chord = Math.abs(link.q) / CHORD_DIFFERENCE;
+          if (chord < up) up = chord;
+          if (chord < fall) fall = chord;
+        }
+        rate += this.linkWeight * up;
+        s[below + RATE_ABOVE] += this.linkWeight * fall;
+      }
+      if (rate > 0) {
+        const t = (this.tauFraction * s[o + SLOPE]) / rate;
         if (t < tau) tau = t;
       }
     }
@@ -505,11 +563,17 @@ class SystemStepper {
 export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly (Hydrograph | null)[], options: SystemRouteOptions = {}): SystemRouteResult {
   routingTally.count++;
   const n = ponds.length;
+  // The stepper's order, upstream first: `order[k]` is the pond at place k, `place[p]` pond p's place.
+  const order = upstreamFirst(Int32Array.from(ponds, (p) => p.to));
+  const place = new Int32Array(n);
+  order.forEach((p, k) => (place[p] = k));
+  const placed = Array.from(order, (p) => ponds[p]);
+  const to = Int32Array.from(placed, (p) => (p.to < 0 ? -1 : place[p.to]));
   const fixed = options.step;
   const maxStep = options.maxStep ?? 600;
   const minStep = options.minStep ?? 1;
   const tauFraction = options.timeConstantFraction ?? TIME_CONSTANT_FRACTION;
-  const cursors = ponds.map((_, i) => new InflowCursor(inflows[i] ?? null, options.inflowFraction ?? 0.01));
+  const cursors = Array.from(order, (p) => new InflowCursor(inflows[p] ?? null, options.inflowFraction ?? 0.01));
   let tFirst = Infinity;
   let tLast = -Infinity;
   for (const c of cursors) {
@@ -522,12 +586,11 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   }
   const tEnd = tLast + (options.maxAfterInflow ?? TEN_DAYS);
 
-  const stepper = new SystemStepper(ponds, tauFraction, tauFraction / (options.linkTimeConstantFraction ?? LINK_TIME_CONSTANT_FRACTION));
-  const { h, S, q, N, S1, q1, h1, to } = stepper;
-  const I1 = new Float64Array(n);
-  const I2 = new Float64Array(n);
+  const stepper = new SystemStepper(placed, to, cursors, tauFraction, tauFraction / (options.linkTimeConstantFraction ?? LINK_TIME_CONSTANT_FRACTION));
+  const s = stepper.state;
   const drainedStorage = new Float64Array(n);
-  // Per pond results.
+  const drained = Float64Array.from(placed, (p) => p.drainedStage);
+  // Per pond results, by place.
   const maxStage = new Float64Array(n);
   const timeOfMaxStage = new Float64Array(n);
   const maxStorage = new Float64Array(n);
@@ -536,49 +599,54 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   const peakBack = new Float64Array(n);
   const timeOfPeakBack = new Float64Array(n);
   const peakTotalIn = new Float64Array(n);
+  /** What the ponds draining into each pond send it forward in a step (its total inflow's). */
+  const forwardAbove = new Float64Array(n);
   const volumeForward = new Float64Array(n);
   const volumeBack = new Float64Array(n);
   const drainedAt = new Float64Array(n);
   const S0 = new Float64Array(n);
 
   for (let i = 0; i < n; i++) {
-    const p = ponds[i];
-    h[i] = p.startStage;
+    const p = placed[i];
+    s[i * STRIDE + H] = p.startStage;
     if (p.drainedStage <= p.stage[0]) drainedStorage[i] = 0;
     else {
       stepper.storageAt(i, Math.min(p.drainedStage, p.stage[p.stage.length - 1]));
-      drainedStorage[i] = S[i];
+      drainedStorage[i] = s[i * STRIDE + STORAGE];
     }
   }
-  stepper.flowsAt(h);
+  // The storages and flows at the start (the pass's residuals and elimination are not used).
+  stepper.trial(false, false);
   let t = tFirst;
-  for (let i = 0; i < n; i++) {
+  let outfall1 = 0;
+  let peakSystemIn = 0;
+  for (let i = 0, o = 0; i < n; i++, o += STRIDE) {
     cursors[i].t = t;
     cursors[i].load(true);
-    I1[i] = cursors[i].value;
-    S1[i] = S[i];
-    S0[i] = S[i];
-    q1[i] = q[i];
-    h1[i] = h[i];
-    maxStage[i] = h[i];
+    const x = s[o + H];
+    const q = s[o + FLOW];
+    s[o + I1] = cursors[i].value;
+    s[o + S1] = s[o + STORAGE];
+    s[o + Q1] = q;
+    s[o + H1] = x;
+    S0[i] = s[o + STORAGE];
+    maxStage[i] = x;
     timeOfMaxStage[i] = t;
-    maxStorage[i] = S[i];
-    drainedAt[i] = h[i] <= ponds[i].drainedStage ? t : NaN;
-    if (q[i] > 0) {
-      peakForward[i] = q[i];
+    maxStorage[i] = s[o + STORAGE];
+    drainedAt[i] = x <= drained[i] ? t : NaN;
+    if (q > 0) {
+      peakForward[i] = q;
       timeOfPeakForward[i] = t;
-    } else if (q[i] < 0) {
-      peakBack[i] = -q[i];
+    } else if (q < 0) {
+      peakBack[i] = -q;
       timeOfPeakBack[i] = t;
     }
+    if (to[i] < 0) outfall1 += q;
+    peakSystemIn += s[o + I1];
   }
-  let outfall1 = 0;
-  for (let i = 0; i < n; i++) if (to[i] < 0) outfall1 += q[i];
   let peakOutfall = outfall1;
   let timeOfPeakOutfall = t;
   let volumeOutfall = 0;
-  let peakSystemIn = 0;
-  for (let i = 0; i < n; i++) peakSystemIn += I1[i];
 
   // The point of analysis: the flow reaching the outfall plus the bypass (the single router's tracker).
   const points = new PointsOfAnalysis(options.bypass, options.downstream);
@@ -590,10 +658,15 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   ceiling?.compare(t, points.atPoint(t, outfall1));
 
   const record = options.record === true;
+  const at = (p: number, field: number) => [s[place[p] * STRIDE + field]];
   const series: SystemSeries | undefined = record
-    ? { time: [t], outfall: [outfall1], stage: ponds.map((_, i) => [h[i]]), inflow: ponds.map((_, i) => [I1[i]]), outflow: ponds.map((_, i) => [q[i]]) }
+    ? { time: [t], outfall: [outfall1], stage: ponds.map((_, p) => at(p, H)), inflow: ponds.map((_, p) => at(p, I1)), outflow: ponds.map((_, p) => at(p, FLOW)) }
     : undefined;
   if (series && point) series.bypass = [point.at(t)];
+  // Each pond's series by its place.
+  const stageSeries = series ? Array.from(order, (p) => series.stage[p]) : [];
+  const inflowSeries = series ? Array.from(order, (p) => series.inflow[p]) : [];
+  const outflowSeries = series ? Array.from(order, (p) => series.outflow[p]) : [];
 
   let steps = 0;
   let smallest = Infinity;
@@ -602,8 +675,21 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   let redone = 0;
   let unconverged = 0;
   let clamped = 0;
-  stepper.timeConstant(h);
+  stepper.timeConstant();
   let tau = stepper.tau;
+  // The automatic step's limits from the inflows at t (walked again at each step's end): the longest
+  // step in which no pond's inflow changes by more than its share of its peak, and the next inflow point.
+  const automatic = fixed === undefined;
+  let byInflow = maxStep;
+  let next = Infinity;
+  if (automatic && t < tLast) {
+    for (const c of cursors) {
+      c.t = t;
+      c.advance();
+      if (c.rate > 0 && c.change / c.rate < byInflow) byInflow = c.change / c.rate;
+      if (c.nextPoint < next) next = c.nextPoint;
+    }
+  }
 
   while (true) {
     let dt: number;
@@ -611,18 +697,7 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     if (fixed !== undefined) {
       dt = fixed;
     } else {
-      dt = maxStep;
-      let next = Infinity;
-      if (t < tLast) {
-        for (let i = 0; i < n; i++) {
-          const c = cursors[i];
-          c.t = t;
-          c.advance();
-          if (c.rate > 0 && c.change / c.rate < dt) dt = c.change / c.rate;
-          if (c.nextPoint < next) next = c.nextPoint;
-        }
-      }
-      const byInflow = dt;
+      dt = byInflow;
       if (tau < dt) dt = tau;
       if (dt < minStep) dt = minStep;
       if (dt < byInflow) refined++;
@@ -632,25 +707,19 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       }
     }
     let fresh = true;
+    let conserve: boolean;
     for (;;) {
       t2 = t + dt;
-      const twoOverDt = 2 / dt;
-      for (let i = 0; i < n; i++) {
-        cursors[i].t = t2;
-        cursors[i].load(false);
-        I2[i] = cursors[i].value;
-        N[i] = I1[i] + I2[i] + twoOverDt * S1[i] - q1[i];
-      }
-      for (let i = 0; i < n; i++) if (to[i] >= 0) N[to[i]] += q1[i];
-      stepper.twoOverDt = twoOverDt;
+      stepper.t2 = t2;
+      stepper.twoOverDt = 2 / dt;
       const converged = stepper.solve(fresh);
-      if (converged && !stepper.floored) stepper.conserve();
+      conserve = converged && !stepper.floored;
       fresh = false;
       if (fixed !== undefined) {
         if (!converged) unconverged++;
         break;
       }
-      stepper.timeConstant(h);
+      stepper.timeConstant();
       const tauEnd = stepper.tau;
       if (!converged) {
         unconverged++;
@@ -670,15 +739,28 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
     if (fixed !== undefined) tau = Infinity;
     if (stepper.floored) clamped++;
 
-    // Bookkeeping.
+    // Bookkeeping, one pass up the array; the step's end becomes the next step's start.
     steps++;
     if (dt < smallest) smallest = dt;
     if (dt > largest) largest = dt;
+    // After a converged step each pond's storage is what its step equation holds exactly at the flows
+    // found (RESIDUAL holds the residual where `solve` ended), so that no volume is lost or made by
+    // what Newton's method left (the residual of a step accepted on one piece of the tables, the
+    // links' bilinear cross term: a stage some micrometres off its storage at most). The mass balance
+    // then closes to rounding.
+    const halfDt = 1 / stepper.twoOverDt;
     let outfall2 = 0;
     let systemIn = 0;
-    for (let i = 0; i < n; i++) {
-      const a = q1[i];
-      const b = q[i];
+    let allDrained = true;
+    let stored = 0;
+    const walk = automatic && t2 < tLast;
+    byInflow = maxStep;
+    next = Infinity;
+    for (let i = 0, o = 0; i < n; i++, o += STRIDE) {
+      if (conserve) s[o + STORAGE] -= s[o + RESIDUAL] * halfDt;
+      const storage = s[o + STORAGE];
+      const a = s[o + Q1];
+      const b = s[o + FLOW];
       // The trapezoid of the flow through outlet i, split where it changes sign.
       if (a >= 0 && b >= 0) volumeForward[i] += 0.5 * (a + b) * dt;
       else if (a <= 0 && b <= 0) volumeBack[i] -= 0.5 * (a + b) * dt;
@@ -700,22 +782,45 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
         peakBack[i] = -b;
         timeOfPeakBack[i] = t2;
       }
-      if (to[i] < 0) outfall2 += b;
-      systemIn += I2[i];
-      if (h[i] > maxStage[i]) {
-        maxStage[i] = h[i];
+      const x = s[o + H];
+      const x1 = s[o + H1];
+      if (x > maxStage[i]) {
+        maxStage[i] = x;
         timeOfMaxStage[i] = t2;
-        maxStorage[i] = S[i];
+        maxStorage[i] = storage;
         drainedAt[i] = NaN;
       }
-      const drained = stepper.drained[i];
-      if (h[i] <= drained && !(h1[i] <= drained)) drainedAt[i] = t2 - (dt * (drained - h[i])) / (h1[i] - h[i]);
-      else if (h[i] > drained) drainedAt[i] = NaN;
-    }
-    for (let i = 0; i < n; i++) {
-      let total = I2[i] + (q[i] < 0 ? -q[i] : 0);
-      for (let j = 0; j < n; j++) if (to[j] === i && q[j] > 0) total += q[j];
+      const level = drained[i];
+      if (x <= level && !(x1 <= level)) drainedAt[i] = t2 - (dt * (level - x)) / (x1 - x);
+      else if (x > level) drainedAt[i] = NaN;
+      // Its total inflow: its own, what flows back through its outlet, what the ponds above send.
+      const inflow = s[o + I2];
+      const total = inflow + (b < 0 ? -b : 0) + forwardAbove[i];
+      forwardAbove[i] = 0;
       if (total > peakTotalIn[i]) peakTotalIn[i] = total;
+      const down = to[i];
+      if (down < 0) outfall2 += b;
+      else if (b > 0) forwardAbove[down] += b;
+      systemIn += inflow;
+      if (record) {
+        stageSeries[i].push(x);
+        inflowSeries[i].push(inflow);
+        outflowSeries[i].push(b);
+      }
+      // After a pond's last inflow point its inflow is zero; elsewhere it runs on from its value at t2.
+      const c = cursors[i];
+      s[o + I1] = t2 === c.last ? 0 : t2 === c.first ? c.flows[0] : inflow;
+      if (walk) {
+        c.t = t2;
+        c.advance();
+        if (c.rate > 0 && c.change / c.rate < byInflow) byInflow = c.change / c.rate;
+        if (c.nextPoint < next) next = c.nextPoint;
+      }
+      s[o + S1] = storage;
+      s[o + Q1] = b;
+      s[o + H1] = x;
+      if (x > level) allDrained = false;
+      if (storage > drainedStorage[i]) stored += storage - drainedStorage[i];
     }
     if (systemIn > peakSystemIn) peakSystemIn = systemIn;
     volumeOutfall += 0.5 * (outfall1 + outfall2) * dt;
@@ -729,25 +834,9 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       series!.time.push(t2);
       series!.outfall.push(outfall2);
       if (point) series!.bypass!.push(point.at(t2));
-      for (let i = 0; i < n; i++) {
-        series!.stage[i].push(h[i]);
-        series!.inflow[i].push(I2[i]);
-        series!.outflow[i].push(q[i]);
-      }
     }
     t = t2;
     outfall1 = outfall2;
-    let allDrained = true;
-    let stored = 0;
-    for (let i = 0; i < n; i++) {
-      // After a pond's last inflow point its inflow is zero; elsewhere it runs on from its value at t.
-      I1[i] = t === cursors[i].last ? 0 : t === cursors[i].first ? cursors[i].h!.flows[0] : I2[i];
-      S1[i] = S[i];
-      q1[i] = q[i];
-      h1[i] = h[i];
-      if (h[i] > stepper.drained[i]) allDrained = false;
-      if (S[i] > drainedStorage[i]) stored += S[i] - drainedStorage[i];
-    }
     if (t >= tLast) {
       if ((allDrained && t >= tPoint) || t >= tEnd) break;
       // With no inflow left the outflow only falls: if even the present flow to the outfall kept up
@@ -764,16 +853,17 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   const stepping = { duration: t - tFirst, steps, smallestStep: smallest, largestStep: largest, refinedSteps: refined, redoneSteps: redone, clampedSteps: clamped, beyondTable: beyond };
   // A system's ponds do not exfiltrate (the loader refuses exfiltration in a system).
   const noExfiltration = { volumeExfiltrated: 0, peakExfiltration: 0 };
-  const results: PondRouteResult[] = ponds.map((p, i) => {
-    const own = inflows[i] ? hydrographVolume(inflows[i]!) : 0;
+  const results: PondRouteResult[] = ponds.map((p, pond) => {
+    const i = place[pond];
+    const own = inflows[pond] ? hydrographVolume(inflows[pond]!) : 0;
     let received = volumeBack[i];
-    let given = volumeForward[i];
+    let sent = volumeForward[i];
     for (let j = 0; j < n; j++) {
-      if (ponds[j].to !== i) continue;
+      if (to[j] !== i) continue;
       received += volumeForward[j];
-      given += volumeBack[j];
+      sent += volumeBack[j];
     }
-    const change = S[i] - S0[i];
+    const change = s[i * STRIDE + STORAGE] - S0[i];
     volumeIn += own;
     storageChange += change;
     const into = own + received;
@@ -796,9 +886,9 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
       timeOfMaxStage: timeOfMaxStage[i],
       maxStorage: maxStorage[i],
       volumeIn: into,
-      volumeOut: given,
+      volumeOut: sent,
       storageChange: change,
-      massBalanceError: into > 0 ? (into - given - change) / into : 0,
+      massBalanceError: into > 0 ? (into - sent - change) / into : 0,
       drawdownTime,
       ...noExfiltration,
       ...stepping,
