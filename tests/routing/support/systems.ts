@@ -95,3 +95,36 @@ export const equaliserPipe = {
   ],
   storms: orificeLinkWithReverse.storms,
 };
+
+/**
+ * Five ponds in a tree (SI), listed downstream first: east (a short 300-mm pipe, flow back when the
+ * middle pond rises above it) and north into middle, middle and west into south, south to a free
+ * outfall. Two ponds drain into middle and two into south, so the elimination gathers several rows
+ * into one.
+ */
+export const treeOfPonds = {
+  name: "Five ponds in a tree (invented)",
+  units: "SI",
+  ponds: [
+    threePonds.ponds[2],
+    { ...threePonds.ponds[1], to: "south" },
+    { ...threePonds.ponds[0], name: "west", to: "south" },
+    threePonds.ponds[0],
+    {
+      ...threePonds.ponds[0],
+      name: "east",
+      pond: { ...threePonds.ponds[0].pond, bottom: 30.8 },
+      outlet: { elements: [], barrel: { shape: "circular", diameter: "300 mm", length: 20, inletInvert: 30.8, outletInvert: 30.7, manningN: 0.013, entrance: "concrete-square-headwall" } },
+    },
+  ],
+  storms: [
+    {
+      ...threePonds.storms[0],
+      inflows: {
+        ...threePonds.storms[0].inflows,
+        east: { series: [[0, 0], [30, 0.9], [60, 0.2], [100, 0]] },
+        west: { series: [[0, 0], [10, 0.4], [50, 0.1], [80, 0]] },
+      },
+    },
+  ],
+};
