@@ -285,8 +285,9 @@ class PondTables {
 /**
  * The state of a routing and the solution of one step, the ponds upstream first (each before the pond
  * it drains into), so that a pass up the array visits every pond after the ponds draining into it and
- * a pass down the array every pond after the pond below. Every array is made once per routing, every
- * result left in `state` or a field (nothing boxed or allocated per step).
+ * a pass down the array every pond after the pond below. Every array is made once per routing (the
+ * state kept for the next), every result left in `state` or a field (nothing boxed or allocated per
+ * step).
  *
  * A Newton iteration is a pass down the array (`trial`): substitution back gives each pond's Newton
  * step from the step of the pond below, then its trial stage, then its evaluation there (its storage
@@ -308,7 +309,7 @@ class SystemStepper {
   twoOverDt = 0;
   t2 = 0;
   lambda = 1;
-  /** The last pass up: sum of the residuals' squares, whether every residual is small, whether every pond stayed on its pieces. */
+  /** The last evaluation (`trial`; `norm` also a step's first pass up): sum of the residuals' squares, whether every residual is small, whether every pond stayed on its pieces. */
   norm = 0;
   small = false;
   samePieces = false;
