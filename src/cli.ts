@@ -177,7 +177,7 @@ function searchOptions(command: Command, extra: (command: Command) => Command): 
     .option("--keep-barrel", "keep the existing barrel as it is")
     .addOption(withDefault("--rank <order>", "cost (cheapest compliant first), change (with an existing outlet: the smallest change to it first) or robust (the largest reserve below the limit level with 10 and 20 % more inflow, the openings half clogged and, if any, the tailwater 0.5 ft / 0.15 m higher, first; no cost bar, so a longer budget explores further)", "cost"));
   return extra(command)
-    .option("--workers <n>", "worker threads fitting layouts (default: the main thread for the first 2 s, then all cores once the routings the run may still spend would take at least 6 s at its rate so far; the ranking does not depend on it)")
+    .option("--workers <n>", "worker threads fitting layouts (default: the main thread for the first 2 s, then all cores once the routings the run may still spend would take at least 6 s at its rate so far, 30 s for a system of ponds; the ranking does not depend on it)")
     .option("--quiet", "no progress and no notes on stderr")
     .option("--check", "exit with code 1 when no compliant design is found");
 }

@@ -12,7 +12,7 @@ import { createHash } from "node:crypto";
 import { Journal, JOURNAL_VERSION, readJournal } from "./journal.js";
 import type { ScoreOutcome } from "../engine/scoring.js";
 import { ProgressReporter } from "../report/progress.js";
-import { AdaptiveFitter, WorkerFitter, worthSpreading, type RunSoFar } from "../parallel/pool.js";
+import { AdaptiveFitter, SPREAD_SECONDS, SYSTEM_SPREAD_SECONDS, WorkerFitter, worthSpreading, type RunSoFar } from "../parallel/pool.js";
 import { InlineFitter, type LayoutFitter } from "../engine/fitter.js";
 
 /** Exit code of a run stopped by SIGINT or SIGTERM (results of the work done are written). */
@@ -134,7 +134,7 @@ export async function designCommand(path: string, options: DesignCommandOptions)
   const runBudget = { routings: budget.routings, seconds: budget.seconds };
   const fitter: LayoutFitter =
     chosenWorkers === undefined
-      ? new AdaptiveFitter(problem, source, settings, workers, () => worthSpreading(soFar, runBudget))
+      ? new AdaptiveFitter(problem, source, settings, workers, () => worthSpreading(soFar, runBudget, problem.system ? SYSTEM_SPREAD_SECONDS : SPREAD_SECONDS))
       : workers > 1
         ? new WorkerFitter(problem, source, settings, workers)
         : new InlineFitter(problem, settings);

@@ -251,6 +251,17 @@ export class WorkerFitter implements LayoutFitter {
  * machine, and two workers there give about 1.4x one thread, so a rest shorter than this is done
  * sooner in one thread). */
 export const SPREAD_SECONDS = 6;
+/**
+ * The same for a system of ponds, whose search gains less from workers: each worker tabulates its
+ * own links and routes whole systems, and two workers gave 1.19x one thread on a 60,000-routing design
+ * of the two-ponds demo (18.1 s against 15.2 s) and nothing on the default 20,000 (8.4 against 8.8 s),
+ * where the default spread and took 9.6 s against 7.7 s (`npm run bench defaults`, this 2-core
+ * machine, idle, 5 December 2026). At 1.2x, spreading pays back its start of about 2 s only on a
+ * rest of 12 s or more; and the rate of a system's first seconds (its plan, its links tabulated, its
+ * code compiling) projects about three times the rest (17 s against 5 s left on the default two-ponds
+ * run): so 30 s projected.
+ */
+export const SYSTEM_SPREAD_SECONDS = 30;
 /** Seconds a run stays in one thread whatever it projects: until it spreads the default does exactly
  * what one thread does (its first compliant design is never later), and the rate measured before
  * then, while the code is still compiling, projects far too long a rest (the bench's default against
@@ -270,14 +281,15 @@ export interface RunSoFar {
 /**
  * Whether the rest of a run is worth the workers' start: not before SETTLE_SECONDS; then, with a
  * time budget, its time left; with a routing budget, the routings its parts may still spend (else the
- * budget's) at the rate so far (unknown before any is counted: not yet).
+ * budget's) at the rate so far (unknown before any is counted: not yet), at least `rest` seconds
+ * (SPREAD_SECONDS; SYSTEM_SPREAD_SECONDS for a system of ponds).
  */
-export function worthSpreading(so: RunSoFar, budget: { routings: number; seconds?: number }): boolean {
+export function worthSpreading(so: RunSoFar, budget: { routings: number; seconds?: number }, rest = SPREAD_SECONDS): boolean {
   if (so.seconds < SETTLE_SECONDS) return false;
-  if (budget.seconds !== undefined) return budget.seconds - so.seconds >= SPREAD_SECONDS;
+  if (budget.seconds !== undefined) return budget.seconds - so.seconds >= rest;
   if (!(so.routings > 0) || !(so.seconds > 0)) return false;
   const left = so.routingsLeft ?? budget.routings - so.routings;
-  return (left * so.seconds) / so.routings >= SPREAD_SECONDS;
+  return (left * so.seconds) / so.routings >= rest;
 }
 
 /**

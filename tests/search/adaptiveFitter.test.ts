@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
-import { SETTLE_SECONDS, SPREAD_SECONDS, worthSpreading } from "../../search/parallel/pool.js";
+import { SETTLE_SECONDS, SPREAD_SECONDS, SYSTEM_SPREAD_SECONDS, worthSpreading } from "../../search/parallel/pool.js";
 
 const dist = (path: string) => pathToFileURL(join(process.cwd(), "dist", path)).href;
 const CASE = join(process.cwd(), "cases/small-compliant/case.json");
@@ -30,6 +30,17 @@ describe("spreading a run over the workers", () => {
     expect(worthSpreading({ routings: 20000, seconds: 5 }, { routings: 20000 })).toBe(false);
     // The parts' own routings left, when the progress gives them (parts that stopped early spend nothing more).
     expect(worthSpreading({ routings: 5000, seconds: 2, routingsLeft: 4000 }, { routings: 20000 })).toBe(false);
+  });
+
+  it("a system of ponds spreads only on a rest of SYSTEM_SPREAD_SECONDS (its workers gain less)", () => {
+    expect(SYSTEM_SPREAD_SECONDS).toBe(30);
+    // 15000 at 2500/s: 6 s, worth it for one pond, not for a system.
+    expect(worthSpreading({ routings: 5000, seconds: 2 }, { routings: 20000 }, SYSTEM_SPREAD_SECONDS)).toBe(false);
+    // The default two-ponds run as its first progress report saw it: 17 s projected (5 s were left).
+    expect(worthSpreading({ routings: 2600, seconds: 2.6 }, { routings: 20000 }, SYSTEM_SPREAD_SECONDS)).toBe(false);
+    expect(worthSpreading({ routings: 5000, seconds: 2 }, { routings: 80000 }, SYSTEM_SPREAD_SECONDS)).toBe(true); // 75000: 30 s
+    expect(worthSpreading({ routings: 0, seconds: 2 }, { routings: 0, seconds: 31.5 }, SYSTEM_SPREAD_SECONDS)).toBe(false);
+    expect(worthSpreading({ routings: 0, seconds: 2 }, { routings: 0, seconds: 32 }, SYSTEM_SPREAD_SECONDS)).toBe(true);
   });
 
   it("gives the same ranking when it spreads mid-run as in one thread throughout", async () => {
