@@ -159,8 +159,9 @@ export function routedEstimates(input: RoutedEstimateInput): RoutedEstimate[] {
   if (targeted.length === 0) return [];
   const ordered = [...targeted].sort((a, b) => a.returnPeriod - b.returnPeriod || a.target! - b.target!);
   const smallest = ordered[0];
-  // With a bypass the target is the flow at the point of analysis: the inflow and the bypass together.
-  const needsNone = (storm: Storm) => storm.target! * factor >= peakOf(storm.bypass ? sumHydrographs([storm.inflow, storm.bypass]) : storm.inflow) && !storm.durations;
+  // Without a pond the flow at the point of analysis is the inflow (and the bypass, with one).
+  const unheld = (storm: Storm) => peakOf(storm.bypass ? sumHydrographs([storm.inflow, storm.bypass]) : storm.inflow);
+  const needsNone = (storm: Storm) => storm.target! * factor >= unheld(storm) && !storm.durations;
 
   /** A level added above `below`, sized so the storm's peak meets its aim (none when the levels below already release more). */
   const stage = (storm: Storm, below: Part[], column: Float64Array, guess: number): { parts: Part[]; r: RouteResult; note: string | null } => {
@@ -200,7 +201,7 @@ export function routedEstimates(input: RoutedEstimateInput): RoutedEstimate[] {
     const kinds = NOTIONAL_KINDS.filter((k) => k !== "multi-stage" || ordered.length >= 3);
     if (needsNone(storm)) {
       for (const kind of kinds) {
-        results.push({ kind, storage: 0, stage: pond.pool, peak: peakOf(storm.bypass ? sumHydrographs([storm.inflow, storm.bypass]) : storm.inflow), aim: storm.target! * factor, orificeSize: 0, weirs: [], governingDuration: null, note: "target at or above the peak inflow: no storage needed" });
+        results.push({ kind, storage: 0, stage: pond.pool, peak: unheld(storm), aim: storm.target! * factor, orificeSize: 0, weirs: [], governingDuration: null, note: "target at or above the peak inflow: no storage needed" });
       }
     } else {
       const o = orificeOf(storm);
