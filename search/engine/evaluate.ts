@@ -5,7 +5,7 @@ import type { Outlet, Storm } from "../../src/model.js";
 import { routeSystemCase, type SystemRouting } from "../../src/routing/routeSystem.js";
 import { outfallRoutings, pondRoutings, systemChecks } from "../../src/assess/systemAssess.js";
 import type { OutletFile } from "../../src/case/schema.js";
-import { buildRatingTable, lazyRatingTable } from "../../src/routing/ratingTable.js";
+import { buildRatingTable, lazyRatingTable, type StageGrid } from "../../src/routing/ratingTable.js";
 import { routeSearchInflow } from "../../src/routing/durations.js";
 import { drainedStage, stormRouteOptions, type StormRouting } from "../../src/routing/routeCase.js";
 import { evaluateChecks, type Check } from "../../src/assess/checks.js";
@@ -71,6 +71,8 @@ export class Evaluator {
   private readonly drained: number;
   /** A system of ponds: each pond's evaluator (its staged starts), counting into this one. */
   private readonly pondEvaluators: (Evaluator | null)[] = [];
+  /** A system of ponds: each pond's search grid, on which its outlet is rated at every evaluation. */
+  private systemGrids: StageGrid[] | undefined;
   /** Routings of the systems the checks' variants ask for, by their outlets, most recent last. */
   private readonly systemVariants = new Map<string, SystemRouting>();
   constructor(
@@ -105,7 +107,8 @@ export class Evaluator {
     const c = this.problem.case;
     this.count(c.storms.length * outlets.length);
     if (this.problem.options.referencePath) return routeSystemCase(c, outlets);
-    return routeSystemCase(c, outlets, { linkIntervals: SEARCH_LINK_INTERVALS, grids: this.problem.system!.ponds.map((d) => d.problem.grid) });
+    this.systemGrids ??= this.problem.system!.ponds.map((d) => d.problem.grid);
+    return routeSystemCase(c, outlets, { linkIntervals: SEARCH_LINK_INTERVALS, grids: this.systemGrids });
   }
 
   /** A system routed for a check's variant, remembered by its outlets as `routeVariant` does. */
