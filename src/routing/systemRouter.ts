@@ -65,6 +65,8 @@ export interface SystemRouteOptions {
   timeConstantFraction?: number;
   /** Automatic step: fraction of a link's own time constant a step may span (LINK_TIME_CONSTANT_FRACTION). */
   linkTimeConstantFraction?: number;
+  /** The general stepper even for two ponds in a chain (which otherwise take `PairStepper`): the tests compare the two. */
+  general?: boolean;
 }
 
 /** One pond's results: a single pond's `RouteResult` (its outflow the forward flow through its own outlet) and what flowed back. */
@@ -163,21 +165,28 @@ class InflowCursor {
   }
   /** The time of the next `load` (s): a field, so that the call boxes nothing. */
   t = 0;
-  /** Value at `t` approached from the left (from the right when `right`): zero outside the points (always, with none). */
+  /**
+   * Value at `t` approached from the left (from the right when `right`): zero outside the points
+   * (always, with none). Inside them the walk needs no bounds (a point on either side of t stops it);
+   * the ends are another method's, so that this one is small enough for V8 to inline into the steppers.
+   */
   load(right: boolean): void {
+    const t = this.t;
+    if (t > this.first && t < this.last) {
+      const times = this.times;
+      let j = this.j;
+      while (times[j + 1] < t) j++;
+      while (times[j] >= t) j--;
+      this.j = j;
+      this.value = this.flows[j] + this.slopes[j] * (t - times[j]);
+    } else this.atEnds(right);
+  }
+  /** `load` at or outside the first and last points. */
+  private atEnds(right: boolean): void {
     const t = this.t;
     if (t < this.first || t > this.last) this.value = 0;
     else if (t === this.first) this.value = right ? this.flows[0] : 0;
-    else if (t === this.last) this.value = right ? 0 : this.flows[this.flows.length - 1];
-    else {
-      const times = this.times;
-      const end = times.length - 2;
-      let j = this.j;
-      while (j < end && times[j + 1] < t) j++;
-      while (j > 0 && times[j] >= t) j--;
-      this.j = j;
-      this.value = this.flows[j] + this.slopes[j] * (t - times[j]);
-    }
+    else this.value = right ? 0 : this.flows[this.flows.length - 1];
   }
   /** Sets `nextPoint` and `rate` for the time `t`. */
   advance(): void {
@@ -575,6 +584,216 @@ class SystemStepper {
   }
 }
 
+/**
+ * The stepper of the commonest system, two ponds in a chain (the upper pond, place 0, drains into the
+ * lower, place 1, which drains to the outfall): `solve` and `timeConstant` of the general stepper
+ * written out for it, the numbers of a step held in local variables instead of the state's records
+ * and written back to them when the step is solved (the driver's bookkeeping reads them there). Every
+ * operation is the general stepper's, in its order, so that both give the same bits (tests/routing/
+ * systemPair.test.ts); a term the general stepper adds that is zero in a chain of two (what flows into
+ * the upper pond from above) is left out, which changes nothing (x + 0 is x).
+ */
+class PairStepper extends SystemStepper {
+  override solve(fresh: boolean): boolean {
+    const s = this.state;
+    const index = this.index;
+    const [upper, lower] = this.tables;
+    const link = upper.link!;
+    const twoOverDt = this.twoOverDt;
+    const L = STRIDE;
+    const LK = INDEX_STRIDE;
+    this.floored = false;
+    // A step done again starts from the stages at its start, evaluated there (the general trial; rare).
+    if (!fresh) {
+      s[H] = s[H1];
+      s[L + H] = s[L + H1];
+      this.trial(false, false);
+    }
+    let floored = false;
+    let beyond = this.beyond;
+    // The stages and what the tables give there: those last computed, at the step's start.
+    let hU = s[H];
+    let hL = s[L + H];
+    let storageU = s[STORAGE];
+    let slopeU = s[SLOPE];
+    let flowU = s[FLOW];
+    let byOwnU = s[BY_OWN];
+    let byBelowU = s[BY_BELOW];
+    let storageL = s[L + STORAGE];
+    let slopeL = s[L + SLOPE];
+    let flowL = s[L + FLOW];
+    let byOwnL = s[L + BY_OWN];
+    let cellU = index[CELL];
+    let cellL = index[LK + CELL];
+    let linkCell = index[LINK_CELL];
+    const zU = upper.stage;
+    const zL = lower.stage;
+    const lastU = zU.length - 2;
+    const lastL = zL.length - 2;
+    // The step's first pass up (the general `settle(true)`): inflows at t2, known sides, residuals.
+    const cursorU = this.cursors[0];
+    const cursorL = this.cursors[1];
+    cursorU.t = this.t2;
+    cursorU.load(false);
+    s[I2] = cursorU.value;
+    const knownU = s[I1] + cursorU.value + twoOverDt * s[S1] - s[Q1];
+    let residualU = twoOverDt * storageU + flowU - knownU;
+    cursorL.t = this.t2;
+    cursorL.load(false);
+    s[L + I2] = cursorL.value;
+    const knownL = s[L + I1] + cursorL.value + twoOverDt * s[L + S1] - s[L + Q1] + s[Q1];
+    let residualL = twoOverDt * storageL + flowL - knownL + (0 - flowU);
+    let norm = residualU * residualU + residualL * residualL;
+    let converged = false;
+    let iterations = this.iterations;
+    let stepU = 0;
+    let stepL = 0;
+    for (let iteration = 0; iteration < NEWTON_ITERATIONS; iteration++) {
+      iterations++;
+      // The elimination (the general `settle`): the upper row, then the lower row with what the upper hands it.
+      const dU = twoOverDt * slopeU + byOwnU;
+      const rU = 0 - residualU;
+      let diagonalAbove = 0;
+      let rightAbove = 0;
+      if (dU !== 0) {
+        diagonalAbove = (byOwnU * byBelowU) / dU;
+        rightAbove = (byOwnU * rU) / dU;
+      }
+      const dL = twoOverDt * slopeL + byOwnL + (0 - byBelowU) + diagonalAbove;
+      const rL = rightAbove - residualL;
+      // Backtracking: the full step unless it raises the residual.
+      let lambda = 1;
+      let accepted = false;
+      let moved = 0;
+      let small = true;
+      let same = true;
+      const baseU = hU;
+      const baseL = hL;
+      stepL = dL !== 0 ? rL / dL : 0;
+      stepU = dU !== 0 ? (rU - byBelowU * stepL) / dU : 0;
+      for (let attempt = 0; attempt < 8; attempt++) {
+        // The trial (the general `trial(true, ...)`): the lower pond, then the upper.
+        moved = 0;
+        same = true;
+        let x = baseL + lambda * stepL;
+        if (x < s[L + FLOOR]) {
+          x = s[L + FLOOR];
+          floored = true;
+        }
+        hL = x;
+        s[L + H] = x;
+        let m = Math.abs(x - baseL);
+        if (m > moved) moved = m;
+        {
+          let c = cellL;
+          while (c < lastL && x > zL[c + 1]) c++;
+          while (c > 0 && x < zL[c]) c--;
+          if (c !== cellL) same = false;
+          cellL = c;
+          slopeL = lower.storageSlope[c];
+          storageL = lower.storage[c] + slopeL * (x - zL[c]);
+          const by = lower.outflowSlope![c];
+          flowL = lower.outflow![c] + by * (x - zL[c]);
+          byOwnL = by;
+          if (x > zL[lastL + 1]) beyond = true;
+        }
+        residualL = twoOverDt * storageL + flowL - knownL;
+        x = baseU + lambda * stepU;
+        if (x < s[FLOOR]) {
+          x = s[FLOOR];
+          floored = true;
+        }
+        hU = x;
+        s[H] = x;
+        m = Math.abs(x - baseU);
+        if (m > moved) moved = m;
+        {
+          let c = cellU;
+          while (c < lastU && x > zU[c + 1]) c++;
+          while (c > 0 && x < zU[c]) c--;
+          if (c !== cellU) same = false;
+          cellU = c;
+          slopeU = upper.storageSlope[c];
+          storageU = upper.storage[c] + slopeU * (x - zU[c]);
+          link.lookupIn(s, H, L + H);
+          flowU = link.q;
+          byOwnU = link.dUp;
+          byBelowU = link.dDown;
+          if (link.cell !== linkCell) same = false;
+          linkCell = link.cell;
+          if (link.beyond && x > zU[lastU + 1]) beyond = true;
+        }
+        residualU = twoOverDt * storageU + flowU - knownU;
+        residualL -= flowU;
+        const trialNorm = residualU * residualU + residualL * residualL;
+        small = !(Math.abs(residualU) > STAGE_TOLERANCE * twoOverDt * slopeU) && !(Math.abs(residualL) > STAGE_TOLERANCE * twoOverDt * slopeL);
+        if (trialNorm <= norm || moved <= NEWTON_TOLERANCE) {
+          norm = trialNorm;
+          accepted = true;
+          break;
+        }
+        lambda *= 0.5;
+      }
+      if (moved <= NEWTON_TOLERANCE || norm === 0) {
+        converged = true;
+        break;
+      }
+      if (accepted && lambda === 1 && !floored && (same || small)) {
+        converged = true;
+        break;
+      }
+    }
+    // The solved step written back to the records, as the general stepper leaves it.
+    this.iterations = iterations;
+    this.floored = floored;
+    this.beyond = beyond;
+    s[STORAGE] = storageU;
+    s[SLOPE] = slopeU;
+    s[FLOW] = flowU;
+    s[BY_OWN] = byOwnU;
+    s[BY_BELOW] = byBelowU;
+    s[RESIDUAL] = residualU;
+    s[L + STORAGE] = storageL;
+    s[L + SLOPE] = slopeL;
+    s[L + FLOW] = flowL;
+    s[L + BY_OWN] = byOwnL;
+    s[L + BY_BELOW] = 0;
+    s[L + RESIDUAL] = residualL;
+    index[CELL] = cellU;
+    index[LK + CELL] = cellL;
+    index[LINK_CELL] = linkCell;
+    return converged;
+  }
+
+  /** The general `timeConstant` for the chain of two: the upper pond's rate is its link's, the lower pond's its outlet's and the link's fall. */
+  override timeConstant(): void {
+    const s = this.state;
+    const L = STRIDE;
+    const link = this.tables[0].link!;
+    let up = s[BY_OWN];
+    let fall = -s[BY_BELOW];
+    const d = s[H] - s[L + H];
+    if (d < CHORD_DIFFERENCE && d > -CHORD_DIFFERENCE) {
+      link.lookupChord(s, L + H);
+      const chord = Math.abs(link.q) / CHORD_DIFFERENCE;
+      if (chord < up) up = chord;
+      if (chord < fall) fall = chord;
+    }
+    let tau = Infinity;
+    const rateU = 0 + this.linkWeight * up;
+    if (rateU > 0) {
+      const t = (this.tauFraction * s[SLOPE]) / rateU;
+      if (t < tau) tau = t;
+    }
+    const rateL = s[L + BY_OWN] + (0 + this.linkWeight * fall);
+    if (rateL > 0) {
+      const t = (this.tauFraction * s[L + SLOPE]) / rateL;
+      if (t < tau) tau = t;
+    }
+    this.tau = tau;
+  }
+}
+
 /** Routes one storm through a system of ponds: `inflows` by pond index (null: none). */
 export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly (Hydrograph | null)[], options: SystemRouteOptions = {}): SystemRouteResult {
   routingTally.count++;
@@ -602,7 +821,9 @@ export function routeSystem(ponds: readonly SystemRoutePond[], inflows: readonly
   }
   const tEnd = tLast + (options.maxAfterInflow ?? TEN_DAYS);
 
-  const stepper = new SystemStepper(placed, to, cursors, tauFraction, tauFraction / (options.linkTimeConstantFraction ?? LINK_TIME_CONSTANT_FRACTION));
+  // Two ponds in a chain (the commonest system) take the stepper written out for them.
+  const Stepper = n === 2 && to[0] === 1 && to[1] === -1 && options.general !== true ? PairStepper : SystemStepper;
+  const stepper = new Stepper(placed, to, cursors, tauFraction, tauFraction / (options.linkTimeConstantFraction ?? LINK_TIME_CONSTANT_FRACTION));
   const s = stepper.state;
   const drainedStorage = new Float64Array(n);
   const drained = Float64Array.from(placed, (p) => p.drainedStage);
