@@ -42,6 +42,7 @@ const cases: [string, Case][] = [
   ["an equaliser pipe", systemOf(equaliserPipe)],
   ["an orifice link from a pit", systemOf(tinyUpper(orificeLinkWithReverse))],
   ["an equaliser pipe from a pit", systemOf(tinyUpper(equaliserPipe))],
+  ["an orifice link, the lower pond listed first", systemOf({ ...orificeLinkWithReverse, ponds: [...orificeLinkWithReverse.ponds].reverse() })],
 ];
 
 const optionSets: [string, SystemRouteOptions][] = [
