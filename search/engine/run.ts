@@ -168,9 +168,10 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     if (outcome.verdicts?.some((v) => v.compliant)) compliantInHand(outcome.routings);
   };
 
-  // The existing outlet is routed and explained here while the workers score the plan.
+  // With workers, the existing outlet is routed and explained here while they score the plan; in
+  // one thread it waits until the parts have run, so that it does not delay the first compliant design.
   const planScored = scored(planning(p, options.beam, undefined, scout));
-  const baseline = assessBaseline(p);
+  let baseline = fitter.workers !== 1 ? assessBaseline(p) : undefined;
   const first = await planScored;
   const firstPlan = first.result;
   const division = partition(p, firstPlan, timed ? null : options.budget);
@@ -207,6 +208,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   for (let i = 0; i < division.count; i++) if (!options.shard || inShard(i, options.shard)) parts.push(new SearchPart(ctx, i, share));
   // The parts side by side: on workers their rounds share the pool; in this thread they take turns.
   await Promise.all(parts.map((part) => part.run()));
+  if (baseline === undefined) baseline = assessBaseline(p);
 
   // The parts' rankings merged by their verdicts; the kept designs a journal replayed are routed now
   // (only they: a gather or a resumed run does not route again every design its journals hold).

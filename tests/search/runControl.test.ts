@@ -71,7 +71,9 @@ describe("design runs: determinism, interruption and recovery", () => {
     // small-compliant at 30,000 routings spends most of its budget scoring sampled layouts (on the
     // workers, in chunks); wet-value's existing outlet has parts no option list holds, and its
     // candidates' explanations and change lists are made on the workers.
-    const work = (results: { search: Record<string, unknown>; candidates: Record<string, unknown>[] }) => ({
+    const work = (results: { search: Record<string, unknown>; candidates: Record<string, unknown>[]; baseline?: unknown }) => ({
+      // The existing outlet's row: routed while the workers score the plan, after the parts in one thread.
+      baseline: JSON.stringify(results.baseline ?? null),
       routings: results.search.routings,
       evaluations: results.search.evaluations,
       planned: results.search.layoutsPlanned,
