@@ -205,7 +205,7 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
       });
     },
   };
-  for (let i = 0; i < division.count; i++) if (!options.shard || inShard(i, options.shard)) parts.push(new SearchPart(ctx, i, share));
+  for (let i = 0; i < division.count; i++) if (!options.shard || inShard(i, division.count, options.shard)) parts.push(new SearchPart(ctx, i, share));
   // The parts side by side: on workers their rounds share the pool; in this thread they take turns.
   await Promise.all(parts.map((part) => part.run()));
   if (baseline === undefined) baseline = assessBaseline(p);
