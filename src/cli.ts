@@ -190,7 +190,7 @@ searchOptions(
   (command) =>
     command
       .option("--resume", "with --out: replay the layouts the directory's journal holds and go on")
-      .option("--shard <k/n>", "with --out: fit only shard k of n of the layouts (combine the shards with outfit gather)")
+      .option("--shard <k/n>", "with --out: fit only shard k of n of the layouts, an intermediate result (combine the shards with outfit gather, which adds the baseline, the moves that relax each binding check and the spread)")
       .option("--progress", "show progress on stderr (the default; --quiet turns it off)")
       .option("--size-pond", "also size the pond within the case's site limits: the depth outfit pond chooses, then the smallest pond on the site's size step for which an outlet complies (--budget is per size tried; --out writes pond-and-outlet.json)"),
 )
@@ -240,7 +240,9 @@ searchOptions(
     "after",
     helpAfter(`
 The shards' journals are replayed into the single run's schedule; a layout no shard reached is fitted
-here (the summary says how many came from the journals).
+here (the summary says how many came from the journals). The gather then does what the shards left
+to it: it routes and assesses the existing outlet (row 0), explains the candidates shown (the moves
+that relax each binding check) and routes their spread.
 
 Examples:
   outfit gather cases/demo/case.json out/shard-1 out/shard-2 out/shard-3 --budget 90000 --out out/all

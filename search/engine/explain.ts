@@ -155,13 +155,29 @@ function outletMovables(p: SearchProblem, file: OutletFile, outlet: Outlet, rout
   return movables;
 }
 
-function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): string[] {
-  const lines: string[] = [];
+/**
+ * The head of an explanation: the binding check and why it binds, from the routed design alone (no
+ * routing; the moves that relax it follow in a full explanation). Empty when no check applies.
+ */
+export function bindingLines(p: SearchProblem, c: RoutedOutlet): string[] {
   const binding = c.assessment.binding;
-  if (!binding) return ["no checks apply"];
+  if (!binding) return [];
   const failing = c.assessment.checks.filter((check) => !check.passed);
-  lines.push(`binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`);
-  lines.push(`why: ${ruleOf(binding).why(binding)}`);
+  return [
+    `binding: ${checkText(p, binding)}${c.assessment.compliant ? "" : ` (${failing.length} check${failing.length > 1 ? "s" : ""} fail)`}`,
+    `why: ${ruleOf(binding).why(binding)}`,
+  ];
+}
+
+/** An explanation without the moves (what a shard gives; the gather explains in full). */
+export function explainBriefly(p: SearchProblem, c: RoutedOutlet): string[] {
+  return c.assessment.binding ? bindingLines(p, c) : ["no checks apply"];
+}
+
+function explainMoves(p: SearchProblem, c: RoutedOutlet, movables: Movable[]): string[] {
+  const binding = c.assessment.binding;
+  if (!binding) return explainBriefly(p, c);
+  const lines = bindingLines(p, c);
   const unit = p.case.units === "US" ? "ft" : "m";
   const moves: { text: string; gain: number; breaks: boolean }[] = [];
   for (const m of movables) {

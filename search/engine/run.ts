@@ -10,7 +10,8 @@
 // the same seed and routing budget give the same ranking whatever the number of workers; a shard
 // runs a fixed share of the parts, doing exactly the work the single run does for them; and a
 // resumed or gathered run replays the journals' fits into the very same schedule, fitting only what
-// no journal holds.
+// no journal holds. A shard's run is intermediate: it leaves to the gather what only the gathered
+// ranking needs (the existing outlet's assessment, the moves that relax a binding check, the spread).
 import type { SearchProblem } from "./problem.js";
 import { planning, type LayoutPlan, type ScoredLayout } from "./layouts.js";
 import { fitAndRoute, type FitOutcome } from "./fitJob.js";
@@ -18,7 +19,7 @@ import { layoutKey } from "./layout.js";
 import { journalable, screenKey, scoreWith, type ChunkScorer, type ScoreOutcome, type Scored, type Scoring } from "./scoring.js";
 import { compareCandidates, compareVerdicts, routedSpread, finalizeCandidate, markPareto, type Candidate } from "./candidate.js";
 import { designOutletFile } from "./layout.js";
-import { explainInfeasible } from "./explain.js";
+import { explainBriefly, explainInfeasible } from "./explain.js";
 import { assessBaseline, type Baseline } from "./baseline.js";
 import { InlineFitter } from "./fitter.js";
 import { inShard, partition } from "./partition.js";
@@ -68,8 +69,22 @@ export interface SearchRun {
   plan: LayoutPlan;
   /** When nothing is compliant: why, in engineering terms. */
   infeasible: string[];
-  /** The case's own outlet routed and assessed (value engineering), or null. */
+  /** The case's own outlet routed and assessed (value engineering), or null (none, or a shard's run: left to the gather). */
   baseline: Baseline | null;
+}
+
+/**
+ * What a shard's run leaves to the gather, which ranks every shard's designs together: the existing
+ * outlet's assessment, the moves that relax each shown candidate's binding check (its explanation
+ * keeps the binding check and why) and each one's spread. Only the gathered ranking needs them, and
+ * each shard would route them for a ranking of its own parts alone.
+ */
+export const RELAX_WHEN_GATHERED = "relax: explained when gathered (outfit gather)";
+
+/** What a shard's run left to the gather, by the names `--json` gives them (`search.leftToGather`). */
+export function leftToGather(p: SearchProblem, run: SearchRun): string[] {
+  if (!run.shard) return [];
+  return [...(p.existing ? ["baseline"] : []), "relax", "spread"];
 }
 
 /**
@@ -138,6 +153,8 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
     return done;
   };
   const timed = options.timeBudget !== undefined;
+  // A shard's run is intermediate: what only the gathered ranking needs is left to the gather.
+  const intermediate = options.shard !== undefined;
 
   let firstCompliantAt: number | null = null;
   let firstCompliantRoutings: number | null = null;
@@ -156,7 +173,9 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   const prefit = new Map<string, FitOutcome>();
   let scouts = 0;
   const scout = (batch: ScoredLayout[]) => {
-    if (fitter.workers !== 1 || firstCompliantAt !== null || scouts >= SCOUTS || options.interrupt?.()) return;
+    // Not in a shard: a batch run, whose first compliant design is a statistic, and a scouted layout
+    // may be another shard's (a fit done for nothing).
+    if (intermediate || fitter.workers !== 1 || firstCompliantAt !== null || scouts >= SCOUTS || options.interrupt?.()) return;
     let best: ScoredLayout | null = null;
     for (const s of batch) if (s.score <= SCOUT_SCORE && (best === null || s.score < best.score)) best = s;
     if (!best) return;
@@ -170,8 +189,9 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
 
   // With workers, the existing outlet is routed and explained here while they score the plan; in
   // one thread it waits until the parts have run, so that it does not delay the first compliant design.
+  // Not in a shard: its gather does it.
   const planScored = scored(planning(p, options.beam, undefined, scout));
-  let baseline = fitter.workers !== 1 ? assessBaseline(p) : undefined;
+  let baseline = intermediate ? null : fitter.workers !== 1 ? assessBaseline(p) : undefined;
   const first = await planScored;
   const firstPlan = first.result;
   const division = partition(p, firstPlan, timed ? null : options.budget);
@@ -220,10 +240,15 @@ export async function runSearch(p: SearchProblem, options: RunOptions): Promise<
   markPareto(ranked);
   markVariants(ranked);
   const shown = ranked.slice(0, options.top);
-  // Every design shown says how it fares under the spread (ranked by robustness, each has it already).
-  for (const c of shown) c.spread ??= routedSpread(p, c);
-  const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
-  shown.forEach((c, i) => (c.explanation = explanations[i]));
+  if (intermediate) {
+    // A shard's: the binding check and why; the rest is the gather's (RELAX_WHEN_GATHERED).
+    for (const c of shown) c.explanation = c.assessment.binding ? [...explainBriefly(p, c), RELAX_WHEN_GATHERED] : explainBriefly(p, c);
+  } else {
+    // Every design shown says how it fares under the spread (ranked by robustness, each has it already).
+    for (const c of shown) c.spread ??= routedSpread(p, c);
+    const explanations = await fitter.explain(shown.map((c) => ({ layout: c.layout, vars: c.vars })));
+    shown.forEach((c, i) => (c.explanation = explanations[i]));
+  }
   const success = ranked.some((c) => c.assessment.compliant);
   const stop = stopWords(parts.map((part) => part.stop!));
   const sum = (of: (part: SearchPart) => number) => parts.reduce((n, part) => n + of(part), 0);

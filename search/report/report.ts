@@ -3,7 +3,7 @@
 import { dirname } from "node:path";
 import { rebaseCase } from "../../src/case/rebase.js";
 import type { SearchProblem } from "../engine/problem.js";
-import type { SearchRun } from "../engine/run.js";
+import { leftToGather, type SearchRun } from "../engine/run.js";
 import type { Candidate, RoutedOutlet } from "../engine/candidate.js";
 import { stormJson, checkJson } from "../../src/report/json.js";
 import { wallJson, wallLines } from "../../src/report/wall.js";
@@ -112,7 +112,7 @@ export function designJson(p: SearchProblem, run: SearchRun, top: number) {
       ...(run.budget !== Infinity ? { budget: run.budget } : {}),
       ...(run.timeBudget !== null ? { timeBudget: run.timeBudget } : {}),
       workers: run.workers,
-      ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}` } : {}),
+      ...(run.shard ? { shard: `${run.shard.index}/${run.shard.count}`, leftToGather: leftToGather(p, run) } : {}),
       layoutsFromJournal: run.layoutsFromJournal,
       routingsFromJournal: run.routingsFromJournal,
       ...(run.bestFoundAfter !== null ? { bestFoundAfter: run.bestFoundAfter } : {}),
@@ -146,6 +146,7 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
   const f = formatter(p.case.units);
   const w = (text: string, indent = 4) => wrap(text, layout.width, indent);
   const lines: string[] = [w(`outfit design: ${p.case.name} (${p.case.units} units)`), ...hydrologyLines(p.case, layout), ...governingLimitLines(p.case).map((line) => w(line, 4)), ""];
+  if (run.shard) lines.push(w(shardWords(p, run.shard), 2), "");
   const shown = run.candidates.slice(0, top);
   const stormNames = p.targeted.map((s) => s.name);
   const freeboardStorm = p.case.criteria.freeboardStorm;
@@ -253,6 +254,15 @@ export function designText(p: SearchProblem, run: SearchRun, top: number, layout
     w(`Caution: ${CAUTION}`, 2),
   );
   return lines.join("\n");
+}
+
+/** What a shard's output is, and what it leaves to the gather (`leftToGather`). */
+export function shardWords(p: SearchProblem, shard: { index: number; count: number }): string {
+  const existing = p.existing ? `the existing ${p.system ? "system" : "outlet"} routed and assessed (row 0), ` : "";
+  return (
+    `Shard ${shard.index}/${shard.count} of a divided search: an intermediate result, ranked among this shard's parts alone. ` +
+    `outfit gather with every shard's output directory gives the ranking of one run and adds what a shard leaves out: ${existing}the moves that relax each candidate's binding check, and each one's spread.`
+  );
 }
 
 /** "2.4 (12.0 %)", negative when the alternative costs more. */

@@ -179,9 +179,20 @@ describe("design runs: determinism, interruption and recovery", () => {
       const out = dir(`shard-${k}`);
       const r = outfit("design", CASE, "--budget", budget, "--shard", `${k}/3`, "--workers", "1", "--quiet", "--out", out, "--json");
       expect(r.code).toBe(0);
-      const search = JSON.parse(r.stdout).search;
+      const results = JSON.parse(r.stdout);
+      const search = results.search;
       expect(search.shard).toBe(`${k}/3`);
       expect(search.partsRun).toBe(1);
+      // An intermediate result, and says so: the existing outlet, the moves that relax each binding
+      // check and the spread are left to the gather (the binding check and why are given).
+      expect(search.leftToGather).toEqual(["baseline", "relax", "spread"]);
+      expect(results.baseline).toBeUndefined();
+      for (const c of results.candidates) {
+        expect(c.spread).toBeUndefined();
+        expect(c.binding.why).not.toBe("");
+        expect(c.explanation.at(-1)).toBe("relax: explained when gathered (outfit gather)");
+      }
+      expect(readFileSync(join(out, "summary.txt"), "utf8")).toMatch(new RegExp(`Shard ${k}/3 of a divided search: an intermediate result, ranked among this shard's parts alone`));
       return out;
     });
     const keys = shards.map(journalKeys);
@@ -201,6 +212,12 @@ describe("design runs: determinism, interruption and recovery", () => {
     expect(results.search.routingsFromJournal).toBe(results.search.routings);
     expect(oneRun.search.routingsFromJournal).toBe(0);
     expect(ranking(results)).toEqual(ranking(oneRun));
+    // The gather gives what the shards left to it, as the single run does.
+    expect(results.search.leftToGather).toBeUndefined();
+    expect(oneRun.baseline).toBeDefined();
+    expect(results.baseline).toEqual(oneRun.baseline);
+    expect(results.candidates.map((c: { explanation: string[] }) => c.explanation)).toEqual(oneRun.candidates.map((c: { explanation: string[] }) => c.explanation));
+    expect(results.candidates.map((c: { spread: unknown }) => c.spread)).toEqual(oneRun.candidates.map((c: { spread: unknown }) => c.spread));
   });
 
   it("a gather fits what a missing shard would have, and nothing else", () => {

@@ -2,7 +2,8 @@
 // at once, so that a first compliant design is in hand before the whole plan is scored; the part
 // that fits the layout later takes that very fit. The control is the same run with scouting off (a
 // fitter that fits in this thread but says it has two workers, as worker pools do not scout): the
-// same ranking, routings and journal entries, and a first compliant design found later.
+// same ranking, routings and journal entries, and a first compliant design found later. A shard's run
+// (a batch job) does not scout.
 import { describe, expect, it } from "vitest";
 import { loadCase } from "../../src/case/load.js";
 import { buildProblem } from "../../search/engine/problem.js";
@@ -67,4 +68,16 @@ describe("scouting while the first plan is scored", () => {
       expect(byKey(journals[0])).toEqual(byKey(journals[1]));
     }, 120_000);
   }
+
+  it("a shard does not scout: its first compliant design comes after the plan (a scouted layout may be another shard's)", async () => {
+    const loaded = loadCase("cases/demo/case.json");
+    const p = buildProblem(loaded.case, loaded.data, {});
+    const options = { seed: "outfit", budget: 6000, top: 5, starts: 3, beam: 3 };
+    const plan = scoreHere(p, planning(p, 3));
+    const whole = await runSearch(p, options);
+    const shard = await runSearch(p, { ...options, shard: { index: 1, count: 1 } });
+    expect(whole.routingsToFirstCompliant!).toBeLessThan(plan.routings);
+    expect(shard.routingsToFirstCompliant!).toBeGreaterThan(plan.routings);
+    expect(shard.candidates.map((c) => c.cost)).toEqual(whole.candidates.map((c) => c.cost));
+  }, 120_000);
 });

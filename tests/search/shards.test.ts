@@ -1,7 +1,13 @@
 // Shards: how the parts of a search are dealt to `--shard k/n` runs (search/engine/partition.ts,
-// `shardOf`): a property over every count of parts and shards a run can have.
+// `shardOf`), and what a shard's run leaves to the gather. The dealing is a property over every count
+// of parts and shards a run can have; on a bundled case, n shards gathered give exactly one run's
+// ranking (and its explanations and baseline, which the shards leave to the gather).
 import { describe, expect, it } from "vitest";
+import { loadCase } from "../../src/case/load.js";
+import { buildProblem } from "../../search/engine/problem.js";
 import { MAX_PARTS, inShard, shardOf } from "../../search/engine/partition.js";
+import { RELAX_WHEN_GATHERED, runSearch, type JournalEntry, type SearchRun } from "../../search/engine/run.js";
+import type { ScoreOutcome } from "../../search/engine/scoring.js";
 
 /** The parts (from 0) each shard (from 0) runs. */
 function shares(parts: number, shards: number): number[][] {
@@ -55,4 +61,71 @@ describe("dealing the parts to shards", () => {
     ]);
     expect(shares(7, 3)).toEqual([[0, 5], [1, 4], [2, 3, 6]]);
   });
+});
+
+describe("shards gathered on a bundled case", () => {
+  const loaded = loadCase("cases/demo/case.json");
+  const problem = buildProblem(loaded.case, loaded.data);
+  // 30,000 routings: six parts, so two shards run three each and three shards two each.
+  const options = { seed: "shards", budget: 30_000, top: 5, starts: 3, beam: 3 };
+  const ranking = (r: SearchRun) => r.candidates.map((c) => `${JSON.stringify(c.file)} ${c.cost}`);
+  const shown = (r: SearchRun) => r.candidates.slice(0, options.top);
+  let single: { run: SearchRun; keys: string[] } | undefined;
+  const one = async () => {
+    if (!single) {
+      const keys: string[] = [];
+      const run = await runSearch(problem, { ...options, onLayout: (e) => keys.push(e.key) });
+      single = { run, keys };
+    }
+    return single;
+  };
+
+  for (const count of [2, 3]) {
+    it(`${count} shards: together the single run's layouts, gathered its ranking; each leaves the baseline, the moves and the spread to the gather`, async () => {
+      const { run, keys } = await one();
+      expect(run.parts).toBe(6);
+      expect(run.baseline).not.toBeNull();
+      const done = new Map<string, JournalEntry>();
+      const screens = new Map<string, ScoreOutcome>();
+      const held: string[][] = [];
+      for (let index = 1; index <= count; index++) {
+        const own: string[] = [];
+        const shard = await runSearch(problem, {
+          ...options,
+          shard: { index, count },
+          onLayout: (e) => {
+            own.push(e.key);
+            done.set(e.key, e);
+          },
+          onScreen: (key, outcome) => screens.set(key, outcome),
+        });
+        held.push(own);
+        expect(shard.partsRun).toBe(6 / count);
+        // What only the gathered ranking needs is left to the gather: the existing outlet, the moves
+        // that relax each binding check (the check and why are given), the spread.
+        expect(shard.baseline).toBeNull();
+        expect(shard.candidates.length).toBeGreaterThan(0);
+        for (const c of shown(shard)) {
+          expect(c.spread).toBeNull();
+          expect(c.explanation[0]).toMatch(/^binding: /);
+          expect(c.explanation[1]).toMatch(/^why: /);
+          expect(c.explanation.slice(2)).toEqual([RELAX_WHEN_GATHERED]);
+        }
+      }
+      // The shares do not overlap, and together they are the single run's layouts.
+      expect(new Set(held.flat()).size).toBe(held.flat().length);
+      for (const own of held) expect(own.length).toBeGreaterThan(0);
+      expect([...held.flat()].sort()).toEqual([...keys].sort());
+      const gathered = await runSearch(problem, { ...options, done, screens });
+      expect(gathered.layoutsFromJournal).toBe(gathered.layoutsFitted);
+      expect(gathered.routingsFromJournal).toBe(gathered.routings);
+      expect(ranking(gathered)).toEqual(ranking(run));
+      // The gather explains, routes the spread and assesses the existing outlet as the single run does.
+      expect(shown(gathered).map((c) => c.explanation)).toEqual(shown(run).map((c) => c.explanation));
+      expect(shown(gathered).some((c) => c.explanation.some((line) => line.startsWith("relax: ") && line !== RELAX_WHEN_GATHERED))).toBe(true);
+      expect(shown(gathered).map((c) => c.spread?.reserve)).toEqual(shown(run).map((c) => c.spread?.reserve));
+      expect(shown(gathered).every((c) => c.spread !== null)).toBe(true);
+      expect(gathered.baseline?.explanation).toEqual(run.baseline!.explanation);
+    }, 300_000);
+  }
 });
