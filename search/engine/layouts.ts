@@ -578,7 +578,8 @@ function* systemPlanning(p: SearchProblem, beam: number, families?: ReadonlySet<
   const ponds = p.system!.ponds;
   const results = new Map<string, ScoredLayout>();
   function* scoreLayouts(layouts: Layout[], kind: "staged" | "existing"): Generator<ScoreChunk[], void, ScoreOutcome[]> {
-    const fresh = layouts.filter((l, i) => !results.has(layoutKey(l)) && layouts.findIndex((m) => layoutKey(m) === layoutKey(l)) === i && (!families || families.has(familyOf(l))));
+    const keys = layouts.map(layoutKey);
+    const fresh = layouts.filter((l, i) => !results.has(keys[i]) && keys.indexOf(keys[i]) === i && (!families || families.has(familyOf(l))));
     if (fresh.length === 0) return;
     const items = fresh.map((l): ScoreItem => (kind === "existing" ? { kind: "existing", layout: layoutIndex(p, l) } : stagedItem(p, l)));
     const outcomes = yield chunked(items, LAYOUT_CHUNK);
