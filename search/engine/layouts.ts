@@ -395,12 +395,30 @@ export function stagedScore(p: SearchProblem, layout: Layout, evaluator: Evaluat
   return { score: e.objective, cost: p.system ? layoutCost(p, layout) : outletCost(e.outlet, p.costs, p.case.criteria.buildability.levelSpacing) };
 }
 
-/** Cost of a layout (elevations do not change it; placeholder elevations one step apart). */
+/** Layout costs kept per problem, by the layout's places in its option lists (`layoutIndex`). */
+const knownCosts = new WeakMap<SearchProblem, Map<string, number>>();
+/** Most costs kept per problem (a long time budget samples without end; each is about 100 bytes). */
+const KNOWN_COSTS = 50_000;
+
+/**
+ * Cost of a layout (elevations do not change it; placeholder elevations one step apart). Kept by the
+ * layout's parts, so the sampler's draws, the neighbours and a replayed run do not build the same
+ * outlet again.
+ */
 export function layoutCost(p: SearchProblem, layout: Layout): number {
   if (p.system) return p.system.ponds.reduce((sum, d, i) => sum + layoutCost(d.problem, layout.ponds![i]), 0);
+  let known = knownCosts.get(p);
+  if (!known) knownCosts.set(p, (known = new Map()));
+  const index = layoutIndex(p, layout);
+  const key = `${index.levels.join(",")}|${index.riser}|${index.barrel}`;
+  const kept = known.get(key);
+  if (kept !== undefined) return kept;
   const n = variableCount(p, layout);
   const vars = Array.from({ length: n }, (_, i) => p.floor + (i + 1) * p.levelGapM);
-  return outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs, p.case.criteria.buildability.levelSpacing);
+  const cost = outletCost(designOutlet(p, designOutletFile(p, layout, vars)), p.costs, p.case.criteria.buildability.levelSpacing);
+  if (known.size >= KNOWN_COSTS) known.clear();
+  known.set(key, cost);
+  return cost;
 }
 
 /** Free flow of a part with its invert or crest at 0 under a head (m3/s), with the case's coefficients. */
