@@ -193,6 +193,12 @@ describe("design runs: determinism, interruption and recovery", () => {
         expect(c.explanation.at(-1)).toBe("relax: explained when gathered (outfit gather)");
       }
       expect(readFileSync(join(out, "summary.txt"), "utf8")).toMatch(new RegExp(`Shard ${k}/3 of a divided search: an intermediate result, ranked among this shard's parts alone`));
+      if (k === 1) {
+        // So does the report on its results directory.
+        const md = join(out, "report.md");
+        expect(outfit("report", out, "--format", "md", "--out", md).code).toBe(0);
+        expect(readFileSync(md, "utf8")).toContain("1/3 of a divided search: an intermediate result, ranked among its own parts alone; outfit gather with every shard's results directory gives the ranking of one run and adds the existing outlet routed and assessed, the moves that relax each candidate's binding check and each candidate's spread.");
+      }
       return out;
     });
     const keys = shards.map(journalKeys);

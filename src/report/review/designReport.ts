@@ -142,8 +142,17 @@ function runFacts(run: DesignRun, candidates: string): Block {
       ["Candidates", candidates],
       ["Search stopped because", s.stoppedBecause],
       ["Search effort", `${s.layouts} layouts, ${s.routings} routings, ${trimNumber(s.seconds, 1)} s, seed ${String(s.seed)}`],
+      ...(s.shard ? [["Shard", shardFact(s.shard, s.leftToGather ?? [])] as [string, string]] : []),
     ],
   };
+}
+
+/** A shard's run in the facts: an intermediate result, and what outfit gather adds (`search.leftToGather`). */
+function shardFact(shard: string, left: readonly string[]): string {
+  const words: Record<string, string> = { baseline: "the existing outlet routed and assessed", relax: "the moves that relax each candidate's binding check", spread: "each candidate's spread" };
+  const added = left.map((key) => words[key] ?? key);
+  const list = added.length > 1 ? `${added.slice(0, -1).join(", ")} and ${added[added.length - 1]}` : added.join("");
+  return `${shard} of a divided search: an intermediate result, ranked among its own parts alone; outfit gather with every shard's results directory gives the ranking of one run${list ? ` and adds ${list}` : ""}.`;
 }
 
 export function designReport(run: DesignRun, routed: readonly RoutedCandidate[], inputs: ReportInputs): ReportDocument {

@@ -59,6 +59,9 @@ export const designResultsSchema = z.looseObject({
     routings: z.number(),
     seconds: z.number(),
     seed: z.union([z.number(), z.string()]),
+    /** A shard's run (`design --shard k/n`): "k/n", and what it left to the gather. */
+    shard: z.string().optional(),
+    leftToGather: z.array(z.string()).optional(),
   }),
   baseline: baselineSchema.optional(),
   candidates: z.array(candidateSchema).min(1),
